@@ -1,0 +1,82 @@
+/**
+ * The `parley` command line (../shared/contract/cli.md). Each command lives in `commands/<name>.ts`
+ * and exports `run(args, io)` returning the exit code; this file only dispatches and maps errors.
+ */
+import { readFileSync } from 'node:fs';
+import { CliError, EXIT_BAD_INPUT, printJson, type CliIo } from './io.ts';
+
+type CommandModule = { run(args: string[], io: CliIo): Promise<number> };
+
+/** Command name → summary and lazy loader (lazy so `parley decode` does not load the simulator). */
+export const commands: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
+  // One line per command, in the order of ../shared/contract/cli.md; each module is `commands/<name>.ts`.
+};
+
+export function version(): string {
+  const pkg = JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string };
+  return pkg.version;
+}
+
+function helpText(): string {
+  const width = Math.max(...Object.keys(commands).map((name) => name.length));
+  const lines = Object.entries(commands).map(([name, c]) => `  ${name.padEnd(width)}  ${c.summary}`);
+  return [
+    'parley — USB Power Delivery codec, rules, simulator, trace analysis and test vectors',
+    '',
+    'Usage: parley <command> [options]   (from the repository: npm run -s parley -- <command> …)',
+    '',
+    'Commands:',
+    ...lines,
+    '',
+    'Options for every command: --json (one JSON document on stdout), --help',
+    'Exit codes: 0 ran, 1 checks failed (run, --fail-on), 2 bad input or usage.',
+    '',
+  ].join('\n');
+}
+
+/** Runs one command line; never throws, never prints a stack trace. */
+export async function runCli(argv: string[], io: CliIo): Promise<number> {
+  const [name, ...rest] = argv;
+  const json = rest.includes('--json');
+  if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
+    io.stdout(helpText());
+    return 0;
+  }
+  if (name === '--version' || name === '-v') {
+    io.stdout(`${version()}\n`);
+    return 0;
+  }
+  try {
+    const command = commands[name];
+    if (!command) throw new CliError('usage', `unknown command "${name}"; run "parley --help" for the list`);
+    const module = await command.load();
+    return await module.run(rest, io);
+  } catch (error) {
+    const cliError =
+      error instanceof CliError
+        ? error
+        : new CliError('usage', error instanceof Error ? error.message : String(error));
+    const { code, message, where } = cliError;
+    io.stderr(`parley ${name}: ${message}\n`);
+    if (json) printJson(io, { ok: false, error: { code, message, ...where } });
+    return EXIT_BAD_INPUT;
+  }
+}
+
+const isEntry = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/'));
+if (isEntry || process.env.PARLEY_CLI_ENTRY === '1') {
+  const io: CliIo = {
+    stdout: (text) => process.stdout.write(text),
+    stderr: (text) => process.stderr.write(text),
+    isTty: Boolean(process.stdout.isTTY),
+    cwd: process.cwd(),
+    readStdin: async () => {
+      const chunks: Buffer[] = [];
+      for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
+      return Buffer.concat(chunks).toString('utf8');
+    },
+  };
+  runCli(process.argv.slice(2), io).then((code) => {
+    process.exitCode = code;
+  });
+}

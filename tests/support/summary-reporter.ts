@@ -1,0 +1,21 @@
+import type { Reporter, TestModule } from 'vitest/node';
+
+/** Ends every run with the plain closing line `Tests: N passed, M failed[, K skipped]`. */
+export default class SummaryReporter implements Reporter {
+  onTestRunEnd(testModules: ReadonlyArray<TestModule>): void {
+    let passed = 0;
+    let failed = 0;
+    let skipped = 0;
+    for (const module of testModules) {
+      if (module.state() === 'failed' && [...module.children.allTests()].length === 0) failed += 1;
+      for (const test of module.children.allTests()) {
+        const state = test.result().state;
+        if (state === 'passed') passed += 1;
+        else if (state === 'failed') failed += 1;
+        else skipped += 1;
+      }
+    }
+    const tail = skipped > 0 ? `, ${skipped} skipped` : '';
+    process.stdout.write(`\nTests: ${passed} passed, ${failed} failed${tail}\n`);
+  }
+}
