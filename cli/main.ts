@@ -10,6 +10,8 @@ type CommandModule = { run(args: string[], io: CliIo): Promise<number> };
 /** Command name → summary and lazy loader (lazy so `parley decode` does not load the simulator). */
 export const commands: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
   // One line per command, in the order of ../shared/contract/cli.md; each module is `commands/<name>.ts`.
+  run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
+  schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
 };
 
 export function version(): string {

@@ -107,7 +107,13 @@ export interface OtherObject {
   [field: string]: unknown;
 }
 
-export type DataObject = SourcePdo | SinkPdo | Rdo | OtherObject;
+/** An object the codec cannot read further (a reserved APDO type, VDOs, test data): only `raw`. */
+export interface RawObject {
+  kind: 'raw';
+  raw: string;
+}
+
+export type DataObject = SourcePdo | SinkPdo | Rdo | RawObject | OtherObject;
 
 export interface Message {
   sop: Sop;

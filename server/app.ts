@@ -1,0 +1,123 @@
+import express, { type Express } from 'express';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import helmet from 'helmet';
+import compression from 'compression';
+import cookieParser from 'cookie-parser';
+import { pinoHttp } from 'pino-http';
+import pino from 'pino';
+import { RequestContext } from '@mikro-orm/core';
+import type { AppDeps, BearerVerifier, Clock, RateLimitOptions } from './context.ts';
+import { systemClock } from './context.ts';
+import type { Orm } from './db/orm.ts';
+import type { Mailer } from './mail/mailer.ts';
+import type { RouteDef } from './route-def.ts';
+import { errorMiddleware, notFound } from './errors.ts';
+import { buildApiRouter, routeTable } from './routes.ts';
+
+export interface AppOptions {
+  orm: Orm;
+  mailer: Mailer;
+  secret: string;
+  publicUrl: string;
+  clock?: Clock;
+  /** Folder of the built client (`vite build`); when missing the app serves the API only. */
+  distDir?: string;
+  production?: boolean;
+  logger?: pino.Logger;
+  /** Log one line per request (off in tests). */
+  logRequests?: boolean;
+  /** JSON bodies larger than this get 413. */
+  jsonLimit?: string;
+  rateLimits?: Partial<AppDeps['rateLimits']>;
+  verifyBearer?: BearerVerifier;
+  /** Defaults to the full route table; tests may pass their own. */
+  routes?: readonly RouteDef[];
+}
+
+const fifteenMinutesMs = 15 * 60_000;
+const defaultLogin: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 10 };
+const defaultForgot: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 5 };
+
+/** Only our own origin: no CDN, no wildcard. Monaco's workers and charts need blob: and data:. */
+export const contentSecurityPolicy = {
+  defaultSrc: ["'self'"],
+  scriptSrc: ["'self'"],
+  styleSrc: ["'self'", "'unsafe-inline'"],
+  imgSrc: ["'self'", 'data:', 'blob:'],
+  fontSrc: ["'self'", 'data:'],
+  workerSrc: ["'self'", 'blob:'],
+  connectSrc: ["'self'"],
+  objectSrc: ["'none'"],
+  baseUri: ["'self'"],
+  formAction: ["'self'"],
+  frameAncestors: ["'none'"],
+};
+
+export function createApp(options: AppOptions): Express {
+  const logger = options.logger ?? pino({ level: 'silent' });
+  const deps: AppDeps = {
+    orm: options.orm,
+    mailer: options.mailer,
+    clock: options.clock ?? systemClock,
+    secret: options.secret,
+    publicUrl: options.publicUrl.replace(/\/+$/, ''),
+    production: options.production ?? false,
+    logger,
+    rateLimits: { login: options.rateLimits?.login ?? defaultLogin, forgot: options.rateLimits?.forgot ?? defaultForgot },
+    verifyBearer: options.verifyBearer,
+  };
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: contentSecurityPolicy } }));
+  app.use(compression());
+  if (options.logRequests) {
+    // Method, path and status only: headers carry session cookies and tokens.
+    app.use(
+      pinoHttp({
+        logger,
+        serializers: {
+          req: (req: { method: string; url: string }) => ({ method: req.method, url: req.url.split('?')[0] }),
+          res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+        },
+      }),
+    );
+  }
+  app.use((_req, _res, next) => RequestContext.create(options.orm.em, next));
+  app.use(cookieParser());
+  app.use('/api', express.json({ limit: options.jsonLimit ?? '1mb' }));
+
+  app.use(buildApiRouter(options.routes ?? routeTable, deps));
+  app.use('/api', (req) => {
+    throw notFound(`No API route ${req.method} ${req.originalUrl.split('?')[0]}`, 'no_route');
+  });
+
+  const distDir = options.distDir;
+  const indexFile = distDir ? join(distDir, 'index.html') : undefined;
+  if (distDir && indexFile && existsSync(indexFile)) {
+    // Vite names assets by content hash, so a year and `immutable` is safe; index.html is always revalidated.
+    app.use('/assets', express.static(join(distDir, 'assets'), { immutable: true, maxAge: '365d', index: false, fallthrough: false }));
+    app.use(
+      express.static(distDir, {
+        index: false,
+        setHeaders: (res) => res.setHeader('Cache-Control', 'no-cache'),
+      }),
+    );
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(indexFile);
+    });
+  } else {
+    app.get('/{*splat}', (_req, res) => {
+      res.status(404).type('text/plain').send('Parley API server: the client is not built (run `npm run build`).\n');
+    });
+  }
+
+  app.use((req) => {
+    throw notFound(`Nothing at ${req.method} ${req.path}`);
+  });
+  app.use(errorMiddleware(logger));
+  return app;
+}

@@ -1,0 +1,49 @@
+import type { Logger } from 'pino';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
+import type { Orm } from './db/orm.ts';
+import type { IUser } from './db/entities.ts';
+import type { Mailer } from './mail/mailer.ts';
+
+export interface Clock {
+  now(): Date;
+}
+
+export const systemClock: Clock = { now: () => new Date() };
+
+export interface RateLimitOptions {
+  windowMs: number;
+  limit: number;
+}
+
+/**
+ * Resolves an `Authorization: Bearer <token>` header to a user, for CI tokens. Without one the
+ * server accepts session cookies only and answers a bearer token with 401.
+ */
+export type BearerVerifier = (token: string, em: EntityManager) => Promise<IUser | null>;
+
+/** Everything a route handler may use besides the request: injected so tests can swap each part. */
+export interface AppDeps {
+  orm: Orm;
+  mailer: Mailer;
+  clock: Clock;
+  secret: string;
+  /** Base of links in mail, without a trailing slash, e.g. `http://localhost:3000`. */
+  publicUrl: string;
+  /** Secure cookies and no development fallbacks. */
+  production: boolean;
+  logger: Logger;
+  rateLimits: { login: RateLimitOptions; forgot: RateLimitOptions };
+  verifyBearer?: BearerVerifier;
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Locals {
+      /** The signed-in user, set by the authorize middleware. */
+      user?: IUser;
+      /** Parsed body, query and params, set by the validate middleware. */
+      valid?: { body: unknown; query: unknown; params: unknown };
+    }
+  }
+}

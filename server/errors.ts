@@ -1,0 +1,94 @@
+import type { ErrorRequestHandler } from 'express';
+import { ZodError } from 'zod';
+import type { Logger } from 'pino';
+
+/**
+ * An error meant for the caller: an HTTP status, a stable machine code and one plain sentence.
+ * Build them with the factories below; the one error middleware turns them into JSON.
+ */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+    this.name = 'HttpError';
+  }
+}
+
+export interface ErrorBody {
+  error: { code: string; message: string; details?: unknown };
+}
+
+export const badRequest = (message: string, code = 'bad_request', details?: unknown) => new HttpError(400, code, message, details);
+export const unauthorized = (message = 'Sign in to continue', code = 'unauthorized') => new HttpError(401, code, message);
+export const forbidden = (message = 'Your role does not allow this', code = 'forbidden') => new HttpError(403, code, message);
+export const notFound = (message = 'Not found', code = 'not_found') => new HttpError(404, code, message);
+export const conflict = (message: string, code = 'conflict', details?: unknown) => new HttpError(409, code, message, details);
+export const tooLarge = (message = 'The request is too large', code = 'too_large') => new HttpError(413, code, message);
+export const rateLimited = (message = 'Too many attempts; try again later', code = 'rate_limited') => new HttpError(429, code, message);
+export const badGateway = (message: string, code = 'upstream_failed') => new HttpError(502, code, message);
+
+/** "field: message" for each issue; the location (body, query, params) stands in for an empty path. */
+export function zodMessage(error: ZodError, location = 'body'): string {
+  return error.issues
+    .map((issue) => `${issue.path.length > 0 ? issue.path.join('.') : location}: ${issue.message}`)
+    .join('; ');
+}
+
+export function fromZod(error: ZodError, location = 'body'): HttpError {
+  const details = error.issues.map((issue) => ({ path: issue.path.join('.') || location, message: issue.message }));
+  return badRequest(zodMessage(error, location), 'invalid_input', details);
+}
+
+interface StatusLike {
+  status?: unknown;
+  statusCode?: unknown;
+  type?: unknown;
+  code?: unknown;
+  name?: unknown;
+  field?: unknown;
+}
+
+/** Maps errors thrown by body-parser, multer and friends, which carry a status or a code but no message for people. */
+function fromLibrary(err: StatusLike): HttpError | null {
+  if (err.type === 'entity.parse.failed') return badRequest('body: malformed JSON', 'malformed_json');
+  if (err.type === 'entity.too.large') return tooLarge('body: the request body is larger than the server accepts');
+  if (err.type === 'encoding.unsupported' || err.type === 'charset.unsupported') {
+    return new HttpError(415, 'unsupported_encoding', 'body: unsupported content encoding or charset');
+  }
+  if (err.name === 'MulterError') {
+    const field = typeof err.field === 'string' ? err.field : 'file';
+    if (err.code === 'LIMIT_FILE_SIZE') return tooLarge(`${field}: the file is larger than the server accepts`);
+    return badRequest(`${field}: the upload was not accepted (${String(err.code)})`, 'invalid_upload');
+  }
+  const status = typeof err.status === 'number' ? err.status : typeof err.statusCode === 'number' ? err.statusCode : 0;
+  if (status === 404) return notFound();
+  if (status >= 400 && status < 500) return new HttpError(status, 'bad_request', 'The request could not be understood');
+  return null;
+}
+
+export function toHttpError(err: unknown): HttpError | null {
+  if (err instanceof HttpError) return err;
+  if (err instanceof ZodError) return fromZod(err);
+  if (typeof err === 'object' && err !== null) return fromLibrary(err as StatusLike);
+  return null;
+}
+
+/** The one error middleware: every failure leaves as `{"error": {code, message, details?}}`, never a stack or HTML. */
+export function errorMiddleware(logger: Logger): ErrorRequestHandler {
+  return (err: unknown, _req, res, next) => {
+    if (res.headersSent) {
+      next(err);
+      return;
+    }
+    const known = toHttpError(err);
+    const httpError = known ?? new HttpError(500, 'internal', 'Something went wrong on the server; the error was logged');
+    if (!known) logger.error({ err }, 'unhandled error');
+    const body: ErrorBody = { error: { code: httpError.code, message: httpError.message } };
+    if (httpError.details !== undefined) body.error.details = httpError.details;
+    res.status(httpError.status).json(body);
+  };
+}

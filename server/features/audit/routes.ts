@@ -1,0 +1,33 @@
+import { z } from 'zod';
+import { AuditEvent } from '../../db/entities.ts';
+import { route, type RouteDef } from '../../route-def.ts';
+
+export const pageQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+export const auditRoutes: RouteDef[] = [
+  route({
+    method: 'get',
+    path: '/api/audit',
+    access: ['admin'],
+    query: pageQuery,
+    async handler({ em, query }) {
+      const [events, total] = await em.findAndCount(
+        AuditEvent,
+        {},
+        { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
+      );
+      const items = events.map((e) => ({
+        id: e.id,
+        at: e.at.toISOString(),
+        actor: e.actorEmail ? { email: e.actorEmail, name: e.actorName ?? '' } : null,
+        action: e.action,
+        target: e.target,
+        details: e.details,
+      }));
+      return { items, total, page: query.page, pageSize: query.pageSize };
+    },
+  }),
+];

@@ -1,0 +1,100 @@
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { existsSync, mkdirSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { join, resolve } from 'node:path';
+import pino from 'pino';
+import { loadEnv } from './config/env.ts';
+import { resolveSecret } from './config/secret.ts';
+import { openOrm, type Orm } from './db/orm.ts';
+import { seedDemo } from './db/seed.ts';
+import { createSmtpMailer } from './mail/mailer.ts';
+import { startMailFake } from './mail/fake-smtp.ts';
+import { createMailbox, type Mailbox } from './mail/mailbox.ts';
+import { createApp } from './app.ts';
+import { systemClock } from './context.ts';
+
+export interface StartOptions {
+  /** 0 = a random free port. Default PORT or 3000. */
+  port?: number;
+  host?: string;
+  /** Folder of the SQLite file and the generated secret. Default PARLEY_DATA or ./data. */
+  dataDir?: string;
+  /** Seed the demo organisation on an empty database. Default PARLEY_DEMO (on). */
+  demo?: boolean;
+  /** Send mail through this SMTP server; without it an in-process fake fills the Outbox. */
+  smtpUrl?: string;
+  /** Log start-up and one line per request. Default on. */
+  log?: boolean;
+  distDir?: string;
+}
+
+export interface RunningServer {
+  url: string;
+  close(): Promise<void>;
+  orm: Orm;
+  mailbox: Mailbox;
+}
+
+const repoRoot = resolve(fileURLToPath(new URL('..', import.meta.url)));
+
+function listen(server: Server, port: number, host: string | undefined): Promise<number> {
+  return new Promise((resolveListen, reject) => {
+    server.once('error', reject);
+    server.listen(port, host, () => resolveListen((server.address() as AddressInfo).port));
+  });
+}
+
+export async function startServer(options: StartOptions = {}): Promise<RunningServer> {
+  const env = loadEnv();
+  const logger = pino({ level: options.log === false ? 'silent' : env.LOG_LEVEL });
+  const dataDir = resolve(options.dataDir ?? env.PARLEY_DATA);
+  mkdirSync(dataDir, { recursive: true });
+  const production = env.NODE_ENV === 'production';
+  const secret = resolveSecret({ envSecret: env.PARLEY_SECRET, dataDir, production });
+
+  const orm = await openOrm({ dbName: join(dataDir, 'parley.sqlite') });
+  if (options.demo ?? env.PARLEY_DEMO) {
+    if (await seedDemo(orm.em.fork(), systemClock)) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
+  }
+
+  const smtpUrl = options.smtpUrl ?? env.SMTP_URL;
+  const fake = smtpUrl ? null : await startMailFake({ orm, clock: systemClock });
+  const mailer = createSmtpMailer({ url: smtpUrl ?? fake!.url, from: env.MAIL_FROM });
+  if (fake) logger.info(`SMTP_URL not set: mail goes to the built-in Outbox (${fake.url})`);
+
+  const server = createServer();
+  let port: number;
+  try {
+    port = await listen(server, options.port ?? env.PORT, options.host ?? env.HOST);
+  } catch (err) {
+    mailer.close();
+    await fake?.close();
+    await orm.close();
+    throw err;
+  }
+  const publicUrl = env.publicUrlDefaulted ? `http://localhost:${port}` : env.PUBLIC_URL;
+
+  const distDir = options.distDir ?? join(repoRoot, 'dist');
+  if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
+  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false });
+  server.on('request', app);
+  const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
+  logger.info(`Parley listening on ${url}`);
+
+  let closing: Promise<void> | undefined;
+  const close = () => {
+    closing ??= (async () => {
+      await new Promise<void>((resolveClose) => {
+        server.close(() => resolveClose());
+        server.closeIdleConnections();
+      });
+      mailer.close();
+      await fake?.close();
+      await orm.close();
+      logger.info('Parley stopped');
+    })();
+    return closing;
+  };
+  return { url, close, orm, mailbox: createMailbox(orm) };
+}

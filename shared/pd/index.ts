@@ -1,0 +1,19 @@
+/**
+ * The message codec: public entry (/work/notes/interfaces.md, "shared/pd").
+ * Result-returning functions take user input and never throw; the building blocks are pure and
+ * fast, and their writers throw RangeError on a field out of range.
+ */
+export type * from './types.ts';
+export { parseHex, parseWords, toHex, hex16, hex32 } from './hex.ts';
+export { decodeHeader, encodeHeader, decodeExtendedHeader, encodeExtendedHeader, type HeaderFields } from './header.ts';
+export { messageTypeCode, messageTypeName, messageTypeNames } from './message-types.ts';
+export { decodeSourcePdo, encodeSourcePdo } from './source-pdo.ts';
+export { decodeSinkPdo, encodeSinkPdo } from './sink-pdo.ts';
+export { decodeRdo, encodeRdo, rdoObjectPosition } from './rdo.ts';
+export { decodeMessage, type DecodeOptions, type DecodeResult } from './decode-message.ts';
+export { encodeMessage, type MessageInput, type DataObjectInput } from './encode-message.ts';
+export { encodeChunks, createChunkAssembler, type ChunkAssembler, type ChunkStep } from './chunks.ts';
+export { chunkDataBytes, chunkObjectCount, MAX_CHUNK_BYTES, MAX_EXTENDED_BYTES } from './decode-extended.ts';
+export { decodeOtherObject, encodeOtherObject } from './other-objects.ts';
+export { DECODE_RULES, type DecodeRule } from './findings.ts';
+export { fieldValue, fieldCount, fieldMask, reservedMask, type FieldLayout, type WordLayout } from './layout.ts';

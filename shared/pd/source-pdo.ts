@@ -1,0 +1,189 @@
+/**
+ * Source Power Data Objects (Source_Capabilities, EPR_Source_Capabilities, the PDO copy in an
+ * EPR_Request). USB PD R3.2 V1.1 §6.4.1.2; bit layouts (R3.1 V1.8 table numbers):
+ * - Table 6.7 "Power Data Object": B31..30 type — 00b Fixed, 01b Battery, 10b Variable, 11b APDO.
+ *   (R3.2 V1.1's per-type tables print Battery and Variable swapped; the summary table and text
+ *   give 01b Battery, 10b Variable — an erratum. We follow the summary table.)
+ * - Table 6.9 Fixed: B29 Dual-Role Power, B28 USB Suspend Supported, B27 Unconstrained Power,
+ *   B26 USB Communications Capable, B25 Dual-Role Data, B24 Unchunked Extended Messages Supported,
+ *   B23 EPR Mode Capable, B22 Reserved, B21..20 Peak Current, B19..10 Voltage (50 mV),
+ *   B9..0 Maximum Current (10 mA).
+ * - Table 6.11 Variable / 6.12 Battery: B29..20 Maximum Voltage (50 mV), B19..10 Minimum Voltage
+ *   (50 mV), B9..0 Maximum Current (10 mA) / Maximum Allowable Power (250 mW).
+ * - APDO B29..28: 00b SPR PPS, 01b EPR AVS, 10b SPR AVS (new in R3.2), 11b Reserved.
+ *   Table 6.13 PPS: B27 PPS Power Limited, B26..25 Reserved, B24..17 Maximum Voltage (100 mV),
+ *   B16 Reserved, B15..8 Minimum Voltage (100 mV), B7 Reserved, B6..0 Maximum Current (50 mA).
+ *   Table 6.14 EPR AVS: B27..26 Peak Current, B25..17 Maximum Voltage (100 mV), B16 Reserved,
+ *   B15..8 Minimum Voltage (100 mV), B7..0 PDP (1 W).
+ *   SPR AVS (R3.2 V1.1 §6.4.1.2.5): B27..26 Peak Current, B25..20 Reserved, B19..10 Maximum
+ *   Current 9–15 V (10 mA), B9..0 Maximum Current 15–20 V (10 mA).
+ */
+import { code, flag, keptReserved, rawWord, units } from './guards.ts';
+import { hex32 } from './hex.ts';
+import type { RawObject, SourcePdo } from './types.ts';
+
+export const PDO_TYPE_FIXED = 0b00;
+export const PDO_TYPE_BATTERY = 0b01;
+export const PDO_TYPE_VARIABLE = 0b10;
+export const PDO_TYPE_APDO = 0b11;
+export const APDO_TYPE_PPS = 0b00;
+export const APDO_TYPE_EPR_AVS = 0b01;
+export const APDO_TYPE_SPR_AVS = 0b10;
+
+/** Reserved bits of each source form (a set bit gives `decode.reserved-bits`). */
+export const SOURCE_RESERVED_MASKS = {
+  fixed: 1 << 22,
+  variable: 0,
+  battery: 0,
+  pps: (0b11 << 25) | (1 << 16) | (1 << 7),
+  'epr-avs': 1 << 16,
+  'spr-avs': 0x3f << 20,
+} as const;
+
+/** Decodes a source PDO; an APDO of the reserved type 11b gives kind `raw`. Never throws. */
+export function decodeSourcePdo(raw: number): SourcePdo | RawObject {
+  raw >>>= 0;
+  const type = raw >>> 30;
+  if (type === PDO_TYPE_FIXED) {
+    return {
+      kind: 'fixed',
+      raw: hex32(raw),
+      voltageMv: ((raw >>> 10) & 0x3ff) * 50,
+      maxCurrentMa: (raw & 0x3ff) * 10,
+      peakCurrent: (raw >>> 20) & 3,
+      dualRolePower: (raw & (1 << 29)) !== 0,
+      usbSuspendSupported: (raw & (1 << 28)) !== 0,
+      unconstrainedPower: (raw & (1 << 27)) !== 0,
+      usbCommunicationsCapable: (raw & (1 << 26)) !== 0,
+      dualRoleData: (raw & (1 << 25)) !== 0,
+      unchunkedExtendedMessages: (raw & (1 << 24)) !== 0,
+      eprModeCapable: (raw & (1 << 23)) !== 0,
+    };
+  }
+  const maxVoltageMv = ((raw >>> 20) & 0x3ff) * 50;
+  const minVoltageMv = ((raw >>> 10) & 0x3ff) * 50;
+  if (type === PDO_TYPE_VARIABLE) return { kind: 'variable', raw: hex32(raw), minVoltageMv, maxVoltageMv, maxCurrentMa: (raw & 0x3ff) * 10 };
+  if (type === PDO_TYPE_BATTERY) return { kind: 'battery', raw: hex32(raw), minVoltageMv, maxVoltageMv, maxPowerMw: (raw & 0x3ff) * 250 };
+  return decodeApdo(raw, true) as SourcePdo | RawObject;
+}
+
+/** APDO reading shared by source and sink forms (the sink's peak-current bits are reserved). */
+export function decodeApdo(raw: number, source: boolean): SourcePdo | RawObject {
+  const apdo = (raw >>> 28) & 3;
+  if (apdo === APDO_TYPE_PPS) {
+    return {
+      kind: 'pps',
+      raw: hex32(raw),
+      minVoltageMv: ((raw >>> 8) & 0xff) * 100,
+      maxVoltageMv: ((raw >>> 17) & 0xff) * 100,
+      maxCurrentMa: (raw & 0x7f) * 50,
+      powerLimited: source && (raw & (1 << 27)) !== 0,
+    };
+  }
+  if (apdo === APDO_TYPE_EPR_AVS) {
+    return {
+      kind: 'epr-avs',
+      raw: hex32(raw),
+      minVoltageMv: ((raw >>> 8) & 0xff) * 100,
+      maxVoltageMv: ((raw >>> 17) & 0x1ff) * 100,
+      pdpW: raw & 0xff,
+      peakCurrent: (raw >>> 26) & 3,
+    };
+  }
+  if (apdo === APDO_TYPE_SPR_AVS) {
+    return { kind: 'spr-avs', raw: hex32(raw), maxCurrent15vMa: ((raw >>> 10) & 0x3ff) * 10, maxCurrent20vMa: (raw & 0x3ff) * 10, peakCurrent: (raw >>> 26) & 3 };
+  }
+  return { kind: 'raw', raw: hex32(raw) };
+}
+
+/**
+ * Encodes a source PDO from its fields (`raw` ignored but for its reserved bits, which are kept).
+ * Throws RangeError naming the field when a value does not fit. No allocation on the good path.
+ */
+export function encodeSourcePdo(pdo: SourcePdo | RawObject): number {
+  switch (pdo.kind) {
+    case 'fixed':
+      return (
+        ((flag(pdo.dualRolePower, 'dualRolePower') << 29) |
+          (flag(pdo.usbSuspendSupported, 'usbSuspendSupported') << 28) |
+          (flag(pdo.unconstrainedPower, 'unconstrainedPower') << 27) |
+          (flag(pdo.usbCommunicationsCapable, 'usbCommunicationsCapable') << 26) |
+          (flag(pdo.dualRoleData, 'dualRoleData') << 25) |
+          (flag(pdo.unchunkedExtendedMessages, 'unchunkedExtendedMessages') << 24) |
+          (flag(pdo.eprModeCapable, 'eprModeCapable') << 23) |
+          (code(pdo.peakCurrent, 2, 'peakCurrent') << 20) |
+          (units(pdo.voltageMv, 50, 10, 'voltageMv', 'mV') << 10) |
+          units(pdo.maxCurrentMa, 10, 10, 'maxCurrentMa', 'mA') |
+          keptReserved(pdo.raw, SOURCE_RESERVED_MASKS.fixed)) >>>
+        0
+      );
+    case 'variable':
+      return (
+        ((PDO_TYPE_VARIABLE << 30) |
+          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
+          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
+          units(pdo.maxCurrentMa, 10, 10, 'maxCurrentMa', 'mA')) >>>
+        0
+      );
+    case 'battery':
+      return (
+        ((PDO_TYPE_BATTERY << 30) |
+          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
+          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
+          units(pdo.maxPowerMw, 250, 10, 'maxPowerMw', 'mW')) >>>
+        0
+      );
+    default:
+      return encodeApdo(pdo, true);
+  }
+}
+
+/** APDO writer shared by source and sink forms. */
+export function encodeApdo(pdo: SourcePdo | RawObject, source: boolean): number {
+  const masks = source ? SOURCE_RESERVED_MASKS : SINK_APDO_RESERVED_MASKS;
+  switch (pdo.kind) {
+    case 'pps':
+      return (
+        ((PDO_TYPE_APDO << 30) |
+          (APDO_TYPE_PPS << 28) |
+          ((source ? flag(pdo.powerLimited, 'powerLimited') : 0) << 27) |
+          (units(pdo.maxVoltageMv, 100, 8, 'maxVoltageMv', 'mV') << 17) |
+          (units(pdo.minVoltageMv, 100, 8, 'minVoltageMv', 'mV') << 8) |
+          units(pdo.maxCurrentMa, 50, 7, 'maxCurrentMa', 'mA') |
+          keptReserved(pdo.raw, masks.pps)) >>>
+        0
+      );
+    case 'epr-avs':
+      return (
+        ((PDO_TYPE_APDO << 30) |
+          (APDO_TYPE_EPR_AVS << 28) |
+          (code(pdo.peakCurrent, 2, 'peakCurrent') << 26) |
+          (units(pdo.maxVoltageMv, 100, 9, 'maxVoltageMv', 'mV') << 17) |
+          (units(pdo.minVoltageMv, 100, 8, 'minVoltageMv', 'mV') << 8) |
+          units(pdo.pdpW, 1, 8, 'pdpW', 'W') |
+          keptReserved(pdo.raw, masks['epr-avs'])) >>>
+        0
+      );
+    case 'spr-avs':
+      return (
+        ((PDO_TYPE_APDO << 30) |
+          (APDO_TYPE_SPR_AVS << 28) |
+          (code(pdo.peakCurrent, 2, 'peakCurrent') << 26) |
+          (units(pdo.maxCurrent15vMa, 10, 10, 'maxCurrent15vMa', 'mA') << 10) |
+          units(pdo.maxCurrent20vMa, 10, 10, 'maxCurrent20vMa', 'mA') |
+          keptReserved(pdo.raw, masks['spr-avs'])) >>>
+        0
+      );
+    case 'raw':
+      return rawWord(pdo.raw, 'raw');
+    default:
+      throw new RangeError(`kind: "${(pdo as { kind: string }).kind}" is not a power data object kind`);
+  }
+}
+
+/** Sink APDO reserved bits: as the source's, plus the peak-current bits B27..26 and PPS Power Limited. */
+export const SINK_APDO_RESERVED_MASKS = {
+  pps: (0b111 << 25) | (1 << 16) | (1 << 7),
+  'epr-avs': (0b11 << 26) | (1 << 16),
+  'spr-avs': 0xff << 20,
+} as const;

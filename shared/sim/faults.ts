@@ -1,0 +1,59 @@
+/**
+ * Which faults of a scenario hit a given transmission. A fault selects by `from`, `messageType`,
+ * `atMs` (on or after) and `nth` (1 = the first matching one; with `count`, that many from the nth
+ * on; without `nth`, every one). Counting is per fault, over transmissions on the wire (a retry is
+ * a transmission of its own), so "drop the first GoodCRC" loses exactly one.
+ */
+import type { Fault } from './scenario.ts';
+import type { Side } from './types.ts';
+
+export interface FaultBook {
+  faults: readonly Fault[];
+  /** Matching transmissions seen so far, per fault. */
+  seen: number[];
+  /** Per side, the time a `silent` fault took effect (µs), else null. */
+  silentSinceUs: Record<Side, number | null>;
+}
+
+export function createFaultBook(faults: readonly Fault[]): FaultBook {
+  return { faults, seen: faults.map(() => 0), silentSinceUs: { source: null, sink: null } };
+}
+
+/** Implicit selectors: `reject` counts the sink's Requests, `no-ps-rdy` the source's PS_RDY. */
+function fromOf(fault: Fault): Side | undefined {
+  return fault.kind === 'reject' ? 'sink' : fault.kind === 'no-ps-rdy' ? 'source' : fault.from;
+}
+
+function typeOf(fault: Fault): string | undefined {
+  return fault.kind === 'reject' ? 'Request' : fault.kind === 'no-ps-rdy' ? 'PS_RDY' : fault.messageType;
+}
+
+/**
+ * Counts this occurrence against every fault of the given kinds that selects it and returns the
+ * faults that apply.
+ */
+export function faultsFor(book: FaultBook, kinds: readonly Fault['kind'][], from: Side, messageType: string, tUs: number): Fault[] {
+  const hits: Fault[] = [];
+  book.faults.forEach((fault, index) => {
+    if (!kinds.includes(fault.kind)) return;
+    const side = fromOf(fault);
+    if (side !== undefined && side !== from) return;
+    const type = typeOf(fault);
+    if (type !== undefined && type !== messageType) return;
+    if (fault.atMs !== undefined && tUs < fault.atMs * 1_000) return;
+    const nth = (book.seen[index] = (book.seen[index] ?? 0) + 1);
+    if (fault.nth === undefined ? fault.count === undefined || nth <= fault.count : nth >= fault.nth && nth < fault.nth + (fault.count ?? 1)) {
+      hits.push(fault);
+    }
+  });
+  return hits;
+}
+
+/** A `silent` side transmits nothing from the moment its fault first applies. */
+export function isSilent(book: FaultBook, from: Side, messageType: string, tUs: number): boolean {
+  const since = book.silentSinceUs[from];
+  if (since !== null && tUs >= since) return true;
+  if (faultsFor(book, ['silent'], from, messageType, tUs).length === 0) return false;
+  book.silentSinceUs[from] = tUs;
+  return true;
+}

@@ -1,0 +1,277 @@
+/**
+ * The policy level of both ports: offers, requests, contracts and the timers between them.
+ * Times follow the specification's measuring points (from memory, USB PD R3.2 V1.1 §6.6):
+ * a response timer (SenderResponseTimer §6.6.2, PSTransitionTimer §6.6.5) starts when the GoodCRC
+ * acknowledging the message ends (its EOP) and stops when the awaited message has been received,
+ * i.e. at its EOP — so both ends are message ends, never preamble starts. Without a captured GoodCRC
+ * the acknowledged message's own end is used. Limits come from shared/core/timers.ts by the
+ * revision in operation (the lower of the two ports' Specification Revision fields, §6.2.1.1.5).
+ */
+import type { Contract } from '../core/contract.ts';
+import { timersFor, type TimerTable } from '../core/timers.ts';
+import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
+import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
+import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
+import { objectAt } from './decode-cache.ts';
+import { contractText, millis, seconds } from './format.ts';
+import type { Report, SeenMessage } from './seen.ts';
+
+const SOURCE_PDO_KINDS: readonly string[] = ['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'];
+/** Messages the partner answers with Accept, Reject, Wait or Not_Supported. */
+const NEEDS_ACCEPT: readonly string[] = ['Soft_Reset', 'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'FR_Swap', 'Data_Reset', 'Enter_USB', 'EPR_Mode'];
+const CAPS_CHECKED_LIMIT = 256;
+
+interface Pending {
+  m: SeenMessage;
+  reported: boolean;
+}
+interface PendingRequest extends Pending {
+  rdo: Rdo;
+  pdo: SourcePdo | undefined;
+}
+
+export interface ActiveContract {
+  contract: Contract;
+  t: number;
+  pdo: SourcePdo;
+  /** For a programmable contract: the start of the last Request (tPPSRequest counts from it). */
+  lastRequestUs: number;
+  keepAliveReported: boolean;
+}
+
+export interface PolicyEvents {
+  contract(contract: Contract, t: number, changed: boolean): void;
+  contractEnd(t: number): void;
+  softReset(m: SeenMessage): void;
+}
+
+export interface PolicyTracker {
+  onMessage(m: SeenMessage): void;
+  /** Timers that ran out before `t`. */
+  advance(t: number): void;
+  /** The likely cause of a Hard Reset at `t`, as a clause ("the sink stopped …"), if one is found. */
+  hardResetCause(t: number): string | undefined;
+  /** Hard Reset, detach, attach: the negotiation starts over and the contract ends. */
+  reset(t: number): void;
+  /** The contract VBUS must meet now: none during a transition or before the first PS_RDY. */
+  steadyContract(): ActiveContract | undefined;
+  /** The offers in force (for decoding Requests). */
+  offers(): SourcePdo[] | undefined;
+}
+
+export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
+  let caps: { m: SeenMessage; pdos: SourcePdo[] } | undefined;
+  let capsWaiting: Pending | undefined;
+  let lastUnackedCaps: SeenMessage | undefined;
+  let request: PendingRequest | undefined;
+  let accepted: (Pending & { request: PendingRequest }) | undefined;
+  let other: Pending | undefined;
+  let swapPsRdy = 0;
+  let contract: ActiveContract | undefined;
+  let transition = false;
+  const revisions: { source?: SpecRevision; sink?: SpecRevision } = {};
+  const capsChecked = new Set<string>();
+
+  const timers = (): TimerTable => {
+    const a = revisions.source;
+    const b = revisions.sink;
+    const lowest = a === '2.0' || a === '1.0' || b === '2.0' || b === '1.0' ? '2.0' : '3.0';
+    return timersFor(lowest);
+  };
+  const ackEnd = (m: SeenMessage): number => m.ackEndUs ?? m.endUs;
+  const at = (m: SeenMessage): { t: number; line: number | undefined } => ({ t: m.t, line: m.line });
+  const unexpected = (m: SeenMessage, why: string): void => {
+    report('protocol.unexpected', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} came ${why}.`, at(m));
+  };
+
+  /** A response within tSenderResponse of the (acknowledged) message it answers. */
+  const checkResponse = (first: SeenMessage, response: SeenMessage): void => {
+    const { tSenderResponse } = timers();
+    const tookUs = response.endUs - ackEnd(first);
+    if (tookUs > tSenderResponse.maxUs) {
+      report(
+        'timing.sender-response',
+        `The ${response.from} answered the ${first.d.messageType} at ${seconds(first.t)} with ${response.d.messageType} after ${millis(tookUs)}; tSenderResponse allows at most ${millis(tSenderResponse.maxUs)}.`,
+        { ...at(response), ref: tSenderResponse.ref },
+      );
+    }
+  };
+
+  const onCaps = (m: SeenMessage): void => {
+    const pdos = m.d.message.objects.filter((o): o is SourcePdo => SOURCE_PDO_KINDS.includes(o.kind));
+    if (pdos.length !== m.d.message.objects.length) return;
+    const { tTypeCSendSourceCap } = timers();
+    if (lastUnackedCaps && lastUnackedCaps.ackEndUs === undefined && !contract) {
+      const gapUs = m.t - lastUnackedCaps.t;
+      if (gapUs < tTypeCSendSourceCap.minUs || gapUs > tTypeCSendSourceCap.maxUs) {
+        report(
+          'timing.caps-interval',
+          `The source repeated Source_Capabilities ${millis(gapUs)} after the unanswered one at ${seconds(lastUnackedCaps.t)}; tTypeCSendSourceCap is ${millis(tTypeCSendSourceCap.minUs)} to ${millis(tTypeCSendSourceCap.maxUs)}.`,
+          { ...at(m), ref: tTypeCSendSourceCap.ref },
+        );
+      }
+    }
+    lastUnackedCaps = m;
+    caps = { m, pdos };
+    capsWaiting = { m, reported: false };
+    request = undefined;
+    if (!capsChecked.has(m.d.hex) && capsChecked.size < CAPS_CHECKED_LIMIT) {
+      capsChecked.add(m.d.hex);
+      for (const f of checkCaps(pdos).findings) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+    }
+  };
+
+  const onRequest = (m: SeenMessage): void => {
+    const epr = m.d.messageType === 'EPR_Request';
+    const raw = objectAt(m.d.bytes, 1);
+    if (raw === undefined) return;
+    if (!caps && !epr) unexpected(m, 'before any Source_Capabilities');
+    if (capsWaiting) checkResponse(capsWaiting.m, m);
+    capsWaiting = undefined;
+    lastUnackedCaps = undefined;
+    const position = (raw >>> 28) & 0xf;
+    let pdo: SourcePdo | undefined = caps?.pdos[position - 1];
+    if (epr) {
+      const copy = objectAt(m.d.bytes, 2);
+      const decoded = copy === undefined ? undefined : decodeSourcePdo(copy);
+      if (decoded && SOURCE_PDO_KINDS.includes(decoded.kind)) pdo = decoded as SourcePdo;
+    }
+    const rdo = decodeRdo(raw, pdo);
+    if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+    request = { m, rdo, pdo, reported: false };
+    if (contract) {
+      contract.lastRequestUs = m.t;
+      contract.keepAliveReported = false;
+    }
+  };
+
+  const onAnswer = (m: SeenMessage): void => {
+    const type = m.d.messageType;
+    if (request && request.m.from !== m.from) {
+      checkResponse(request.m, m);
+      if (type === 'Accept') {
+        accepted = { m, request, reported: false };
+        transition = true;
+      }
+      request = undefined;
+      return;
+    }
+    if (other && other.m.from !== m.from) {
+      if (type === 'Accept' && (other.m.d.messageType === 'PR_Swap' || other.m.d.messageType === 'FR_Swap')) {
+        swapPsRdy = 2;
+        transition = true;
+      }
+      other = undefined;
+      return;
+    }
+    if (type === 'Accept' || type === 'Reject') unexpected(m, 'without a Request (or other message) to answer');
+  };
+
+  const onPsRdy = (m: SeenMessage): void => {
+    if (swapPsRdy > 0) {
+      swapPsRdy--;
+      if (swapPsRdy === 0) transition = false;
+      return;
+    }
+    if (!accepted || m.from !== 'source') {
+      unexpected(m, 'without an Accept before it');
+      return;
+    }
+    const { tPSTransition } = timers();
+    const tookUs = m.endUs - ackEnd(accepted.m);
+    if (tookUs > tPSTransition.maxUs && !accepted.reported) {
+      report('timing.ps-transition', `The source sent PS_RDY ${millis(tookUs)} after its Accept at ${seconds(accepted.m.t)}; tPSTransition allows at most ${millis(tPSTransition.maxUs)}.`, { ...at(m), ref: tPSTransition.ref });
+    }
+    const { rdo, pdo } = accepted.request;
+    accepted = undefined;
+    transition = false;
+    if (!pdo) return;
+    const next = contractOf(rdo, pdo);
+    const changed = !contract || !sameContract(contract.contract, next);
+    contract = { contract: next, t: m.t, pdo, lastRequestUs: contract && !changed ? contract.lastRequestUs : m.t, keepAliveReported: false };
+    events.contract(next, m.t, changed);
+  };
+
+  return {
+    onMessage(m) {
+      if (m.sop !== 'SOP') return;
+      if (m.from === 'source' || m.from === 'sink') revisions[m.from] = m.d.revision;
+      const type = m.d.messageType;
+      switch (type) {
+        case 'Source_Capabilities':
+          if (m.from === 'source') onCaps(m);
+          return;
+        case 'Request':
+        case 'EPR_Request':
+          onRequest(m);
+          return;
+        case 'Accept':
+        case 'Reject':
+        case 'Wait':
+        case 'Not_Supported':
+          onAnswer(m);
+          return;
+        case 'PS_RDY':
+          onPsRdy(m);
+          return;
+        case 'Soft_Reset':
+          events.softReset(m);
+          request = undefined;
+          accepted = undefined;
+          capsWaiting = undefined;
+          other = { m, reported: false };
+          return;
+        default:
+          if (NEEDS_ACCEPT.includes(type)) other = { m, reported: false };
+      }
+    },
+    advance(t) {
+      const table = timers();
+      const { tSenderResponse, tPSTransition, tPPSRequest } = table;
+      if (capsWaiting && !capsWaiting.reported && capsWaiting.m.ackEndUs !== undefined && t > capsWaiting.m.ackEndUs + tSenderResponse.maxUs) {
+        capsWaiting.reported = true;
+        report('timing.sender-response', `The sink did not answer the Source_Capabilities at ${seconds(capsWaiting.m.t)} with a Request within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: capsWaiting.m.ackEndUs + tSenderResponse.maxUs, line: capsWaiting.m.line, ref: tSenderResponse.ref });
+      }
+      if (request && !request.reported && request.m.ackEndUs !== undefined && t > request.m.ackEndUs + tSenderResponse.maxUs) {
+        request.reported = true;
+        report('timing.sender-response', `The source did not answer the Request at ${seconds(request.m.t)} within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: request.m.ackEndUs + tSenderResponse.maxUs, line: request.m.line, ref: tSenderResponse.ref });
+      }
+      if (accepted && !accepted.reported && t > ackEnd(accepted.m) + tPSTransition.maxUs) {
+        accepted.reported = true;
+        report('timing.ps-transition', `The source accepted the Request at ${seconds(accepted.m.t)} but sent no PS_RDY within tPSTransition (${millis(tPSTransition.maxUs)}).`, { t: ackEnd(accepted.m) + tPSTransition.maxUs, line: accepted.m.line, ref: tPSTransition.ref });
+      }
+      if (contract && contract.contract.kind === 'pps' && !contract.keepAliveReported && t > contract.lastRequestUs + tPPSRequest.maxUs) {
+        contract.keepAliveReported = true;
+        report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
+      }
+    },
+    hardResetCause(t) {
+      const { tSenderResponse, tPSTransition, tPPSRequest } = timers();
+      if (accepted && t - ackEnd(accepted.m) >= tPSTransition.minUs) return 'the source accepted a Request but sent no PS_RDY';
+      if (contract && contract.contract.kind === 'pps' && t - contract.lastRequestUs > tPPSRequest.maxUs) {
+        return 'the sink stopped re-requesting its programmable contract';
+      }
+      if (request && t - ackEnd(request.m) >= tSenderResponse.minUs) return 'the source did not answer a Request';
+      if (capsWaiting && capsWaiting.m.ackEndUs !== undefined && t - capsWaiting.m.ackEndUs >= tSenderResponse.minUs) return 'the sink did not answer the Source_Capabilities';
+      return undefined;
+    },
+    reset(t) {
+      if (contract) events.contractEnd(t);
+      caps = undefined;
+      capsWaiting = undefined;
+      lastUnackedCaps = undefined;
+      request = undefined;
+      accepted = undefined;
+      other = undefined;
+      swapPsRdy = 0;
+      contract = undefined;
+      transition = false;
+    },
+    steadyContract: () => (transition ? undefined : contract),
+    offers: () => caps?.pdos,
+  };
+}
+
+function sameContract(a: Contract, b: Contract): boolean {
+  return a.kind === b.kind && a.objectPosition === b.objectPosition && a.voltageMv === b.voltageMv && a.currentMa === b.currentMa;
+}

@@ -1,0 +1,175 @@
+/**
+ * The protocol layer of both ports, as a capture shows it: GoodCRC, retries and MessageIDs,
+ * kept apart per SOP* (USB PD R3.2 V1.1 §6.7.1 MessageIDCounter and §6.7.2 RetryCounter are per
+ * SOP*; from memory).
+ * - Every message but GoodCRC is acknowledged by a GoodCRC carrying its MessageID (§6.2.1.3,
+ *   §6.3.1), within tReceive after its EOP (§6.6.1 CRCReceiveTimer; Time Values table).
+ * - Without that GoodCRC the sender retries the same message (same MessageID and content) up to
+ *   nRetryCount times (§6.7.2; 2 in R3.x, 3 in R2.0, Counter Values table).
+ * - A new message carries the sender's next MessageID (modulo 8); Soft_Reset, Hard Reset and a
+ *   new attach set the counters to zero (§6.7.1; from memory).
+ * Logs that do not record GoodCRC at all are common (firmware prints what it handles), so
+ * missing-GoodCRC findings are held back until the trace shows a first GoodCRC on that SOP*.
+ */
+import { countersFor, timersFor } from '../core/timers.ts';
+import type { Sop } from '../pd/types.ts';
+import { millis, seconds } from './format.ts';
+import type { TraceSide } from './records.ts';
+import type { FindingExtra, Report, SeenMessage } from './seen.ts';
+
+/** What a message was to the protocol layer. */
+export type Delivery = 'new' | 'retry' | 'goodcrc' | 'ignored';
+
+interface SopState {
+  pending: SeenMessage | undefined;
+  retries: number;
+  reported: boolean;
+  lastId: Partial<Record<TraceSide, number>>;
+  lastHex: Partial<Record<TraceSide, string>>;
+  goodCrcSeen: boolean;
+  held: [string, FindingExtra][];
+}
+
+const HELD_LIMIT = 1_000;
+
+export interface ProtocolTracker {
+  onMessage(m: SeenMessage): Delivery;
+  /** The message still waiting for a GoodCRC past tReceive at `t` (a Hard Reset's likely cause). */
+  unacknowledged(t: number): SeenMessage | undefined;
+  /** Hard Reset, attach, detach: everything (or, for Cable Reset, SOP'/SOP'' only) starts over. */
+  reset(t: number, which: 'all' | 'cable'): void;
+  finish(tEndUs: number): void;
+  goodCrcSeen(): boolean;
+}
+
+export function createProtocolTracker(report: Report): ProtocolTracker {
+  const states = new Map<Sop, SopState>();
+  const state = (sop: Sop): SopState => {
+    let s = states.get(sop);
+    if (!s) {
+      s = { pending: undefined, retries: 0, reported: false, lastId: {}, lastHex: {}, goodCrcSeen: false, held: [] };
+      states.set(sop, s);
+    }
+    return s;
+  };
+
+  const missing = (s: SopState, message: string, extra: FindingExtra): void => {
+    if (s.goodCrcSeen) report('protocol.missing-goodcrc', message, extra);
+    else if (s.held.length < HELD_LIMIT) s.held.push([message, extra]);
+  };
+
+  /** The pending message is left behind without a GoodCRC (the next message, a reset, the end). */
+  const close = (s: SopState, nowUs: number): void => {
+    const p = s.pending;
+    s.pending = undefined;
+    if (!p || s.reported) return;
+    const { tReceive } = timersFor(p.d.revision);
+    if (nowUs - p.endUs <= tReceive.maxUs) return;
+    // Before any GoodCRC the partner may not speak PD yet: the source keeps offering (§8.3.3.2).
+    if (p.d.messageType === 'Source_Capabilities' && !s.goodCrcSeen) return;
+    const { nRetryCount } = countersFor(p.d.revision);
+    const what = `${p.d.messageType} at ${seconds(p.t)}`;
+    const text =
+      s.retries >= nRetryCount
+        ? `The ${p.from} sent its ${what} ${s.retries + 1} times and never got a GoodCRC.`
+        : `The ${p.from}'s ${what} got no GoodCRC, and the ${p.from} did not retry it ${nRetryCount} times as it should.`;
+    missing(s, text, { t: p.t, line: p.line });
+  };
+
+  return {
+    onMessage(m) {
+      const s = state(m.sop);
+      if (m.d.messageType === 'GoodCRC') {
+        if (!m.crcOk) return 'ignored';
+        if (!s.goodCrcSeen) {
+          s.goodCrcSeen = true;
+          for (const [text, extra] of s.held) report('protocol.missing-goodcrc', text, extra);
+          s.held = [];
+        }
+        const p = s.pending;
+        if (!p || p.from === m.from) {
+          report('protocol.unexpected', `A GoodCRC from the ${m.from} at ${seconds(m.t)} acknowledged no message.`, { t: m.t, line: m.line });
+          return 'goodcrc';
+        }
+        if (p.d.messageId !== m.d.messageId) {
+          report('protocol.message-id', `The ${m.from}'s GoodCRC at ${seconds(m.t)} carries MessageID ${m.d.messageId}, but the ${p.d.messageType} it answers carries ${p.d.messageId}.`, { t: m.t, line: m.line });
+        }
+        const { tReceive } = timersFor(p.d.revision);
+        const waitedUs = m.endUs - p.endUs;
+        if (waitedUs > tReceive.maxUs && !s.reported) {
+          report('protocol.missing-goodcrc', `The GoodCRC for the ${p.from}'s ${p.d.messageType} at ${seconds(p.t)} ended ${millis(waitedUs)} after it, later than tReceive (${millis(tReceive.maxUs)}) allows.`, { t: m.t, line: m.line, ref: tReceive.ref });
+        }
+        p.ackEndUs = m.endUs;
+        s.pending = undefined;
+        s.retries = 0;
+        s.reported = false;
+        return 'goodcrc';
+      }
+
+      const p = s.pending;
+      if (p && p.from === m.from && (!p.crcOk || (p.d.messageId === m.d.messageId && p.d.hex === m.d.hex))) {
+        s.retries++;
+        const { nRetryCount, ref } = countersFor(m.d.revision);
+        if (s.retries > nRetryCount && !s.reported) {
+          s.reported = true;
+          missing(s, `The ${m.from} sent its ${m.d.messageType} ${s.retries + 1} times at ${seconds(p.t)}: more than nRetryCount (${nRetryCount}) retries.`, { t: m.t, line: m.line, ref });
+        }
+        s.pending = m;
+        return m.crcOk && !p.crcOk ? deliver(s, m) : 'retry';
+      }
+      close(s, m.t);
+      s.retries = 0;
+      s.reported = false;
+      s.pending = m;
+      if (!m.crcOk) return 'ignored';
+      return deliver(s, m);
+    },
+    unacknowledged(t) {
+      for (const s of states.values()) {
+        const p = s.pending;
+        if (p && t - p.endUs > timersFor(p.d.revision).tReceive.maxUs) return p;
+      }
+      return undefined;
+    },
+    reset(t, which) {
+      for (const [sop, s] of states) {
+        if (which === 'cable' && sop === 'SOP') continue;
+        close(s, t);
+        s.lastId = {};
+        s.lastHex = {};
+        s.retries = 0;
+        s.reported = false;
+      }
+    },
+    finish(tEndUs) {
+      for (const s of states.values()) {
+        close(s, tEndUs);
+        s.held = [];
+      }
+    },
+    goodCrcSeen: () => [...states.values()].some((s) => s.goodCrcSeen),
+  };
+
+  /** MessageID bookkeeping for a message the receiver takes (§6.7.1). */
+  function deliver(s: SopState, m: SeenMessage): Delivery {
+    const id = m.d.messageId;
+    if (m.d.messageType === 'Soft_Reset') {
+      s.lastId = {};
+      s.lastHex = {};
+    }
+    const last = s.lastId[m.from];
+    let delivery: Delivery = 'new';
+    if (last !== undefined) {
+      if (id === last) {
+        // The same message again after its GoodCRC: the sender missed that GoodCRC and retried.
+        if (s.lastHex[m.from] === m.d.hex) delivery = 'retry';
+        else report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} repeats MessageID ${id} of a different message before it.`, { t: m.t, line: m.line });
+      } else if (id !== ((last + 1) & 7)) {
+        report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} carries MessageID ${id}; the next after ${last} is ${(last + 1) & 7}.`, { t: m.t, line: m.line });
+      }
+    }
+    s.lastId[m.from] = id;
+    s.lastHex[m.from] = m.d.hex;
+    return delivery;
+  }
+}

@@ -1,0 +1,107 @@
+/**
+ * The analysis as a timeline for charts: messages, measurements, events and contracts over time.
+ * Bounded for huge traces: the first `limit` messages and events are kept and the rest counted;
+ * measurements are thinned evenly (when the buffer fills, every second one goes and only every
+ * `stride`-th later one is taken), so a chart still spans the whole trace.
+ */
+import type { Contract } from '../core/contract.ts';
+import type { Message, Sop } from '../pd/types.ts';
+import type { TraceEventKind, TraceSide } from './records.ts';
+
+export interface TimelineMessage {
+  t: number;
+  durationUs: number;
+  from: TraceSide;
+  sop: Sop;
+  messageType: string;
+  messageId: number;
+  hex: string;
+  decoded: Message;
+  crcOk: boolean;
+  /** A retry of the message before it (same MessageID and content). */
+  retry?: boolean;
+  /** For a GoodCRC: the index of the message it acknowledges. */
+  goodCrcFor?: number;
+  line?: number;
+}
+
+export interface TimelineMeasurement { t: number; mv: number; ma?: number }
+export interface TimelineEvent { t: number; event: TraceEventKind | 'note'; from?: TraceSide; text?: string }
+export interface TimelineContract { startUs: number; endUs?: number; contract: Contract }
+
+export interface Timeline {
+  messages: TimelineMessage[];
+  measurements: TimelineMeasurement[];
+  events: TimelineEvent[];
+  contracts: TimelineContract[];
+  /** Items not kept, by list; `measurementStride` = one measurement kept in that many. */
+  omitted: { messages: number; measurements: number; events: number; contracts: number };
+  measurementStride: number;
+}
+
+export interface TimelineBuilder {
+  timeline: Timeline;
+  /** Returns the message's index, or -1 when not kept. */
+  message(item: TimelineMessage): number;
+  measurement(t: number, mv: number, ma: number | undefined): void;
+  event(item: TimelineEvent): void;
+  contractStart(t: number, contract: Contract): void;
+  contractEnd(t: number): void;
+}
+
+export function createTimeline(limit: number): TimelineBuilder {
+  const timeline: Timeline = {
+    messages: [],
+    measurements: [],
+    events: [],
+    contracts: [],
+    omitted: { messages: 0, measurements: 0, events: 0, contracts: 0 },
+    measurementStride: 1,
+  };
+  let skip = 0;
+  let open: TimelineContract | undefined;
+  return {
+    timeline,
+    message(item) {
+      if (timeline.messages.length >= limit) {
+        timeline.omitted.messages++;
+        return -1;
+      }
+      return timeline.messages.push(item) - 1;
+    },
+    measurement(t, mv, ma) {
+      if (++skip < timeline.measurementStride) {
+        timeline.omitted.measurements++;
+        return;
+      }
+      skip = 0;
+      const list = timeline.measurements;
+      if (list.length >= limit) {
+        let w = 0;
+        for (let r = 0; r < list.length; r += 2) list[w++] = list[r]!;
+        timeline.omitted.measurements += list.length - w;
+        list.length = w;
+        timeline.measurementStride *= 2;
+      }
+      list.push(ma === undefined ? { t, mv } : { t, mv, ma });
+    },
+    event(item) {
+      if (timeline.events.length >= limit) timeline.omitted.events++;
+      else timeline.events.push(item);
+    },
+    contractStart(t, contract) {
+      if (open && open.endUs === undefined) open.endUs = t;
+      if (timeline.contracts.length >= limit) {
+        timeline.omitted.contracts++;
+        open = undefined;
+        return;
+      }
+      open = { startUs: t, contract };
+      timeline.contracts.push(open);
+    },
+    contractEnd(t) {
+      if (open && open.endUs === undefined) open.endUs = t;
+      open = undefined;
+    },
+  };
+}

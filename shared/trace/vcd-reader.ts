@@ -1,0 +1,34 @@
+/**
+ * The VCD reader (../shared/contract/trace.md, "VCD"): the wire decoder of shared/wire recovers
+ * messages and ordered sets from the CC line's waveform, chunk by chunk; each becomes a record.
+ * Direction is left to the analyser (from the message header's power role or cable plug bit).
+ */
+import { toHex } from '../pd/index.ts';
+import { createVcdDecoder, type WireEvent } from '../wire/index.ts';
+import type { TraceRecord } from './records.ts';
+import type { TraceReader, TraceSink } from './sink.ts';
+
+export function createVcdReader(sink: TraceSink, options: { signal?: string } = {}): TraceReader {
+  const decoder = createVcdDecoder(options);
+  const emit = (events: WireEvent[]): void => {
+    for (const event of events) sink.push(recordOf(event));
+  };
+  return {
+    push: (chunk) => emit(decoder.push(chunk)),
+    end() {
+      const done = decoder.end();
+      if (!done.ok) return done;
+      emit(done.events);
+      return { ok: true };
+    },
+  };
+}
+
+export function recordOf(event: WireEvent): TraceRecord {
+  const t = Math.max(0, Math.round(event.t));
+  if (event.kind !== 'message') return { t, event: event.kind };
+  const crc = (event.crc >>> 0).toString(16).padStart(8, '0');
+  const record: MessageRecord = { t, msg: toHex(event.bytes), crc, crcOk: event.crcOk };
+  if (event.sop !== 'SOP') record.sop = event.sop;
+  return record;
+}

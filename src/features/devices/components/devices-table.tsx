@@ -1,0 +1,80 @@
+import { Badge } from '../../../components/badge.tsx';
+import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
+import { EmptyState } from '../../../components/empty-state.tsx';
+import { ErrorMessage } from '../../../components/error-message.tsx';
+import { Hex, Mono } from '../../../components/mono.tsx';
+import { useDevices, type Device } from '../api/get-devices.ts';
+
+const col = dataColumnHelper<Device>();
+const columns = col.columns([
+  col.accessor('name', {
+    header: 'Device',
+    cell: ({ row }) => (
+      <div className="min-w-40">
+        <p className="font-medium text-slate-900 dark:text-slate-100">{row.original.name}</p>
+        <p className="text-xs text-slate-500 dark:text-slate-400">{[row.original.maker, row.original.model].filter(Boolean).join(' · ')}</p>
+      </div>
+    ),
+  }),
+  col.accessor('role', {
+    header: 'Role',
+    cell: ({ getValue }) => (
+      <Badge tone={getValue() === 'source' ? 'accent' : 'info'} mono>
+        {getValue()}
+      </Badge>
+    ),
+  }),
+  col.accessor('pdpW', {
+    header: 'PDP',
+    meta: { align: 'end', mono: true },
+    cell: ({ getValue }) => <Mono>{getValue()} W</Mono>,
+  }),
+  col.accessor('ratingLabel', {
+    header: 'Rating label',
+    enableSorting: false,
+    meta: { mono: true },
+    cell: ({ getValue }) => getValue() || <span className="text-slate-400">—</span>,
+  }),
+  col.accessor('pdos', {
+    header: 'PDO words',
+    enableSorting: false,
+    cell: ({ getValue }) => {
+      const pdos = getValue();
+      if (pdos.length === 0) return <span className="text-slate-400">—</span>;
+      return (
+        <ol className="flex max-w-72 flex-wrap gap-1" aria-label="PDO words, object position order">
+          {pdos.map((pdo, index) => (
+            <li key={`${index}-${pdo}`} className="flex items-center gap-1">
+              <span className="font-mono text-[10px] text-slate-400">{index + 1}</span>
+              <Hex value={pdo} groupBytes={4} />
+            </li>
+          ))}
+        </ol>
+      );
+    },
+  }),
+  col.accessor('notes', {
+    header: 'Notes',
+    enableSorting: false,
+    cell: ({ getValue }) => <p className="max-w-xs text-xs text-slate-600 dark:text-slate-400">{getValue()}</p>,
+  }),
+]);
+
+const noDevices: Device[] = [];
+
+/** The organisation's devices under test, as stored on the server. */
+export function DevicesTable() {
+  const devices = useDevices();
+  if (devices.isError) return <ErrorMessage title="The devices could not be loaded" error={devices.error} />;
+  return (
+    <DataTable
+      label="Devices under test"
+      columns={columns}
+      data={devices.data?.items ?? noDevices}
+      getRowId={(device) => String(device.id)}
+      isLoading={devices.isPending}
+      initialSorting={[{ id: 'name', desc: false }]}
+      empty={<EmptyState title="No devices yet" description="Devices under test appear here once someone adds them." />}
+    />
+  );
+}

@@ -1,0 +1,74 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { api, isApiError } from './api-client.ts';
+import type { Role } from './roles.ts';
+
+/** The signed-in user as the API returns it. */
+export type User = {
+  id?: string | number;
+  email: string;
+  name: string;
+  role: Role;
+};
+
+export type UserResponse = { user: User };
+
+/** Who is signed in, and to which organisation. */
+export type Session = { user: User; organisation: { name: string } | null };
+
+/** The session, or null when signed out (a 401 is an answer here, not an error). */
+export async function getMe(signal?: AbortSignal): Promise<Session | null> {
+  try {
+    const body = await api.get<{ user: User; organisation?: { name: string } | null }>('/me', {
+      signal,
+      allowUnauthorized: true,
+    });
+    return { user: body.user, organisation: body.organisation ?? null };
+  } catch (error) {
+    if (isApiError(error) && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export const meKeys = { all: ['me'] as const };
+
+export function meQueryOptions() {
+  return queryOptions({
+    queryKey: meKeys.all,
+    queryFn: ({ signal }) => getMe(signal),
+    staleTime: 60_000,
+  });
+}
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}
+
+/**
+ * The signed-in user inside the signed-in layout, whose loader has already fetched it.
+ * Throws (to the error boundary) if used outside that layout.
+ */
+export function useSession(): Session {
+  const { data } = useMe();
+  if (!data) throw new Error('useSession needs the signed-in layout');
+  return data;
+}
+
+export function useUser(): User {
+  return useSession().user;
+}
+
+export async function signOut(): Promise<void> {
+  await api.post<void>('/auth/logout', undefined, { allowUnauthorized: true });
+}
+
+export function useSignOut() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: signOut,
+    onSettled: () => {
+      // Nothing cached for this session may survive it.
+      queryClient.clear();
+      queryClient.setQueryData(meKeys.all, null);
+    },
+  });
+}
