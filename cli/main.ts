@@ -10,6 +10,11 @@ type CommandModule = { run(args: string[], io: CliIo): Promise<number> };
 /** Command name → summary and lazy loader (lazy so `parley decode` does not load the simulator). */
 export const commands: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
   // One line per command, in the order of ../shared/contract/cli.md; each module is `commands/<name>.ts`.
+  decode: { summary: 'decode one message: decode <hex>… [--words] [--crc] [--sop SOP|SOP\'|SOP\'\'] [--caps <hex>]', load: () => import('./commands/decode.ts') },
+  encode: { summary: 'encode a Message (JSON file, or - for stdin) to wire hex', load: () => import('./commands/encode.ts') },
+  wire: { summary: 'CC-line waveforms: wire encode <hex>… --vcd <out.vcd>, wire decode <in.vcd> [--signal NAME]', load: () => import('./commands/wire.ts') },
+  caps: { summary: 'check Source_Capabilities: caps <hex>… | --pdos 0x…,0x… [--pdp W] [--cable 3000|5000] [--label "…"]', load: () => import('./commands/caps.ts') },
+  request: { summary: 'the Request a sink policy sends: request --caps <hex> --sink <json|file> [--cable 3000|5000]', load: () => import('./commands/request.ts') },
   run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
   schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
 };

@@ -1,5 +1,6 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
+import { config as zodConfig } from 'zod/v4/core';
 import '@fontsource-variable/inter';
 import '@fontsource/jetbrains-mono/400.css';
 import '@fontsource/jetbrains-mono/600.css';
@@ -8,6 +9,8 @@ import { App } from './app/index.tsx';
 import { initTheme } from './lib/theme.ts';
 
 initTheme();
+// The CSP forbids eval: zod must not compile parsers with new Function (even its probe for that is reported).
+zodConfig({ jitless: true });
 
 const root = document.getElementById('root');
 if (!root) throw new Error('index.html has no #root element');

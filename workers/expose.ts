@@ -11,8 +11,11 @@
  * boundary with only its name, message and stack.
  */
 import { expose } from 'comlink';
+import { config as zodConfig } from 'zod/v4/core';
 
 export function exposeEngine<TApi extends object>(api: TApi): TApi {
+  // Workers run under the page's CSP, which forbids eval: keep zod from compiling parsers.
+  zodConfig({ jitless: true });
   expose(api);
   return api;
 }

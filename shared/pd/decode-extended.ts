@@ -47,7 +47,7 @@ export function decodeExtendedMessage(body: Uint8Array, header: MessageHeader, w
   if (ext.dataSize > MAX_EXTENDED_BYTES) return fail('decode.length', `the extended header's Data Size is ${ext.dataSize} bytes, more than the 260 an extended message may carry`, { offset: 2 });
   const dataBytes = chunkDataBytes(ext);
   if (ext.chunked) {
-    if (dataBytes <= 0) return fail('decode.length', `chunk ${ext.chunkNumber} starts beyond the ${ext.dataSize}-byte data block`, { offset: 2 });
+    if (!ext.requestChunk && dataBytes <= 0) return fail('decode.length', `chunk ${ext.chunkNumber} starts beyond the ${ext.dataSize}-byte data block`, { offset: 2 });
     const objects = chunkObjectCount(dataBytes);
     if (header.numDataObjects !== objects) {
       return fail('decode.length', `a chunk carrying ${dataBytes} data bytes has ${objects} data objects, but the header says ${header.numDataObjects}`, { offset: 0 });

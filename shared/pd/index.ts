@@ -17,3 +17,4 @@ export { chunkDataBytes, chunkObjectCount, MAX_CHUNK_BYTES, MAX_EXTENDED_BYTES }
 export { decodeOtherObject, encodeOtherObject } from './other-objects.ts';
 export { DECODE_RULES, type DecodeRule } from './findings.ts';
 export { fieldValue, fieldCount, fieldMask, reservedMask, type FieldLayout, type WordLayout } from './layout.ts';
+export { describeFields, fieldWords, formatValue, summarizeObject } from './describe.ts';

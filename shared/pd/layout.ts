@@ -117,7 +117,8 @@ function enumCount(value: unknown, f: FieldLayout, width: number): number {
 
 function asciiCount(value: unknown, f: FieldLayout, width: number): number {
   const chars = width / 8;
-  if (typeof value !== 'string' || value.length !== chars || !/^[\x20-\x7e]*$/.test(value)) throw new RangeError(`${f.name}: ${JSON.stringify(value)} is not ${chars} printable ASCII characters`);
+  // Any byte is kept (a malformed code still round-trips); people write two letters, e.g. "US".
+  if (typeof value !== 'string' || value.length !== chars || !/^[\x00-\xff]*$/.test(value)) throw new RangeError(`${f.name}: ${JSON.stringify(value)} is not ${chars} ASCII characters`);
   let count = 0;
   for (let i = 0; i < chars; i++) count = (count << 8) | value.charCodeAt(i);
   return count >>> 0;

@@ -14,3 +14,6 @@ export { chooseRequest } from './choose-request.ts';
 export { checkRequest } from './check-request.ts';
 export { contractOf, typedRdo } from './contract-of.ts';
 export { describePdo, isEprPdo, isPadding, offerCurrentMa, offerMaxPowerMw, voltageRangeMv, DEFAULT_CABLE_MA, EPR_CABLE_MA } from './pdo-facts.ts';
+export { readCapsHex, readPdoList, type ReadCaps } from './read-caps.ts';
+export { requestMessageHex } from './request-message.ts';
+export { fixedPdo, variablePdo, batteryPdo, ppsApdo, eprAvsApdo, sprAvsApdo, paddingPdo } from './pdo-builders.ts';

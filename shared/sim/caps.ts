@@ -4,7 +4,8 @@
  */
 import { fail, type Result } from '../core/result.ts';
 import type { SourcePdo } from '../pd/types.ts';
-import { decodeMessage, decodeSourcePdo, parseHex } from '../pd/index.ts';
+import { decodeMessage, parseHex } from '../pd/index.ts';
+import { decodeSourcePdo } from '../pd/source-pdo.ts';
 
 export type CapsInput = { pdos: string[] } | { hex: string };
 
@@ -15,7 +16,16 @@ export interface ResolvedCaps {
 
 const WORD = /^(0x)?[0-9a-f]{1,8}$/i;
 
+const memo = new WeakMap<object, Result<ResolvedCaps>>();
+
+/** Memoised by the caps object: repeated runs of one scenario decode its offers once. */
 export function resolveCaps(caps: CapsInput): Result<ResolvedCaps> {
+  let resolved = memo.get(caps);
+  if (!resolved) memo.set(caps, (resolved = resolveUncached(caps)));
+  return resolved;
+}
+
+function resolveUncached(caps: CapsInput): Result<ResolvedCaps> {
   if ('pdos' in caps) {
     const words: number[] = [];
     for (const [index, text] of caps.pdos.entries()) {
@@ -24,7 +34,8 @@ export function resolveCaps(caps: CapsInput): Result<ResolvedCaps> {
       words.push(Number.parseInt(trimmed.replace(/^0x/i, ''), 16) >>> 0);
     }
     if (words.length === 0 || words.length > 7) return fail('scenario.pdo', 'a Source_Capabilities message carries 1 to 7 PDOs');
-    return { ok: true, words, pdos: words.map((word) => decodeSourcePdo(word)) };
+    // A reserved PDO type decodes as `raw`; policies and checks skip what they cannot read.
+    return { ok: true, words, pdos: words.map((word) => decodeSourcePdo(word) as SourcePdo) };
   }
   const parsed = parseHex(caps.hex);
   if (!parsed.ok) return parsed;

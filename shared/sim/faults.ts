@@ -32,7 +32,10 @@ function typeOf(fault: Fault): string | undefined {
  * Counts this occurrence against every fault of the given kinds that selects it and returns the
  * faults that apply.
  */
+const NONE: Fault[] = [];
+
 export function faultsFor(book: FaultBook, kinds: readonly Fault['kind'][], from: Side, messageType: string, tUs: number): Fault[] {
+  if (book.faults.length === 0) return NONE;
   const hits: Fault[] = [];
   book.faults.forEach((fault, index) => {
     if (!kinds.includes(fault.kind)) return;
@@ -51,6 +54,7 @@ export function faultsFor(book: FaultBook, kinds: readonly Fault['kind'][], from
 
 /** A `silent` side transmits nothing from the moment its fault first applies. */
 export function isSilent(book: FaultBook, from: Side, messageType: string, tUs: number): boolean {
+  if (book.faults.length === 0) return false;
   const since = book.silentSinceUs[from];
   if (since !== null && tUs >= since) return true;
   if (faultsFor(book, ['silent'], from, messageType, tUs).length === 0) return false;

@@ -7,8 +7,8 @@
 import type { Contract } from '../core/contract.ts';
 import { countersFor } from '../core/timers.ts';
 import type { SourcePdo } from '../pd/types.ts';
-import { decodeSourcePdo } from '../pd/index.ts';
-import { chooseRequest } from '../rules/index.ts';
+import { decodeSourcePdo } from '../pd/source-pdo.ts';
+import { chooseRequest } from '../rules/choose-request.ts';
 import type { SinkPolicy } from '../rules/sink-policy.ts';
 import { minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
 import type { Revision } from './wire.ts';
@@ -16,6 +16,8 @@ import type { Revision } from './wire.ts';
 export interface SinkContext {
   cableMa: number;
   ownRevision: Revision;
+  /** The decoded offers when the runner already has them for these words (a memo, same result). */
+  decodeOffers?(words: readonly number[]): SourcePdo[] | undefined;
 }
 
 export interface SinkPe {
@@ -114,7 +116,7 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
   if (event.kind === 'message' && event.type === 'Source_Capabilities' && pe.state !== 'idle' && pe.state !== 'PE_SNK_Discovery') {
     // §8.3.3.3.3 / .7: offers arriving while waiting, in Ready, or asked for: evaluate them.
     effects.push({ kind: 'stop-timer', name: 'tSinkWaitCap' }, { kind: 'stop-timer', name: 'tPPSRequest' }, { kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'stop-timer', name: 'tSinkRequest' });
-    const pdos = event.objects.map((word) => decodeSourcePdo(word));
+    const pdos = context.decodeOffers?.(event.objects) ?? event.objects.map((word) => decodeSourcePdo(word) as SourcePdo);
     return select({ ...pe, pdos, revision: minRevision(context.ownRevision, event.revision) }, context, effects);
   }
 

@@ -7,8 +7,9 @@
 import type { Contract } from '../core/contract.ts';
 import { countersFor } from '../core/timers.ts';
 import type { SourcePdo } from '../pd/types.ts';
-import { decodeRdo } from '../pd/index.ts';
-import { checkRequest, contractOf } from '../rules/index.ts';
+import { decodeRdo } from '../pd/rdo.ts';
+import { checkRequest } from '../rules/check-request.ts';
+import { contractOf } from '../rules/contract-of.ts';
 import type { PeEffect, PeEvent } from './pe-types.ts';
 import type { Revision } from './wire.ts';
 
@@ -69,7 +70,7 @@ function negotiate(pe: SourcePe, rdoRaw: number, reject: boolean, context: Sourc
   const position = (rdoRaw >>> 28) & 0b1111;
   const pdo = context.pdos[position - 1];
   const rdo = pdo ? decodeRdo(rdoRaw, pdo) : undefined;
-  const valid = pdo !== undefined && rdo !== undefined && !checkRequest(rdo, [...context.pdos]).some((finding) => finding.severity === 'error');
+  const valid = pdo !== undefined && rdo !== undefined && !checkRequest(rdo, context.pdos).some((finding) => finding.severity === 'error');
   if (!valid || reject || !pdo || !rdo) {
     effects.push({ kind: 'send', type: 'Reject', objects: [] });
     return [{ ...pe, state: 'PE_SRC_Capability_Response' }, effects];

@@ -6,7 +6,7 @@
 import type { EngineError } from '../core/result.ts';
 import type { Finding } from '../core/finding.ts';
 import { decodeMessage, parseHex } from '../pd/index.ts';
-import type { Message, PowerRole, Sop, SpecRevision } from '../pd/types.ts';
+import type { Message, PowerRole, Sop, SourcePdo, SpecRevision } from '../pd/types.ts';
 import { messageDurationUs } from './wire-time.ts';
 
 export interface DecodedMessage {
@@ -31,15 +31,36 @@ export interface CacheEntry {
   uses: number;
 }
 
+export interface TypedEntry {
+  message: Message;
+  warnings: Finding[];
+  uses: number;
+}
+
 export interface DecodeCache {
   get(msg: string, sop: Sop): CacheEntry;
+  /** A Request decoded against the offers in force (so its RDO is typed), keyed by those offers. */
+  typed(decoded: DecodedMessage, sop: Sop, offersKey: string, offers: readonly SourcePdo[]): TypedEntry;
 }
 
 const PLAIN_HEX = /^[0-9a-f]*$/;
 
 export function createDecodeCache(limit = 4_096): DecodeCache {
   const entries = new Map<string, CacheEntry>();
+  const typedEntries = new Map<string, TypedEntry>();
   return {
+    typed(decoded, sop, offersKey, offers) {
+      const key = `${offersKey} ${sop} ${decoded.hex}`;
+      let entry = typedEntries.get(key);
+      if (entry === undefined) {
+        if (typedEntries.size >= limit) typedEntries.clear();
+        const result = decodeMessage(decoded.bytes, { sop, caps: offers });
+        entry = result.ok ? { message: result.message, warnings: result.warnings, uses: 0 } : { message: decoded.message, warnings: [], uses: 0 };
+        typedEntries.set(key, entry);
+      }
+      entry.uses++;
+      return entry;
+    },
     get(msg, sop) {
       const key = sop === 'SOP' ? msg : `${sop} ${msg}`;
       let entry = entries.get(key);

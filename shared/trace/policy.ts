@@ -8,6 +8,7 @@
  * revision in operation (the lower of the two ports' Specification Revision fields, §6.2.1.1.5).
  */
 import type { Contract } from '../core/contract.ts';
+import type { Finding } from '../core/finding.ts';
 import { timersFor, type TimerTable } from '../core/timers.ts';
 import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
 import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
@@ -24,6 +25,8 @@ const CAPS_CHECKED_LIMIT = 256;
 interface Pending {
   m: SeenMessage;
   reported: boolean;
+  /** The finding a timer that ran out made, refined when the answer comes after all. */
+  finding?: Finding;
 }
 interface PendingRequest extends Pending {
   rdo: Rdo;
@@ -55,8 +58,9 @@ export interface PolicyTracker {
   reset(t: number): void;
   /** The contract VBUS must meet now: none during a transition or before the first PS_RDY. */
   steadyContract(): ActiveContract | undefined;
-  /** The offers in force (for decoding Requests). */
+  /** The offers in force (for decoding Requests) and a key that names them. */
   offers(): SourcePdo[] | undefined;
+  offersKey(): string;
 }
 
 export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
@@ -85,16 +89,13 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   };
 
   /** A response within tSenderResponse of the (acknowledged) message it answers. */
-  const checkResponse = (first: SeenMessage, response: SeenMessage): void => {
+  const checkResponse = (first: Pending, response: SeenMessage): void => {
     const { tSenderResponse } = timers();
-    const tookUs = response.endUs - ackEnd(first);
-    if (tookUs > tSenderResponse.maxUs) {
-      report(
-        'timing.sender-response',
-        `The ${response.from} answered the ${first.d.messageType} at ${seconds(first.t)} with ${response.d.messageType} after ${millis(tookUs)}; tSenderResponse allows at most ${millis(tSenderResponse.maxUs)}.`,
-        { ...at(response), ref: tSenderResponse.ref },
-      );
-    }
+    const tookUs = response.endUs - ackEnd(first.m);
+    if (tookUs <= tSenderResponse.maxUs) return;
+    const message = `The ${response.from} answered the ${first.m.d.messageType} at ${seconds(first.m.t)} with ${response.d.messageType} after ${millis(tookUs)}; tSenderResponse allows at most ${millis(tSenderResponse.maxUs)}.`;
+    if (first.finding) first.finding.message = message;
+    else report('timing.sender-response', message, { ...at(response), ref: tSenderResponse.ref });
   };
 
   const onCaps = (m: SeenMessage): void => {
@@ -126,7 +127,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     const raw = objectAt(m.d.bytes, 1);
     if (raw === undefined) return;
     if (!caps && !epr) unexpected(m, 'before any Source_Capabilities');
-    if (capsWaiting) checkResponse(capsWaiting.m, m);
+    if (capsWaiting) checkResponse(capsWaiting, m);
     capsWaiting = undefined;
     lastUnackedCaps = undefined;
     const position = (raw >>> 28) & 0xf;
@@ -148,7 +149,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const onAnswer = (m: SeenMessage): void => {
     const type = m.d.messageType;
     if (request && request.m.from !== m.from) {
-      checkResponse(request.m, m);
+      checkResponse(request, m);
       if (type === 'Accept') {
         accepted = { m, request, reported: false };
         transition = true;
@@ -179,8 +180,10 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     }
     const { tPSTransition } = timers();
     const tookUs = m.endUs - ackEnd(accepted.m);
-    if (tookUs > tPSTransition.maxUs && !accepted.reported) {
-      report('timing.ps-transition', `The source sent PS_RDY ${millis(tookUs)} after its Accept at ${seconds(accepted.m.t)}; tPSTransition allows at most ${millis(tPSTransition.maxUs)}.`, { ...at(m), ref: tPSTransition.ref });
+    if (tookUs > tPSTransition.maxUs) {
+      const message = `The source sent PS_RDY ${millis(tookUs)} after its Accept at ${seconds(accepted.m.t)}; tPSTransition allows at most ${millis(tPSTransition.maxUs)}.`;
+      if (accepted.finding) accepted.finding.message = message;
+      else report('timing.ps-transition', message, { ...at(m), ref: tPSTransition.ref });
     }
     const { rdo, pdo } = accepted.request;
     accepted = undefined;
@@ -230,15 +233,15 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       const { tSenderResponse, tPSTransition, tPPSRequest } = table;
       if (capsWaiting && !capsWaiting.reported && capsWaiting.m.ackEndUs !== undefined && t > capsWaiting.m.ackEndUs + tSenderResponse.maxUs) {
         capsWaiting.reported = true;
-        report('timing.sender-response', `The sink did not answer the Source_Capabilities at ${seconds(capsWaiting.m.t)} with a Request within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: capsWaiting.m.ackEndUs + tSenderResponse.maxUs, line: capsWaiting.m.line, ref: tSenderResponse.ref });
+        capsWaiting.finding = report('timing.sender-response', `The sink did not answer the Source_Capabilities at ${seconds(capsWaiting.m.t)} with a Request within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: capsWaiting.m.ackEndUs + tSenderResponse.maxUs, line: capsWaiting.m.line, ref: tSenderResponse.ref });
       }
       if (request && !request.reported && request.m.ackEndUs !== undefined && t > request.m.ackEndUs + tSenderResponse.maxUs) {
         request.reported = true;
-        report('timing.sender-response', `The source did not answer the Request at ${seconds(request.m.t)} within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: request.m.ackEndUs + tSenderResponse.maxUs, line: request.m.line, ref: tSenderResponse.ref });
+        request.finding = report('timing.sender-response', `The source did not answer the Request at ${seconds(request.m.t)} within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: request.m.ackEndUs + tSenderResponse.maxUs, line: request.m.line, ref: tSenderResponse.ref });
       }
       if (accepted && !accepted.reported && t > ackEnd(accepted.m) + tPSTransition.maxUs) {
         accepted.reported = true;
-        report('timing.ps-transition', `The source accepted the Request at ${seconds(accepted.m.t)} but sent no PS_RDY within tPSTransition (${millis(tPSTransition.maxUs)}).`, { t: ackEnd(accepted.m) + tPSTransition.maxUs, line: accepted.m.line, ref: tPSTransition.ref });
+        accepted.finding = report('timing.ps-transition', `The source accepted the Request at ${seconds(accepted.m.t)} but sent no PS_RDY within tPSTransition (${millis(tPSTransition.maxUs)}).`, { t: ackEnd(accepted.m) + tPSTransition.maxUs, line: accepted.m.line, ref: tPSTransition.ref });
       }
       if (contract && contract.contract.kind === 'pps' && !contract.keepAliveReported && t > contract.lastRequestUs + tPPSRequest.maxUs) {
         contract.keepAliveReported = true;
@@ -269,6 +272,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     },
     steadyContract: () => (transition ? undefined : contract),
     offers: () => caps?.pdos,
+    offersKey: () => caps?.m.d.hex ?? '',
   };
 }
 

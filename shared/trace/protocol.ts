@@ -24,13 +24,19 @@ interface SopState {
   pending: SeenMessage | undefined;
   retries: number;
   reported: boolean;
-  lastId: Partial<Record<TraceSide, number>>;
-  lastHex: Partial<Record<TraceSide, string>>;
+  /** The last message each side sent that the receiver took. */
+  last: Partial<Record<TraceSide, SeenMessage>>;
   goodCrcSeen: boolean;
   held: [string, FindingExtra][];
 }
 
 const HELD_LIMIT = 1_000;
+/**
+ * A retry follows its original within tReceive + tRetry (about 1.3 ms, Time Values table); the
+ * window is wider for logs with coarse clocks, and far below the 100 ms a port waits before it
+ * repeats a message on purpose (tTypeCSendSourceCap, tSinkRequest) — common practice.
+ */
+const RETRY_WINDOW_US = 10_000;
 
 export interface ProtocolTracker {
   onMessage(m: SeenMessage): Delivery;
@@ -47,7 +53,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
   const state = (sop: Sop): SopState => {
     let s = states.get(sop);
     if (!s) {
-      s = { pending: undefined, retries: 0, reported: false, lastId: {}, lastHex: {}, goodCrcSeen: false, held: [] };
+      s = { pending: undefined, retries: 0, reported: false, last: {}, goodCrcSeen: false, held: [] };
       states.set(sop, s);
     }
     return s;
@@ -100,6 +106,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
           report('protocol.missing-goodcrc', `The GoodCRC for the ${p.from}'s ${p.d.messageType} at ${seconds(p.t)} ended ${millis(waitedUs)} after it, later than tReceive (${millis(tReceive.maxUs)}) allows.`, { t: m.t, line: m.line, ref: tReceive.ref });
         }
         p.ackEndUs = m.endUs;
+        m.acks = p;
         s.pending = undefined;
         s.retries = 0;
         s.reported = false;
@@ -107,7 +114,8 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       }
 
       const p = s.pending;
-      if (p && p.from === m.from && (!p.crcOk || (p.d.messageId === m.d.messageId && p.d.hex === m.d.hex))) {
+      const soon = p !== undefined && m.t - p.endUs <= RETRY_WINDOW_US;
+      if (p && soon && p.from === m.from && (!p.crcOk || (p.d.messageId === m.d.messageId && p.d.hex === m.d.hex))) {
         s.retries++;
         const { nRetryCount, ref } = countersFor(m.d.revision);
         if (s.retries > nRetryCount && !s.reported) {
@@ -135,8 +143,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       for (const [sop, s] of states) {
         if (which === 'cable' && sop === 'SOP') continue;
         close(s, t);
-        s.lastId = {};
-        s.lastHex = {};
+        s.last = {};
         s.retries = 0;
         s.reported = false;
       }
@@ -150,26 +157,26 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
     goodCrcSeen: () => [...states.values()].some((s) => s.goodCrcSeen),
   };
 
-  /** MessageID bookkeeping for a message the receiver takes (§6.7.1). */
+  /**
+   * MessageID bookkeeping for a message the receiver takes (§6.7.1). After a message that got no
+   * GoodCRC the sender may keep its MessageID or move on (a transmission error), so both pass.
+   */
   function deliver(s: SopState, m: SeenMessage): Delivery {
     const id = m.d.messageId;
-    if (m.d.messageType === 'Soft_Reset') {
-      s.lastId = {};
-      s.lastHex = {};
+    if (m.d.messageType === 'Soft_Reset') s.last = {};
+    const last = s.last[m.from];
+    s.last[m.from] = m;
+    if (last === undefined) return 'new';
+    const lastId = last.d.messageId;
+    const next = (lastId + 1) & 7;
+    if (id === lastId) {
+      // The same message again right after its GoodCRC: the sender missed that GoodCRC and retried.
+      if (last.d.hex === m.d.hex && (last.ackEndUs === undefined || m.t - last.endUs <= RETRY_WINDOW_US)) return last.ackEndUs === undefined ? 'new' : 'retry';
+      if (last.ackEndUs === undefined) return 'new';
+      report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} repeats MessageID ${id} of the ${last.d.messageType} at ${seconds(last.t)} without being a retry of it.`, { t: m.t, line: m.line });
+    } else if (id !== next) {
+      report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} carries MessageID ${id}; after ${lastId} the next is ${next}.`, { t: m.t, line: m.line });
     }
-    const last = s.lastId[m.from];
-    let delivery: Delivery = 'new';
-    if (last !== undefined) {
-      if (id === last) {
-        // The same message again after its GoodCRC: the sender missed that GoodCRC and retried.
-        if (s.lastHex[m.from] === m.d.hex) delivery = 'retry';
-        else report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} repeats MessageID ${id} of a different message before it.`, { t: m.t, line: m.line });
-      } else if (id !== ((last + 1) & 7)) {
-        report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} carries MessageID ${id}; the next after ${last} is ${(last + 1) & 7}.`, { t: m.t, line: m.line });
-      }
-    }
-    s.lastId[m.from] = id;
-    s.lastHex[m.from] = m.d.hex;
-    return delivery;
+    return 'new';
   }
 }

@@ -5,7 +5,7 @@
  */
 import { toHex } from '../pd/index.ts';
 import { createVcdDecoder, type WireEvent } from '../wire/index.ts';
-import type { TraceRecord } from './records.ts';
+import type { MessageRecord, TraceRecord } from './records.ts';
 import type { TraceReader, TraceSink } from './sink.ts';
 
 export function createVcdReader(sink: TraceSink, options: { signal?: string } = {}): TraceReader {

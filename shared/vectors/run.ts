@@ -229,7 +229,7 @@ async function runTrace(vector: Extract<Vector, { kind: 'trace' }>, engine: Engi
     } catch (error) {
       return { actual: undefined, mismatches: [], inputError: `input.file: cannot read "${file}": ${error instanceof Error ? error.message : String(error)}` };
     }
-    const analysed = engine.trace.analyzeText(text, { format: input.format ?? 'auto' });
+    const analysed = engine.trace.analyzeTrace(text, { format: input.format ?? 'auto' });
     if (!analysed.ok) return { actual: undefined, mismatches: [], inputError: `input.file: ${analysed.error.message}` };
     analysis = analysed.analysis;
   }

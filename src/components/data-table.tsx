@@ -176,10 +176,22 @@ export function DataTable<TData extends RowData>({
                 <tr
                   key={row.id}
                   aria-selected={onRowClick ? selected : undefined}
+                  tabIndex={onRowClick ? 0 : undefined}
                   onClick={onRowClick ? () => onRowClick(row.original) : undefined}
+                  onKeyDown={
+                    onRowClick
+                      ? (event) => {
+                          if (event.target !== event.currentTarget) return;
+                          if (event.key === 'Enter' || event.key === ' ') {
+                            event.preventDefault();
+                            onRowClick(row.original);
+                          }
+                        }
+                      : undefined
+                  }
                   className={cn(
                     'align-top',
-                    onRowClick && 'cursor-pointer hover:bg-slate-50 dark:hover:bg-slate-800/60',
+                    onRowClick && 'cursor-pointer hover:bg-slate-50 focus-visible:-outline-offset-2 dark:hover:bg-slate-800/60',
                     selected && 'bg-amber-50 hover:bg-amber-50 dark:bg-amber-400/10 dark:hover:bg-amber-400/10',
                   )}
                 >

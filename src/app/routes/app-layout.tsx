@@ -1,17 +1,21 @@
 import { Suspense } from 'react';
-import { Link, NavLink, Outlet, useNavigation } from 'react-router';
+import { Link, Navigate, NavLink, Outlet, useLocation, useNavigation } from 'react-router';
 import { ParleyMark } from '../../components/parley-mark.tsx';
 import { ThemeSwitch } from '../../components/theme-switch.tsx';
 import { paths } from '../../config/paths.ts';
-import { useSession } from '../../lib/auth.ts';
+import { useMe } from '../../lib/auth.ts';
 import { cn } from '../../lib/cn.ts';
 import { UserMenu } from '../components/user-menu.tsx';
 import { navFor } from '../nav.ts';
 
 /** The signed-in shell: top bar with nav, account menu and colour scheme; pages render below. */
 export function AppLayout() {
-  const { user, organisation } = useSession();
+  const { data: session } = useMe();
   const navigation = useNavigation();
+  const location = useLocation();
+  // The loader made sure of a session; it ends here on sign-out or when the server says 401.
+  if (!session) return <Navigate to={paths.auth.signIn.getHref(location.pathname + location.search)} replace />;
+  const { user, organisation } = session;
   const entries = navFor(user.role);
 
   return (

@@ -1,0 +1,96 @@
+/**
+ * `simulate(scenario, options)`: runs a negotiation scenario (vector.md) and returns the trace
+ * (trace.md records, each message with its decoded form), VBUS/IBUS samples, state lanes, timer
+ * spans, the contract and the findings of the trace analyser over the simulated trace — the same
+ * checks that run on real captures.
+ */
+import type { Contract } from '../core/contract.ts';
+import type { Finding } from '../core/finding.ts';
+import { decodeMessage, parseHex } from '../pd/index.ts';
+import type { Message, SourcePdo } from '../pd/types.ts';
+import { analyzeRecords } from '../trace/index.ts';
+import type { TraceRecord } from '../trace/records.ts';
+import { resolveCaps } from './caps.ts';
+import { runScenario } from './runner.ts';
+import type { Scenario } from './scenario.ts';
+import type { LaneEntry, TimedContract, TimerSpan } from './types.ts';
+
+export interface SimulateOptions {
+  /** Add `samples` (default every 1 ms). */
+  samples?: boolean;
+  sampleEveryUs?: number;
+  /** Attach each message's decoded form as `message` (default true). */
+  decode?: boolean;
+  /** Run the trace analyser over the result (default true). */
+  analyze?: boolean;
+  /** Stop as soon as the first explicit contract is in place. */
+  untilContract?: boolean;
+  /** Called with the fraction of simulated time done, about a hundred times a run. */
+  onProgress?(fraction: number): void;
+  /** Checked every 256 events; true stops the run (a worker's cancel button). */
+  shouldStop?(): boolean;
+}
+
+export type Sample = [t: number, mv: number, ma: number, sinkMv: number];
+
+export interface SimulationResult {
+  /** The explicit contract in force at the end, or null. */
+  contract: Contract | null;
+  /** Every explicit contract reached, with the time (µs) the sink got its PS_RDY. */
+  contracts: TimedContract[];
+  events: TraceRecord[];
+  findings: Finding[];
+  samples?: Sample[];
+  lanes: LaneEntry[];
+  timers: TimerSpan[];
+  /** Simulated time reached, µs. */
+  endUs: number;
+  /** True when `shouldStop` ended the run early. */
+  stopped: boolean;
+}
+
+function invalid(message: string): SimulationResult {
+  const finding: Finding = { rule: 'sim.scenario', severity: 'error', message, ref: 'vector.md, Scenario' };
+  return { contract: null, contracts: [], events: [], findings: [finding], lanes: [], timers: [], endUs: 0, stopped: false };
+}
+
+/** Decoded forms, once per distinct hex (a run repeats few distinct messages). */
+function decodeAll(records: TraceRecord[], pdos: SourcePdo[]): void {
+  const cache = new Map<string, Message | null>();
+  for (const record of records) {
+    if (!('msg' in record)) continue;
+    let message = cache.get(record.msg);
+    if (message === undefined) {
+      const bytes = parseHex(record.msg);
+      const decoded = bytes.ok ? decodeMessage(bytes.bytes, { caps: pdos }) : bytes;
+      message = decoded.ok ? decoded.message : null;
+      cache.set(record.msg, message);
+    }
+    if (message) record.message = message;
+  }
+}
+
+export function simulate(scenario: Scenario, options: SimulateOptions = {}): SimulationResult {
+  const caps = resolveCaps(scenario.source.caps);
+  if (!caps.ok) return invalid(`source.caps: ${caps.error.message}`);
+  const run = runScenario(scenario, caps, {
+    sampleEveryUs: options.samples ? Math.max(1, options.sampleEveryUs ?? 1_000) : undefined,
+    untilContract: options.untilContract,
+    onProgress: options.onProgress,
+    shouldStop: options.shouldStop,
+  });
+  if (options.decode !== false) decodeAll(run.records, caps.pdos);
+  const findings = options.analyze === false ? [] : analyzeRecords(run.records).findings;
+  const result: SimulationResult = {
+    contract: run.contract,
+    contracts: run.contracts,
+    events: run.records,
+    findings,
+    lanes: run.lanes,
+    timers: run.timers,
+    endUs: run.endUs,
+    stopped: run.stopped,
+  };
+  if (run.samples) result.samples = run.samples;
+  return result;
+}

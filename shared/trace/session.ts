@@ -1,0 +1,75 @@
+/**
+ * One trace from text chunks to an Analysis: picks the reader (by `format`, or by content when
+ * `auto`), feeds the analyser and says when nothing at all could be read (`trace.empty`, an input
+ * error). The CLI streams a file through it; the worker and the server pass an upload's text.
+ */
+import { fail, type Result } from '../core/result.ts';
+import { createAnalyzer, type Analysis, type AnalyzerOptions } from './analyzer.ts';
+import { detectFormat, type TraceFormat } from './detect-format.ts';
+import { createJsonlReader } from './jsonl-reader.ts';
+import type { TraceReader, TraceSink } from './sink.ts';
+import { createTextReader } from './text-reader.ts';
+import { createVcdReader } from './vcd-reader.ts';
+
+export interface TraceSessionOptions extends Omit<AnalyzerOptions, 'format'> {
+  format?: TraceFormat | 'auto';
+  /** VCD: the signal that carries CC (default the first 1-bit wire). */
+  signal?: string;
+}
+
+export interface TraceSession {
+  push(chunk: string): void;
+  finish(): Result<{ analysis: Analysis }>;
+}
+
+/** Enough of the start of a file to tell the formats apart. */
+const HEAD_CHARS = 256;
+
+export function createReader(format: TraceFormat, sink: TraceSink, options: { signal?: string } = {}): TraceReader {
+  if (format === 'jsonl') return createJsonlReader(sink);
+  if (format === 'text') return createTextReader(sink);
+  return createVcdReader(sink, options.signal === undefined ? {} : { signal: options.signal });
+}
+
+export function createTraceSession(options: TraceSessionOptions = {}): TraceSession {
+  let head = '';
+  let started: { reader: TraceReader; analyzer: ReturnType<typeof createAnalyzer> } | undefined;
+  const start = () => {
+    const format = options.format === undefined || options.format === 'auto' ? detectFormat(head) : options.format;
+    const analyzer = createAnalyzer({ ...options, format });
+    const reader = createReader(format, analyzer, options);
+    started = { reader, analyzer };
+    if (head.length > 0) reader.push(head);
+    head = '';
+    return started;
+  };
+  return {
+    push(chunk) {
+      if (started) {
+        started.reader.push(chunk);
+        return;
+      }
+      head += chunk;
+      if (head.trimStart().length >= HEAD_CHARS) start();
+    },
+    finish() {
+      const { reader, analyzer } = started ?? start();
+      const end = reader.end();
+      if (!end.ok) return fail(end.error.code, end.error.message, end.error);
+      const analysis = analyzer.finish();
+      if (analysis.records === 0) {
+        const unread = analysis.counts.warning;
+        return fail('trace.empty', unread > 0 ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})` : 'the file holds no trace record (message, event, measurement or note)');
+      }
+      return { ok: true, analysis };
+    },
+  };
+}
+
+/** A whole trace already in memory, fed through the same streaming path in 64 KiB pieces. */
+export function analyzeTrace(text: string, options: TraceSessionOptions = {}): Result<{ analysis: Analysis }> {
+  const session = createTraceSession(options);
+  const piece = 65_536;
+  for (let i = 0; i < text.length; i += piece) session.push(text.slice(i, i + piece));
+  return session.finish();
+}

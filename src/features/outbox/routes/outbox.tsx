@@ -1,0 +1,80 @@
+import { useSearchParams } from 'react-router';
+import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
+import { EmptyState } from '../../../components/empty-state.tsx';
+import { ErrorMessage } from '../../../components/error-message.tsx';
+import { PageHeader } from '../../../components/page-header.tsx';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useOutbox, type OutboxItem } from '../api/get-outbox.ts';
+import { MailReader } from '../components/mail-reader.tsx';
+
+const pageSize = 25;
+const noMail: OutboxItem[] = [];
+
+const col = dataColumnHelper<OutboxItem>();
+const columns = col.columns([
+  col.accessor('subject', {
+    header: 'Mail',
+    enableSorting: false,
+    cell: ({ row }) => (
+      <div className="min-w-0">
+        <p className="truncate font-medium text-slate-900 dark:text-slate-100">{row.original.subject}</p>
+        <p className="truncate font-mono text-xs text-slate-500 dark:text-slate-400">{row.original.to}</p>
+      </div>
+    ),
+  }),
+  col.accessor('sentAt', {
+    header: 'Sent',
+    enableSorting: false,
+    meta: { mono: true, align: 'end' },
+    cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDateTime(getValue())}</span>,
+  }),
+]);
+
+export function OutboxRoute() {
+  const [params, setParams] = useSearchParams();
+  const page = Math.max(1, Number(params.get('page')) || 1);
+  const mailId = params.get('mail');
+  const outbox = useOutbox({ page, pageSize });
+
+  const update = (changes: Record<string, string | null>) => {
+    const next = new URLSearchParams(params);
+    for (const [key, value] of Object.entries(changes)) {
+      if (value === null) next.delete(key);
+      else next.set(key, value);
+    }
+    setParams(next);
+  };
+
+  return (
+    <>
+      <PageHeader
+        eyebrow="Admin"
+        title="Outbox"
+        description="Every e-mail Parley has sent — invitations and password resets — exactly as it went out."
+      />
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+        {outbox.isError ? (
+          <ErrorMessage title="The outbox could not be loaded" error={outbox.error} />
+        ) : (
+          <DataTable
+            label="Sent mail"
+            columns={columns}
+            data={outbox.data?.items ?? noMail}
+            getRowId={(mail) => String(mail.id)}
+            isLoading={outbox.isPending}
+            onRowClick={(mail) => update({ mail: String(mail.id) })}
+            selectedRowId={mailId ?? undefined}
+            pagination={{
+              pageIndex: page - 1,
+              pageSize,
+              rowCount: outbox.data?.total ?? 0,
+              onPageChange: (pageIndex) => update({ page: pageIndex > 0 ? String(pageIndex + 1) : null }),
+            }}
+            empty={<EmptyState title="No mail sent yet" description="Invitations and password resets appear here." />}
+          />
+        )}
+        <MailReader mailId={mailId} />
+      </div>
+    </>
+  );
+}
