@@ -15,6 +15,8 @@ export const commands: Record<string, { summary: string; load: () => Promise<Com
   wire: { summary: 'CC-line waveforms: wire encode <hex>… --vcd <out.vcd>, wire decode <in.vcd> [--signal NAME]', load: () => import('./commands/wire.ts') },
   caps: { summary: 'check Source_Capabilities: caps <hex>… | --pdos 0x…,0x… [--pdp W] [--cable 3000|5000] [--label "…"]', load: () => import('./commands/caps.ts') },
   request: { summary: 'the Request a sink policy sends: request --caps <hex> --sink <json|file> [--cable 3000|5000]', load: () => import('./commands/request.ts') },
+  simulate: { summary: 'run a negotiation scenario: simulate <scenario.json|-> [--trace <out.trace.jsonl>] [--samples] [--json]', load: () => import('./commands/simulate.ts') },
+  analyze: { summary: 'decode and check a trace: analyze <file> [--format auto|jsonl|text|vcd] [--fail-on error|warning] [--json]', load: () => import('./commands/analyze.ts') },
   run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
   schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
 };

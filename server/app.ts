@@ -1,6 +1,7 @@
 import express, { type Express } from 'express';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
+import { tmpdir } from 'node:os';
 import helmet from 'helmet';
 import compression from 'compression';
 import cookieParser from 'cookie-parser';
@@ -33,6 +34,8 @@ export interface AppOptions {
   verifyBearer?: BearerVerifier;
   /** Defaults to the full route table; tests may pass their own. */
   routes?: readonly RouteDef[];
+  /** Folder for uploaded files (startServer passes PARLEY_DATA); default a folder in the system temp directory. */
+  dataDir?: string;
 }
 
 const fifteenMinutesMs = 15 * 60_000;
@@ -66,6 +69,7 @@ export function createApp(options: AppOptions): Express {
     logger,
     rateLimits: { login: options.rateLimits?.login ?? defaultLogin, forgot: options.rateLimits?.forgot ?? defaultForgot },
     verifyBearer: options.verifyBearer,
+    dataDir: options.dataDir ?? join(tmpdir(), 'parley-data'),
   };
 
   const app = express();

@@ -34,6 +34,8 @@ export interface AppDeps {
   logger: Logger;
   rateLimits: { login: RateLimitOptions; forgot: RateLimitOptions };
   verifyBearer?: BearerVerifier;
+  /** Folder for stored files (`PARLEY_DATA`): uploaded traces live in `<dataDir>/traces`. */
+  dataDir: string;
 }
 
 declare global {

@@ -13,6 +13,7 @@ import { startMailFake } from './mail/fake-smtp.ts';
 import { createMailbox, type Mailbox } from './mail/mailbox.ts';
 import { createApp } from './app.ts';
 import { systemClock } from './context.ts';
+import { closeAnalysisPool } from './analysis/pool.ts';
 
 export interface StartOptions {
   /** 0 = a random free port. Default PORT or 3000. */
@@ -55,7 +56,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
 
   const orm = await openOrm({ dbName: join(dataDir, 'parley.sqlite') });
   if (options.demo ?? env.PARLEY_DEMO) {
-    if (await seedDemo(orm.em.fork(), systemClock)) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
+    if (await seedDemo(orm.em.fork(), systemClock, { dataDir })) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
   }
 
   const smtpUrl = options.smtpUrl ?? env.SMTP_URL;
@@ -77,7 +78,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
 
   const distDir = options.distDir ?? join(repoRoot, 'dist');
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
-  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false });
+  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
@@ -89,6 +90,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
         server.close(() => resolveClose());
         server.closeIdleConnections();
       });
+      await closeAnalysisPool();
       mailer.close();
       await fake?.close();
       await orm.close();

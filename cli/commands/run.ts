@@ -11,8 +11,6 @@
 import { readdir, readFile, stat, writeFile } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { dirname, relative, resolve, sep } from 'node:path';
-import { createRequire } from 'node:module';
-import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { PropertyOutcome } from '../../shared/vectors/property.ts';
 import { formatVector } from '../../shared/vectors/format.ts';
@@ -98,19 +96,6 @@ async function load(file: string, cwd: string): Promise<Loaded> {
 
 // ---- the property worker pool ------------------------------------------------------------------
 
-/** The worker's whole program: load the engine through tsx, then answer jobs. CommonJS (eval). */
-const WORKER_SOURCE = `
-const { parentPort, workerData } = require('node:worker_threads');
-const { tsImport } = require(workerData.tsxApi);
-tsImport(workerData.entry, workerData.parent).then((mod) => {
-  parentPort.on('message', async (job) => {
-    const outcome = await mod.checkProperty(job.code, job.options, mod.engine);
-    parentPort.postMessage({ id: job.id, outcome });
-  });
-  parentPort.postMessage({ ready: true });
-}, (error) => parentPort.postMessage({ fatal: String(error && error.stack || error) }));
-`;
-
 interface Job {
   id: number;
   code: string;
@@ -125,17 +110,13 @@ export interface PropertyPool {
 
 /** A pool of `size` worker threads checking property vectors; started lazily on the first job. */
 export function createPropertyPool(size: number): PropertyPool {
-  const require = createRequire(import.meta.url);
-  const workerData = {
-    tsxApi: require.resolve('tsx/esm/api'),
-    entry: pathToFileURL(resolve(dirname(fileURLToPath(import.meta.url)), '../../shared/vectors/index.ts')).href,
-    parent: import.meta.url,
-  };
+  const workerUrl = new URL('./property-worker.mjs', import.meta.url);
   const queue: Job[] = [];
   const idle: Worker[] = [];
   const busy = new Map<Worker, Job>();
   const workers: Worker[] = [];
   let nextId = 1;
+  let fatal: string | undefined;
 
   const failJob = (job: Job, message: string) => job.resolve({ holds: false, numRuns: 0, seed: job.options.seed, error: { code: 'property.worker', message } });
   const pump = () => {
@@ -147,11 +128,12 @@ export function createPropertyPool(size: number): PropertyPool {
     }
   };
   const start = () => {
-    const worker = new Worker(WORKER_SOURCE, { eval: true, workerData });
+    const worker = new Worker(workerUrl);
     workers.push(worker);
     worker.on('message', (message: { ready?: boolean; fatal?: string; id?: number; outcome?: PropertyOutcome }) => {
       if (message.fatal !== undefined) {
-        for (const job of queue.splice(0)) failJob(job, `the property worker could not load the engine: ${message.fatal.split('\n')[0]}`);
+        fatal = `the property worker could not load the engine: ${message.fatal.split('\n')[0]}`;
+        for (const job of queue.splice(0)) failJob(job, fatal);
         return;
       }
       if (!message.ready) {
@@ -166,6 +148,13 @@ export function createPropertyPool(size: number): PropertyPool {
       const job = busy.get(worker);
       busy.delete(worker);
       if (job) failJob(job, `the property worker stopped: ${error.message}`);
+      fatal ??= `the property worker stopped: ${error.message}`;
+      if (busy.size === 0 && idle.length === 0) for (const queued of queue.splice(0)) failJob(queued, fatal);
+    });
+    worker.on('exit', (code) => {
+      const job = busy.get(worker);
+      busy.delete(worker);
+      if (job) failJob(job, `the property worker exited (code ${code})`);
     });
   };
 
@@ -173,6 +162,7 @@ export function createPropertyPool(size: number): PropertyPool {
     check(code, options) {
       if (workers.length < size) start();
       return new Promise((resolveJob) => {
+        if (fatal !== undefined) return resolveJob({ holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.worker', message: fatal } });
         queue.push({ id: nextId++, code, options, resolve: resolveJob });
         pump();
       });

@@ -1,4 +1,5 @@
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
+import { Trace, TraceComment } from './trace-entities.ts';
 
 /**
  * Every table of the server. Dates come from the injected clock, so no column has a database default.
@@ -107,4 +108,4 @@ export const DeviceUnderTest = defineEntity({
 });
 export type IDeviceUnderTest = InferEntity<typeof DeviceUnderTest>;
 
-export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest];
+export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment];

@@ -18,3 +18,5 @@ export { decodeOtherObject, encodeOtherObject } from './other-objects.ts';
 export { DECODE_RULES, type DecodeRule } from './findings.ts';
 export { fieldValue, fieldCount, fieldMask, reservedMask, type FieldLayout, type WordLayout } from './layout.ts';
 export { describeFields, fieldWords, formatValue, summarizeObject } from './describe.ts';
+export { headerLayout, objectLayout, EXTENDED_HEADER_LAYOUT } from './layouts.ts';
+export { decodeInput, type DecoderInput, type DecodeOutcome, type InputMode } from './decode-input.ts';

@@ -17,3 +17,5 @@ export { describePdo, isEprPdo, isPadding, offerCurrentMa, offerMaxPowerMw, volt
 export { readCapsHex, readPdoList, type ReadCaps } from './read-caps.ts';
 export { requestMessageHex } from './request-message.ts';
 export { fixedPdo, variablePdo, batteryPdo, ppsApdo, eprAvsApdo, sprAvsApdo, paddingPdo } from './pdo-builders.ts';
+export { offerInputSchema, offerListSchema, buildOffers, defaultOffer, offerInputOf, type OfferInput, type OfferKind } from './offer-input.ts';
+export { analyseOffers, readOffers, type AnalyseOffersInput, type OffersAnalysis, type CableContract, type ReadOffers } from './analyse-offers.ts';

@@ -175,7 +175,7 @@ export function runScenario(scenario: Scenario, caps: { words: number[]; pdos: S
   function onTx(frame: Frame): void {
     const pending = prl[frame.from].pending;
     if (frame.attempt > 0 && (pending === null || pending.messageId !== frame.messageId || pending.attempts !== frame.attempt)) return;
-    if (clock.nowUs < lineFreeUs) {
+    if (frame.attempt > 0 && clock.nowUs < lineFreeUs) {
       schedule(lineFreeUs, { kind: 'tx', frame });
       return;
     }
@@ -188,11 +188,15 @@ export function runScenario(scenario: Scenario, caps: { words: number[]; pdos: S
     const header = packHeader(frame.type, frame.objects.length, frame.messageId, frame.from, revision);
     const dropped = faultsFor(book, ['drop'], frame.from, frame.type, clock.nowUs).length > 0;
     const corrupt = !dropped && faultsFor(book, ['corrupt'], frame.from, frame.type, clock.nowUs).length > 0;
+    // A dropped message never reaches the partner's port, so the port's trace holds a note, not the message.
+    if (dropped) {
+      note(`fault: ${frame.type} #${frame.messageId} from ${frame.from} dropped`);
+      return;
+    }
     const record: MessageRecord = { t: clock.nowUs, msg: frameHex(header, frame.objects), from: frame.from };
     if (corrupt) record.crcOk = false;
     records.push(record);
-    if (dropped) note(`fault: ${frame.type} from ${frame.from} dropped`);
-    else schedule(endUs, { kind: 'arrive', frame, corrupt });
+    schedule(endUs, { kind: 'arrive', frame, corrupt });
   }
   function onHardResetTx(from: Side): void {
     if (clock.nowUs < lineFreeUs) {
@@ -231,9 +235,12 @@ export function runScenario(scenario: Scenario, caps: { words: number[]; pdos: S
         return;
       }
       case 'good-crc': {
-        // tTransmit: the GoodCRC starts within 195 µs of the message's end (§6.6 Time Values).
+        // tTransmit: the GoodCRC starts within 195 µs of the message's end (§6.6 Time Values); the
+        // line is held for it, so no other message of this port can slip in first.
         const range = timersFor('3.0').tTransmit;
-        schedule(clock.nowUs + random.between(range.minUs, range.maxUs), { kind: 'tx', frame: { from: side, type: 'GoodCRC', objects: [], messageId: effect.messageId, attempt: 0 } });
+        const startUs = Math.max(clock.nowUs + random.between(range.minUs, range.maxUs), lineFreeUs);
+        lineFreeUs = startUs + packetDurationUs(0) + INTER_FRAME_GAP_US;
+        schedule(startUs, { kind: 'tx', frame: { from: side, type: 'GoodCRC', objects: [], messageId: effect.messageId, attempt: 0 } });
         return;
       }
       case 'stop-crc-timer':
@@ -436,14 +443,14 @@ export function runScenario(scenario: Scenario, caps: { words: number[]; pdos: S
     sampleUntil(entry.tUs);
     clock.advanceTo(entry.tUs);
     dispatch(entry);
-    if ((++handled & 0xff) === 0 && options.shouldStop?.()) {
+    // The stop check runs every 256 events and at each percent of simulated time.
+    const checkpoint = clock.nowUs >= nextProgressUs;
+    if (checkpoint) nextProgressUs = clock.nowUs + progressEveryUs;
+    if (((++handled & 0xff) === 0 || checkpoint) && options.shouldStop?.()) {
       stopped = true;
       break;
     }
-    if (options.onProgress && clock.nowUs >= nextProgressUs) {
-      options.onProgress(Math.min(1, clock.nowUs / durationUs));
-      nextProgressUs = clock.nowUs + progressEveryUs;
-    }
+    if (checkpoint) options.onProgress?.(Math.min(1, clock.nowUs / durationUs));
   }
   sampleUntil(clock.nowUs + 1);
   for (const side of ['source', 'sink'] as const) {

@@ -27,7 +27,7 @@ export interface SimulateOptions {
   untilContract?: boolean;
   /** Called with the fraction of simulated time done, about a hundred times a run. */
   onProgress?(fraction: number): void;
-  /** Checked every 256 events; true stops the run (a worker's cancel button). */
+  /** Checked every 256 events and at each percent of simulated time; true stops the run (a worker's cancel button). */
   shouldStop?(): boolean;
 }
 

@@ -34,7 +34,11 @@ export function timerDurationUs(name: SimTimerName, side: Side, revision: Revisi
   }
 }
 
-/** A port's processing time before it answers a message (common practice: 0.3–2 ms). */
+/**
+ * A port's processing time before it answers a message (common practice: 1.5–5 ms). Longer than
+ * tReceive, so a lost GoodCRC is retried before the partner's answer comes, and far inside
+ * tSenderResponse.
+ */
 export function responseDelayUs(random: Random): number {
-  return random.between(300, 2_000);
+  return random.between(1_500, 5_000);
 }

@@ -190,7 +190,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     if (r.event === 'hard_reset') {
       const unacked = protocol.unacknowledged(t);
       const cause =
-        (unacked ? `the ${unacked.from}'s ${unacked.d.messageType} at ${seconds(unacked.t)} got no GoodCRC` : undefined) ??
+        (unacked ? `the ${unacked.from}'s ${unacked.d.messageType} at ${seconds(unacked.firstUs ?? unacked.t)} got no GoodCRC` : undefined) ??
         policy.hardResetCause(t) ??
         (voltageProblem ? `VBUS left the contract's range at ${seconds(voltageProblem.firstUs)}` : undefined) ??
         recentProblem(t);

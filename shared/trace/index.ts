@@ -23,3 +23,4 @@ export { createLineSplitter } from './lines.ts';
 export type { TraceReader, TraceSink } from './sink.ts';
 export { createTraceSession, analyzeTrace, createReader, type TraceSession, type TraceSessionOptions } from './session.ts';
 export { messageDurationUs } from './wire-time.ts';
+export { contractText, seconds as formatSeconds } from './format.ts';

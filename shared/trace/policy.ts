@@ -16,11 +16,13 @@ import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
 import { objectAt } from './decode-cache.ts';
 import { contractText, millis, seconds } from './format.ts';
 import type { Report, SeenMessage } from './seen.ts';
+import type { VbusLimits } from './vbus.ts';
 
 const SOURCE_PDO_KINDS: readonly string[] = ['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'];
 /** Messages the partner answers with Accept, Reject, Wait or Not_Supported. */
 const NEEDS_ACCEPT: readonly string[] = ['Soft_Reset', 'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'FR_Swap', 'Data_Reset', 'Enter_USB', 'EPR_Mode'];
-const CAPS_CHECKED_LIMIT = 256;
+/** Offers and requests are checked once each: a keep-alive repeats the same Request every few seconds. */
+const CHECKED_LIMIT = 1_024;
 
 interface Pending {
   m: SeenMessage;
@@ -40,6 +42,8 @@ export interface ActiveContract {
   /** For a programmable contract: the start of the last Request (tPPSRequest counts from it). */
   lastRequestUs: number;
   keepAliveReported: boolean;
+  /** VBUS limits, worked out on the first reading. */
+  limits?: VbusLimits;
 }
 
 export interface PolicyEvents {
@@ -75,6 +79,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let transition = false;
   const revisions: { source?: SpecRevision; sink?: SpecRevision } = {};
   const capsChecked = new Set<string>();
+  const rdos = new Map<string, Rdo>();
 
   const timers = (): TimerTable => {
     const a = revisions.source;
@@ -116,7 +121,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     caps = { m, pdos };
     capsWaiting = { m, reported: false };
     request = undefined;
-    if (!capsChecked.has(m.d.hex) && capsChecked.size < CAPS_CHECKED_LIMIT) {
+    if (!capsChecked.has(m.d.hex) && capsChecked.size < CHECKED_LIMIT) {
       capsChecked.add(m.d.hex);
       for (const f of checkCaps(pdos).findings) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
     }
@@ -137,8 +142,14 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       const decoded = copy === undefined ? undefined : decodeSourcePdo(copy);
       if (decoded && SOURCE_PDO_KINDS.includes(decoded.kind)) pdo = decoded as SourcePdo;
     }
-    const rdo = decodeRdo(raw, pdo);
-    if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+    const key = `${caps?.m.d.hex ?? ''} ${m.d.hex}`;
+    let rdo = rdos.get(key);
+    if (rdo === undefined) {
+      if (rdos.size >= CHECKED_LIMIT) rdos.clear();
+      rdo = decodeRdo(raw, pdo);
+      rdos.set(key, rdo);
+      if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+    }
     request = { m, rdo, pdo, reported: false };
     if (contract) {
       contract.lastRequestUs = m.t;

@@ -74,11 +74,11 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
     // Before any GoodCRC the partner may not speak PD yet: the source keeps offering (§8.3.3.2).
     if (p.d.messageType === 'Source_Capabilities' && !s.goodCrcSeen) return;
     const { nRetryCount } = countersFor(p.d.revision);
-    const what = `${p.d.messageType} at ${seconds(p.t)}`;
+    const what = `${p.d.messageType} at ${seconds(p.firstUs ?? p.t)}`;
     const text =
       s.retries >= nRetryCount
         ? `The ${p.from} sent its ${what} ${s.retries + 1} times and never got a GoodCRC.`
-        : `The ${p.from}'s ${what} got no GoodCRC, and the ${p.from} did not retry it ${nRetryCount} times as it should.`;
+        : `The ${p.from}'s ${what} got no GoodCRC, and the ${p.from} stopped after ${s.retries} of the ${nRetryCount} retries it owes.`;
     missing(s, text, { t: p.t, line: p.line });
   };
 
@@ -120,8 +120,9 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
         const { nRetryCount, ref } = countersFor(m.d.revision);
         if (s.retries > nRetryCount && !s.reported) {
           s.reported = true;
-          missing(s, `The ${m.from} sent its ${m.d.messageType} ${s.retries + 1} times at ${seconds(p.t)}: more than nRetryCount (${nRetryCount}) retries.`, { t: m.t, line: m.line, ref });
+          missing(s, `The ${m.from} sent its ${m.d.messageType} at ${seconds(p.firstUs ?? p.t)} ${s.retries + 1} times: more retries than nRetryCount (${nRetryCount}) allows.`, { t: m.t, line: m.line, ref });
         }
+        m.firstUs = p.firstUs ?? p.t;
         s.pending = m;
         return m.crcOk && !p.crcOk ? deliver(s, m) : 'retry';
       }

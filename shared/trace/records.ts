@@ -112,7 +112,7 @@ export type CheckedLine =
   | { kind: 'invalid'; reason: string };
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
-const isInt = (v: unknown): v is number => typeof v === 'number' && Number.isInteger(v);
+const isInt = (v: unknown): v is number => typeof v === 'number' && Number.isSafeInteger(v);
 const oneOf = (v: unknown, allowed: readonly string[]): boolean => v === undefined || (typeof v === 'string' && allowed.includes(v));
 
 /**

@@ -19,6 +19,8 @@ export interface SeenMessage {
   index: number;
   /** End of the GoodCRC that acknowledged it, once one did. */
   ackEndUs: number | undefined;
+  /** For a retry: when the first copy was sent. */
+  firstUs?: number;
   /** For a GoodCRC: the message it acknowledged. */
   acks: SeenMessage | undefined;
 }

@@ -23,14 +23,23 @@ export interface VbusLimits {
 const REF = 'USB PD R3.2 V1.1 §7.1 Source electrical parameters (vSafe5V, vSrcNew, vPpsNew; from memory)';
 const PPS_CL_TOLERANCE_MA = 150;
 
+function within5Percent(mv: number): [number, number] {
+  return [Math.round(mv * 0.95), Math.round(mv * 1.05)];
+}
+
+/** The limits of a contract (computed once per contract: readings are many, contracts few). */
 export function vbusLimits(active: ActiveContract): VbusLimits {
+  active.limits ??= limitsOf(active);
+  return active.limits;
+}
+
+function limitsOf(active: ActiveContract): VbusLimits {
   const c = active.contract;
   const pdo = active.pdo;
-  const pct5 = (mv: number): [number, number] => [Math.round(mv * 0.95), Math.round(mv * 1.05)];
   let range: [number, number];
-  if (c.kind === 'fixed') range = c.voltageMv === 5_000 ? [4_750, 5_500] : pct5(c.voltageMv);
+  if (c.kind === 'fixed') range = c.voltageMv === 5_000 ? [4_750, 5_500] : within5Percent(c.voltageMv);
   else if ((c.kind === 'variable' || c.kind === 'battery') && (pdo.kind === 'variable' || pdo.kind === 'battery')) range = [pdo.minVoltageMv, pdo.maxVoltageMv];
-  else range = pct5(c.voltageMv);
+  else range = within5Percent(c.voltageMv);
   const pps = c.kind === 'pps';
   return {
     minMv: range[0],

@@ -11,7 +11,7 @@
  * - request: `{ request: { hex, rdo, objectPosition, capabilityMismatch, contract }, findings }`;
  * - negotiation: `contract` (partial or null), `sequence` (in-order subsequence of message type
  *   names; Hard_Reset / Cable_Reset events count as names too), `findings`, `contractWithinMs`
- *   (the first PS_RDY from the source after an Accept, in ms from the start);
+ *   (the time of the first contract, the sink's PS_RDY, in ms from the start);
  * - trace: `{ messages, contracts, findings }` of the analysis;
  * - property: `{ holds }`.
  */
@@ -79,7 +79,7 @@ function normaliseHex(text: string): string {
 
 function pdosFrom(engine: EngineFacade, input: { hex?: string; caps?: string; pdos?: string[] }): { pdos: SourcePdo[]; warnings: Finding[]; message?: Message } | { error: string } {
   if (input.pdos !== undefined) {
-    return { pdos: input.pdos.map((text) => engine.codec.decodeSourcePdo(Number.parseInt(normaliseHex(text), 16) >>> 0)), warnings: [] };
+    return { pdos: input.pdos.map((text) => engine.codec.decodeSourcePdo(Number.parseInt(normaliseHex(text), 16) >>> 0)) as SourcePdo[], warnings: [] };
   }
   const hex = input.hex ?? input.caps ?? '';
   const bytes = engine.codec.parseHex(hex);
@@ -200,7 +200,11 @@ function sequenceOf(events: readonly TimedRecord[], engine: EngineFacade): { nam
 function runNegotiation(vector: Extract<Vector, { kind: 'negotiation' }>, engine: EngineFacade): Outcome {
   const { expect } = vector;
   const result = engine.sim.simulate(vector.input.scenario);
-  const { names, contractAtMs } = sequenceOf(result.events as readonly TimedRecord[], engine);
+  const sequence = sequenceOf(result.events as readonly TimedRecord[], engine);
+  const { names } = sequence;
+  // The simulator's own time of the first contract (the sink's PS_RDY); else the first PS_RDY after an Accept.
+  const firstUs = (result as { contracts?: { t: number }[] }).contracts?.[0]?.t;
+  const contractAtMs = firstUs === undefined ? sequence.contractAtMs : firstUs / 1_000;
   const actual = { contract: result.contract, sequence: names, findings: result.findings, contractAtMs };
   const mismatches: Mismatch[] = [];
   if (expect.contract === null) {

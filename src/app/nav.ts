@@ -14,6 +14,9 @@ export type NavEntry = {
 // A page appears here once it exists; add one line per page.
 export const navEntries: readonly NavEntry[] = [
   { label: 'Home', to: paths.home.path, roles: everyRole, section: 'work', summary: 'Your account and the devices under test.' },
+  { label: 'Offers', to: paths.offers.path, roles: everyRole, section: 'work', summary: 'Check a source\'s offers against the Power Rules and see the contract a sink takes.' },
+  { label: 'Rules', to: paths.rules.index.path, roles: everyRole, section: 'work', summary: 'Every check Parley reports, what it means and where it comes from.' },
+  { label: 'Decoder', to: paths.decoder.path, roles: everyRole, section: 'work', summary: 'Paste a message or drop a capture and read every field, bit by bit.' },
   { label: 'Users', to: paths.admin.users.path, roles: ['admin'], section: 'admin', summary: 'Invite people, change roles, deactivate accounts.' },
   { label: 'Outbox', to: paths.admin.outbox.path, roles: ['admin'], section: 'admin', summary: 'Read every e-mail Parley has sent.' },
   { label: 'Audit log', to: paths.admin.audit.path, roles: ['admin'], section: 'admin', summary: 'Who did what, and when.' },

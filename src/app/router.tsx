@@ -26,6 +26,22 @@ export function createAppRouter(queryClient: QueryClient) {
               lazy: async () => ({ Component: (await import('./routes/home.tsx')).HomeRoute }),
             },
             {
+              path: paths.offers.path,
+              lazy: async () => ({ Component: (await import('../features/offers/routes/offers.tsx')).OffersRoute }),
+            },
+            {
+              path: paths.rules.index.path,
+              lazy: async () => ({ Component: (await import('../features/rules/routes/rules-index.tsx')).RulesIndexRoute }),
+            },
+            {
+              path: paths.rules.detail.path,
+              lazy: async () => ({ Component: (await import('../features/rules/routes/rule-detail.tsx')).RuleDetailRoute }),
+            },
+            {
+              path: paths.decoder.path,
+              lazy: async () => ({ Component: (await import('../features/decoder/routes/decoder.tsx')).DecoderRoute }),
+            },
+            {
               path: paths.admin.users.path,
               loader: requireRole(queryClient, ['admin']),
               lazy: async () => ({ Component: (await import('../features/users/routes/users.tsx')).UsersRoute }),

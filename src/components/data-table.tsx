@@ -175,7 +175,7 @@ export function DataTable<TData extends RowData>({
               return (
                 <tr
                   key={row.id}
-                  aria-selected={onRowClick ? selected : undefined}
+                  aria-current={selected ? 'true' : undefined}
                   tabIndex={onRowClick ? 0 : undefined}
                   onClick={onRowClick ? () => onRowClick(row.original) : undefined}
                   onKeyDown={
@@ -192,7 +192,7 @@ export function DataTable<TData extends RowData>({
                   className={cn(
                     'align-top',
                     onRowClick && 'cursor-pointer hover:bg-slate-50 focus-visible:-outline-offset-2 dark:hover:bg-slate-800/60',
-                    selected && 'bg-amber-50 hover:bg-amber-50 dark:bg-amber-400/10 dark:hover:bg-amber-400/10',
+                    selected && 'bg-amber-50 shadow-[inset_3px_0_0_var(--color-amber-500)] hover:bg-amber-50 dark:bg-amber-400/10 dark:hover:bg-amber-400/10',
                   )}
                 >
                   {row.getAllCells().map((cell) => {

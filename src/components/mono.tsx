@@ -39,3 +39,31 @@ export function Hex({ value, groupBytes = 1, className }: HexProps) {
     </code>
   );
 }
+
+const dcSymbol = '\u2393';
+
+/**
+ * Text from a rating label, with the DC symbol (U+2393, "⎓") drawn as a small icon: the bundled
+ * fonts have no glyph for it. The character itself stays in the text for copying and screen readers.
+ */
+export function RatingText({ value, className }: { value: string; className?: string }) {
+  const parts = value.split(dcSymbol);
+  return (
+    <span className={className}>
+      {parts.map((part, index) => (
+        <span key={index}>
+          {index > 0 && (
+            <>
+              <span className="sr-only">{dcSymbol}</span>
+              <svg aria-hidden="true" viewBox="0 0 10 8" className="mx-px inline-block h-[0.7em] w-[0.8em] align-baseline">
+                <path d="M0 2h10" stroke="currentColor" strokeWidth="1.2" />
+                <path d="M0 6h2.5M3.75 6h2.5M7.5 6h2.5" stroke="currentColor" strokeWidth="1.2" />
+              </svg>
+            </>
+          )}
+          {part}
+        </span>
+      ))}
+    </span>
+  );
+}

@@ -7,6 +7,20 @@ export const paths = {
     path: '/',
     getHref: () => '/',
   },
+  offers: {
+    path: '/offers',
+    getHref: () => '/offers',
+  },
+  rules: {
+    index: {
+      path: '/rules',
+      getHref: () => '/rules',
+    },
+    detail: {
+      path: '/rules/:ruleId',
+      getHref: (ruleId: string) => `/rules/${encodeURIComponent(ruleId)}`,
+    },
+  },
   auth: {
     signIn: {
       path: '/sign-in',
@@ -26,6 +40,11 @@ export const paths = {
       path: '/invite/:token',
       getHref: (token: string) => `/invite/${encodeURIComponent(token)}`,
     },
+  },
+  decoder: {
+    path: '/decoder',
+    /** `search` is the decoder's input as URL search params (see features/decoder/lib/search-params.ts). */
+    getHref: (search?: string) => (search ? `/decoder?${search}` : '/decoder'),
   },
   admin: {
     users: {

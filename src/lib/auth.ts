@@ -1,3 +1,4 @@
+import { createContext, useContext } from 'react';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, isApiError } from './api-client.ts';
 import type { Role } from './roles.ts';
@@ -44,13 +45,15 @@ export function useMe() {
 }
 
 /**
- * The signed-in user inside the signed-in layout, whose loader has already fetched it.
- * Throws (to the error boundary) if used outside that layout.
+ * The session inside the signed-in layout, which provides it only while it is non-null, so pages
+ * never see a half-ended session while sign-out or a 401 takes them away.
  */
+export const SessionContext = createContext<Session | null>(null);
+
 export function useSession(): Session {
-  const { data } = useMe();
-  if (!data) throw new Error('useSession needs the signed-in layout');
-  return data;
+  const session = useContext(SessionContext);
+  if (!session) throw new Error('useSession needs the signed-in layout');
+  return session;
 }
 
 export function useUser(): User {

@@ -1,6 +1,6 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { roles, type Role } from '../../src/lib/roles.ts';
+import { roles } from '../../src/lib/roles.ts';
 import {
   demoAccounts,
   demoPassword,
@@ -179,4 +179,3 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
   });
 });
 
-export type { Role };

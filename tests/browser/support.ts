@@ -183,6 +183,7 @@ export function watchPage(page: Page): PageWatch {
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(screenshotDir, { recursive: true });
   const path = join(screenshotDir, `${name}.png`);
-  await page.screenshot({ path, fullPage: true });
+  // animations: 'disabled' finishes colour transitions, so a scheme switch is not caught halfway.
+  await page.screenshot({ path, fullPage: true, animations: 'disabled' });
   return path;
 }

@@ -72,7 +72,7 @@ function lateRequest(): DemoTrace {
   const psRdyEnd = s.send(acceptEnd + 230_000, 'source', 'PS_RDY');
   steady(s, jitter, psRdyEnd + 50_000, 12_000_000, 20_020, 3_100, 500_000);
   return {
-    fileName: 'wren14-late-request.log',
+    fileName: 'wren14-late-request.txt',
     title: 'Wren 14 answers the offer late',
     deviceModel: 'Wren 14',
     customerRef: 'KD-CASE-2291',

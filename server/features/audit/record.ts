@@ -13,7 +13,10 @@ export type AuditAction =
   | 'user.role_changed'
   | 'user.renamed'
   | 'user.deactivated'
-  | 'user.reactivated';
+  | 'user.reactivated'
+  | 'trace.uploaded'
+  | 'trace.shared'
+  | 'trace.deleted';
 
 /** Queues an audit event in the unit of work; the caller's flush writes it with the change it records. */
 export function recordAudit(

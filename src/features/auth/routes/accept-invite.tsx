@@ -60,8 +60,8 @@ function AcceptInviteForm({ token, invite }: { token: string; invite: Invite }) 
     <>
       <AuthHeading title="Join Parley">Set your name and a password to activate your account.</AuthHeading>
       <dl className="mb-5 grid grid-cols-[auto_1fr] gap-x-4 gap-y-2 rounded-md border border-slate-200 bg-slate-50 px-4 py-3 text-sm dark:border-slate-800 dark:bg-slate-900">
-        <dt className="text-slate-500 dark:text-slate-400">E-mail</dt>
-        <dd className="font-mono text-slate-900 dark:text-slate-100" data-testid="invite-email">
+        <dt className="whitespace-nowrap text-slate-500 dark:text-slate-400">E-mail</dt>
+        <dd className="min-w-0 font-mono break-all text-slate-900 dark:text-slate-100" data-testid="invite-email">
           {invite.email}
         </dd>
         <dt className="text-slate-500 dark:text-slate-400">Role</dt>

@@ -2,7 +2,7 @@ import { Badge } from '../../../components/badge.tsx';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
-import { Hex, Mono } from '../../../components/mono.tsx';
+import { Hex, Mono, RatingText } from '../../../components/mono.tsx';
 import { useDevices, type Device } from '../api/get-devices.ts';
 
 const col = dataColumnHelper<Device>();
@@ -33,7 +33,7 @@ const columns = col.columns([
     header: 'Rating label',
     enableSorting: false,
     meta: { mono: true },
-    cell: ({ getValue }) => getValue() || <span className="text-slate-400">—</span>,
+    cell: ({ getValue }) => (getValue() ? <RatingText value={getValue()} /> : <span className="text-slate-400">—</span>),
   }),
   col.accessor('pdos', {
     header: 'PDO words',

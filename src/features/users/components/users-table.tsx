@@ -89,7 +89,7 @@ const columns = col.columns([
     header: 'Last sign-in',
     meta: { mono: true },
     sortUndefined: 'last',
-    cell: ({ getValue }) => formatDateTime(getValue()),
+    cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDateTime(getValue())}</span>,
   }),
   col.display({
     id: 'actions',

@@ -1,0 +1,16 @@
+// The worker thread of `parley run`'s property pool (./run.ts). Plain JavaScript so that it starts
+// the same under tsx, vitest or plain Node: it loads the TypeScript engine through tsx's loader,
+// then checks one property vector per message with the same facade the browser's worker uses.
+import { parentPort } from 'node:worker_threads';
+import { tsImport } from 'tsx/esm/api';
+
+const ready = tsImport('../../shared/vectors/index.ts', import.meta.url);
+ready.then(
+  () => parentPort.postMessage({ ready: true }),
+  (error) => parentPort.postMessage({ fatal: String((error && error.stack) || error) }),
+);
+parentPort.on('message', async (job) => {
+  const engine = await ready;
+  const outcome = await engine.checkProperty(job.code, job.options, engine.engine);
+  parentPort.postMessage({ id: job.id, outcome });
+});

@@ -1,0 +1,73 @@
+/**
+ * The worker-thread pool that analyses stored traces (piscina), so a 50 MB upload never blocks
+ * the request thread. One pool per process, created on first use; idle threads are unref'd and
+ * leave after `idleTimeoutMs`, and `closeAnalysisPool()` ends them at shutdown.
+ */
+import { availableParallelism } from 'node:os';
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import type { AnalysisProgress, AnalyzeFileResult, AnalyzeFileTask, ReadRecordsResult, ReadRecordsTask } from './analyze-file.ts';
+
+export type { AnalysisProgress, AnalyzeFileResult, ReadRecordsResult } from './analyze-file.ts';
+
+export interface AnalysisPool {
+  analyze(path: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeFileResult>;
+  /** The records of a stored trace, read in a worker too (a vector export of a big file). */
+  records(path: string, format: ReadRecordsTask['format'], limit: number): Promise<ReadRecordsResult>;
+  close(): Promise<void>;
+}
+
+const workerUrl = new URL('./worker.mjs', import.meta.url).href;
+
+/** On the 2-core machines Parley runs on, one analysis thread leaves a core for the requests. */
+export function defaultThreads(): number {
+  return Math.max(1, Math.min(4, availableParallelism() - 1));
+}
+
+export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs?: number } = {}): AnalysisPool {
+  const maxThreads = options.maxThreads ?? defaultThreads();
+  const pool = new Piscina({
+    filename: workerUrl,
+    minThreads: 0,
+    maxThreads,
+    idleTimeout: options.idleTimeoutMs ?? 30_000,
+  });
+  return {
+    async analyze(path, { format, onProgress } = {}) {
+      const { port1, port2 } = new MessageChannel();
+      if (onProgress) port1.on('message', (progress: AnalysisProgress) => onProgress(progress));
+      try {
+        const task: AnalyzeFileTask = format ? { path, format, port: port2 } : { path, port: port2 };
+        return (await pool.run(task, { transferList: [port2] })) as AnalyzeFileResult;
+      } catch (cause) {
+        return { ok: false, error: { code: 'analysis.failed', message: `the analysis stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})` } };
+      } finally {
+        port1.close();
+      }
+    },
+    async records(path, format, limit) {
+      try {
+        return (await pool.run({ path, format, limit } satisfies ReadRecordsTask, { name: 'readRecords' })) as ReadRecordsResult;
+      } catch (cause) {
+        return { ok: false, error: { code: 'analysis.failed', message: `the trace could not be read (${cause instanceof Error ? cause.message : String(cause)})` } };
+      }
+    },
+    async close() {
+      await pool.destroy();
+    },
+  };
+}
+
+let shared: AnalysisPool | undefined;
+
+/** The process's pool. */
+export function analysisPool(): AnalysisPool {
+  shared ??= createAnalysisPool();
+  return shared;
+}
+
+export async function closeAnalysisPool(): Promise<void> {
+  const pool = shared;
+  shared = undefined;
+  await pool?.close();
+}

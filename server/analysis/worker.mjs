@@ -1,0 +1,10 @@
+// Piscina worker entry. Worker threads do not inherit a TypeScript loader under vitest, so the
+// entry registers tsx's ESM hooks itself (harmless when the process already runs under tsx)
+// and then loads the TypeScript task module.
+import { register } from 'tsx/esm/api';
+
+register();
+const { analyzeFile, readRecords } = await import('./analyze-file.ts');
+
+export default analyzeFile;
+export { readRecords };

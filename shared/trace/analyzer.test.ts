@@ -1,0 +1,195 @@
+import fc from 'fast-check';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { HEX, negotiation, sequence } from '../../tests/fixtures/traces/build.ts';
+import { parseHex } from '../pd/index.ts';
+import { encodeWaveform, type WirePacket } from '../wire/index.ts';
+import { analyzeRecords, createAnalyzer } from './analyzer.ts';
+import type { TraceRecord } from './records.ts';
+import { analyzeTrace } from './session.ts';
+
+const FIXTURES = join(import.meta.dirname, '../../tests/fixtures/traces');
+const rules = (records: TraceRecord[]) => analyzeRecords(records).findings.map((f) => f.rule);
+
+interface Expectation {
+  include: string[];
+  exclude: string[];
+  contracts?: Record<string, unknown>[];
+}
+
+// Each fixture names in its header the rules it must fire and those that must stay quiet, with the
+// specification reference of the limit it crosses (e.g. tSenderResponse, USB PD R3.2 V1.1 §6.6).
+describe('trace fixtures', () => {
+  const files = readdirSync(FIXTURES).filter((f) => f.endsWith('.trace.jsonl'));
+  it('has a fixture for every trace rule', () => {
+    expect(files.length).toBeGreaterThanOrEqual(18);
+  });
+  for (const file of files) {
+    it(file, () => {
+      const text = readFileSync(join(FIXTURES, file), 'utf8');
+      const header = JSON.parse(text.slice(0, text.indexOf('\n'))) as { expect: Expectation; ref: string };
+      const result = analyzeTrace(text);
+      expect(result.ok).toBe(true);
+      if (!result.ok) return;
+      const { findings, contracts } = result.analysis;
+      const fired = findings.map((f) => f.rule);
+      for (const rule of header.expect.include) expect(fired, `${file} must report ${rule}`).toContain(rule);
+      for (const rule of header.expect.exclude) {
+        if (rule.startsWith('*')) expect(findings.filter((f) => f.severity === rule.slice(1)), `${file}: no ${rule.slice(1)}`).toEqual([]);
+        else expect(fired).not.toContain(rule);
+      }
+      header.expect.contracts?.forEach((c, i) => expect(contracts[i]).toMatchObject(c));
+      for (const f of findings) {
+        expect(f.ref.length).toBeGreaterThan(0);
+        expect(f.message).toMatch(/^[A-Z].*\.$/);
+      }
+    });
+  }
+});
+
+describe('one negotiation in three formats', () => {
+  it('gives the same contracts from JSON Lines, plain text and VCD', () => {
+    const jsonl = readFileSync(join(FIXTURES, 'clean.trace.jsonl'), 'utf8');
+    const text = readFileSync(join(FIXTURES, 'clean.txt'), 'utf8');
+    const packets: WirePacket[] = [];
+    for (const line of jsonl.split('\n').slice(1)) {
+      if (!line.includes('"msg"')) continue;
+      const parsed = parseHex((JSON.parse(line) as { msg: string }).msg);
+      if (parsed.ok) packets.push({ sop: 'SOP', bytes: parsed.bytes });
+    }
+    const { vcd } = encodeWaveform(packets);
+    const results = [analyzeTrace(jsonl), analyzeTrace(text), analyzeTrace(vcd)];
+    const formats = results.map((r) => (r.ok ? r.analysis.format : r.error.code));
+    expect(formats).toEqual(['jsonl', 'text', 'vcd']);
+    const shapes = results.map((r) => (r.ok ? r.analysis.contracts.map(({ t: _t, ...c }) => c) : []));
+    // Object 2 of the offers is 9 V 3 A; the Request asks 2 A of it (USB PD R3.2 V1.1 §6.4.1.2.2, §6.4.2).
+    expect(shapes[0]).toEqual([{ kind: 'fixed', objectPosition: 2, voltageMv: 9_000, currentMa: 2_000, powerMw: 18_000 }]);
+    expect(shapes[1]).toEqual(shapes[0]);
+    expect(shapes[2]).toEqual(shapes[0]);
+    for (const r of results) if (r.ok) expect(r.analysis.counts.error).toBe(0);
+  });
+});
+
+describe('timers by revision', () => {
+  // tSenderResponse runs from the end of the GoodCRC to the end of the response (USB PD R3.2 V1.1
+  // §6.6.2, from memory); a Request takes 630 µs on the wire (§5.6), so a gap g gives g + 630 µs.
+  // Limits: 33 ms in R3.x (USB PD R3.2 V1.1 §6.6 Time Values), 30 ms in R2.0 (USB PD R2.0 V1.3 §6.6).
+  it('allows 32 ms and flags 34 ms in R3.x', () => {
+    expect(rules(negotiation({ request: 31_370 }).records)).not.toContain('timing.sender-response');
+    expect(rules(negotiation({ request: 33_370 }).records)).toContain('timing.sender-response');
+  });
+  it('flags 31 ms in R2.0 but not in R3.x', () => {
+    expect(rules(negotiation({ request: 30_370, r20: true }).records)).toContain('timing.sender-response');
+    expect(rules(negotiation({ request: 30_370 }).records)).not.toContain('timing.sender-response');
+  });
+  it('checks Accept after Request with the same limit', () => {
+    expect(rules(negotiation({ accept: 40_000 }).records)).toContain('timing.sender-response');
+  });
+  // tPSTransition 450–550 ms (USB PD R3.2 V1.1 §6.6), from the Accept's GoodCRC to the end of PS_RDY
+  // (497 µs on the wire).
+  it('allows PS_RDY 540 ms after Accept and flags 560 ms', () => {
+    expect(rules(negotiation({ psRdy: 539_503 }).records)).not.toContain('timing.ps-transition');
+    const late = analyzeRecords(negotiation({ psRdy: 559_503 }).records).findings.find((f) => f.rule === 'timing.ps-transition');
+    expect(late?.message).toContain('560 ms');
+  });
+  // nRetryCount: 2 in R3.x, 3 in R2.0 (USB PD R3.2 V1.1 §6.7 Counter Values; R2.0 V1.3 §6.7).
+  it('counts retries against nRetryCount of the revision', () => {
+    const retried = (r20: boolean, copies: number) => {
+      const caps = r20 ? HEX.caps20 : HEX.caps;
+      const request = r20 ? HEX.request20 : HEX.request9v2a;
+      const steps = [
+        { msg: caps, from: 'source' as const, gapUs: 0 },
+        { msg: r20 ? HEX.sinkGoodCrc20(0) : HEX.sinkGoodCrc(0), from: 'sink' as const, gapUs: 70 },
+        ...Array.from({ length: copies }, (_, i) => ({ msg: request, from: 'sink' as const, gapUs: i === 0 ? 5_000 : 1_200 })),
+        { msg: r20 ? HEX.sourceGoodCrc20(0) : HEX.sourceGoodCrc(0), from: 'source' as const, gapUs: 70 },
+      ];
+      return rules(sequence(150_000, steps).records);
+    };
+    expect(retried(false, 3)).not.toContain('protocol.missing-goodcrc');
+    expect(retried(false, 4)).toContain('protocol.missing-goodcrc');
+    expect(retried(true, 4)).not.toContain('protocol.missing-goodcrc');
+    expect(retried(true, 5)).toContain('protocol.missing-goodcrc');
+  });
+  // tReceive 0.9–1.1 ms (USB PD R3.2 V1.1 §6.6): the GoodCRC (497 µs) must end within 1.1 ms of the message.
+  it('flags a GoodCRC that ends later than tReceive', () => {
+    const late = sequence(150_000, [
+      { msg: HEX.caps, from: 'source', gapUs: 0 },
+      { msg: HEX.sinkGoodCrc(0), from: 'sink', gapUs: 700 },
+    ]);
+    expect(rules(late.records)).toContain('protocol.missing-goodcrc');
+    const onTime = sequence(150_000, [
+      { msg: HEX.caps, from: 'source', gapUs: 0 },
+      { msg: HEX.sinkGoodCrc(0), from: 'sink', gapUs: 150 },
+    ]);
+    expect(rules(onTime.records)).not.toContain('protocol.missing-goodcrc');
+  });
+});
+
+describe('analysis', () => {
+  it('heads the analysis with a summary sentence', () => {
+    const result = analyzeTrace(readFileSync(join(FIXTURES, 'timing-pps-keepalive.trace.jsonl'), 'utf8'));
+    expect(result.ok && result.analysis.summary).toBe(
+      'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s after the sink stopped re-requesting its programmable contract; 1 error.',
+    );
+  });
+  it('builds a timeline with wire durations and acknowledgements', () => {
+    const { timeline } = analyzeRecords(negotiation().records);
+    const [caps, goodCrc] = timeline.messages;
+    // 18 bytes: 64 + 20 + 180 + 40 + 5 = 309 bits at 300 kbps = 1030 µs (USB PD R3.2 V1.1 §5.6).
+    expect(caps).toMatchObject({ t: 150_000, durationUs: 1_030, from: 'source', sop: 'SOP', messageType: 'Source_Capabilities', messageId: 0, hex: HEX.caps });
+    expect(goodCrc).toMatchObject({ messageType: 'GoodCRC', from: 'sink', goodCrcFor: 0 });
+    expect(timeline.contracts).toMatchObject([{ contract: { voltageMv: 9_000 } }]);
+  });
+  it('takes the direction from the header when a record has none', () => {
+    const records = negotiation().records.map((r) => ('msg' in r ? { t: r.t, msg: r.msg } : r));
+    const analysis = analyzeRecords(records);
+    expect(analysis.timeline.messages.map((m) => m.from).slice(0, 3)).toEqual(['source', 'sink', 'sink']);
+    expect(analysis.contracts).toHaveLength(1);
+  });
+  it('keeps the timeline and the findings bounded', () => {
+    const analyzer = createAnalyzer({ timelineLimit: 10, findingsLimit: 5 });
+    for (let i = 0; i < 1_000; i++) analyzer.push({ t: i * 1_000, vbus: { mv: 5_000 } });
+    for (let i = 0; i < 50; i++) analyzer.malformed(i + 1, 'not valid JSON');
+    const analysis = analyzer.finish();
+    expect(analysis.timeline.measurements.length).toBeLessThanOrEqual(10);
+    expect(analysis.timeline.measurements.length + analysis.timeline.omitted.measurements).toBe(1_000);
+    const ts = analysis.timeline.measurements.map((m) => m.t);
+    expect(ts[ts.length - 1]).toBeGreaterThan(500_000);
+    expect(analysis.findings).toHaveLength(5);
+    expect(analysis.counts.warning).toBe(50);
+    expect(analysis.findingsOmitted).toBe(45);
+  });
+  it('reports an empty trace as an input error', () => {
+    const result = analyzeTrace('not a trace\n');
+    expect(result).toMatchObject({ ok: false, error: { code: 'trace.empty' } });
+    expect(analyzeTrace('')).toMatchObject({ ok: false, error: { code: 'trace.empty' } });
+  });
+});
+
+describe('robustness', () => {
+  it('never throws on random text in any format', () => {
+    fc.assert(
+      fc.property(fc.string({ maxLength: 400 }), fc.constantFrom('auto', 'jsonl', 'text', 'vcd') , (text, format) => {
+        analyzeTrace(text, { format });
+      }),
+      { numRuns: 300 },
+    );
+  });
+  it('never throws on random lines of half-valid records', () => {
+    const line = fc.oneof(
+      fc.string(),
+      fc.record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') }).map((r) => JSON.stringify(r)),
+      fc.record({ t: fc.nat(2_000_000), event: fc.constantFrom('attach', 'detach', 'hard_reset', 'cable_reset') }).map((r) => JSON.stringify(r)),
+      fc.record({ t: fc.nat(2_000_000), vbus: fc.record({ mv: fc.nat(25_000), ma: fc.nat(6_000) }) }).map((r) => JSON.stringify(r)),
+      fc.uint8Array({ maxLength: 30 }).map((b) => JSON.stringify({ t: 1, msg: [...b].map((x) => x.toString(16).padStart(2, '0')).join('') || '00' })),
+    );
+    fc.assert(
+      fc.property(fc.array(line, { maxLength: 60 }), (lines) => {
+        analyzeTrace(lines.join('\n'));
+        analyzeTrace(lines.join('\n'), { format: 'text' });
+      }),
+      { numRuns: 300 },
+    );
+  });
+});

@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { readTextLine } from './text-reader.ts';
+
+// The plain-text format of ../shared/contract/trace.md ("Plain text").
+describe('readTextLine', () => {
+  it('reads the examples of trace.md', () => {
+    expect(readTextLine('0.152000  SRC  a1 61 2c 91 01 00 2c d1 02 00')).toEqual({ t: 152_000, msg: 'a1612c9101002cd10200', from: 'source' });
+    // Words: a 16-bit header as a number, sent low byte first (USB PD R3.2 V1.1 §6.2.1).
+    expect(readTextLine('152.9ms   SNK  0x0041')).toEqual({ t: 152_900, msg: '4100', from: 'sink' });
+    expect(readTextLine('181ms     VBUS 5030mV 410mA')).toEqual({ t: 181_000, vbus: { mv: 5_030, ma: 410 } });
+    expect(readTextLine('0.9s      SNK  HARD_RESET')).toEqual({ t: 900_000, event: 'hard_reset', from: 'sink' });
+  });
+  it('reads words with objects, units, names in any case and an SOP* token', () => {
+    expect(readTextLine('1500us source 0x61A1 0x0001912C')).toEqual({ t: 1_500, msg: 'a1612c910100', from: 'source' });
+    expect(readTextLine("2 cbl SOP' 41 00")).toEqual({ t: 2_000_000, msg: '4100', from: 'cable', sop: "SOP'" });
+    expect(readTextLine('3 Host 5.03V 0.41A')).toBe('who: "Host" is none of SRC, SNK, CBL, VBUS');
+    expect(readTextLine('3 VBUS 5.03V 0.41A')).toEqual({ t: 3_000_000, vbus: { mv: 5_030, ma: 410 } });
+    expect(readTextLine('4 SRC a1612c9101002cd10200')).toEqual({ t: 4_000_000, msg: 'a1612c9101002cd10200', from: 'source' });
+    expect(readTextLine('5 SNK attach')).toEqual({ t: 5_000_000, event: 'attach', from: 'sink' });
+  });
+  it('skips comments and blank lines', () => {
+    expect(readTextLine('# captured on bench 2')).toBeUndefined();
+    expect(readTextLine('   ')).toBeUndefined();
+    expect(readTextLine('0.1 SRC a1 01 # GoodCRC')).toEqual({ t: 100_000, msg: 'a101', from: 'source' });
+  });
+  it('says what is wrong with a line', () => {
+    expect(readTextLine('soon SRC a1 01')).toMatch(/^time:/);
+    expect(readTextLine('0.1')).toMatch(/^who:/);
+    expect(readTextLine('0.1 HOST a1 01')).toMatch(/^who:/);
+    expect(readTextLine('0.1 SRC')).toMatch(/^payload:/);
+    expect(readTextLine('0.1 SRC 0x12345 0xzz')).toMatch(/^payload:/);
+    expect(readTextLine('0.1 VBUS 5 volts')).toMatch(/^vbus:/);
+    expect(readTextLine('0.1 VBUS 410mA')).toMatch(/^vbus:/);
+  });
+});

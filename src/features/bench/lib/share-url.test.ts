@@ -1,0 +1,31 @@
+import { describe, expect, it } from 'vitest';
+import { unzlibSync } from 'fflate';
+import { decodeShared, encodeShared, shareHash, sharedFromHash } from './share-url.ts';
+import { defaultScenario } from './form-model.ts';
+
+describe('share-url', () => {
+  it('round-trips a scenario through the hash', () => {
+    const hash = shareHash(defaultScenario);
+    expect(hash.startsWith('#scenario=')).toBe(true);
+    // base64url: no characters that need escaping in a URL
+    expect(hash.slice('#scenario='.length)).toMatch(/^[A-Za-z0-9_-]+$/);
+    expect(sharedFromHash(hash)).toEqual({ ok: true, value: defaultScenario });
+  });
+
+  it('compresses: a scenario is far shorter than its JSON', () => {
+    const scenario = { ...defaultScenario, faults: Array.from({ length: 20 }, (_, index) => ({ kind: 'drop', from: 'sink', messageType: 'GoodCRC', nth: index + 1 })) };
+    expect(encodeShared(scenario).length).toBeLessThan(JSON.stringify(scenario).length / 3);
+  });
+
+  it('is raw DEFLATE (RFC 1951), not zlib-wrapped', () => {
+    const text = encodeShared({ a: 1 });
+    const bytes = Uint8Array.from(atob(text.replace(/-/g, '+').replace(/_/g, '/') + '=='.slice(0, (4 - (text.length % 4)) % 4)), (c) => c.charCodeAt(0));
+    expect(() => unzlibSync(bytes)).toThrow();
+  });
+
+  it('reports a damaged payload instead of throwing', () => {
+    expect(decodeShared('not!valid')).toEqual({ ok: false, message: expect.stringContaining('damaged') });
+    expect(sharedFromHash('#other=1')).toBeNull();
+    expect(sharedFromHash('')).toBeNull();
+  });
+});

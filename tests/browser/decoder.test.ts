@@ -1,0 +1,77 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+
+const hasChromium = requireChromium();
+
+// Header 0x61a1 and the six PDOs worked out by hand from USB PD R3.2 V1.1 Table 6.1 and the
+// source PDO tables (shared/pd/header.test.ts, source-pdo.test.ts): 5 V 3 A first, PPS 3.3–11 V last.
+const CAPS = 'a1 61 2c 91 01 08 2c d1 02 00 2c c1 03 00 2c b1 04 00 45 41 06 00 3c 21 dc c0';
+
+describe.skipIf(!hasChromium)('Decoder page', () => {
+  let server: TestServer;
+  let browser: TestBrowser;
+
+  beforeAll(async () => {
+    requireDist();
+    server = await startTestServer();
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await server?.close();
+  });
+
+  it('decodes a pasted Source_Capabilities, and the shared link reproduces it', async () => {
+    const page = await browser.context.newPage();
+    const watch = watchPage(page);
+    await signIn(page, server.url, 'support');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Decoder' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Decoder' }).waitFor();
+    await page.getByLabel('Message', { exact: true }).fill(CAPS);
+
+    const objects = page.getByRole('table', { name: 'Data objects' });
+    await objects.getByRole('row').nth(6).waitFor();
+    expect(await page.getByTestId('message-type').innerText()).toBe('Source_Capabilities');
+    const first = await objects.getByRole('row').nth(1).innerText();
+    expect(first).toContain('voltage 5 V');
+    expect(first).toContain('max current 3 A');
+    expect(await objects.getByRole('row').nth(6).innerText()).toContain('min voltage 3.3 V, max voltage 11 V, max current 3 A');
+
+    // Bit-field view: focusing a field names it, its bits, its value with unit and its table.
+    const object1 = page.getByRole('figure', { name: /^Object 1: Fixed Supply PDO – Source/ });
+    await object1.locator('[data-field="voltageMv"]').focus();
+    const detail = await object1.locator('[aria-live="polite"]').innerText();
+    expect(detail).toContain('Voltage');
+    expect(detail).toContain('B19…10');
+    expect(detail).toContain('5 V (100 × 50 mV)');
+    expect(detail).toContain('Table 6.9');
+    await screenshot(page, 'decoder-source-caps');
+
+    // The input is in the URL: a new page with the same address shows the same decode.
+    await page.waitForURL(/in=/);
+    const shared = page.url();
+    const second = await browser.context.newPage();
+    await second.goto(shared);
+    await second.getByRole('table', { name: 'Data objects' }).getByRole('row').nth(6).waitFor();
+    expect(await second.getByTestId('message-type').innerText()).toBe('Source_Capabilities');
+    expect(await second.getByLabel('Message', { exact: true }).inputValue()).toBe(CAPS);
+    await second.close();
+    watch.assertClean();
+    await page.close();
+  });
+
+  it('shows a length error with its byte offset highlighted', async () => {
+    const page = await browser.context.newPage();
+    const watch = watchPage(page);
+    await signIn(page, server.url, 'engineer');
+    await page.goto(`${server.url}/decoder?in=${encodeURIComponent(CAPS.slice(0, -6))}`);
+    const alert = page.getByRole('alert').filter({ hasText: 'decode.length' });
+    await alert.waitFor();
+    expect(await alert.innerText()).toContain('byte 24');
+    expect(await page.getByTestId('error-offset').innerText()).toBe('dc');
+    await screenshot(page, 'decoder-length-error');
+    watch.assertClean();
+    await page.close();
+  });
+});

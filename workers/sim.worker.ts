@@ -1,0 +1,60 @@
+/**
+ * The simulator off the main thread (the Bench page). `run` validates the scenario, simulates it
+ * with samples, reports progress through a comlink proxy and hands the samples back as one
+ * interleaved Int32Array `[t, mv, ma, sinkMv, …]` that is transferred, not copied, so the page
+ * never spends a long task deserialising hundreds of thousands of small arrays.
+ * Cancelling is the page's job: it terminates this worker (src/lib/engine-worker.ts).
+ */
+import { transfer } from 'comlink';
+import { exposeEngine } from './expose.ts';
+import { parseScenario, simulate, type SimulationResult } from '../shared/sim/index.ts';
+
+export type SimRunOptions = {
+  /** Sample period, µs (default 1 ms, as `parley simulate --samples`). */
+  sampleEveryUs?: number;
+};
+
+export type SimRunOutput =
+  | { ok: false; error: { code: string; message: string } }
+  | ({ ok: true; samples: Int32Array; sampleCount: number } & Omit<SimulationResult, 'samples'>);
+
+const SAMPLE_FIELDS = 4;
+
+/** At most this many samples (4 × Int32 each) cross back: 2.4 M samples ≈ 38 MB. */
+const MAX_SAMPLES = 2_400_000;
+
+function run(input: unknown, onProgress?: (fraction: number) => void, options: SimRunOptions = {}): SimRunOutput {
+  const parsed = parseScenario(input);
+  if (!parsed.ok) return { ok: false, error: parsed.error };
+  const durationUs = parsed.scenario.durationMs * 1_000;
+  // Keep long runs within the sample budget by widening the period, never the other way.
+  const minimumEveryUs = Math.ceil(durationUs / MAX_SAMPLES);
+  const sampleEveryUs = Math.max(options.sampleEveryUs ?? 1_000, minimumEveryUs, 10);
+  let lastReported = -1;
+  const result = simulate(parsed.scenario, {
+    samples: true,
+    sampleEveryUs,
+    onProgress(fraction) {
+      // About a hundred calls a run; skip the repeats so each message to the page carries news.
+      const percent = Math.floor(fraction * 100);
+      if (percent === lastReported) return;
+      lastReported = percent;
+      onProgress?.(fraction);
+    },
+  });
+  const { samples: rows = [], ...rest } = result;
+  const samples = new Int32Array(rows.length * SAMPLE_FIELDS);
+  let offset = 0;
+  for (const row of rows) {
+    samples[offset] = row[0];
+    samples[offset + 1] = row[1];
+    samples[offset + 2] = row[2];
+    samples[offset + 3] = row[3];
+    offset += SAMPLE_FIELDS;
+  }
+  return transfer({ ok: true as const, ...rest, samples, sampleCount: rows.length }, [samples.buffer]);
+}
+
+const api = { run };
+exposeEngine(api);
+export type SimApi = typeof api;
