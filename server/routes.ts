@@ -11,6 +11,7 @@ import { usersRoutes } from './features/users/routes.ts';
 import { outboxRoutes } from './features/outbox/routes.ts';
 import { auditRoutes } from './features/audit/routes.ts';
 import { devicesRoutes } from './features/devices/routes.ts';
+import { tracesRoutes } from './features/traces/routes.ts';
 
 /** Every API route. A feature adds its `RouteDef[]` here; the role-matrix test walks this list. */
 export const routeTable: RouteDef[] = [
@@ -20,6 +21,7 @@ export const routeTable: RouteDef[] = [
   ...outboxRoutes,
   ...auditRoutes,
   ...devicesRoutes,
+  ...tracesRoutes,
 ];
 
 /** This request's entity manager (the RequestContext fork the app opened for it). */

@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { DeviceUnderTest, Organisation, User, type Role } from './entities.ts';
 import type { Clock } from '../context.ts';
 import { hashPassword } from '../features/auth/passwords.ts';
+import { seedDemoTraces } from './demo-traces/seed-traces.ts';
 
 export const demoPassword = 'parley-demo';
 export const demoOrganisation = 'Kestrel Devices';
@@ -58,8 +59,11 @@ export const demoDevices = [
   },
 ];
 
-/** Fills an empty database with the demo organisation, accounts and devices; does nothing otherwise. */
-export async function seedDemo(em: EntityManager, clock: Clock): Promise<boolean> {
+/**
+ * Fills an empty database with the demo organisation, accounts and devices; does nothing otherwise.
+ * With a `dataDir` (the server's PARLEY_DATA) it also stores and analyses the demo traces.
+ */
+export async function seedDemo(em: EntityManager, clock: Clock, options: { dataDir?: string } = {}): Promise<boolean> {
   if ((await em.count(User)) > 0 || (await em.count(Organisation)) > 0) return false;
   const now = clock.now();
   const passwordHash = await hashPassword(demoPassword);
@@ -69,5 +73,6 @@ export async function seedDemo(em: EntityManager, clock: Clock): Promise<boolean
   }
   for (const device of demoDevices) em.create(DeviceUnderTest, { ...device, createdAt: now, updatedAt: now });
   await em.flush();
+  if (options.dataDir) await seedDemoTraces(em, clock, options.dataDir);
   return true;
 }

@@ -37,7 +37,7 @@ export const Trace = defineEntity({
     infoCount: p.integer(),
     /** The rule ids found, space-separated with a space at each end, for `like '% rule %'` search. */
     rules: p.text(),
-    analysis: p.json<Analysis>().nullable().lazy(),
+    analysis: p.json<Analysis>().nullable().lazy(true, false),
     createdAt: p.datetime(),
     analysedAt: p.datetime().nullable(),
   }),

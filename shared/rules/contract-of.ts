@@ -7,14 +7,25 @@
  * deliver, and for a battery the highest current it can mean.
  */
 import type { Contract } from '../core/contract.ts';
-import { decodeRdo } from '../pd/index.ts';
+import { decodeRdo, encodeRdo } from '../pd/index.ts';
 import type { Rdo, SourcePdo } from '../pd/types.ts';
 import { powerMw } from './pdo-facts.ts';
 
 /** The RDO's reading by the referenced PDO's type. */
 export function typedRdo(rdo: Rdo, pdo: SourcePdo): Rdo {
   const wanted = pdo.kind === 'pps' ? 'rdo-pps' : pdo.kind === 'epr-avs' || pdo.kind === 'spr-avs' ? 'rdo-avs' : pdo.kind === 'battery' ? 'rdo-battery' : `rdo-${pdo.kind}`;
-  return rdo.kind === wanted ? rdo : decodeRdo(Number.parseInt(rdo.raw, 16), pdo);
+  if (rdo.kind === wanted) return rdo;
+  return decodeRdo(rawOf(rdo), pdo);
+}
+
+/** The RDO's 32-bit value: its `raw`, or (built in code without one) its fields encoded. */
+function rawOf(rdo: Rdo): number {
+  if (/^(0x)?[0-9a-f]{1,8}$/i.test(rdo.raw)) return Number.parseInt(rdo.raw, 16) >>> 0;
+  try {
+    return encodeRdo(rdo);
+  } catch {
+    return 0; // fields out of range: read as position 0, which checkRequest reports
+  }
 }
 
 export function contractOf(rdo: Rdo, pdo: SourcePdo): Contract {

@@ -71,6 +71,22 @@ describe('one negotiation in three formats', () => {
   });
 });
 
+describe('wire durations', () => {
+  // The wire writer leaves 500 µs idle between packets (its default gapUs); the decoder's preamble
+  // starts minus our computed durations (USB PD R3.2 V1.1 §5.6 bit counts) must give back that gap.
+  it('agree with the wire encoder of clean.vcd', () => {
+    const result = analyzeTrace(readFileSync(join(FIXTURES, 'clean.vcd'), 'utf8'));
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    const messages = result.analysis.timeline.messages;
+    expect(messages).toHaveLength(8);
+    for (let i = 1; i < messages.length; i++) {
+      const idleUs = messages[i]!.t - messages[i - 1]!.t - messages[i - 1]!.durationUs;
+      expect(Math.abs(idleUs - 500)).toBeLessThanOrEqual(5);
+    }
+  });
+});
+
 describe('timers by revision', () => {
   // tSenderResponse runs from the end of the GoodCRC to the end of the response (USB PD R3.2 V1.1
   // §6.6.2, from memory); a Request takes 630 µs on the wire (§5.6), so a gap g gives g + 630 µs.

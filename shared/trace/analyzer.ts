@@ -107,6 +107,9 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       closeVbusProblems();
       timeline.contractEnd(t);
     },
+    finding(f) {
+      store.add(f, f.t ?? lastT);
+    },
     softReset(m) {
       const cause = recentProblem(m.t);
       report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });

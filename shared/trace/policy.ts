@@ -50,6 +50,8 @@ export interface PolicyEvents {
   contract(contract: Contract, t: number, changed: boolean): void;
   contractEnd(t: number): void;
   softReset(m: SeenMessage): void;
+  /** A finding of the rules engine (caps, request), passed on as it is with the message's time and line. */
+  finding(f: Finding): void;
 }
 
 export interface PolicyTracker {
@@ -123,7 +125,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     request = undefined;
     if (!capsChecked.has(m.d.hex) && capsChecked.size < CHECKED_LIMIT) {
       capsChecked.add(m.d.hex);
-      for (const f of checkCaps(pdos).findings) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+      for (const f of checkCaps(pdos).findings) events.finding(located(f, m));
     }
   };
 
@@ -148,7 +150,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (rdos.size >= CHECKED_LIMIT) rdos.clear();
       rdo = decodeRdo(raw, pdo);
       rdos.set(key, rdo);
-      if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) report(f.rule as Parameters<Report>[0], f.message, { ...at(m), object: f.object, ref: f.ref });
+      if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) events.finding(located(f, m));
     }
     request = { m, rdo, pdo, reported: false };
     if (contract) {
@@ -285,6 +287,12 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     offers: () => caps?.pdos,
     offersKey: () => caps?.m.d.hex ?? '',
   };
+}
+
+function located(f: Finding, m: SeenMessage): Finding {
+  const out: Finding = { ...f, t: m.t };
+  if (m.line !== undefined) out.line = m.line;
+  return out;
 }
 
 function sameContract(a: Contract, b: Contract): boolean {

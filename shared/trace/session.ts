@@ -43,20 +43,39 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
     head = '';
     return started;
   };
+  // Readers and the analyser return errors as values; this guard only keeps an unforeseen fault in
+  // a dependency from escaping as a throw (the worker and the server must get a Result).
+  let broken: string | undefined;
+  const guarded = (work: () => void): void => {
+    if (broken !== undefined) return;
+    try {
+      work();
+    } catch (error) {
+      broken = error instanceof Error ? error.message : String(error);
+    }
+  };
   return {
     push(chunk) {
-      if (started) {
-        started.reader.push(chunk);
-        return;
-      }
-      head += chunk;
-      if (head.trimStart().length >= HEAD_CHARS) start();
+      guarded(() => {
+        if (started) {
+          started.reader.push(chunk);
+          return;
+        }
+        head += chunk;
+        if (head.trimStart().length >= HEAD_CHARS) start();
+      });
     },
     finish() {
-      const { reader, analyzer } = started ?? start();
-      const end = reader.end();
+      let end: ReturnType<TraceReader['end']> = { ok: true };
+      let analysis: Analysis | undefined;
+      guarded(() => {
+        const { reader, analyzer } = started ?? start();
+        end = reader.end();
+        if (end.ok) analysis = analyzer.finish();
+      });
+      if (broken !== undefined) return fail('trace.internal', `the trace could not be analysed (${broken})`);
       if (!end.ok) return fail(end.error.code, end.error.message, end.error);
-      const analysis = analyzer.finish();
+      if (!analysis) return fail('trace.internal', 'the trace could not be analysed');
       if (analysis.records === 0) {
         const unread = analysis.counts.warning;
         return fail('trace.empty', unread > 0 ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})` : 'the file holds no trace record (message, event, measurement or note)');

@@ -36,6 +36,8 @@ export interface PropertyOutcome {
   failure?: string;
   /** The counterexample as a negotiation vector to save, when it is (or holds) a Scenario. */
   counterexampleScenario?: unknown;
+  /** Time spent checking, ms (compiling and running, not waiting for a worker). */
+  durationMs?: number;
   /** The code did not compile or did not give a property: not a verdict on the engine. */
   error?: EngineError;
 }
@@ -101,6 +103,12 @@ function isProperty(value: unknown): value is fcModule.IRawProperty<unknown[]> {
 
 /** Runs a property vector's code with the given runs and seed. Never throws. */
 export async function checkProperty(code: string, options: { runs: number; seed: number }, engine: EngineFacade): Promise<PropertyOutcome> {
+  const started = performance.now();
+  const outcome = await check(code, options, engine);
+  return { ...outcome, durationMs: performance.now() - started };
+}
+
+async function check(code: string, options: { runs: number; seed: number }, engine: EngineFacade): Promise<PropertyOutcome> {
   const { runs, seed } = options;
   const compiled = compileProperty(code);
   if (!compiled.ok) return { holds: false, numRuns: 0, seed, error: compiled.error };

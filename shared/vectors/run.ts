@@ -297,6 +297,8 @@ export async function runVector(vector: Vector, options: RunOptions = {}): Promi
   if (outcome.mismatches.length > 0) result.mismatches = outcome.mismatches;
   if (outcome.property) {
     result.property = outcome.property;
+    // In a worker pool the wall time includes the wait for a free worker; report the check itself.
+    if (outcome.property.durationMs !== undefined) result.durationMs = outcome.property.durationMs;
     if (outcome.property.counterexampleScenario !== undefined) result.counterexampleVector = counterexampleVector(vector, outcome.property.counterexampleScenario);
   }
   return result;

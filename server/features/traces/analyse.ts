@@ -3,7 +3,7 @@
  * row: the analysis, its counts and rule ids, or the error. Progress goes to the SSE hub as it
  * comes. A file in which nothing at all could be read is not a trace: its row and file go.
  */
-import type { Orm } from '../../db/orm.ts';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { Trace } from '../../db/trace-entities.ts';
 import type { Clock } from '../../context.ts';
 import { analysisPool, type AnalysisPool } from '../../analysis/pool.ts';
@@ -21,7 +21,8 @@ export function runningAnalysis(traceId: number): Promise<AnalysisOutcome> | und
 }
 
 export interface AnalyseInput {
-  orm: Orm;
+  /** A fresh entity manager for the job (it outlives the request). */
+  fork(): EntityManager;
   clock: Clock;
   store: TraceStore;
   trace: { id: number; sha256: string; format: string; sizeBytes: number };
@@ -43,8 +44,8 @@ export function analyseTrace(input: AnalyseInput): Promise<AnalysisOutcome> {
   return job;
 }
 
-async function run({ orm, clock, store, trace, pool = analysisPool() }: AnalyseInput): Promise<AnalysisOutcome> {
-  const em = orm.em.fork();
+async function run({ fork, clock, store, trace, pool = analysisPool() }: AnalyseInput): Promise<AnalysisOutcome> {
+  const em = fork();
   const { id, sizeBytes } = trace;
   await em.nativeUpdate(Trace, { id }, { status: 'analysing' });
   publishProgress(id, { type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });

@@ -9,14 +9,14 @@ export interface DeviceRef {
 export function presentTrace(t: ITrace, devices: ReadonlyMap<number, DeviceRef>) {
   return {
     id: t.id,
-    title: t.title,
+    title: t.title || t.fileName,
     fileName: t.fileName,
     sizeBytes: t.sizeBytes,
     format: t.format,
     sha256: t.sha256,
     status: t.status,
     uploader: { id: t.uploaderId, name: t.uploaderName },
-    device: t.deviceId === null ? null : (devices.get(t.deviceId) ?? { id: t.deviceId, name: `device ${t.deviceId}` }),
+    device: t.deviceId == null ? null : (devices.get(t.deviceId) ?? { id: t.deviceId, name: `device ${t.deviceId}` }),
     customerRef: t.customerRef,
     notes: t.notes,
     summary: t.summary,

@@ -1,0 +1,64 @@
+/**
+ * Stores the demo traces of this folder (manifest.json) in a new demo database, uploaded by the
+ * demo support account, and analyses them through the same worker pool as uploads.
+ */
+import { createHash } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync, existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
+import { DeviceUnderTest, User } from '../entities.ts';
+import { Trace } from '../trace-entities.ts';
+import type { Clock } from '../../context.ts';
+import { traceStore } from '../../features/traces/store.ts';
+import { sniffTrace, SNIFF_BYTES } from '../../features/traces/sniff.ts';
+import { analyseTrace } from '../../features/traces/analyse.ts';
+import { demoTraceFolder, readDemoManifest } from './manifest.ts';
+
+/** Uploads a day apart, the newest an hour before the seed. */
+const DAY_MS = 86_400_000;
+
+export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: string, folder = demoTraceFolder): Promise<number> {
+  if ((await em.count(Trace)) > 0) return 0;
+  const uploader = await em.findOneOrFail(User, { email: 'support@kestrel.example' });
+  const devices = await em.find(DeviceUnderTest, {});
+  const store = traceStore(dataDir);
+  mkdirSync(store.dir, { recursive: true });
+  const manifest = readDemoManifest(folder);
+  const rows = manifest.map((entry, index) => {
+    const bytes = readFileSync(join(folder, entry.fileName));
+    const sha256 = createHash('sha256').update(bytes).digest('hex');
+    if (!existsSync(store.pathOf(sha256))) writeFileSync(store.pathOf(sha256), bytes, { mode: 0o600 });
+    const sniffed = sniffTrace(bytes.subarray(0, SNIFF_BYTES), bytes.length <= SNIFF_BYTES);
+    if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.message}`);
+    return em.create(Trace, {
+      title: entry.title,
+      fileName: entry.fileName,
+      sha256,
+      sizeBytes: bytes.length,
+      format: sniffed.format,
+      uploaderId: uploader.id,
+      uploaderName: uploader.name,
+      deviceId: devices.find((d) => d.model === entry.deviceModel)?.id ?? null,
+      customerRef: entry.customerRef,
+      notes: entry.notes,
+      status: 'queued',
+      errorCode: null,
+      errorMessage: null,
+      summary: null,
+      messages: 0,
+      errorCount: 0,
+      warningCount: 0,
+      infoCount: 0,
+      rules: '',
+      analysis: null,
+      createdAt: new Date(clock.now().getTime() - 3_600_000 - (manifest.length - 1 - index) * DAY_MS),
+      analysedAt: null,
+    });
+  });
+  await em.flush();
+  for (const row of rows) {
+    const outcome = await analyseTrace({ fork: () => em.fork(), clock, store, trace: { id: row.id, sha256: row.sha256, format: row.format, sizeBytes: row.sizeBytes } });
+    if (!outcome.ok) throw new Error(`demo trace ${row.fileName}: ${outcome.message}`);
+  }
+  return rows.length;
+}

@@ -1,0 +1,161 @@
+import { useFieldArray, useFormContext, type FieldErrors } from 'react-hook-form';
+import { defaultOffer, offerInputOf, type OfferInput, type OfferKind } from '../../../../shared/rules/offer-input.ts';
+import { resolveCaps } from '../../../../shared/sim/caps.ts';
+import { Button } from '../../../components/button.tsx';
+import { Input } from '../../../components/input.tsx';
+import { Select } from '../../../components/select.tsx';
+import { useSourceDevices } from '../api/get-source-devices.ts';
+import type { BenchFormValues } from '../lib/form-model.ts';
+import { numberField } from './form-fields.ts';
+
+const KIND_LABELS: Record<OfferKind, string> = {
+  fixed: 'Fixed',
+  variable: 'Variable',
+  battery: 'Battery',
+  pps: 'PPS',
+  'spr-avs': 'SPR AVS',
+  'epr-avs': 'EPR AVS',
+};
+
+type NumberKey = 'voltageMv' | 'maxCurrentMa' | 'minVoltageMv' | 'maxVoltageMv' | 'maxPowerMw' | 'pdpW' | 'maxCurrent15vMa' | 'maxCurrent20vMa';
+
+const FIELDS: Record<OfferKind, { key: NumberKey; label: string; step: number }[]> = {
+  fixed: [
+    { key: 'voltageMv', label: 'Voltage (mV)', step: 50 },
+    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
+  ],
+  variable: [
+    { key: 'minVoltageMv', label: 'Min (mV)', step: 50 },
+    { key: 'maxVoltageMv', label: 'Max (mV)', step: 50 },
+    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
+  ],
+  battery: [
+    { key: 'minVoltageMv', label: 'Min (mV)', step: 50 },
+    { key: 'maxVoltageMv', label: 'Max (mV)', step: 50 },
+    { key: 'maxPowerMw', label: 'Max power (mW)', step: 250 },
+  ],
+  pps: [
+    { key: 'minVoltageMv', label: 'Min (mV)', step: 100 },
+    { key: 'maxVoltageMv', label: 'Max (mV)', step: 100 },
+    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 50 },
+  ],
+  'spr-avs': [
+    { key: 'maxCurrent15vMa', label: 'Max at 15 V (mA)', step: 10 },
+    { key: 'maxCurrent20vMa', label: 'Max at 20 V (mA)', step: 10 },
+  ],
+  'epr-avs': [
+    { key: 'minVoltageMv', label: 'Min (mV)', step: 100 },
+    { key: 'maxVoltageMv', label: 'Max (mV)', step: 100 },
+    { key: 'pdpW', label: 'PDP (W)', step: 1 },
+  ],
+};
+
+function offersOfDevice(pdos: readonly string[]): OfferInput[] | null {
+  const caps = resolveCaps({ pdos: [...pdos] });
+  return caps.ok ? caps.pdos.map(offerInputOf) : null;
+}
+
+function fieldError(errors: FieldErrors<BenchFormValues>, index: number, key: NumberKey): string | undefined {
+  const row = errors.offers?.[index] as Record<string, { message?: string } | undefined> | undefined;
+  return row?.[key]?.message;
+}
+
+/** The source's offers: one row per object position, in order; add, remove, reorder, or load a demo device. */
+export function OffersEditor() {
+  const { control, register, formState } = useFormContext<BenchFormValues>();
+  const { fields, append, remove, move, replace, update } = useFieldArray({ control, name: 'offers' });
+  const devices = useSourceDevices();
+  const listError = formState.errors.offers?.message ?? formState.errors.offers?.root?.message;
+
+  return (
+    <fieldset className="flex flex-col gap-3">
+      <legend className="sr-only">Source offers</legend>
+      <div className="flex flex-wrap items-end gap-3">
+        <Select
+          label="Load offers from a demo device"
+          className="min-w-64 flex-1"
+          value=""
+          options={[
+            { value: '', label: devices.isLoading ? 'Loading devices…' : 'Choose a device…' },
+            ...(devices.data ?? []).map((device) => ({ value: String(device.id), label: `${device.name} (${device.pdpW} W)` })),
+          ]}
+          onChange={(event) => {
+            const device = devices.data?.find((item) => String(item.id) === event.target.value);
+            const offers = device ? offersOfDevice(device.pdos) : null;
+            if (offers) replace(offers);
+          }}
+          hint={devices.isError ? 'The device list could not be loaded; enter the offers by hand.' : undefined}
+        />
+      </div>
+
+      <ol className="flex flex-col gap-2" aria-label="Offers in object-position order">
+        {fields.map((field, index) => {
+          const kind = field.kind;
+          return (
+            <li
+              key={field.id}
+              className="grid grid-cols-[2rem_7.5rem_1fr_auto] items-start gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
+              aria-label={`Offer ${index + 1}: ${KIND_LABELS[kind]}`}
+            >
+              <span className="pt-7 text-center font-mono text-xs text-slate-500" title="Object position">
+                #{index + 1}
+              </span>
+              <Select
+                label="Kind"
+                value={kind}
+                options={Object.entries(KIND_LABELS).map(([value, label]) => ({ value, label }))}
+                onChange={(event) => {
+                  update(index, defaultOffer(event.target.value as OfferKind));
+                }}
+              />
+              <div className="grid grid-cols-3 gap-2">
+                {FIELDS[kind].map(({ key, label, step }) => (
+                  <Input
+                    key={key}
+                    label={label}
+                    type="number"
+                    mono
+                    step={step}
+                    min={0}
+                    error={fieldError(formState.errors, index, key)}
+                    {...register(`offers.${index}.${key}` as `offers.${number}.voltageMv`, numberField)}
+                  />
+                ))}
+              </div>
+              <div className="flex gap-1 pt-6">
+                <Button variant="ghost" size="sm" aria-label={`Move offer ${index + 1} up`} disabled={index === 0} onClick={() => move(index, index - 1)}>
+                  ↑
+                </Button>
+                <Button
+                  variant="ghost"
+                  size="sm"
+                  aria-label={`Move offer ${index + 1} down`}
+                  disabled={index === fields.length - 1}
+                  onClick={() => move(index, index + 1)}
+                >
+                  ↓
+                </Button>
+                <Button variant="ghost" size="sm" aria-label={`Remove offer ${index + 1}`} disabled={fields.length <= 1} onClick={() => remove(index)}>
+                  ✕
+                </Button>
+              </div>
+            </li>
+          );
+        })}
+      </ol>
+      {listError && (
+        <p role="alert" className="text-xs font-medium text-red-600 dark:text-red-400">
+          {listError}
+        </p>
+      )}
+      <div className="flex flex-wrap items-center gap-2">
+        <span className="text-xs text-slate-500 dark:text-slate-400">Add:</span>
+        {(Object.keys(KIND_LABELS) as OfferKind[]).map((kind) => (
+          <Button key={kind} variant="secondary" size="sm" disabled={fields.length >= 7} onClick={() => append(defaultOffer(kind))}>
+            + {KIND_LABELS[kind]}
+          </Button>
+        ))}
+      </div>
+    </fieldset>
+  );
+}

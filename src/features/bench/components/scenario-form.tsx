@@ -1,0 +1,115 @@
+import type { ReactNode } from 'react';
+import { useFieldArray, useFormContext } from 'react-hook-form';
+import { Button } from '../../../components/button.tsx';
+import { Input } from '../../../components/input.tsx';
+import { Select } from '../../../components/select.tsx';
+import { defaultPolicy, type BenchFormValues } from '../lib/form-model.ts';
+import { FaultsEditor } from './faults-editor.tsx';
+import { numberField, optionalNumberField } from './form-fields.ts';
+import { OffersEditor } from './offers-editor.tsx';
+import { PolicyFields } from './policy-fields.tsx';
+
+const REVISIONS = [
+  { value: '3.0', label: 'Revision 3.x' },
+  { value: '2.0', label: 'Revision 2.0' },
+];
+
+function Section({ title, description, children }: { title: string; description?: string; children: ReactNode }) {
+  return (
+    <section className="flex flex-col gap-3 border-b border-slate-200 pb-5 last:border-b-0 last:pb-0 dark:border-slate-800" aria-label={title}>
+      <div>
+        <h3 className="text-xs font-semibold tracking-wide text-slate-900 uppercase dark:text-slate-100">{title}</h3>
+        {description && <p className="mt-0.5 text-xs text-slate-500 dark:text-slate-400">{description}</p>}
+      </div>
+      {children}
+    </section>
+  );
+}
+
+function PolicyChanges() {
+  const { control, register, formState } = useFormContext<BenchFormValues>();
+  const { fields, append, remove } = useFieldArray({ control, name: 'changes' });
+  return (
+    <div className="flex flex-col gap-2">
+      <ol className="flex flex-col gap-2" aria-label="Policy changes">
+        {fields.map((field, index) => (
+          <li
+            key={field.id}
+            aria-label={`Policy change ${index + 1}`}
+            className="grid grid-cols-[6rem_1fr_auto] items-start gap-2 rounded-md border border-slate-200 p-2 dark:border-slate-800"
+          >
+            <Input label="At (ms)" type="number" min={0} mono error={formState.errors.changes?.[index]?.atMs?.message} {...register(`changes.${index}.atMs`, numberField)} />
+            <PolicyFields name={`changes.${index}.policy`} label="Then" />
+            <div className="pt-6">
+              <Button variant="ghost" size="sm" aria-label={`Remove policy change ${index + 1}`} onClick={() => remove(index)}>
+                ✕
+              </Button>
+            </div>
+          </li>
+        ))}
+      </ol>
+      <div>
+        <Button variant="secondary" size="sm" onClick={() => append({ atMs: 2_000, policy: defaultPolicy('fixed') })}>
+          + Change the policy at a time
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+/** The scenario as a form: source, sink, cable, faults, run length. */
+export function ScenarioForm() {
+  const { register, formState } = useFormContext<BenchFormValues>();
+  const errors = formState.errors;
+  return (
+    <div className="flex flex-col gap-5">
+      <Section title="Source" description="What the source offers, in object-position order.">
+        <OffersEditor />
+        <div className="grid grid-cols-2 gap-3">
+          <Select label="Source specification revision" options={REVISIONS} {...register('sourceSpecRevision')} />
+          <Input
+            label="Offer interval (ms)"
+            type="number"
+            min={1}
+            mono
+            placeholder="within tTypeCSendSourceCap"
+            hint="Empty: jitter within the specification’s range."
+            error={errors.capsIntervalMs?.message}
+            {...register('capsIntervalMs', optionalNumberField)}
+          />
+        </div>
+      </Section>
+
+      <Section title="Sink" description="How the sink chooses its Request, and when it changes its mind.">
+        <Select label="Sink specification revision" options={REVISIONS} className="max-w-56" {...register('sinkSpecRevision')} />
+        <PolicyFields name="policy" label="Sink policy" />
+        <PolicyChanges />
+      </Section>
+
+      <Section title="Cable">
+        <div className="grid grid-cols-2 gap-3">
+          <Select
+            label="Current rating"
+            options={[
+              { value: '3000', label: '3 A' },
+              { value: '5000', label: '5 A (electronically marked)' },
+            ]}
+            {...register('cableCurrentMa', numberField)}
+          />
+          <Input label="Resistance, VBUS and return (mΩ)" type="number" min={0} mono error={errors.cableResistanceMohm?.message} {...register('cableResistanceMohm', numberField)} />
+        </div>
+      </Section>
+
+      <Section title="Faults" description="Select a message by side, type and nth (1 = the first; empty = every one), or by time.">
+        <FaultsEditor />
+      </Section>
+
+      <Section title="Run">
+        <div className="grid grid-cols-2 gap-3">
+          <Input label="Duration (ms)" type="number" min={1} mono error={errors.durationMs?.message} {...register('durationMs', numberField)} />
+          <Input label="Seed" type="number" mono hint="The same seed gives the same trace." error={errors.seed?.message} {...register('seed', numberField)} />
+        </div>
+      </Section>
+    </div>
+  );
+}
