@@ -184,15 +184,28 @@ describe('analysis', () => {
 });
 
 describe('robustness', () => {
-  it('never throws on random text in any format', () => {
+  const noInternalFault = (result: ReturnType<typeof analyzeTrace>) => {
+    if (!result.ok) expect(result.error.code).not.toBe('trace.internal');
+  };
+  it('never fails inside on random text in any format', () => {
     fc.assert(
-      fc.property(fc.string({ maxLength: 400 }), fc.constantFrom('auto', 'jsonl', 'text', 'vcd') , (text, format) => {
-        analyzeTrace(text, { format });
+      fc.property(fc.string({ maxLength: 400 }), fc.constantFrom('auto', 'jsonl', 'text', 'vcd'), (text, format) => {
+        noInternalFault(analyzeTrace(text, { format }));
       }),
       { numRuns: 300 },
     );
   });
-  it('never throws on random lines of half-valid records', () => {
+  it('never fails inside on VCD-like noise', () => {
+    const token = fc.constantFrom('$timescale 1 ns $end', '$timescale 10us $end', '$var wire 1 ! cc $end', '$var wire 4 # bus $end', '$enddefinitions $end', '$dumpvars', '$end', '0!', '1!', 'x!', 'b101 #');
+    const time = fc.nat(5_000_000).map((n) => `#${n}`);
+    fc.assert(
+      fc.property(fc.array(fc.oneof(token, time, fc.string({ maxLength: 8 })), { maxLength: 200 }), (tokens) => {
+        noInternalFault(analyzeTrace(tokens.join('\n'), { format: 'vcd' }));
+      }),
+      { numRuns: 200 },
+    );
+  });
+  it('never fails inside on random lines of half-valid records', () => {
     const line = fc.oneof(
       fc.string(),
       fc.record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') }).map((r) => JSON.stringify(r)),
@@ -202,8 +215,22 @@ describe('robustness', () => {
     );
     fc.assert(
       fc.property(fc.array(line, { maxLength: 60 }), (lines) => {
-        analyzeTrace(lines.join('\n'));
-        analyzeTrace(lines.join('\n'), { format: 'text' });
+        noInternalFault(analyzeTrace(lines.join('\n')));
+        noInternalFault(analyzeTrace(lines.join('\n'), { format: 'text' }));
+      }),
+      { numRuns: 300 },
+    );
+  });
+  it('never throws on random message bytes pushed straight into the analyser', () => {
+    const hex = fc.uint8Array({ minLength: 2, maxLength: 40 }).map((b) => [...b].map((x) => x.toString(16).padStart(2, '0')).join(''));
+    const record = fc.oneof(
+      fc.record({ t: fc.nat(3_000_000), msg: hex, from: fc.constantFrom('source' as const, 'sink' as const, 'cable' as const), crcOk: fc.boolean() }),
+      fc.record({ t: fc.nat(3_000_000), event: fc.constantFrom('attach' as const, 'detach' as const, 'hard_reset' as const) }),
+      fc.record({ t: fc.nat(3_000_000), vbus: fc.record({ mv: fc.nat(25_000), ma: fc.nat(6_000) }) }),
+    );
+    fc.assert(
+      fc.property(fc.array(record, { maxLength: 80 }), (records) => {
+        analyzeRecords([...negotiation().records, ...records]);
       }),
       { numRuns: 300 },
     );

@@ -66,16 +66,16 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
       });
     },
     finish() {
-      let end: ReturnType<TraceReader['end']> = { ok: true };
-      let analysis: Analysis | undefined;
-      guarded(() => {
-        const { reader, analyzer } = started ?? start();
-        end = reader.end();
-        if (end.ok) analysis = analyzer.finish();
-      });
       if (broken !== undefined) return fail('trace.internal', `the trace could not be analysed (${broken})`);
-      if (!end.ok) return fail(end.error.code, end.error.message, end.error);
-      if (!analysis) return fail('trace.internal', 'the trace could not be analysed');
+      let analysis: Analysis;
+      try {
+        const { reader, analyzer } = started ?? start();
+        const end = reader.end();
+        if (!end.ok) return fail(end.error.code, end.error.message, end.error);
+        analysis = analyzer.finish();
+      } catch (error) {
+        return fail('trace.internal', `the trace could not be analysed (${error instanceof Error ? error.message : String(error)})`);
+      }
       if (analysis.records === 0) {
         const unread = analysis.counts.warning;
         return fail('trace.empty', unread > 0 ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})` : 'the file holds no trace record (message, event, measurement or note)');

@@ -1,4 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { parseHex } from '../../shared/pd/index.ts';
+import { encodeWaveform } from '../../shared/wire/index.ts';
 import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
 
 const hasChromium = requireChromium();
@@ -73,6 +75,27 @@ describe.skipIf(!hasChromium)('Decoder page', () => {
     expect(await alert.innerText()).toContain('byte 26');
     expect(await page.getByTestId('error-offset').innerText()).toBe('00');
     await screenshot(page, 'decoder-length-error');
+    watch.assertClean();
+    await page.close();
+  });
+
+  it('lists the messages of a dropped VCD capture and opens one', async () => {
+    const page = await browser.context.newPage();
+    const watch = watchPage(page);
+    await browser.context.clearCookies();
+    await signIn(page, server.url, 'support');
+    await page.goto(`${server.url}/decoder`);
+    const caps = parseHex(CAPS);
+    const goodCrc = parseHex('4100'); // GoodCRC (0x01, no objects) from a sink UFP, rev 2.0: Table 6.1 by hand
+    if (!caps.ok || !goodCrc.ok) throw new Error('hex');
+    const { vcd } = encodeWaveform([{ sop: 'SOP', bytes: caps.bytes }, { sop: 'SOP', bytes: goodCrc.bytes }, { orderedSet: 'Hard_Reset' }]);
+    await page.getByLabel('VCD capture').setInputFiles({ name: 'kestrel-charger.vcd', mimeType: 'text/plain', buffer: Buffer.from(vcd) });
+    const list = page.getByRole('list', { name: 'Messages in kestrel-charger.vcd' });
+    await list.getByRole('listitem').nth(2).waitFor();
+    expect(await list.getByRole('listitem').allInnerTexts()).toEqual([expect.stringContaining('Source_Capabilities'), expect.stringContaining('GoodCRC'), expect.stringContaining('Hard Reset')]);
+    await list.getByRole('button', { name: /Source_Capabilities/ }).click();
+    await page.getByRole('table', { name: 'Data objects' }).getByRole('row').nth(6).waitFor();
+    expect(await page.getByTestId('message-type').innerText()).toBe('Source_Capabilities');
     watch.assertClean();
     await page.close();
   });

@@ -22,7 +22,7 @@ export function DecodeError({ failure, text, caps }: { failure: Failure; text: s
         <span className="font-mono text-xs font-semibold">{error.code}</span>
         {stage === 'caps' && <span className="ml-2 text-xs">(in the Source_Capabilities given for the Request)</span>}
       </p>
-      <p className="mt-1">{error.message}.</p>
+      <p className="mt-1">{error.message.charAt(0).toUpperCase() + error.message.slice(1)}.</p>
       {marked && (
         <p className="mt-2 font-mono text-xs break-all" aria-label={`The problem starts at ${marked.unit}`}>
           <span className="text-slate-600 dark:text-slate-400">{marked.before} </span>
