@@ -11,7 +11,8 @@
  */
 import { code, flag, keptReserved, units } from './guards.ts';
 import { hex32 } from './hex.ts';
-import { decodeApdo, encodeApdo, PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE, SINK_APDO_RESERVED_MASKS } from './source-pdo.ts';
+import { decodeApdo, encodeApdo, SINK_APDO_RESERVED_MASKS } from './apdo.ts';
+import { PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE } from './source-pdo.ts';
 import type { RawObject, SinkPdo } from './types.ts';
 
 export const SINK_RESERVED_MASKS = {

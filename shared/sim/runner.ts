@@ -67,8 +67,7 @@ type Entry = { tUs: number; seq: number } & (
 
 type EntryBody = Entry extends infer E ? (E extends Entry ? Omit<E, 'tUs' | 'seq'> & { tUs?: number; seq?: number } : never) : never;
 
-/** tInterFrameGap: at least 25 µs between packets (USB PD R3.2 V1.1 §5.8.5, from memory). */
-const INTER_FRAME_GAP_US = 25;
+const INTER_FRAME_GAP_US = timersPd3.tInterFrameGap.minUs;
 const MEASURE_EVERY_US = 1_000_000;
 const TRANSMIT = timersPd3.tTransmit;
 const CC_DEBOUNCE = timersPd3.tCCDebounce;

@@ -73,7 +73,8 @@ async function run({ fork, clock, store, trace, pool = analysisPool() }: Analyse
   const row = await em.findOneOrFail(Trace, { id }, { populate: ['analysis'] });
   const headerTitle = typeof analysis.header?.title === 'string' ? analysis.header.title.trim().slice(0, 200) : '';
   em.assign(row, {
-    ...(row.title === '' && headerTitle !== '' ? { title: headerTitle } : {}),
+    // A title left empty at upload becomes the header's title, else the file name (lists sort by it).
+    ...(row.title === '' ? { title: headerTitle || row.fileName } : {}),
     status: 'done',
     format: analysis.format ?? trace.format,
     summary: analysis.summary,

@@ -11,7 +11,7 @@ import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, TraceComment, type ITrace } from '../../db/trace-entities.ts';
 import type { AppDeps } from '../../context.ts';
 import { badGateway, badRequest, conflict, forbidden, notFound, rateLimited } from '../../errors.ts';
-import { currentUser, route, type RouteDef } from '../../route-def.ts';
+import { currentUser, route, type RouteContext, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { analysisPool } from '../../analysis/pool.ts';
 import type { Analysis, TraceFormat } from '../../../shared/trace/index.ts';
@@ -147,6 +147,78 @@ function mayDelete(user: IUser, trace: ITrace): boolean {
   return user.role === 'admin' || user.id === trace.uploaderId;
 }
 
+type UploadContext = RouteContext<z.infer<typeof uploadBody>, z.infer<typeof uploadQuery>, undefined>;
+
+/** Sniff, dedupe, store, analyse: the upload once multer has the file on disk. */
+async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { originalname?: string }) {
+  const { res, body, query, em, deps } = ctx;
+  const me = currentUser(ctx);
+  const sniffed = sniffTrace(file.head, file.size <= file.head.length);
+  if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
+  if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
+    throw badRequest('deviceId: no device under test has that id', 'invalid_input');
+  }
+  const devices = await deviceMap(em);
+  const duplicateOf = async () => {
+    const existing = await em.fork().findOne(Trace, { sha256: file.sha256 }, { populate: ['analysis'] });
+    if (!existing) return undefined;
+    // The same bytes were uploaded before: that trace is the answer (200, not a new 201).
+    res.status(200);
+    return { trace: presentTrace(existing, devices), analysis: existing.analysis ?? null, duplicate: true };
+  };
+  const earlier = await duplicateOf();
+  if (earlier) return earlier;
+
+  const store = traceStore(deps.dataDir);
+  const now = deps.clock.now();
+  const trace = em.create(Trace, {
+    title: body.title,
+    fileName: cleanFileName(file.originalname),
+    sha256: file.sha256,
+    sizeBytes: file.size,
+    format: sniffed.format,
+    uploaderId: me.id,
+    uploaderName: me.name,
+    deviceId: body.deviceId,
+    customerRef: body.customerRef,
+    notes: body.notes,
+    status: 'queued',
+    errorCode: null,
+    errorMessage: null,
+    summary: null,
+    messages: 0,
+    errorCount: 0,
+    warningCount: 0,
+    infoCount: 0,
+    rules: '',
+    analysis: null,
+    createdAt: now,
+    analysedAt: null,
+  });
+  recordAudit(em, deps.clock, { actor: me, action: 'trace.uploaded', target: `trace:${file.sha256.slice(0, 12)}`, details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format } });
+  try {
+    await em.flush();
+  } catch (error) {
+    if (!(error instanceof UniqueConstraintViolationException)) throw error;
+    em.clear();
+    const raced = await duplicateOf();
+    if (raced) return raced;
+    throw error;
+  }
+  await store.keep(file.path, file.sha256);
+
+  const job = startAnalysis(deps, trace);
+  if (query.wait === 'false') {
+    res.status(201);
+    return { trace: presentTrace(trace, devices), analysis: null };
+  }
+  const outcome = await job;
+  if (!outcome.ok && outcome.removed) throw badRequest(outcome.message, outcome.code);
+  const fresh = await findTrace(em.fork(), trace.id, true);
+  res.status(201);
+  return { trace: presentTrace(fresh, devices), analysis: fresh.analysis ?? null };
+}
+
 export const tracesRoutes: RouteDef[] = [
   route({
     method: 'post',
@@ -156,74 +228,14 @@ export const tracesRoutes: RouteDef[] = [
     body: uploadBody,
     query: uploadQuery,
     async handler(ctx) {
-      const { req, res, body, query, em, deps } = ctx;
-      const me = currentUser(ctx);
-      const file = req.file as unknown as (ReceivedTrace & { originalname?: string }) | undefined;
+      const file = ctx.req.file as unknown as (ReceivedTrace & { originalname?: string }) | undefined;
       if (!file) throw badRequest('file: choose a trace file to upload (the multipart field "file")', 'trace.no-file');
-      const sniffed = sniffTrace(file.head, file.size <= file.head.length);
-      if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
-      if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
-        throw badRequest('deviceId: no device under test has that id', 'invalid_input');
-      }
-      const devices = await deviceMap(em);
-      const duplicateOf = async () => {
-        const existing = await em.fork().findOne(Trace, { sha256: file.sha256 }, { populate: ['analysis'] });
-        if (!existing) return undefined;
-        // The same bytes were uploaded before: that trace is the answer (200, not a new 201).
-        res.status(200);
-        return { trace: presentTrace(existing, devices), analysis: existing.analysis ?? null, duplicate: true };
-      };
-      const earlier = await duplicateOf();
-      if (earlier) return earlier;
-
-      const store = traceStore(deps.dataDir);
-      const now = deps.clock.now();
-      const trace = em.create(Trace, {
-        title: body.title,
-        fileName: cleanFileName(file.originalname),
-        sha256: file.sha256,
-        sizeBytes: file.size,
-        format: sniffed.format,
-        uploaderId: me.id,
-        uploaderName: me.name,
-        deviceId: body.deviceId,
-        customerRef: body.customerRef,
-        notes: body.notes,
-        status: 'queued',
-        errorCode: null,
-        errorMessage: null,
-        summary: null,
-        messages: 0,
-        errorCount: 0,
-        warningCount: 0,
-        infoCount: 0,
-        rules: '',
-        analysis: null,
-        createdAt: now,
-        analysedAt: null,
-      });
-      recordAudit(em, deps.clock, { actor: me, action: 'trace.uploaded', target: `trace:${file.sha256.slice(0, 12)}`, details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format } });
       try {
-        await em.flush();
-      } catch (error) {
-        if (!(error instanceof UniqueConstraintViolationException)) throw error;
-        em.clear();
-        const raced = await duplicateOf();
-        if (raced) return raced;
-        throw error;
+        return await receiveUpload(ctx, file);
+      } finally {
+        // Kept files were renamed away; anything left is a rejected upload's temporary copy.
+        await rm(file.path, { force: true });
       }
-      await store.keep(file.path, file.sha256);
-
-      const job = startAnalysis(deps, trace);
-      if (query.wait === 'false') {
-        res.status(201);
-        return { trace: presentTrace(trace, devices), analysis: null };
-      }
-      const outcome = await job;
-      if (!outcome.ok && outcome.removed) throw badRequest(outcome.message, outcome.code);
-      const fresh = await findTrace(em.fork(), trace.id, true);
-      res.status(201);
-      return { trace: presentTrace(fresh, devices), analysis: fresh.analysis ?? null };
     },
   }),
   route({
