@@ -1,5 +1,6 @@
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
 import { Trace, TraceComment } from './trace-entities.ts';
+import { libraryEntities } from './library-entities.ts';
 
 /**
  * Every table of the server. Dates come from the injected clock, so no column has a database default.
@@ -108,4 +109,4 @@ export const DeviceUnderTest = defineEntity({
 });
 export type IDeviceUnderTest = InferEntity<typeof DeviceUnderTest>;
 
-export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment];
+export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, ...libraryEntities];

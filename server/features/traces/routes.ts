@@ -4,7 +4,7 @@ import { basename, resolve } from 'node:path';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { rateLimit } from 'express-rate-limit';
-import { UniqueConstraintViolationException } from '@mikro-orm/core';
+import { raw, UniqueConstraintViolationException } from '@mikro-orm/core';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
@@ -258,8 +258,10 @@ export const tracesRoutes: RouteDef[] = [
       const descending = query.sort.startsWith('-');
       const column = sortColumn[query.sort.replace(/^-/, '') as (typeof sortKeys)[number]];
       const direction = descending ? 'desc' : 'asc';
+      // Titles sort the way people read them, not by code point (SQLite's default).
+      const order = column === 'title' ? { [raw('lower(title)')]: direction } : { [column]: direction };
       const [traces, total] = await em.findAndCount(Trace, where.length > 0 ? { $and: where } : {}, {
-        orderBy: [{ [column]: direction }, { id: direction }],
+        orderBy: [order, { id: direction }],
         limit: query.pageSize,
         offset: (query.page - 1) * query.pageSize,
       });
