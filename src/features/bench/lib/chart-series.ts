@@ -28,7 +28,7 @@ function column(samples: PackedSamples, from: number, to: number, field: number,
 export function chartSeries(samples: PackedSamples, window: { startUs: number; endUs: number }, maxPoints = 600): ChartSeries {
   // One sample either side, so lines reach the edges of the window.
   const from = Math.max(0, firstIndexAtOrAfter(samples, window.startUs) - 1);
-  const to = Math.min(samples.count, firstIndexAtOrAfter(samples, window.endUs) + 1);
+  const to = Math.min(samples.count, firstIndexAtOrAfter(samples, window.endUs + 1) + 1);
   const stride = Math.max(1, Math.floor((to - from) / PRE_STRIDE_LIMIT));
   const thin = (points: ChartPoint[]) => (points.length > maxPoints ? (lttb(points, maxPoints) as ChartPoint[]) : points);
   return {
