@@ -74,6 +74,11 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
 
 const isEntry = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/'));
 if (isEntry || process.env.PARLEY_CLI_ENTRY === '1') {
+  // A reader that closes early (`parley … | head`) is not an error of ours: stop quietly.
+  process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw error;
+  });
   const io: CliIo = {
     stdout: (text) => process.stdout.write(text),
     stderr: (text) => process.stderr.write(text),

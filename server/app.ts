@@ -57,6 +57,17 @@ export const contentSecurityPolicy = {
   frameAncestors: ["'none'"],
 };
 
+/**
+ * The Properties page's worker evaluates the user's property code with `new Function`. A dedicated
+ * worker's CSP comes from the response that delivers its script, so only that script gets
+ * 'unsafe-eval'; pages and every other asset keep the strict policy above.
+ */
+export const propertyWorkerAsset = /^\/property\.worker-[\w-]+\.js$/;
+
+export const propertyWorkerCsp = Object.entries({ ...contentSecurityPolicy, scriptSrc: [...contentSecurityPolicy.scriptSrc, "'unsafe-eval'"] })
+  .map(([name, values]) => `${name.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)} ${values.join(' ')}`)
+  .join(';');
+
 export function createApp(options: AppOptions): Express {
   const logger = options.logger ?? pino({ level: 'silent' });
   const deps: AppDeps = {
@@ -102,6 +113,10 @@ export function createApp(options: AppOptions): Express {
   const indexFile = distDir ? join(distDir, 'index.html') : undefined;
   if (distDir && indexFile && existsSync(indexFile)) {
     // Vite names assets by content hash, so a year and `immutable` is safe; index.html is always revalidated.
+    app.use('/assets', (req, res, next) => {
+      if (propertyWorkerAsset.test(req.path)) res.setHeader('Content-Security-Policy', propertyWorkerCsp);
+      next();
+    });
     app.use('/assets', express.static(join(distDir, 'assets'), { immutable: true, maxAge: '365d', index: false, fallthrough: false }));
     app.use(
       express.static(distDir, {

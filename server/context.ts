@@ -1,3 +1,4 @@
+import type { Request } from 'express';
 import type { Logger } from 'pino';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { Orm } from './db/orm.ts';
@@ -17,9 +18,10 @@ export interface RateLimitOptions {
 
 /**
  * Resolves an `Authorization: Bearer <token>` header to a user, for CI tokens. Without one the
- * server accepts session cookies only and answers a bearer token with 401.
+ * server accepts session cookies only and answers a bearer token with 401. It gets the request
+ * so that it can limit a token to the routes tokens are for (it may throw a 403 for the others).
  */
-export type BearerVerifier = (token: string, em: EntityManager) => Promise<IUser | null>;
+export type BearerVerifier = (token: string, em: EntityManager, req: Request) => Promise<IUser | null>;
 
 /** Everything a route handler may use besides the request: injected so tests can swap each part. */
 export interface AppDeps {

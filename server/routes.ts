@@ -12,6 +12,9 @@ import { outboxRoutes } from './features/outbox/routes.ts';
 import { auditRoutes } from './features/audit/routes.ts';
 import { devicesRoutes } from './features/devices/routes.ts';
 import { tracesRoutes } from './features/traces/routes.ts';
+import { vectorsRoutes } from './features/vectors/routes.ts';
+import { runsRoutes } from './features/runs/routes.ts';
+import { tokensRoutes } from './features/tokens/routes.ts';
 
 /** Every API route. A feature adds its `RouteDef[]` here; the role-matrix test walks this list. */
 export const routeTable: RouteDef[] = [
@@ -22,6 +25,9 @@ export const routeTable: RouteDef[] = [
   ...auditRoutes,
   ...devicesRoutes,
   ...tracesRoutes,
+  ...vectorsRoutes,
+  ...runsRoutes,
+  ...tokensRoutes,
 ];
 
 /** This request's entity manager (the RequestContext fork the app opened for it). */

@@ -14,6 +14,8 @@ import { createMailbox, type Mailbox } from './mail/mailbox.ts';
 import { createApp } from './app.ts';
 import { systemClock } from './context.ts';
 import { closeAnalysisPool } from './analysis/pool.ts';
+import { closeRunPool } from './runner/pool.ts';
+import { verifyApiToken } from './features/tokens/verify.ts';
 
 export interface StartOptions {
   /** 0 = a random free port. Default PORT or 3000. */
@@ -78,7 +80,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
 
   const distDir = options.distDir ?? join(repoRoot, 'dist');
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
-  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir });
+  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
@@ -91,6 +93,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
         server.closeIdleConnections();
       });
       await closeAnalysisPool();
+      await closeRunPool();
       mailer.close();
       await fake?.close();
       await orm.close();

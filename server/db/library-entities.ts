@@ -104,7 +104,7 @@ export const RunResult = defineEntity({
     durationMs: p.float(),
     newFailure: p.boolean(),
     /** Only for failures: passing vectors need no evidence. */
-    detail: p.json<RunResultDetail>().nullable().lazy(),
+    detail: p.json<RunResultDetail>().nullable(),
     createdAt: p.datetime(),
   }),
 });

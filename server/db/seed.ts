@@ -3,6 +3,7 @@ import { DeviceUnderTest, Organisation, User, type Role } from './entities.ts';
 import type { Clock } from '../context.ts';
 import { hashPassword } from '../features/auth/passwords.ts';
 import { seedDemoTraces } from './demo-traces/seed-traces.ts';
+import { seedTeamLibrary } from '../features/vectors/seed.ts';
 
 export const demoPassword = 'parley-demo';
 export const demoOrganisation = 'Kestrel Devices';
@@ -61,7 +62,8 @@ export const demoDevices = [
 
 /**
  * Fills an empty database with the demo organisation, accounts and devices; does nothing otherwise.
- * With a `dataDir` (the server's PARLEY_DATA) it also stores and analyses the demo traces.
+ * With a `dataDir` (the server's PARLEY_DATA) it also stores and analyses the demo traces and
+ * fills the team library from the built-in `vectors/` folder.
  */
 export async function seedDemo(em: EntityManager, clock: Clock, options: { dataDir?: string } = {}): Promise<boolean> {
   if ((await em.count(User)) > 0 || (await em.count(Organisation)) > 0) return false;
@@ -74,5 +76,6 @@ export async function seedDemo(em: EntityManager, clock: Clock, options: { dataD
   for (const device of demoDevices) em.create(DeviceUnderTest, { ...device, createdAt: now, updatedAt: now });
   await em.flush();
   if (options.dataDir) await seedDemoTraces(em, clock, options.dataDir);
+  if (options.dataDir) await seedTeamLibrary(em, clock);
   return true;
 }

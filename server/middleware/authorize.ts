@@ -15,7 +15,7 @@ async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise
   const bearer = /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '');
   if (bearer) {
     if (!deps.verifyBearer) throw unauthorized('This server does not accept API tokens; sign in instead', 'bearer_not_accepted');
-    const user = await deps.verifyBearer(bearer[1]!, em);
+    const user = await deps.verifyBearer(bearer[1]!, em, req);
     if (!user || !user.active) throw unauthorized('The API token is not valid', 'invalid_token');
     return user;
   }

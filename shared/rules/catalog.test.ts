@@ -1,5 +1,26 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { DECODE_RULES } from '../pd/index.ts';
 import { isRuleId, makeFinding, ruleCatalog, ruleGroup, ruleIds } from './catalog.ts';
+
+const SHARED = join(import.meta.dirname, '..');
+/** The engine's own sources (tests excluded: they name made-up ids on purpose). */
+function engineSources(dir: string): string[] {
+  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
+    const path = join(dir, e.name);
+    if (e.isDirectory()) return engineSources(path);
+    return e.name.endsWith('.ts') && !e.name.endsWith('.test.ts') ? [path] : [];
+  });
+}
+/** A quoted string that is a whole rule-like id: 'caps.order', "decode.crc", `timing.ps-transition`. */
+const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|vbus|trace)\.[a-z0-9-]+)['"`]/g;
+/**
+ * Result error codes of the engine's edge (shared/core/result.ts): input errors, never findings, so
+ * they have no rule page. A decode error code becomes a finding only when it is a catalog id
+ * (shared/trace/analyzer.ts); otherwise the analyser reports trace.malformed-line.
+ */
+const ERROR_CODES = new Set(['decode.chunk', 'decode.internal', 'trace.empty', 'trace.internal']);
 
 // The fixed ids and severities of the contract's rule table (../shared/contract/rules.md).
 const contractRules = new Map<string, string>([
@@ -29,6 +50,30 @@ describe('rule catalog', () => {
       expect(entry.ref.length, id).toBeGreaterThan(5);
       expect(['decode', 'caps', 'request', 'timing', 'protocol', 'vbus', 'trace']).toContain(ruleGroup(id));
     }
+  });
+
+  it('has every rule id the engine emits anywhere in shared/ (static scan of the sources)', () => {
+    const seen = new Map<string, string>();
+    for (const file of engineSources(SHARED)) {
+      for (const match of readFileSync(file, 'utf8').matchAll(QUOTED_ID)) seen.set(match[1]!, file.slice(SHARED.length + 1));
+    }
+    expect(seen.size).toBeGreaterThan(30);
+    const missing = [...seen].filter(([id]) => !isRuleId(id) && !ERROR_CODES.has(id)).map(([id, file]) => `${id} (${file})`);
+    expect(missing).toEqual([]);
+    // The error codes listed are still used, and none of them is a rule.
+    for (const code of ERROR_CODES) {
+      expect(seen.has(code), code).toBe(true);
+      expect(isRuleId(code), code).toBe(false);
+    }
+  });
+
+  it('mirrors the codec\'s own finding table (shared/pd/findings.ts) with the same severities', () => {
+    for (const [id, entry] of Object.entries(DECODE_RULES)) {
+      expect(isRuleId(id), id).toBe(true);
+      if (isRuleId(id)) expect(ruleCatalog[id].severity, id).toBe(entry.severity);
+    }
+    expect(ruleCatalog['decode.rdo-unknown-type'].ref).toBe(DECODE_RULES['decode.rdo-unknown-type'].ref);
+    expect(ruleCatalog['decode.object-position'].ref).toBe(DECODE_RULES['decode.object-position'].ref);
   });
 
   it('makes findings with the catalog severity and ref, keeping only given extras', () => {

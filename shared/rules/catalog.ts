@@ -57,6 +57,23 @@ export const ruleCatalog = {
     ref: `${R32} §5.6.2 CRC; Appendix A CRC calculation`,
     basis: 'from memory',
   },
+  // Added by the codec (shared/pd/findings.ts keeps the same severity and ref; the catalog test checks it).
+  'decode.rdo-unknown-type': {
+    severity: 'warning',
+    title: 'Request read without its offers',
+    explanation:
+      'A Request Data Object does not say what kind of supply it asks for: its fields are read by the type of the offer its Object Position names (fixed and variable, battery, PPS or AVS each lay the bits out differently). Without the Source_Capabilities in force, or when they have no object at that position, Parley shows the request as a fixed-supply request, so the currents or the voltage shown may be wrong. Decode the Request together with the offers it answers, or capture the trace from before the Source_Capabilities.',
+    ref: `${R32} §6.4.2 (the RDO is read by the type of the PDO it references)`,
+    basis: 'from memory',
+  },
+  'decode.object-position': {
+    severity: 'warning',
+    title: 'Request names a reserved object position',
+    explanation:
+      'The Object Position of a Request counts the offers from 1: 1 to 7 in a Request, 8 to 13 only in an EPR_Request. Zero, and any value past those, is reserved, so the request names no offer and a source must Reject it. Check how the sink firmware fills the field, especially after a change between SPR and EPR mode.',
+    ref: `${R32} §6.4.2, Request Data Object tables (Object Position: 1–7, 8–13 only in EPR_Request)`,
+    basis: 'from memory',
+  },
 
   // ---- caps (Source_Capabilities) ----------------------------------------------------------------
   'caps.empty': {

@@ -110,6 +110,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     finding(f) {
       store.add(f, f.t ?? lastT);
     },
+    goodCrcSeen: () => protocol.goodCrcSeen(),
     softReset(m) {
       const cause = recentProblem(m.t);
       report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });
@@ -191,6 +192,8 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       return;
     }
     if (r.event === 'hard_reset') {
+      // A wait the reset ended is reported before the reset itself, which then names it as the cause.
+      policy.hardReset(t, r.from);
       const unacked = protocol.unacknowledged(t);
       const cause =
         (unacked ? `the ${unacked.from}'s ${unacked.d.messageType} at ${seconds(unacked.firstUs ?? unacked.t)} got no GoodCRC` : undefined) ??
@@ -262,6 +265,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     },
     finish() {
       policy.advance(lastT);
+      policy.finish(lastT);
       protocol.finish(lastT);
       closeVbusProblems();
       const counts = { ...store.counts };

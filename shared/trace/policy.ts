@@ -13,8 +13,10 @@ import { timersFor, type TimerTable } from '../core/timers.ts';
 import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
 import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
 import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
+import { endedDuring, expire, isOpen, movedOn, pastDeadline, resetDuring, type Awaited, type Watch } from './awaited.ts';
 import { objectAt } from './decode-cache.ts';
 import { contractText, millis, seconds } from './format.ts';
+import type { TraceSide } from './records.ts';
 import type { Report, SeenMessage } from './seen.ts';
 import type { VbusLimits } from './vbus.ts';
 
@@ -24,11 +26,8 @@ const NEEDS_ACCEPT: readonly string[] = ['Soft_Reset', 'PR_Swap', 'DR_Swap', 'VC
 /** Offers and requests are checked once each: a keep-alive repeats the same Request every few seconds. */
 const CHECKED_LIMIT = 1_024;
 
-interface Pending {
+interface Pending extends Watch {
   m: SeenMessage;
-  reported: boolean;
-  /** The finding a timer that ran out made, refined when the answer comes after all. */
-  finding?: Finding;
 }
 interface PendingRequest extends Pending {
   rdo: Rdo;
@@ -41,7 +40,7 @@ export interface ActiveContract {
   pdo: SourcePdo;
   /** For a programmable contract: the start of the last Request (tPPSRequest counts from it). */
   lastRequestUs: number;
-  keepAliveReported: boolean;
+  keepAlive: Watch;
   /** VBUS limits, worked out on the first reading. */
   limits?: VbusLimits;
 }
@@ -52,12 +51,18 @@ export interface PolicyEvents {
   softReset(m: SeenMessage): void;
   /** A finding of the rules engine (caps, request), passed on as it is with the message's time and line. */
   finding(f: Finding): void;
+  /** Whether the trace has shown any GoodCRC so far (logs without them time a Request from its own end). */
+  goodCrcSeen?(): boolean;
 }
 
 export interface PolicyTracker {
   onMessage(m: SeenMessage): void;
   /** Timers that ran out before `t`. */
   advance(t: number): void;
+  /** A Hard Reset at `t` (from `from`, when known) ends every wait: a missing answer is reported first. */
+  hardReset(t: number, from: TraceSide | undefined): void;
+  /** The trace ended at `t`: findings of waits still open say so. */
+  finish(t: number): void;
   /** The likely cause of a Hard Reset at `t`, as a clause ("the sink stopped …"), if one is found. */
   hardResetCause(t: number): string | undefined;
   /** Hard Reset, detach, attach: the negotiation starts over and the contract ends. */
@@ -94,6 +99,53 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const unexpected = (m: SeenMessage, why: string): void => {
     report('protocol.unexpected', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} came ${why}.`, at(m));
   };
+
+  /** A Request's timer start: its GoodCRC's end, or its own end in a log that records no GoodCRC at all. */
+  const requestStart = (p: Pending): number | undefined => p.m.ackEndUs ?? (events.goodCrcSeen?.() === false ? p.m.endUs : undefined);
+  const sinceText = (p: Pending): string => `after the ${p.m.d.messageType} ${p.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}`;
+
+  // What each wait says when its answer never comes (awaited.ts); built only when a timer needs words.
+  const awaitRequestAfterCaps = (p: Pending): Awaited => {
+    const { tSenderResponse } = timers();
+    return {
+      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: p.m.ackEndUs, waiter: 'source', line: p.m.line,
+      missing: `The sink did not answer the source's Source_Capabilities at ${seconds(p.m.t)} with a Request`,
+      since: sinceText(p), none: 'no Request', giveUpAfterUs: tSenderResponse.minUs,
+    };
+  };
+  const awaitAnswerTo = (p: Pending): Awaited => {
+    const { tSenderResponse } = timers();
+    const waiter = p.m.from;
+    const answerer = waiter === 'sink' ? 'source' : 'sink';
+    return {
+      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: requestStart(p), waiter, line: p.m.line,
+      missing: `The ${answerer} did not answer the ${waiter}'s ${p.m.d.messageType} at ${seconds(p.m.t)}`,
+      since: sinceText(p), none: 'no answer', giveUpAfterUs: tSenderResponse.minUs,
+    };
+  };
+  const awaitPsRdyAfter = (p: Pending & { request: PendingRequest }): Awaited => {
+    const { tPSTransition } = timers();
+    return {
+      watch: p, rule: 'timing.ps-transition', timerName: 'tPSTransition', timer: tPSTransition, startUs: ackEnd(p.m), waiter: 'sink', line: p.m.line,
+      missing: `The source accepted the Request at ${seconds(p.request.m.t)} but sent no PS_RDY`,
+      since: sinceText(p), none: 'no PS_RDY', giveUpAfterUs: tPSTransition.minUs,
+    };
+  };
+  /** The keep-alive's finding is worded in advance(); this only finishes it (a reset never reports it early). */
+  const awaitKeepAlive = (c: ActiveContract): Awaited => ({
+    watch: c.keepAlive, rule: 'timing.pps-keepalive', timerName: 'tPPSRequest', timer: timers().tPPSRequest, startUs: c.lastRequestUs, waiter: 'source', line: undefined,
+    missing: 'The sink sent no new Request', since: 'later', none: 'no new Request', giveUpAfterUs: Number.POSITIVE_INFINITY,
+  });
+  /** The waits in force, answers first. */
+  const waits = (): Awaited[] => {
+    const list: Awaited[] = [];
+    if (capsWaiting) list.push(awaitRequestAfterCaps(capsWaiting));
+    if (request) list.push(awaitAnswerTo(request));
+    if (accepted) list.push(awaitPsRdyAfter(accepted));
+    if (contract && contract.contract.kind === 'pps') list.push(awaitKeepAlive(contract));
+    return list;
+  };
+  const anyOpen = (): boolean => isOpen(capsWaiting) || isOpen(request) || isOpen(accepted) || isOpen(contract?.keepAlive);
 
   /** A response within tSenderResponse of the (acknowledged) message it answers. */
   const checkResponse = (first: Pending, response: SeenMessage): void => {
@@ -155,7 +207,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     request = { m, rdo, pdo, reported: false };
     if (contract) {
       contract.lastRequestUs = m.t;
-      contract.keepAliveReported = false;
+      contract.keepAlive = { reported: false };
     }
   };
 
@@ -204,7 +256,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     if (!pdo) return;
     const next = contractOf(rdo, pdo);
     const changed = !contract || !sameContract(contract.contract, next);
-    contract = { contract: next, t: m.t, pdo, lastRequestUs: contract && !changed ? contract.lastRequestUs : m.t, keepAliveReported: false };
+    contract = { contract: next, t: m.t, pdo, lastRequestUs: contract && !changed ? contract.lastRequestUs : m.t, keepAlive: { reported: false } };
     events.contract(next, m.t, changed);
   };
 
@@ -213,6 +265,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (m.sop !== 'SOP') return;
       if (m.from === 'source' || m.from === 'sink') revisions[m.from] = m.d.revision;
       const type = m.d.messageType;
+      // A wait already reported: the waiting side went on to send something else (Soft_Reset says more below).
+      if (type !== 'Soft_Reset' && anyOpen()) for (const a of waits()) if (a.rule !== 'timing.pps-keepalive') movedOn(a, m.t, m.from, type);
       switch (type) {
         case 'Source_Capabilities':
           if (m.from === 'source') onCaps(m);
@@ -231,6 +285,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
           onPsRdy(m);
           return;
         case 'Soft_Reset':
+          for (const a of waits()) resetDuring(a, m.t, m.from, 'Soft_Reset', report);
           events.softReset(m);
           request = undefined;
           accepted = undefined;
@@ -242,33 +297,39 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       }
     },
     advance(t) {
-      const table = timers();
-      const { tSenderResponse, tPSTransition, tPPSRequest } = table;
-      if (capsWaiting && !capsWaiting.reported && capsWaiting.m.ackEndUs !== undefined && t > capsWaiting.m.ackEndUs + tSenderResponse.maxUs) {
-        capsWaiting.reported = true;
-        capsWaiting.finding = report('timing.sender-response', `The sink did not answer the Source_Capabilities at ${seconds(capsWaiting.m.t)} with a Request within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: capsWaiting.m.ackEndUs + tSenderResponse.maxUs, line: capsWaiting.m.line, ref: tSenderResponse.ref });
+      const { tSenderResponse, tPSTransition, tPPSRequest } = timers();
+      if (capsWaiting && pastDeadline(capsWaiting, capsWaiting.m.ackEndUs, tSenderResponse.maxUs, t)) expire(awaitRequestAfterCaps(capsWaiting), report);
+      // Cheap test first: a Request's start is never later than its own end.
+      if (request && !request.reported && t > request.m.endUs + tSenderResponse.maxUs) {
+        const startUs = requestStart(request);
+        // Never acknowledged in a trace that shows GoodCRCs: the partner did not take it (protocol.ts says so).
+        if (startUs === undefined) request.reported = true;
+        else if (pastDeadline(request, startUs, tSenderResponse.maxUs, t)) expire(awaitAnswerTo(request), report);
       }
-      if (request && !request.reported && request.m.ackEndUs !== undefined && t > request.m.ackEndUs + tSenderResponse.maxUs) {
-        request.reported = true;
-        request.finding = report('timing.sender-response', `The source did not answer the Request at ${seconds(request.m.t)} within tSenderResponse (${millis(tSenderResponse.maxUs)}).`, { t: request.m.ackEndUs + tSenderResponse.maxUs, line: request.m.line, ref: tSenderResponse.ref });
+      if (accepted && pastDeadline(accepted, ackEnd(accepted.m), tPSTransition.maxUs, t)) expire(awaitPsRdyAfter(accepted), report);
+      if (contract && contract.contract.kind === 'pps' && pastDeadline(contract.keepAlive, contract.lastRequestUs, tPPSRequest.maxUs, t)) {
+        contract.keepAlive.reported = true;
+        contract.keepAlive.finding = report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
       }
-      if (accepted && !accepted.reported && t > ackEnd(accepted.m) + tPSTransition.maxUs) {
-        accepted.reported = true;
-        accepted.finding = report('timing.ps-transition', `The source accepted the Request at ${seconds(accepted.m.t)} but sent no PS_RDY within tPSTransition (${millis(tPSTransition.maxUs)}).`, { t: ackEnd(accepted.m) + tPSTransition.maxUs, line: accepted.m.line, ref: tPSTransition.ref });
-      }
-      if (contract && contract.contract.kind === 'pps' && !contract.keepAliveReported && t > contract.lastRequestUs + tPPSRequest.maxUs) {
-        contract.keepAliveReported = true;
-        report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
-      }
+    },
+    hardReset(t, from) {
+      for (const a of waits()) resetDuring(a, t, from, 'a Hard Reset', report);
+    },
+    finish(t) {
+      if (anyOpen()) for (const a of waits()) endedDuring(a, t);
     },
     hardResetCause(t) {
       const { tSenderResponse, tPSTransition, tPPSRequest } = timers();
-      if (accepted && t - ackEnd(accepted.m) >= tPSTransition.minUs) return 'the source accepted a Request but sent no PS_RDY';
+      if (accepted && t - ackEnd(accepted.m) >= tPSTransition.minUs) return `the source accepted the Request at ${seconds(accepted.request.m.t)} but sent no PS_RDY within tPSTransition`;
       if (contract && contract.contract.kind === 'pps' && t - contract.lastRequestUs > tPPSRequest.maxUs) {
         return 'the sink stopped re-requesting its programmable contract';
       }
-      if (request && t - ackEnd(request.m) >= tSenderResponse.minUs) return 'the source did not answer a Request';
-      if (capsWaiting && capsWaiting.m.ackEndUs !== undefined && t - capsWaiting.m.ackEndUs >= tSenderResponse.minUs) return 'the sink did not answer the Source_Capabilities';
+      if (request && t - ackEnd(request.m) >= tSenderResponse.minUs) {
+        return `the ${request.m.from === 'sink' ? 'source' : 'sink'} did not answer the ${request.m.from}'s ${request.m.d.messageType} at ${seconds(request.m.t)} within tSenderResponse`;
+      }
+      if (capsWaiting && capsWaiting.m.ackEndUs !== undefined && t - capsWaiting.m.ackEndUs >= tSenderResponse.minUs) {
+        return `the sink did not answer the Source_Capabilities at ${seconds(capsWaiting.m.t)} within tSenderResponse`;
+      }
       return undefined;
     },
     reset(t) {

@@ -42,6 +42,49 @@ export function createAppRouter(queryClient: QueryClient) {
               lazy: async () => ({ Component: (await import('../features/decoder/routes/decoder.tsx')).DecoderRoute }),
             },
             {
+              path: paths.bench.path,
+              lazy: async () => ({ Component: (await import('../features/bench/routes/bench.tsx')).BenchRoute }),
+            },
+            {
+              path: paths.traces.index.path,
+              lazy: async () => ({ Component: (await import('../features/traces/routes/traces.tsx')).TracesRoute }),
+            },
+            {
+              path: paths.traces.detail.path,
+              lazy: async () => ({ Component: (await import('../features/traces/routes/trace.tsx')).TraceRoute }),
+            },
+            {
+              path: paths.properties.path,
+              loader: requireRole(queryClient, ['admin', 'engineer', 'qa']),
+              lazy: async () => ({ Component: (await import('../features/properties/routes/properties.tsx')).PropertiesRoute }),
+            },
+            {
+              path: paths.library.index.path,
+              lazy: async () => ({ Component: (await import('../features/library/routes/library.tsx')).LibraryRoute }),
+            },
+            {
+              path: paths.library.create.path,
+              loader: requireRole(queryClient, ['admin', 'engineer', 'qa']),
+              lazy: async () => ({ Component: (await import('../features/library/routes/vector.tsx')).NewVectorRoute }),
+            },
+            {
+              path: paths.library.vector.path,
+              lazy: async () => ({ Component: (await import('../features/library/routes/vector.tsx')).VectorRoute }),
+            },
+            {
+              path: paths.runs.index.path,
+              lazy: async () => ({ Component: (await import('../features/runs/routes/runs.tsx')).RunsRoute }),
+            },
+            {
+              path: paths.runs.detail.path,
+              lazy: async () => ({ Component: (await import('../features/runs/routes/run-detail.tsx')).RunDetailRoute }),
+            },
+            {
+              path: paths.admin.tokens.path,
+              loader: requireRole(queryClient, ['admin']),
+              lazy: async () => ({ Component: (await import('../features/tokens/routes/tokens.tsx')).TokensRoute }),
+            },
+            {
               path: paths.admin.users.path,
               loader: requireRole(queryClient, ['admin']),
               lazy: async () => ({ Component: (await import('../features/users/routes/users.tsx')).UsersRoute }),
@@ -63,6 +106,13 @@ export function createAppRouter(queryClient: QueryClient) {
           ],
         },
       ],
+    },
+    {
+      // The printable report stands outside the app shell: nothing but the report on paper.
+      path: paths.traces.report.path,
+      loader: requireSession(queryClient),
+      lazy: async () => ({ Component: (await import('../features/traces/routes/trace-report.tsx')).TraceReportRoute }),
+      errorElement: <RouteError />,
     },
     {
       id: 'public',

@@ -41,12 +41,68 @@ export const paths = {
       getHref: (token: string) => `/invite/${encodeURIComponent(token)}`,
     },
   },
+  properties: {
+    path: '/properties',
+    getHref: () => '/properties',
+  },
   decoder: {
     path: '/decoder',
     /** `search` is the decoder's input as URL search params (see features/decoder/lib/search-params.ts). */
     getHref: (search?: string) => (search ? `/decoder?${search}` : '/decoder'),
   },
+  bench: {
+    path: '/bench',
+    /** `fromTrace` opens a stored trace as a scenario (GET /api/traces/:id). */
+    getHref: (options?: { fromTrace?: string | number }) =>
+      options?.fromTrace !== undefined ? `/bench?fromTrace=${encodeURIComponent(String(options.fromTrace))}` : '/bench',
+  },
+  traces: {
+    index: {
+      path: '/traces',
+      /** `search`: the list's filters as URL search params (q, deviceId, severity, uploaderId, sort, page). */
+      getHref: (search?: string) => (search ? `/traces?${search}` : '/traces'),
+    },
+    detail: {
+      path: '/traces/:traceId',
+      /** `finding`: the index of a finding to open the timeline at. */
+      getHref: (traceId: string | number, finding?: number) =>
+        `/traces/${encodeURIComponent(String(traceId))}${finding === undefined ? '' : `?finding=${finding}`}`,
+    },
+    report: {
+      path: '/traces/:traceId/report',
+      getHref: (traceId: string | number) => `/traces/${encodeURIComponent(String(traceId))}/report`,
+    },
+  },
+  library: {
+    index: {
+      path: '/library',
+      getHref: () => '/library',
+    },
+    create: {
+      path: '/library/new',
+      getHref: () => '/library/new',
+    },
+    vector: {
+      /** The vector id URL-encoded (`/` as %2F); a splat, so an unencoded id opens too. */
+      path: '/library/*',
+      getHref: (vectorId: string) => `/library/${encodeURIComponent(vectorId)}`,
+    },
+  },
+  runs: {
+    index: {
+      path: '/runs',
+      getHref: (project?: string) => (project ? `/runs?project=${encodeURIComponent(project)}` : '/runs'),
+    },
+    detail: {
+      path: '/runs/:runId',
+      getHref: (runId: number | string, vectorId?: string) => `/runs/${encodeURIComponent(String(runId))}${vectorId ? `?result=${encodeURIComponent(vectorId)}` : ''}`,
+    },
+  },
   admin: {
+    tokens: {
+      path: '/admin/tokens',
+      getHref: () => '/admin/tokens',
+    },
     users: {
       path: '/admin/users',
       getHref: () => '/admin/users',

@@ -16,7 +16,11 @@ export type AuditAction =
   | 'user.reactivated'
   | 'trace.uploaded'
   | 'trace.shared'
-  | 'trace.deleted';
+  | 'trace.deleted'
+  | 'vector.imported'
+  | 'vector.deleted'
+  | 'token.created'
+  | 'token.revoked';
 
 /** Queues an audit event in the unit of work; the caller's flush writes it with the change it records. */
 export function recordAudit(

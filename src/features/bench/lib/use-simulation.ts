@@ -2,7 +2,7 @@
  * Runs scenarios in workers/sim.worker.ts: one worker for the page's life, progress as a fraction,
  * Cancel terminates the worker (the next run starts a fresh one).
  */
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { startTransition, useCallback, useEffect, useRef, useState } from 'react';
 import { createEngineWorker, isCancelled, progress, type EngineWorker } from '../../../lib/engine-worker.ts';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
 import type { SimApi, SimRunOutput } from '../../../../workers/sim.worker.ts';
@@ -56,7 +56,8 @@ export function useSimulation() {
       });
     });
     try {
-      const output = await worker.run((api) => api.run(scenario, onProgress));
+      // comlink types a union result as a union of promises; it is one promise of the union.
+      const output = await worker.run<SimRunOutput>((api) => api.run(scenario, onProgress) as Promise<SimRunOutput>);
       if (!output.ok) {
         setState({ status: 'failed', message: output.error.message });
         return;
@@ -69,8 +70,11 @@ export function useSimulation() {
         elapsedMs: Math.round(performance.now() - started),
         finishedAt: new Date().toISOString(),
       };
-      setLastRun(run);
-      setState({ status: 'done', run });
+      // A transition lets React render the results in slices, so no single task blocks the page.
+      startTransition(() => {
+        setLastRun(run);
+        setState({ status: 'done', run });
+      });
     } catch (error) {
       if (isCancelled(error)) setState({ status: 'cancelled' });
       else setState({ status: 'failed', message: error instanceof Error ? error.message : String(error) });

@@ -1,0 +1,302 @@
+import express, { type RequestHandler, type Response } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
+import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
+import { badRequest, notFound } from '../../errors.ts';
+import { currentUser, route, type RouteDef } from '../../route-def.ts';
+import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
+import { tokenOf } from '../tokens/verify.ts';
+import { describeFilter, vectorFilterSchema, vectorWhere } from '../vectors/query.ts';
+import { finishRun, runningJob, startRunJob, type QueuedVector } from './job.ts';
+import { currentRunProgress, subscribeRun, type RunEvent } from './progress.ts';
+import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
+import { readJsonReport, readReportText, type ReportRead } from './report.ts';
+
+/** api.md: engineers and QA run vectors (CI posts with a token, which acts with the qa role). */
+export const runStarters = ['admin', 'engineer', 'qa'] as const;
+export const MAX_REPORT_BYTES = 20 * 1024 * 1024;
+
+const runIdParams = z.object({ id: z.coerce.number().int().positive() });
+
+const startBody = z
+  .object({
+    ids: z.array(z.string().regex(VECTOR_ID_PATTERN, 'must be vector ids')).min(1, 'select at least one vector').max(10_000).optional(),
+    filter: vectorFilterSchema.optional(),
+    all: z.literal(true, { error: 'all must be true when given' }).optional(),
+    project: projectName.default(LIBRARY_PROJECT),
+    build: buildName.optional(),
+    /** Answer when the run is done, with its results (for "Run this vector"). */
+    wait: z.boolean().default(false),
+  })
+  .strict()
+  .refine((b) => [b.ids, b.filter, b.all].filter((x) => x !== undefined).length === 1, { message: 'give exactly one of ids, filter or all: true', path: ['ids'] });
+
+const listQuery = z.object({
+  project: projectName.optional(),
+  source: z.enum(['ui', 'ci']).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+});
+
+const ciFields = z.object({ project: projectName.optional(), build: buildName.optional() });
+
+export function presentRun(run: ITestRun) {
+  return {
+    id: run.id,
+    project: run.project,
+    build: run.build,
+    source: run.source,
+    status: run.status,
+    selection: run.selection,
+    total: run.total,
+    done: run.done,
+    passed: run.passed,
+    failed: run.failed,
+    newFailures: run.newFailures,
+    startedBy: run.startedByName,
+    error: run.errorMessage,
+    createdAt: run.createdAt.toISOString(),
+    finishedAt: run.finishedAt?.toISOString() ?? null,
+  };
+}
+
+function presentResult(result: IRunResult) {
+  return {
+    id: result.id,
+    vectorId: result.vectorId,
+    title: result.title,
+    kind: result.kind,
+    revision: result.vectorRevision,
+    ok: result.ok,
+    message: result.message,
+    durationMs: result.durationMs,
+    newFailure: result.newFailure,
+    ...(result.ok ? {} : { expected: result.detail?.expected, actual: result.detail?.actual, mismatches: result.detail?.mismatches, counterexampleVector: result.detail?.counterexampleVector }),
+  };
+}
+
+async function findRun(em: EntityManager, id: number): Promise<ITestRun> {
+  const run = await em.findOne(TestRun, { id });
+  if (!run) throw notFound('No such run', 'run.not-found');
+  return run;
+}
+
+async function runWithResults(em: EntityManager, run: ITestRun) {
+  const results = await em.find(RunResult, { runId: run.id }, { orderBy: [{ ok: 'asc' }, { vectorId: 'asc' }] });
+  // Library vectors still in the library can be opened; CI ids may name vectors kept elsewhere.
+  const known = new Set((await em.find(TeamVector, { vectorId: { $in: results.map((r) => r.vectorId) } }, { fields: ['vectorId'] })).map((v) => v.vectorId));
+  return { run: presentRun(run), results: results.map((r) => ({ ...presentResult(r), inLibrary: known.has(r.vectorId) })) };
+}
+
+function sendSse(res: Response, event: RunEvent): void {
+  res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
+}
+
+function finalEvent(run: ITestRun): RunEvent {
+  return { type: 'done', runId: run.id, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed: run.passed, failed: run.failed, newFailures: run.newFailures, ...(run.errorMessage ? { error: run.errorMessage } : {}) };
+}
+
+/** CI posts multipart (field `file` plus `project`, `build`), raw `application/xml`, or JSON. */
+function reportUpload(): RequestHandler[] {
+  const multipart = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_REPORT_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024 } }).single('file');
+  const xml = express.text({ type: ['application/xml', 'text/xml', 'application/junit+xml'], limit: MAX_REPORT_BYTES });
+  return [xml, multipart];
+}
+
+function readPosted(req: express.Request): ReportRead {
+  if (req.file) return readReportText(req.file.buffer.toString('utf8'));
+  if (typeof req.body === 'string') return readReportText(req.body);
+  if (req.body && typeof req.body === 'object' && 'results' in req.body) return readJsonReport(req.body);
+  return { ok: false, message: 'file: post a JUnit XML file (multipart field "file", or the body as application/xml) or a parley run --json result' };
+}
+
+export const runsRoutes: RouteDef[] = [
+  route({
+    method: 'post',
+    path: '/api/runs/start',
+    access: runStarters,
+    body: startBody,
+    async handler(ctx) {
+      const { em, body, res, deps } = ctx;
+      const me = currentUser(ctx);
+      const where = body.all ? {} : body.ids ? { vectorId: { $in: body.ids } } : vectorWhere(body.filter ?? {});
+      const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' } });
+      if (body.ids) {
+        const missing = body.ids.filter((id) => !rows.some((r) => r.vectorId === id));
+        if (missing.length > 0) throw badRequest(`ids: not in the library: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ` and ${missing.length - 5} more` : ''}`, 'invalid_input');
+      }
+      if (rows.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
+      const selection = body.all ? 'all' : body.ids ? (body.ids.length === 1 ? body.ids[0]! : `${body.ids.length} selected`) : describeFilter(body.filter ?? {});
+      const run = em.create(TestRun, {
+        project: body.project,
+        build: body.build ?? null,
+        source: 'ui',
+        status: 'running',
+        selection,
+        total: rows.length,
+        done: 0,
+        passed: 0,
+        failed: 0,
+        newFailures: 0,
+        startedById: me.id,
+        startedByName: me.name,
+        tokenId: null,
+        errorMessage: null,
+        createdAt: deps.clock.now(),
+        finishedAt: null,
+      });
+      await em.flush();
+      const queued: QueuedVector[] = rows.map((r) => ({ vectorId: r.vectorId, revision: r.revision, title: r.title, kind: r.kind, text: r.text }));
+      const job = startRunJob(deps, run.id, queued);
+      if (body.wait) {
+        await job;
+        res.status(201);
+        return runWithResults(em.fork(), await findRun(em.fork(), run.id));
+      }
+      res.status(202);
+      return { run: presentRun(run) };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs',
+    access: runStarters,
+    middleware: reportUpload,
+    query: ciFields,
+    async handler(ctx) {
+      const { req, em, query, res, deps } = ctx;
+      const me = currentUser(ctx);
+      const token = tokenOf(req);
+      const fields = ciFields.safeParse({
+        project: query.project ?? (typeof req.body === 'object' && req.body ? (req.body as Record<string, unknown>).project : undefined),
+        build: query.build ?? (typeof req.body === 'object' && req.body ? (req.body as Record<string, unknown>).build : undefined),
+      });
+      if (!fields.success) {
+        const issue = fields.error.issues[0]!;
+        throw badRequest(`${issue.path.join('.')}: ${issue.message}`, 'invalid_input');
+      }
+      const { build } = fields.data;
+      let project = fields.data.project;
+      if (token) {
+        if (project !== undefined && project !== token.project) throw badRequest(`project: this token posts to "${token.project}", not "${project}"`, 'invalid_input');
+        project = token.project;
+      }
+      if (project === undefined) throw badRequest('project: say which project these results belong to', 'invalid_input');
+      const report = readPosted(req);
+      if (!report.ok) throw badRequest(report.message, 'run.bad-report');
+
+      // A vector id reported twice counts once: the last report of it wins.
+      const results = [...new Map(report.results.map((r) => [r.id, r])).values()];
+      const titles = new Map((await em.find(TeamVector, { vectorId: { $in: results.map((r) => r.id) } }, { fields: ['vectorId', 'title', 'kind'] })).map((v) => [v.vectorId, v]));
+      const now = deps.clock.now();
+      const run = em.create(TestRun, {
+        project,
+        build: build ?? null,
+        source: 'ci',
+        status: 'running',
+        selection: `${report.format === 'junit' ? 'JUnit' : 'parley run --json'} report`,
+        total: results.length,
+        done: 0,
+        passed: 0,
+        failed: 0,
+        newFailures: 0,
+        startedById: token ? null : me.id,
+        startedByName: token ? `token "${token.name}"` : me.name,
+        tokenId: token?.id ?? null,
+        errorMessage: null,
+        createdAt: now,
+        finishedAt: null,
+      });
+      await em.flush();
+      for (const r of results) {
+        const known = titles.get(r.id);
+        em.create(RunResult, {
+          runId: run.id,
+          vectorId: r.id.slice(0, 300),
+          title: known?.title ?? null,
+          kind: known?.kind ?? null,
+          vectorRevision: null,
+          ok: r.ok,
+          message: r.ok ? null : (r.message ?? 'failed').slice(0, 20_000),
+          durationMs: r.durationMs,
+          newFailure: false,
+          detail: null,
+          createdAt: now,
+        });
+      }
+      await em.flush();
+      const finished = await finishRun(em.fork(), deps, run.id);
+      res.status(201);
+      return { run: presentRun(finished) };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs',
+    access: 'signed-in',
+    query: listQuery,
+    async handler({ em, query }) {
+      const where = { ...(query.project ? { project: query.project } : {}), ...(query.source ? { source: query.source } : {}) };
+      const [runs, total] = await em.findAndCount(TestRun, where, { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize });
+      const projects = await em.getConnection().execute<{ project: string }[]>('select distinct project from test_run order by project');
+      return { items: runs.map(presentRun), total, page: query.page, pageSize: query.pageSize, projects: projects.map((p) => String(p.project)) };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id',
+    access: 'signed-in',
+    params: runIdParams,
+    async handler({ em, params }) {
+      return runWithResults(em, await findRun(em, params.id));
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/runs/:id/events',
+    access: 'signed-in',
+    params: runIdParams,
+    async handler({ em, params, req, res }) {
+      const run = await findRun(em, params.id);
+      res.status(200);
+      // no-transform keeps compression from buffering the stream.
+      res.set({ 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'no-cache, no-transform', 'X-Accel-Buffering': 'no' });
+      res.flushHeaders();
+      const job = runningJob(run.id);
+      if (run.status !== 'running' || !job) {
+        sendSse(res, finalEvent(run.status === 'running' ? await findRun(em.fork(), run.id) : run));
+        res.end();
+        return undefined;
+      }
+      await new Promise<void>((resolveStream) => {
+        let ended = false;
+        const stop = () => {
+          if (ended) return;
+          ended = true;
+          unsubscribe();
+          clearInterval(heartbeat);
+          resolveStream();
+        };
+        const unsubscribe = subscribeRun(run.id, (event) => {
+          if (ended) return;
+          sendSse(res, event);
+          if (event.type === 'done') stop();
+        });
+        const heartbeat = setInterval(() => res.write(': still running\n\n'), 15_000);
+        req.on('close', stop);
+        sendSse(res, currentRunProgress(run.id) ?? { type: 'progress', runId: run.id, done: run.done, total: run.total, passed: run.passed, failed: run.failed });
+        // The job may have ended between the lookup and the subscription.
+        void job.then(async () => {
+          if (ended) return;
+          const final = finalEvent(await findRun(em.fork(), run.id));
+          if (ended) return;
+          sendSse(res, final);
+          stop();
+        });
+      });
+      if (!res.writableEnded) res.end();
+      return undefined;
+    },
+  }),
+];

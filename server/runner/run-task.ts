@@ -1,0 +1,31 @@
+/**
+ * The run pool's task: one vector file's text in, its result out (JSON-safe, for the results
+ * table). A trace vector's `file` is read from the built-in library folder the id names
+ * (`vectors/<folder of the id>/<file>`), never from outside it.
+ */
+import { readFile } from 'node:fs/promises';
+import { dirname, resolve, sep } from 'node:path';
+import { runVectorText, toJsonSafe, type VectorResult } from '../../shared/vectors/index.ts';
+
+export interface RunVectorTask {
+  text: string;
+  vectorId: string;
+  /** Folder of the built-in library, for trace vectors that name a file. */
+  vectorsRoot: string;
+}
+
+export function libraryFileReader(vectorsRoot: string, vectorId: string): (path: string) => Promise<string> {
+  const root = resolve(vectorsRoot);
+  return async (path) => {
+    const full = resolve(root, dirname(vectorId), path);
+    if (!full.startsWith(root + sep)) throw new Error(`"${path}" is outside the vector library`);
+    return readFile(full, 'utf8');
+  };
+}
+
+export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> {
+  const result = await runVectorText(task.text, task.vectorId, { readFile: libraryFileReader(task.vectorsRoot, task.vectorId) });
+  return toJsonSafe(result) as VectorResult;
+}
+
+export default runVectorTask;

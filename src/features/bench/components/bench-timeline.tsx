@@ -1,0 +1,116 @@
+import { useMemo, useState } from 'react';
+import { Button } from '../../../components/button.tsx';
+import { FindingPins } from '../../../components/timeline/finding-pins.tsx';
+import { MessageLanes } from '../../../components/timeline/message-lanes.tsx';
+import { StateLanes } from '../../../components/timeline/state-lanes.tsx';
+import { TimerSpans } from '../../../components/timeline/timer-spans.tsx';
+import { formatTimeUs, type TimeWindow } from '../../../components/timeline/time-window.ts';
+import { zoomWindow } from '../../../components/timeline/trace-series.ts';
+import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartPin } from '../../../components/timeline/vbus-chart.tsx';
+import { laneMessagesOf, measurementsOf, type RunMessage } from '../lib/timeline-data.ts';
+import type { BenchRun } from '../lib/use-simulation.ts';
+import { useStagedReveal } from '../lib/use-staged-reveal.ts';
+
+export type BenchTimelineProps = {
+  run: BenchRun;
+  window: TimeWindow;
+  onWindowChange(window: TimeWindow): void;
+  selectedIndex: number | null;
+  onSelectMessage(index: number, message: RunMessage): void;
+  onSelectFinding?(index: number): void;
+  dark: boolean;
+};
+
+/**
+ * The run on one time axis, from the shared timeline parts: VBUS at source and sink and IBUS with
+ * the brush, the messages, the findings, and (Bench only) both policy engines' states and the
+ * timers. The window is the page's, so the findings table can bring a time into view.
+ */
+export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSelectMessage, onSelectFinding, dark }: BenchTimelineProps) {
+  const [foldGoodCrc, setFoldGoodCrc] = useState(false);
+  const { lanes, messages } = useMemo(() => laneMessagesOf(run.events), [run]);
+  const measurements = useMemo(() => measurementsOf(run.samples), [run]);
+  const pins = useMemo<ChartPin[]>(
+    () => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])),
+    [run],
+  );
+  const end = Math.max(1, run.endUs);
+  const whole = window.startUs <= 0 && window.endUs >= end;
+  const firstContractUs = run.contracts[0]?.t;
+  const firstMessageUs = lanes[0]?.t ?? 0;
+  // Chart, then messages and findings, then states and timers: one part a task, none of them long.
+  const parts = useStagedReveal(run, 4);
+
+  return (
+    <div className="flex min-h-[32rem] flex-col gap-2 [contain:layout_style]" data-testid="bench-timeline">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <p className="font-mono text-xs text-slate-500 tabular dark:text-slate-400" aria-live="polite" data-testid="timeline-window">
+          {formatTimeUs(window.startUs)} – {formatTimeUs(window.endUs)}
+          {whole ? ' (whole run)' : ''}
+        </p>
+        <div className="flex flex-wrap items-center gap-2">
+          <label className="mr-2 flex items-center gap-1.5 text-xs text-slate-600 dark:text-slate-300">
+            <input type="checkbox" checked={foldGoodCrc} onChange={(event) => setFoldGoodCrc(event.target.checked)} className="accent-amber-500" />
+            Fold GoodCRC away
+          </label>
+          {firstContractUs !== undefined && (
+            <Button
+              size="sm"
+              variant="secondary"
+              onClick={() => {
+                // From the first offer to the PS_RDY that made the contract, with a little room either side.
+                const marginUs = Math.max(1_000, Math.round((firstContractUs - firstMessageUs) * 0.05));
+                onWindowChange({ startUs: Math.max(0, firstMessageUs - marginUs), endUs: Math.min(end, firstContractUs + 2 * marginUs) });
+              }}
+            >
+              First contract
+            </Button>
+          )}
+          <Button size="sm" variant="secondary" onClick={() => onWindowChange(zoomWindow(window, 0.5, end))}>
+            Zoom in
+          </Button>
+          <Button size="sm" variant="secondary" onClick={() => onWindowChange(zoomWindow(window, 2, end))} disabled={whole}>
+            Zoom out
+          </Button>
+          <Button size="sm" variant="ghost" onClick={() => onWindowChange({ startUs: 0, endUs: end })} disabled={whole}>
+            Whole run
+          </Button>
+        </div>
+      </div>
+      {parts >= 2 && (
+        <VbusChart
+          measurements={measurements.source}
+          sinkMeasurements={measurements.sink}
+          window={window}
+          endUs={end}
+          pins={pins}
+          onWindowChange={onWindowChange}
+          dark={dark}
+        />
+      )}
+      {parts >= 3 && (
+        <>
+          <MessageLanes
+            messages={lanes}
+            window={window}
+            foldGoodCrc={foldGoodCrc}
+            insetLeftPx={PLOT_INSET_LEFT_PX}
+            insetRightPx={PLOT_INSET_RIGHT_PX}
+            selectedIndex={selectedIndex ?? undefined}
+            onSelect={(index) => {
+              const message = messages[index];
+              if (message) onSelectMessage(index, message);
+            }}
+          />
+          <FindingPins findings={run.findings} window={window} onSelect={onSelectFinding} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+        </>
+      )}
+      {parts >= 4 && (
+        <>
+          <StateLanes entries={run.lanes} window={window} endUs={end} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+          <TimerSpans timers={run.timers} window={window} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,93 @@
+import { useState } from 'react';
+import { Button } from '../../../components/button.tsx';
+import { Input } from '../../../components/input.tsx';
+import { svgMarkup, pngOfSvg } from '../lib/chart-image.ts';
+import { downloadBlob, downloadText } from '../lib/download.ts';
+import { traceJsonl, vectorFromRun, vectorIdOf } from '../lib/run-exports.ts';
+import { samplesCsv } from '../lib/samples.ts';
+import type { BenchRun } from '../lib/use-simulation.ts';
+
+export type ExportPanelProps = {
+  run: BenchRun;
+  /** The chart's <svg>, found when an image is asked for. */
+  chartSvg(): SVGSVGElement | null;
+  dark: boolean;
+};
+
+function stamp(iso: string): string {
+  return iso.replace(/[:]/g, '').replace(/\..*$/, '').replace('T', '-');
+}
+
+/** Files from the finished run: trace, samples, chart, and the run as a negotiation vector. */
+export function ExportPanel({ run, chartSvg, dark }: ExportPanelProps) {
+  const [name, setName] = useState('my scenario');
+  const [problem, setProblem] = useState<string | null>(null);
+  const base = `bench-${stamp(run.finishedAt)}`;
+  const id = vectorIdOf(name);
+
+  const chartImage = async (kind: 'svg' | 'png') => {
+    setProblem(null);
+    const svg = chartSvg();
+    if (!svg) {
+      setProblem('The chart is not on screen yet.');
+      return;
+    }
+    const markup = svgMarkup(svg, { background: dark ? '#0f172a' : '#ffffff', title: `VBUS and IBUS, ${name}` });
+    if (kind === 'svg') {
+      downloadText(`${base}.chart.svg`, markup, 'image/svg+xml');
+      return;
+    }
+    try {
+      const { width, height } = svg.getBoundingClientRect();
+      downloadBlob(`${base}.chart.png`, await pngOfSvg(markup, width, height));
+    } catch (error) {
+      setProblem(error instanceof Error ? error.message : String(error));
+    }
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap gap-2">
+        <Button
+          variant="secondary"
+          size="sm"
+          onClick={() => downloadText(`${base}.trace.jsonl`, traceJsonl(run.events, { title: `Bench run: ${name}`, seed: run.scenario.seed ?? 1, simulatedAt: run.finishedAt }), 'application/x-ndjson')}
+        >
+          Trace (.trace.jsonl)
+        </Button>
+        <Button variant="secondary" size="sm" disabled={run.samples.count === 0} onClick={() => downloadText(`${base}.samples.csv`, samplesCsv(run.samples), 'text/csv')}>
+          Samples (.csv)
+        </Button>
+        <Button variant="secondary" size="sm" onClick={() => void chartImage('svg')}>
+          Chart (.svg)
+        </Button>
+        <Button variant="secondary" size="sm" onClick={() => void chartImage('png')}>
+          Chart (.png)
+        </Button>
+      </div>
+      <form
+        aria-label="Save as vector"
+        className="flex flex-wrap items-end gap-2 border-t border-slate-200 pt-4 dark:border-slate-800"
+        onSubmit={(event) => {
+          event.preventDefault();
+          const text = vectorFromRun(run.scenario, run, { id, title: name.trim() || 'Bench scenario' });
+          downloadText(`${id.split('/').pop()}.vector.json`, text, 'application/json');
+        }}
+      >
+        <Input label="Vector title" className="min-w-60 flex-1" value={name} onChange={(event) => setName(event.target.value)} hint={<span className="font-mono">{id}</span>} />
+        <Button type="submit" size="sm" className="mb-5">
+          Save as vector
+        </Button>
+      </form>
+      <p className="-mt-2 text-xs text-slate-500 dark:text-slate-400">
+        The vector expects this run’s contract, its key messages in order, and {run.findings.some((finding) => finding.severity === 'error') ? 'its error findings' : 'no error findings'}.
+        Check each expectation against the specification before adding it to the library.
+      </p>
+      {problem && (
+        <p role="alert" className="text-xs text-red-600 dark:text-red-400">
+          {problem}
+        </p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,47 @@
+/**
+ * Saving a vector: to the team library (`POST /api/vectors`, shared/contract/api.md) when this
+ * server has it, else as a download; and a download on request in any case. The file is always
+ * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
+ */
+import { api, isApiError } from '../../../lib/api-client.ts';
+import { formatVector } from '../../../../shared/vectors/format.ts';
+
+export type SaveOutcome =
+  | { kind: 'library'; id: string; revision?: number }
+  | { kind: 'downloaded'; fileName: string; reason: string };
+
+/** `property/demo/x/counterexample` → `property-demo-x-counterexample.vector.json`. */
+export function vectorFileName(id: string): string {
+  const stem = id.replace(/[^a-z0-9._-]+/gi, '-').replace(/^-+|-+$/g, '') || 'vector';
+  return `${stem}.vector.json`;
+}
+
+export function downloadVector(vector: Record<string, unknown>): string {
+  const fileName = vectorFileName(typeof vector.id === 'string' ? vector.id : 'vector');
+  const url = URL.createObjectURL(new Blob([formatVector(vector)], { type: 'application/json;charset=utf-8' }));
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = fileName;
+  link.rel = 'noopener';
+  document.body.append(link);
+  link.click();
+  link.remove();
+  // Give the browser a moment to start the download before the URL goes.
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  return fileName;
+}
+
+/** Posts the vector to the library; a server without the library route gets a download instead. */
+export async function saveVector(vector: Record<string, unknown>): Promise<SaveOutcome> {
+  try {
+    const stored = await api.post<{ id?: string; revision?: number; vector?: { id?: string } }>('/vectors', JSON.parse(formatVector(vector)));
+    const id = stored?.id ?? stored?.vector?.id ?? String(vector.id);
+    return { kind: 'library', id, revision: stored?.revision };
+  } catch (error) {
+    // 404 `no_route`: this server has no vector library; anything else (409, 400, 403) is the user's to see.
+    if (isApiError(error) && error.status === 404) {
+      return { kind: 'downloaded', fileName: downloadVector(vector), reason: 'This server has no team vector library yet' };
+    }
+    throw error;
+  }
+}

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+
+export type ShareInput = { to: string; message?: string };
+export type ShareResult = { sent: true; to: string; subject: string };
+
+/** E-mails the diagnosis (summary, contracts, findings, link) through the server's mailer. */
+export async function shareTrace(traceId: string | number, input: ShareInput): Promise<ShareResult> {
+  return api.post<ShareResult>(`/traces/${encodeURIComponent(String(traceId))}/share`, input);
+}
+
+export function useShareTrace(traceId: string | number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: ShareInput) => shareTrace(traceId, input),
+    // The mail is in the Outbox now.
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['outbox'] }),
+  });
+}
+

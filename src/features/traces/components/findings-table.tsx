@@ -1,0 +1,90 @@
+import { useMemo, useState } from 'react';
+import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
+import { SeverityBadge } from '../../../components/badge.tsx';
+import { EmptyState } from '../../../components/empty-state.tsx';
+import { RuleLink } from '../../../components/rule-link.tsx';
+import type { Finding } from '../../../../shared/core/finding.ts';
+import { formatSeconds } from '../lib/format.ts';
+
+export type FindingRow = Finding & { index: number };
+
+const pageSize = 25;
+
+export type FindingsTableProps = {
+  findings: readonly Finding[];
+  selectedIndex?: number;
+  /** A finding with a time was chosen: the page zooms the timeline to it. */
+  onShow(index: number): void;
+  omitted?: number;
+};
+
+/** Every finding with its rule (linked to the rule's page) and its time (linked to the timeline). */
+export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: FindingsTableProps) {
+  const [pageIndex, setPageIndex] = useState(0);
+  const rows = useMemo(() => findings.map((f, index) => ({ ...f, index })), [findings]);
+  const page = useMemo(() => rows.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize), [rows, pageIndex]);
+  const columns = useMemo(() => {
+    const col = dataColumnHelper<FindingRow>();
+    return col.columns([
+      col.accessor('severity', { header: 'Severity', enableSorting: false, cell: ({ getValue }) => <SeverityBadge severity={getValue()} /> }),
+      col.accessor('t', {
+        header: 'Time',
+        enableSorting: false,
+        meta: { mono: true },
+        cell: ({ row }) =>
+          row.original.t === undefined ? (
+            row.original.line !== undefined ? <span className="whitespace-nowrap">line {row.original.line}</span> : '—'
+          ) : (
+            <button
+              type="button"
+              className="whitespace-nowrap text-amber-800 underline decoration-dotted underline-offset-2 dark:text-amber-300"
+              onClick={(event) => {
+                event.stopPropagation();
+                onShow(row.original.index);
+              }}
+              aria-label={`Show ${row.original.rule} at ${formatSeconds(row.original.t)} on the timeline`}
+            >
+              {formatSeconds(row.original.t)}
+            </button>
+          ),
+      }),
+      col.accessor('rule', {
+        header: 'Rule',
+        enableSorting: false,
+        // The link leaves for the rule's page; the row's own click (zoom the timeline) must not follow it.
+        cell: ({ getValue }) => (
+          <span onClick={(event) => event.stopPropagation()} className="whitespace-nowrap">
+            <RuleLink rule={getValue()} />
+          </span>
+        ),
+      }),
+      col.accessor('message', {
+        header: 'What happened',
+        enableSorting: false,
+        cell: ({ row }) => (
+          <span>
+            {row.original.message}
+            <span className="mt-0.5 block text-[11px] text-slate-500 dark:text-slate-400">{row.original.ref}</span>
+          </span>
+        ),
+      }),
+    ]);
+  }, [onShow]);
+
+  return (
+    <div className="space-y-2">
+      <DataTable
+        label="Findings"
+        dense
+        columns={columns}
+        data={page}
+        getRowId={(row) => String(row.index)}
+        selectedRowId={selectedIndex === undefined ? undefined : String(selectedIndex)}
+        onRowClick={(row) => row.t !== undefined && onShow(row.index)}
+        pagination={rows.length > pageSize ? { pageIndex, pageSize, rowCount: rows.length, onPageChange: setPageIndex } : undefined}
+        empty={<EmptyState title="No findings" description="Every check passed on this trace." />}
+      />
+      {omitted > 0 && <p className="text-xs text-slate-500">{omitted} more findings were counted but not listed (the list keeps the first 5 000).</p>}
+    </div>
+  );
+}

@@ -1,0 +1,57 @@
+/**
+ * The analysis's timeline in the shape the timeline components take: contracts as spans with a
+ * label, the VBUS tolerance of fixed and programmable contracts as bands (the limits the
+ * analyser checks, shared/trace/vbus.ts: vSafe5V 4.75–5.5 V, otherwise ±5 %; USB PD R3.2 V1.1
+ * §7.1, from memory), and the end of the trace.
+ */
+import type { ChartBand } from '../../../components/timeline/vbus-chart.tsx';
+import type { TimelineSpan } from '../../../components/timeline/trace-timeline.tsx';
+import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
+import type { Measurement } from '../../../components/timeline/trace-series.ts';
+import type { Analysis } from '../api/types.ts';
+import { contractLabel } from './format.ts';
+
+export type TimelineInput = {
+  measurements: Measurement[];
+  messages: LaneMessage[];
+  contracts: TimelineSpan[];
+  bands: ChartBand[];
+  endUs: number;
+  /** A sentence when the server kept only part of a very long trace's timeline. */
+  omitted: string | null;
+};
+
+const TOLERANCE = 0.05;
+
+function limitsMv(kind: string, voltageMv: number): [number, number] | null {
+  if (kind === 'fixed' && voltageMv === 5_000) return [4_750, 5_500];
+  if (kind === 'fixed' || kind === 'pps' || kind === 'avs') return [Math.round(voltageMv * (1 - TOLERANCE)), Math.round(voltageMv * (1 + TOLERANCE))];
+  return null;
+}
+
+export function timelineInput(analysis: Analysis): TimelineInput {
+  const { timeline } = analysis;
+  const lastMessage = timeline.messages[timeline.messages.length - 1];
+  const lastMeasurement = timeline.measurements[timeline.measurements.length - 1];
+  const lastEvent = timeline.events[timeline.events.length - 1];
+  const lastFinding = Math.max(0, ...analysis.findings.map((f) => f.t ?? 0));
+  const endUs = Math.max(1, lastMessage ? lastMessage.t + lastMessage.durationUs : 0, lastMeasurement?.t ?? 0, lastEvent?.t ?? 0, lastFinding);
+  const contracts = timeline.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
+  const bands = timeline.contracts.flatMap((c) => {
+    const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
+    return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
+  });
+  const { omitted, measurementStride } = timeline;
+  const parts = [
+    omitted.messages > 0 ? `the first ${timeline.messages.length} messages (${omitted.messages} later ones are left out)` : '',
+    measurementStride > 1 ? `one VBUS reading in every ${measurementStride}` : '',
+  ].filter(Boolean);
+  return {
+    measurements: timeline.measurements,
+    messages: timeline.messages,
+    contracts,
+    bands,
+    endUs,
+    omitted: parts.length > 0 ? `A long trace: the timeline draws ${parts.join(' and ')}; the findings cover the whole file.` : null,
+  };
+}

@@ -1,0 +1,202 @@
+import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { Link, useParams, useSearchParams } from 'react-router';
+import { useQueryClient } from '@tanstack/react-query';
+import { Badge } from '../../../components/badge.tsx';
+import { Button, ButtonLink, buttonClasses } from '../../../components/button.tsx';
+import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
+import { ErrorMessage } from '../../../components/error-message.tsx';
+import { PageHeader } from '../../../components/page-header.tsx';
+import { ProgressBar } from '../../../components/progress-bar.tsx';
+import { paths } from '../../../config/paths.ts';
+import { useUser } from '../../../lib/auth.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { traceDownloads } from '../api/downloads.ts';
+import { traceKeys } from '../api/get-traces.ts';
+import { useTrace } from '../api/get-trace.ts';
+import type { Analysis, AnalysisEvent, TraceItem } from '../api/types.ts';
+import { watchAnalysis } from '../api/watch-analysis.ts';
+import { CommentThread } from '../components/comment-thread.tsx';
+import { ContractsTable } from '../components/contracts-table.tsx';
+import { FindingsTable } from '../components/findings-table.tsx';
+import { ShareDialog } from '../components/share-dialog.tsx';
+import { FindingCounts } from '../components/traces-table.tsx';
+import { timelineInput } from '../lib/timeline-input.ts';
+import { formatBytes } from '../lib/format.ts';
+import { mayWriteTraces } from '../lib/roles.ts';
+
+// recharts is large: the timeline arrives in its own chunk.
+const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
+
+export function TraceRoute() {
+  const { traceId = '' } = useParams();
+  const trace = useTrace(traceId);
+  if (trace.isError) return <ErrorMessage title="The trace could not be loaded" error={trace.error} action={<ButtonLink to={paths.traces.index.getHref()}>All traces</ButtonLink>} />;
+  if (!trace.data) return <p className="text-xs text-slate-500">Loading the trace…</p>;
+  return <TracePage item={trace.data.trace} analysis={trace.data.analysis} />;
+}
+
+function AnalysisProgress({ item }: { item: TraceItem }) {
+  const queryClient = useQueryClient();
+  const [event, setEvent] = useState<AnalysisEvent | null>(null);
+  useEffect(
+    () =>
+      watchAnalysis(item.id, (next) => {
+        setEvent(next);
+        if (next.type !== 'progress') void queryClient.invalidateQueries({ queryKey: traceKeys.detail(item.id) });
+      }),
+    [item.id, queryClient],
+  );
+  const fraction = event?.type === 'progress' && event.totalBytes > 0 ? event.bytesRead / event.totalBytes : undefined;
+  return (
+    <Card>
+      <CardBody className="space-y-2">
+        <p className="text-sm text-slate-700 dark:text-slate-300">Analysing {formatBytes(item.sizeBytes)} on the server…</p>
+        <ProgressBar label="Analysis" fraction={fraction} />
+      </CardBody>
+    </Card>
+  );
+}
+
+function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | null }) {
+  const user = useUser();
+  const [params, setParams] = useSearchParams();
+  const [shareOpen, setShareOpen] = useState(false);
+  const selected = params.get('finding') === null ? undefined : Number(params.get('finding'));
+  const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
+  const canWrite = mayWriteTraces(user.role);
+  const input = useMemo(() => (analysis ? timelineInput(analysis) : null), [analysis]);
+
+  const show = useCallback(
+    (index: number) => {
+      const t = analysis?.findings[index]?.t;
+      setParams((current) => {
+        const next = new URLSearchParams(current);
+        next.set('finding', String(index));
+        return next;
+      }, { replace: true });
+      if (t !== undefined) setFocus({ tUs: t, key: Date.now() });
+    },
+    [analysis, setParams],
+  );
+
+  // A link with ?finding= opens the timeline at that finding, once, when the analysis arrives.
+  const arrived = useRef(false);
+  useEffect(() => {
+    if (arrived.current || !analysis) return;
+    arrived.current = true;
+    const t = selected === undefined ? undefined : analysis.findings[selected]?.t;
+    if (t !== undefined) setFocus({ tUs: t, key: 0 });
+  }, [analysis, selected]);
+
+  const meta = [
+    item.device?.name,
+    item.customerRef ? `customer ${item.customerRef}` : '',
+    `${item.fileName} (${formatBytes(item.sizeBytes)}, ${item.format})`,
+    `uploaded by ${item.uploader.name} ${formatDateTime(item.createdAt)}`,
+  ].filter(Boolean);
+
+  const done = item.status === 'done' && analysis !== null;
+  const actions = (
+    <div className="flex flex-wrap gap-2" data-testid="trace-actions">
+      {canWrite && done && (
+        <Button size="sm" onClick={() => setShareOpen(true)}>
+          Share diagnosis
+        </Button>
+      )}
+      {done && (
+        <>
+          <a className={buttonClasses('secondary', 'sm')} href={traceDownloads.report(item.id)} download>
+            Export JSON
+          </a>
+          <Link className={buttonClasses('secondary', 'sm')} to={paths.traces.report.getHref(item.id)} target="_blank">
+            Printable report
+          </Link>
+          <a className={buttonClasses('secondary', 'sm')} href={traceDownloads.vector(item.id)} download>
+            Download as vector
+          </a>
+        </>
+      )}
+      <a className={buttonClasses('ghost', 'sm')} href={traceDownloads.original(item.id)} download>
+        Original file
+      </a>
+    </div>
+  );
+
+  return (
+    <>
+      <PageHeader eyebrow="Trace" title={item.title} description={meta.join(' · ')} actions={actions} />
+      <div className="space-y-6">
+        {(item.status === 'queued' || item.status === 'analysing') && <AnalysisProgress item={item} />}
+        {item.status === 'failed' && <ErrorMessage title="The analysis failed">{item.error?.message}</ErrorMessage>}
+        {done && (
+          <Card>
+            <CardBody className="flex flex-wrap items-start justify-between gap-3">
+              <p className="max-w-4xl text-base leading-relaxed text-slate-900 dark:text-slate-50" data-testid="trace-summary">
+                {analysis.summary}
+              </p>
+              <FindingCounts item={item} />
+            </CardBody>
+            {item.notes && (
+              <p className="border-t border-slate-200 px-5 py-3 text-sm whitespace-pre-wrap text-slate-600 dark:border-slate-800 dark:text-slate-400">
+                <span className="font-medium text-slate-800 dark:text-slate-200">Notes: </span>
+                {item.notes}
+              </p>
+            )}
+          </Card>
+        )}
+        {done && input && (
+          <Card>
+            <CardHeader
+              title="Timeline"
+              description={`${analysis.messages} messages${input.measurements.length > 0 ? `, ${input.measurements.length} VBUS readings` : ''}. Drag the brush under the chart to zoom; click a finding to jump to it.`}
+              actions={
+                <Link className={buttonClasses('ghost', 'sm')} to={paths.bench.getHref({ fromTrace: item.id })}>
+                  Replay on the Bench
+                </Link>
+              }
+            />
+            <CardBody>
+              <Suspense fallback={<p className="h-80 text-xs text-slate-500">Loading the chart…</p>}>
+                <TraceTimeline
+                  measurements={input.measurements}
+                  messages={input.messages}
+                  findings={analysis.findings}
+                  contracts={input.contracts}
+                  bands={input.bands}
+                  endUs={input.endUs}
+                  focus={focus}
+                  selectedFinding={selected}
+                  onSelectFinding={show}
+                />
+              </Suspense>
+              {input.omitted && <p className="mt-2 text-xs text-slate-500">{input.omitted}</p>}
+            </CardBody>
+          </Card>
+        )}
+        {done && (
+          <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
+            <Card>
+              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findings.length}</Badge>} />
+              <CardBody>
+                <FindingsTable findings={analysis.findings} selectedIndex={selected} onShow={show} omitted={analysis.findingsOmitted} />
+              </CardBody>
+            </Card>
+            <Card>
+              <CardHeader title="Contracts over time" />
+              <CardBody>
+                <ContractsTable contracts={analysis.contracts} endUs={input?.endUs ?? 0} />
+              </CardBody>
+            </Card>
+          </div>
+        )}
+        <Card>
+          <CardHeader title="Comments" />
+          <CardBody>
+            <CommentThread traceId={item.id} canWrite={canWrite} />
+          </CardBody>
+        </Card>
+      </div>
+      {canWrite && done && <ShareDialog traceId={item.id} open={shareOpen} onClose={() => setShareOpen(false)} />}
+    </>
+  );
+}

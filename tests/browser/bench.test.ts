@@ -1,0 +1,165 @@
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import {
+  launchBrowser,
+  requireChromium,
+  requireDist,
+  screenshot,
+  signIn,
+  startTestServer,
+  watchPage,
+  type PageWatch,
+  type TestBrowser,
+  type TestServer,
+} from './support.ts';
+
+const hasChromium = requireChromium();
+
+/** Long tasks (over 50 ms, the browser's own threshold) seen on the main thread since install. */
+async function installLongTaskObserver(page: Page): Promise<void> {
+  await page.evaluate(() => {
+    const seen: number[] = [];
+    (window as unknown as { __longTasks: number[] }).__longTasks = seen;
+    new PerformanceObserver((list) => {
+      for (const entry of list.getEntries()) seen.push(Math.round(entry.duration));
+    }).observe({ type: 'longtask' });
+  });
+}
+
+async function longTasks(page: Page): Promise<number[]> {
+  return page.evaluate(() => (window as unknown as { __longTasks: number[] }).__longTasks.slice());
+}
+
+describe.skipIf(!hasChromium)('the Bench page', () => {
+  let server: TestServer;
+  let browser: TestBrowser;
+  let page: Page;
+  let watch: PageWatch;
+
+  beforeAll(async () => {
+    requireDist();
+    server = await startTestServer();
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await server?.close();
+  });
+
+  afterEach(async () => {
+    await page?.close();
+    await browser.context.clearCookies();
+  });
+
+  async function openBench(): Promise<Page> {
+    page = await browser.context.newPage();
+    watch = watchPage(page);
+    await signIn(page, server.url, 'engineer');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Bench' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Bench' }).waitFor();
+    return page;
+  }
+
+  async function runAndWait(current: Page): Promise<void> {
+    await current.getByRole('button', { name: 'Run', exact: true }).click();
+    await current.getByTestId('contract-summary').waitFor();
+    await current.getByRole('button', { name: 'Run', exact: true, disabled: false }).waitFor();
+  }
+
+  it('runs the 65 W demo device, shows the contract and the timeline, and opens a message', async () => {
+    const current = await openBench();
+    await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel K65 travel adapter (65 W)' });
+    const offers = current.getByRole('list', { name: 'Offers in object-position order' }).getByRole('listitem');
+    await expect.poll(() => offers.count()).toBe(5);
+    await current.getByLabel('Sink policy').selectOption('fixed');
+    await current.getByLabel('Voltage (mV)', { exact: true }).last().fill('15000');
+    await current.getByLabel('Current (mA)', { exact: true }).last().fill('2000');
+
+    await runAndWait(current);
+    // 15 V at 2 A from the K65's 15 V 3 A offer (object 3): a fixed contract of 30 W.
+    const summary = await current.getByTestId('contract-summary').innerText();
+    expect(summary).toContain('15 V · 2.00 A');
+    expect(summary).toContain('30.0 W');
+    expect(summary).toContain('fixed, object 3');
+
+    await current.getByTestId('bench-timeline').waitFor();
+    expect(await current.getByTestId('vbus-chart').locator('svg.recharts-surface').count()).toBeGreaterThan(0);
+    expect(await current.getByTestId('state-lane-source').locator('div').count()).toBeGreaterThan(2);
+    expect(await current.getByTestId('timer-lane-sink').locator('div').count()).toBeGreaterThan(0);
+
+    await current.getByRole('button', { name: 'First contract' }).click();
+    await current.getByRole('button', { name: /^Request #\d+ from the sink at/ }).first().click();
+    const panel = current.getByRole('complementary', { name: 'Message details' });
+    await panel.getByRole('heading', { name: 'Request' }).waitFor();
+    expect(await panel.getByText('Object position').count()).toBeGreaterThan(0);
+    expect(await panel.getByTestId('message-json').innerText()).toContain('"messageType": "Request"');
+    await screenshot(current, 'bench-k65-fixed-15v');
+    watch.assertClean();
+  });
+
+  it('retries a Request whose GoodCRC is dropped, without a main-thread task over 50 ms', async () => {
+    const current = await openBench();
+    await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel K65 travel adapter (65 W)' });
+    await current.getByRole('button', { name: '+ Add a fault' }).click();
+    const fault = current.getByRole('listitem', { name: 'Fault 1' });
+    await fault.getByLabel('Fault', { exact: true }).selectOption('drop');
+    await fault.getByLabel('From').selectOption('source');
+    await fault.getByLabel('Message type').fill('GoodCRC');
+    await fault.getByLabel('nth').fill('1');
+    await current.getByLabel('Duration (ms)').fill('20000');
+
+    await installLongTaskObserver(current);
+    await runAndWait(current);
+    // Let the timeline finish drawing before reading the observer.
+    await current.waitForTimeout(500);
+    const tasks = await longTasks(current);
+    expect(tasks.filter((duration) => duration > 50), `long tasks: ${tasks.join(', ')} ms`).toEqual([]);
+
+    // The source's first GoodCRC (for the Request) never arrives: tReceive runs out and the sink sends
+    // the Request again (USB PD R3.2 V1.1 §6.6.1 CRCReceiveTimer, §6.7.1 retries; from memory).
+    await current.getByRole('button', { name: 'First contract' }).click();
+    const requests = current.getByRole('button', { name: /^Request #\d+ from the sink at/ });
+    await expect.poll(() => requests.count()).toBeGreaterThanOrEqual(2);
+    expect(await current.getByTestId('timer-lane-sink').locator('[data-expired]').count()).toBeGreaterThan(0);
+    await screenshot(current, 'bench-dropped-goodcrc');
+    watch.assertClean();
+  });
+
+  it('keeps form and JSON in sync, keeps bad JSON, and reopens a shared link', async () => {
+    const current = await openBench();
+    await current.getByLabel('Seed').fill('42');
+    await current.getByRole('tab', { name: 'JSON' }).click();
+    const editor = current.locator('.monaco-editor').first();
+    await editor.waitFor();
+    await expect.poll(async () => (await current.locator('.view-lines').innerText()).replace(/\s+/g, ' ')).toContain('"seed": 42');
+
+    // An invalid edit shows its error and leaves the text and the form alone.
+    await editor.click();
+    await current.keyboard.press('ControlOrMeta+End');
+    await current.keyboard.type(' oops');
+    await current.getByTestId('scenario-json-error').waitFor();
+    expect(await current.locator('.view-lines').innerText()).toContain('oops');
+    await screenshot(current, 'bench-json-error');
+    await current.keyboard.press('ControlOrMeta+z');
+    await expect.poll(() => current.getByTestId('scenario-json-error').count()).toBe(0);
+
+    await current.getByRole('tab', { name: 'Form' }).click();
+    expect(await current.getByLabel('Seed').inputValue()).toBe('42');
+    await current.getByLabel('Duration (ms)').fill('4321');
+    await current.getByRole('button', { name: 'Share link' }).click();
+    const link = await current.getByLabel('Share link').inputValue();
+    expect(link).toMatch(/\/bench#scenario=[A-Za-z0-9_-]+$/);
+
+    const other = await browser.context.newPage();
+    const otherWatch = watchPage(other);
+    await other.goto(link);
+    await other.getByRole('heading', { level: 1, name: 'Bench' }).waitFor();
+    await other.getByText('Opened the shared scenario from the link.').waitFor();
+    expect(await other.getByLabel('Seed').inputValue()).toBe('42');
+    expect(await other.getByLabel('Duration (ms)').inputValue()).toBe('4321');
+    await other.close();
+    otherWatch.assertClean();
+    watch.assertClean();
+  });
+});

@@ -1,0 +1,127 @@
+/**
+ * The Properties page in Debian's chromium, as QA uses it: a shipped property holds over 200 runs;
+ * the planted-bug example fails, shrinks to a 28 W source at 15 V and shows that scenario's
+ * timeline; its counterexample is saved as a negotiation vector; a long run is cancelled; the
+ * editor completes the engine's API. The property worker evaluates code with `new Function`, so
+ * this also proves the server's worker-only 'unsafe-eval' is enough and the page sees no CSP
+ * violation.
+ */
+import { readFile } from 'node:fs/promises';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+
+const hasChromium = requireChromium();
+
+describe.skipIf(!hasChromium)('the Properties page', () => {
+  let server: TestServer;
+  let browser: TestBrowser;
+  let page: Page;
+
+  beforeAll(async () => {
+    requireDist();
+    server = await startTestServer();
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await page?.close();
+    await browser?.close();
+    await server?.close();
+  });
+
+  const pick = async (title: RegExp) => {
+    const picker = page.getByLabel('Example');
+    const labels = await picker.locator('option').allInnerTexts();
+    const label = labels.find((text) => title.test(text));
+    expect(label, `an example matching ${title}`).toBeDefined();
+    await picker.selectOption({ label: label! });
+  };
+  const result = () => page.getByRole('region', { name: 'Result' });
+  const runButton = () => page.getByRole('button', { name: /Run property|Running/ });
+
+  it('runs a shipped property, finds and shrinks the planted bug, saves it, cancels a long run', async () => {
+    page = await browser.context.newPage();
+    const watch = watchPage(page);
+    const workers: string[] = [];
+    page.on('worker', (worker) => workers.push(worker.url()));
+    await signIn(page, server.url, 'qa');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Properties' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Properties' }).waitFor();
+
+    // A shipped property over every sink policy: 200 runs, holds.
+    await pick(/^No sink policy ever requests more than is offered/);
+    await page.getByLabel('Runs').fill('200');
+    await runButton().click();
+    await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Holds');
+    expect(await result().textContent()).toContain('as the vector expects');
+    expect(await result().locator('dd').first().textContent()).toBe('200');
+    expect(workers.some((url) => /\/assets\/property\.worker-[\w-]+\.js$/.test(url))).toBe(true);
+
+    // The editor knows the engine and fast-check: the example type-checks, and completion offers the codec.
+    await expect.poll(() => page.getByTestId('type-problems').textContent(), { timeout: 30_000 }).toContain('no problems');
+    const editor = page.getByTestId('code-editor').locator('.monaco-editor');
+    await editor.locator('.view-lines').click();
+    await page.keyboard.press('Control+End');
+    await page.keyboard.press('Enter');
+    await page.keyboard.type('const probe = ({ engine }: PropertyContext) => engine.codec.decodeM');
+    const suggestions = page.locator('.suggest-widget');
+    await expect.poll(() => suggestions.textContent(), { timeout: 20_000 }).toContain('decodeMessage');
+    await screenshot(page, 'properties-completion');
+    await page.keyboard.press('Escape');
+
+    // The planted bug fails and shrinks to the smallest source with a 15 V offer (28 W: Power Rules,
+    // USB PD R3.1 V1.8 §10.2.3.2, Table 10-2, from memory) and a max-power sink.
+    await pick(/^Planted bug/);
+    expect(await page.getByLabel('Runs').inputValue()).toBe('100');
+    await runButton().click();
+    await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Fails');
+    expect(await result().getByTestId('failure').textContent()).toBe('a contract of 1920 mA on an offer of 1870 mA at 15000 mV');
+    const json = JSON.parse((await result().getByTestId('counterexample-json').textContent()) ?? 'null') as [{ source: { caps: { pdos: string[] } } }];
+    expect(json[0].source.caps.pdos).toEqual(['0x0001912c', '0x0002d12c', '0x0004b0bb']);
+    const scenario = page.getByRole('region', { name: 'Counterexample scenario' });
+    // Simulated by the real engine: 15 V at the offer's 1.87 A (PDO 0x0004b0bb: 300 × 50 mV, 187 × 10 mA; Table 6-9).
+    expect(await scenario.getByTestId('counterexample-contract').textContent()).toBe('fixed 15.00 V · 1.87 A · 28.1 W (object 3)');
+    await scenario.getByRole('figure', { name: 'Counterexample timeline' }).locator('.recharts-line').first().waitFor();
+    const messages = await scenario.getByRole('table', { name: 'Counterexample messages' }).locator('tbody tr td:nth-child(4)').allInnerTexts();
+    expect(messages.filter((m) => m !== 'GoodCRC')).toEqual(['Source_Capabilities', 'Request', 'Accept', 'PS_RDY']);
+    expect(await scenario.getByTestId('message-lane-source').locator('span').count()).toBeGreaterThan(0);
+    await scenario.scrollIntoViewIfNeeded();
+    await screenshot(page, 'properties-planted-bug');
+
+    // One click saves the counterexample: to the team library when the server has it, else as a download.
+    const download = page.waitForEvent('download', { timeout: 15_000 }).catch(() => null);
+    await scenario.getByRole('button', { name: 'Save as negotiation vector' }).click();
+    const status = await scenario.getByTestId('save-status').textContent({ timeout: 15_000 });
+    if (status?.includes('downloaded')) {
+      const file = await download;
+      expect(file?.suggestedFilename()).toBe('property-demo-planted-bug-contract-above-offer-counterexample.vector.json');
+      const saved = JSON.parse(await readFile((await file!.path())!, 'utf8')) as { kind: string; input: { scenario: { source: { caps: { pdos: string[] } } } } };
+      expect(saved.kind).toBe('negotiation');
+      expect(saved.input.scenario.source.caps.pdos).toEqual(['0x0001912c', '0x0002d12c', '0x0004b0bb']);
+    } else {
+      expect(status).toContain('Saved to the team library as property/demo/planted-bug-contract-above-offer/counterexample');
+    }
+
+    // A long run can be cancelled, and the next run starts a fresh worker.
+    await pick(/^One lost GoodCRC never prevents a contract/);
+    await page.getByLabel('Runs').fill('1000000');
+    await runButton().click();
+    await expect.poll(async () => Number(((await page.getByTestId('run-progress').textContent()) ?? '').replace(/[, ].*$/, '').replace(/\D/g, '')), { timeout: 20_000 }).toBeGreaterThan(0);
+    await screenshot(page, 'properties-running');
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await expect.poll(() => result().textContent()).toContain('Cancelled after');
+    await page.getByLabel('Runs').fill('40');
+    await runButton().click();
+    await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Holds');
+
+    await page.emulateMedia({ colorScheme: 'dark' });
+    await expect.poll(() => page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
+    await pick(/^Planted bug/);
+    await runButton().click();
+    await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Fails');
+    await page.getByRole('region', { name: 'Counterexample scenario' }).locator('.recharts-line').first().waitFor();
+    await screenshot(page, 'properties-planted-bug-dark');
+    watch.assertClean();
+  }, 240_000);
+});
