@@ -183,6 +183,31 @@ describe('analysis', () => {
   });
 });
 
+describe('repeated offers', () => {
+  // Source_Capabilities header, R3.0, from the source as DFP: type 1, bit 5 DFP, bits 7..6 = 10b, bit 8 Source,
+  // MessageID in bits 11..9, Number of Data Objects in bits 14..12 (USB PD R3.2 V1.1 §6.2.1.1, Table 6.1).
+  const capsHex = (id: number, objects: string[]) => {
+    const header = 0x01a1 | (id << 9) | (objects.length << 12);
+    return (header & 0xff).toString(16).padStart(2, '0') + (header >> 8).toString(16).padStart(2, '0') + objects.join('');
+  };
+  // The four objects of HEX.caps: 5 V, 9 V, 15 V 3 A fixed and PPS 3.3–11 V 3 A (§6.4.1, Tables 6.9 and 6.14).
+  const objects = ['2c910100', '2cd10200', '2cb10400', '3c21dcc0'];
+  // An unanswered source repeats its offers every tTypeCSendSourceCap, 100–200 ms (USB PD R3.2 V1.1 §6.6, Table 6.68, from memory).
+  const repeated = (lists: string[][]) => sequence(150_000, lists.map((list, i) => ({ msg: capsHex(i % 8, list), from: 'source' as const, gapUs: i === 0 ? 0 : 150_000 }))).records;
+  const count = (records: TraceRecord[], rule: string) => analyzeRecords(records).findings.filter((f) => f.rule === rule).length;
+
+  it('checks five copies that differ only in MessageID once', () => {
+    const records = repeated([objects, objects, objects, objects, objects]);
+    expect(records[0]).toMatchObject({ msg: HEX.caps });
+    expect(new Set(records.map((r) => ('msg' in r ? r.msg : ''))).size).toBe(5);
+    expect(count(records, 'caps.pdp-inferred')).toBe(1);
+  });
+  it('checks the offers again when the list of objects changes', () => {
+    const records = repeated([objects, objects, objects, objects.slice(0, 3), objects.slice(0, 3)]);
+    expect(count(records, 'caps.pdp-inferred')).toBe(2);
+  });
+});
+
 describe('robustness', () => {
   const noInternalFault = (result: ReturnType<typeof analyzeTrace>) => {
     if (!result.ok) expect(result.error.code).not.toBe('trace.internal');

@@ -23,7 +23,11 @@ import type { VbusLimits } from './vbus.ts';
 const SOURCE_PDO_KINDS: readonly string[] = ['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'];
 /** Messages the partner answers with Accept, Reject, Wait or Not_Supported. */
 const NEEDS_ACCEPT: readonly string[] = ['Soft_Reset', 'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'FR_Swap', 'Data_Reset', 'Enter_USB', 'EPR_Mode'];
-/** Offers and requests are checked once each: a keep-alive repeats the same Request every few seconds. */
+/**
+ * Offers and requests are checked once each: a source repeats unanswered offers and a keep-alive repeats
+ * the same Request every few seconds. They are keyed by their data objects, not the header, whose
+ * MessageID alone would make up to eight copies of one list.
+ */
 const CHECKED_LIMIT = 1_024;
 
 interface Pending extends Watch {
@@ -75,7 +79,7 @@ export interface PolicyTracker {
 }
 
 export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
-  let caps: { m: SeenMessage; pdos: SourcePdo[] } | undefined;
+  let caps: { m: SeenMessage; pdos: SourcePdo[]; key: string } | undefined;
   let capsWaiting: Pending | undefined;
   let lastUnackedCaps: SeenMessage | undefined;
   let request: PendingRequest | undefined;
@@ -172,11 +176,12 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       }
     }
     lastUnackedCaps = m;
-    caps = { m, pdos };
+    const key = objectsKey(m);
+    caps = { m, pdos, key };
     capsWaiting = { m, reported: false };
     request = undefined;
-    if (!capsChecked.has(m.d.hex) && capsChecked.size < CHECKED_LIMIT) {
-      capsChecked.add(m.d.hex);
+    if (!capsChecked.has(key) && capsChecked.size < CHECKED_LIMIT) {
+      capsChecked.add(key);
       for (const f of checkCaps(pdos).findings) events.finding(located(f, m));
     }
   };
@@ -196,7 +201,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       const decoded = copy === undefined ? undefined : decodeSourcePdo(copy);
       if (decoded && SOURCE_PDO_KINDS.includes(decoded.kind)) pdo = decoded as SourcePdo;
     }
-    const key = `${caps?.m.d.hex ?? ''} ${m.d.hex}`;
+    const key = `${caps ? caps.key : '-'} ${m.d.messageType} ${objectsKey(m)}`;
     let rdo = rdos.get(key);
     if (rdo === undefined) {
       if (rdos.size >= CHECKED_LIMIT) rdos.clear();
@@ -346,8 +351,13 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     },
     steadyContract: () => (transition ? undefined : contract),
     offers: () => caps?.pdos,
-    offersKey: () => caps?.m.d.hex ?? '',
+    offersKey: () => caps?.key ?? '',
   };
+}
+
+/** The data objects' hex without the 2-byte header (MessageID, roles, revision), which the checks never read. */
+function objectsKey(m: SeenMessage): string {
+  return m.d.hex.slice(4);
 }
 
 function located(f: Finding, m: SeenMessage): Finding {

@@ -20,9 +20,12 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Traces', to: paths.traces.index.path, roles: everyRole, section: 'work', summary: 'Upload a log from the field, see what happened on the wire and share the diagnosis.' },
   { label: 'Bench', to: paths.bench.path, roles: everyRole, section: 'work', summary: 'Simulate a source and a sink negotiating, inject faults, and watch every message, timer and volt.' },
   { label: 'Properties', to: paths.properties.path, roles: ['admin', 'engineer', 'qa'], section: 'work', summary: 'Write a property over the engine, let fast-check hunt for a counterexample and keep it as a vector.' },
+  { label: 'Library', to: paths.library.index.path, roles: everyRole, section: 'work', summary: 'The team\'s test vectors with their history: edit, compare revisions, run them, import and export.' },
+  { label: 'Runs', to: paths.runs.index.path, roles: everyRole, section: 'work', summary: 'Every run of the library, from here or from CI per firmware build, with what failed and why.' },
   { label: 'Users', to: paths.admin.users.path, roles: ['admin'], section: 'admin', summary: 'Invite people, change roles, deactivate accounts.' },
   { label: 'Outbox', to: paths.admin.outbox.path, roles: ['admin'], section: 'admin', summary: 'Read every e-mail Parley has sent.' },
   { label: 'Audit log', to: paths.admin.audit.path, roles: ['admin'], section: 'admin', summary: 'Who did what, and when.' },
+  { label: 'API tokens', to: paths.admin.tokens.path, roles: ['admin'], section: 'admin', summary: 'Tokens that let CI post test results for a project.' },
 ];
 
 export function navFor(role: Role): NavEntry[] {

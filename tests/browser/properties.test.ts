@@ -31,7 +31,7 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
   });
 
   const pick = async (title: RegExp) => {
-    const picker = page.getByLabel('Example');
+    const picker = page.getByLabel('Example', { exact: true });
     const labels = await picker.locator('option').allInnerTexts();
     const label = labels.find((text) => title.test(text));
     expect(label, `an example matching ${title}`).toBeDefined();
@@ -58,17 +58,37 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     expect(await result().locator('dd').first().textContent()).toBe('200');
     expect(workers.some((url) => /\/assets\/property\.worker-[\w-]+\.js$/.test(url))).toBe(true);
 
-    // The editor knows the engine and fast-check: the example type-checks, and completion offers the codec.
-    await expect.poll(() => page.getByTestId('type-problems').textContent(), { timeout: 30_000 }).toContain('no problems');
+    // The editor knows the engine and fast-check: completion offers the codec's functions, and a
+    // misspelt one is a type problem (the template itself type-checks clean: exactly one problem).
+    await pick(/^A new property/);
+    await expect.poll(() => page.getByTestId('type-problems').count(), { timeout: 30_000 }).toBe(1);
     const editor = page.getByTestId('code-editor').locator('.monaco-editor');
     await editor.locator('.view-lines').click();
     await page.keyboard.press('Control+End');
     await page.keyboard.press('Enter');
-    await page.keyboard.type('const probe = ({ engine }: PropertyContext) => engine.codec.decodeM');
-    const suggestions = page.locator('.suggest-widget');
-    await expect.poll(() => suggestions.textContent(), { timeout: 20_000 }).toContain('decodeMessage');
+    // insertText, not type: Monaco's suggestions would take some keystrokes of a fast typist.
+    await page.keyboard.insertText('declare const probe: PropertyContext;');
+    await page.keyboard.press('Enter');
+    await page.keyboard.insertText('probe.engine.codec.');
+    await page.keyboard.type('decodeM', { delay: 60 });
+    const suggestions = page.locator('.suggest-widget .monaco-list-row');
+    await expect
+      .poll(
+        async () => {
+          const texts = (await suggestions.allInnerTexts()).join(' ');
+          if (!texts) await page.keyboard.press('Control+Space');
+          return texts;
+        },
+        { timeout: 20_000, intervals: [1_000] },
+      )
+      .toContain('decodeMessage');
     await screenshot(page, 'properties-completion');
     await page.keyboard.press('Escape');
+    await page.keyboard.insertText('esage;');
+    await page.keyboard.press('Escape');
+    const problems = page.getByTestId('type-problems');
+    await expect.poll(() => problems.textContent(), { timeout: 20_000 }).toContain("Property 'decodeMesage' does not exist");
+    expect(await problems.textContent()).toContain('Type check: 1 problem');
 
     // The planted bug fails and shrinks to the smallest source with a 15 V offer (28 W: Power Rules,
     // USB PD R3.1 V1.8 §10.2.3.2, Table 10-2, from memory) and a max-power sink.

@@ -107,7 +107,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await page.waitForURL(/\/rules\/timing\.sender-response$/);
     await page.getByRole('heading', { level: 1, name: 'Response came too late' }).waitFor();
     await page.goBack();
-    await page.getByTestId('trace-summary').waitFor();
+    await page.getByTestId('trace-summary').waitFor({ timeout: 5000 }).catch(async (e) => { await screenshot(page, 'debug-goback'); console.log('URL', page.url(), watch.consoleErrors); throw e; });
 
     await page.getByRole('button', { name: 'Share diagnosis' }).click();
     const dialog = page.getByRole('dialog', { name: 'Share diagnosis' });
@@ -151,7 +151,9 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await page.goto(`${server.url}/admin/outbox`);
     await expect.poll(() => page.getByText('Parley diagnosis: customer-console.log').count()).toBeGreaterThan(0);
     await page.getByText('Parley diagnosis: customer-console.log').first().click();
-    await expect.poll(() => page.locator('main').textContent()).toContain('timing.sender-response');
+    await page.getByRole('tab', { name: 'Plain text' }).click();
+    await expect.poll(() => page.getByRole('tabpanel').textContent()).toContain('timing.sender-response');
+    expect(await page.getByRole('tabpanel').textContent()).toContain('Request comes 38 ms after the offer');
     await screenshot(page, 'traces-outbox');
-  });
+  }, 120_000);
 });

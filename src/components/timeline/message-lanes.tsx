@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useEffect, useMemo, useRef, useState, type RefObject } from 'react';
 import { cn } from '../../lib/cn.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
 
@@ -28,8 +28,23 @@ export type MessageLanesProps = {
   className?: string;
 };
 
-/** More arrows than this in the window and the labels go (the arrows stay). */
-const LABEL_LIMIT = 36;
+/** A label's width in px, estimated from its length (10 px monospace) plus padding and the tick. */
+const labelWidthPx = (text: string) => text.length * 6.1 + 16;
+
+/** The element's width in px, kept up to date as it resizes. */
+function useWidth<T extends HTMLElement>(): [RefObject<T | null>, number] {
+  const ref = useRef<T>(null);
+  const [width, setWidth] = useState(0);
+  useEffect(() => {
+    const element = ref.current;
+    if (!element) return;
+    setWidth(element.clientWidth);
+    const observer = new ResizeObserver(() => setWidth(element.clientWidth));
+    observer.observe(element);
+    return () => observer.disconnect();
+  }, []);
+  return [ref, width];
+}
 /** At most this many arrows are drawn; a wider window asks the user to zoom. */
 const DRAW_LIMIT = 1_500;
 
@@ -65,8 +80,23 @@ export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, i
     }
     return out;
   }, [messages, window.startUs, window.endUs, foldGoodCrc]);
-  const drawn = visible.slice(0, DRAW_LIMIT);
-  const labels = drawn.length <= LABEL_LIMIT;
+  const drawn = useMemo(() => visible.slice(0, DRAW_LIMIT), [visible]);
+  const [lane, widthPx] = useWidth<HTMLDivElement>();
+  // Labels go in three rows; each sits in the first row where it does not run into the label before
+  // it, or is left out (the arrow's tooltip has it).
+  const labelRow = useMemo(() => {
+    const rows = new Map<number, number>();
+    const freeFromPx = [-Infinity, -Infinity, -Infinity];
+    for (const index of drawn) {
+      const m = messages[index]!;
+      const x = positionIn(window, m.t) * widthPx + 12;
+      const row = freeFromPx.findIndex((free) => x >= free);
+      if (row === -1) continue;
+      rows.set(index, row);
+      freeFromPx[row] = x + labelWidthPx(m.messageType) + 4;
+    }
+    return rows;
+  }, [drawn, messages, window, widthPx]);
 
   return (
     <div className={cn('flex items-stretch', className)} style={{ paddingRight: insetRightPx }} role="group" aria-label="Messages between source and sink">
@@ -74,7 +104,7 @@ export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, i
         <span>Source</span>
         <span>Sink</span>
       </div>
-      <div className="relative h-24 flex-1 overflow-hidden rounded-sm border-y border-slate-200 bg-slate-50 dark:border-slate-800 dark:bg-slate-950" data-testid="message-lanes">
+      <div ref={lane} className="relative h-24 flex-1 overflow-hidden rounded-sm border-y border-slate-200 bg-slate-50 dark:border-slate-800 dark:bg-slate-950" data-testid="message-lanes">
         <div aria-hidden="true" className="absolute inset-x-0 top-2 border-t border-slate-300 dark:border-slate-700" />
         <div aria-hidden="true" className="absolute inset-x-0 bottom-2 border-t border-slate-300 dark:border-slate-700" />
         {drawn.map((index) => {
@@ -100,10 +130,11 @@ export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, i
                 <line x1="8" x2="8" y1={down ? 0 : 80} y2={down ? 74 : 6} stroke="currentColor" strokeWidth={goodCrc ? 1 : 1.6} strokeDasharray={m.retry ? '4 3' : undefined} vectorEffect="non-scaling-stroke" />
                 <path d={down ? 'M4 72 L8 80 L12 72' : 'M4 8 L8 0 L12 8'} fill={unacked ? 'none' : 'currentColor'} stroke="currentColor" strokeWidth="1" vectorEffect="non-scaling-stroke" />
               </svg>
-              {labels && (
+              {labelRow.has(index) && (
                 <span
+                  style={{ top: `${22 + (labelRow.get(index) ?? 0) * 28}%` }}
                   className={cn(
-                    'pointer-events-none absolute top-1/2 left-3 -translate-y-1/2 rounded bg-white/85 px-1 font-mono text-[10px] leading-4 whitespace-nowrap text-slate-700 dark:bg-slate-900/85 dark:text-slate-200',
+                    'pointer-events-none absolute left-3 -translate-y-1/2 rounded bg-white/85 px-1 font-mono text-[10px] leading-4 whitespace-nowrap text-slate-700 dark:bg-slate-900/85 dark:text-slate-200',
                     goodCrc && 'text-slate-400 dark:text-slate-500',
                   )}
                 >

@@ -69,6 +69,26 @@ export function VbusChart({ measurements, window, endUs, pins, bands = [], onWin
 
   return (
     <div className="flex flex-col gap-1">
+      <div className="flex gap-4 text-[11px] text-slate-600 dark:text-slate-400" style={{ paddingLeft: PLOT_INSET_LEFT_PX }} aria-hidden="true">
+        <span className="flex items-center gap-1.5">
+          <span className="h-0.5 w-4 bg-amber-600" /> VBUS (V, left)
+        </span>
+        {hasCurrent && (
+          <span className="flex items-center gap-1.5">
+            <span className="h-0.5 w-4 bg-sky-600" /> IBUS (A, right)
+          </span>
+        )}
+        {bands.length > 0 && (
+          <span className="flex items-center gap-1.5">
+            <span className="h-2.5 w-4 bg-emerald-500/20" /> contract tolerance
+          </span>
+        )}
+        {pins.length > 0 && (
+          <span className="flex items-center gap-1.5">
+            <span className="h-3 w-0 border-l border-dashed border-red-600" /> finding
+          </span>
+        )}
+      </div>
       <div className="h-56 w-full" data-testid="vbus-chart">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data} margin={MARGIN} accessibilityLayer={false}>
@@ -106,7 +126,7 @@ export function VbusChart({ measurements, window, endUs, pins, bands = [], onWin
             ))}
             <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} strokeWidth={1.6} isAnimationActive={false} connectNulls />
             {sinkMeasurements && (
-              <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#0891b2" dot={false} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
+              <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
             )}
             {hasCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
           </LineChart>

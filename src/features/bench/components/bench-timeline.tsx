@@ -7,7 +7,7 @@ import { TimerSpans } from '../../../components/timeline/timer-spans.tsx';
 import { formatTimeUs, type TimeWindow } from '../../../components/timeline/time-window.ts';
 import { zoomWindow } from '../../../components/timeline/trace-series.ts';
 import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartPin } from '../../../components/timeline/vbus-chart.tsx';
-import { laneMessagesOf, measurementsOf, type RunMessage } from '../lib/timeline-data.ts';
+import { chartMeasurements, laneMessagesOf, type RunMessage } from '../lib/timeline-data.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
 import { useStagedReveal } from '../lib/use-staged-reveal.ts';
 
@@ -29,7 +29,7 @@ export type BenchTimelineProps = {
 export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSelectMessage, onSelectFinding, dark }: BenchTimelineProps) {
   const [foldGoodCrc, setFoldGoodCrc] = useState(false);
   const { lanes, messages } = useMemo(() => laneMessagesOf(run.events), [run]);
-  const measurements = useMemo(() => measurementsOf(run.samples), [run]);
+  const measurements = useMemo(() => chartMeasurements(run.samples, window), [run, window]);
   const pins = useMemo<ChartPin[]>(
     () => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])),
     [run],
@@ -87,6 +87,22 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
           onWindowChange={onWindowChange}
           dark={dark}
         />
+      )}
+      {parts >= 2 && (
+        <ul className="flex flex-wrap gap-x-4 gap-y-1 text-[11px] text-slate-600 dark:text-slate-400" style={{ paddingLeft: PLOT_INSET_LEFT_PX }} aria-label="Chart legend">
+          <li className="flex items-center gap-1.5">
+            <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-[#d97706]" /> VBUS at the source (V)
+          </li>
+          <li className="flex items-center gap-1.5">
+            <span aria-hidden="true" className="inline-block w-4 border-t-2 border-dashed border-[#7c3aed]" /> VBUS at the sink, after the cable (V)
+          </li>
+          <li className="flex items-center gap-1.5">
+            <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-[#0284c7]" /> IBUS (A, right axis)
+          </li>
+          <li className="flex items-center gap-1.5">
+            <span aria-hidden="true" className="inline-block h-3 w-0 border-l border-dashed border-red-600" /> finding
+          </li>
+        </ul>
       )}
       {parts >= 3 && (
         <>

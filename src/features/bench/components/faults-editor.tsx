@@ -38,35 +38,38 @@ export function FaultsEditor() {
             <li
               key={field.id}
               aria-label={`Fault ${index + 1}`}
-              className="grid grid-cols-2 items-start gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 sm:grid-cols-[12rem_6rem_1fr_4.5rem_5rem_5rem_auto] dark:border-slate-800 dark:bg-slate-950/40"
+              className="flex flex-col gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
             >
-              <Select label="Fault" options={KINDS} error={errorAt(`faults.${index}.kind`)} {...register(`faults.${index}.kind`)} />
-              <Select
-                label="From"
-                options={[
-                  { value: '', label: 'either' },
-                  { value: 'source', label: 'source' },
-                  { value: 'sink', label: 'sink' },
-                ]}
-                error={errorAt(`faults.${index}.from`)}
-                {...register(`faults.${index}.from`, optionalTextField)}
-              />
-              <Input label="Message type" list="bench-message-types" placeholder="any" mono error={errorAt(`faults.${index}.messageType`)} {...register(`faults.${index}.messageType`, optionalTextField)} />
-              <Input label="nth" type="number" min={1} placeholder="all" mono error={errorAt(`faults.${index}.nth`)} {...register(`faults.${index}.nth`, optionalNumberField)} />
-              <Input label="At (ms)" type="number" min={0} placeholder="—" mono error={errorAt(`faults.${index}.atMs`)} {...register(`faults.${index}.atMs`, optionalNumberField)} />
-              <Input
-                label="Delay (ms)"
-                type="number"
-                min={0}
-                placeholder="delay only"
-                mono
-                error={errorAt(`faults.${index}.delayMs`)}
-                {...register(`faults.${index}.delayMs`, optionalNumberField)}
-              />
-              <div className="pt-6">
+              <div className="flex items-end gap-2">
+                <Select label="Fault" className="flex-1" options={KINDS} error={errorAt(`faults.${index}.kind`)} {...register(`faults.${index}.kind`)} />
+                <Select
+                  label="From"
+                  className="w-28"
+                  options={[
+                    { value: '', label: 'either' },
+                    { value: 'source', label: 'source' },
+                    { value: 'sink', label: 'sink' },
+                  ]}
+                  error={errorAt(`faults.${index}.from`)}
+                  {...register(`faults.${index}.from`, optionalTextField)}
+                />
                 <Button variant="ghost" size="sm" aria-label={`Remove fault ${index + 1}`} onClick={() => remove(index)}>
                   ✕
                 </Button>
+              </div>
+              <div className="grid grid-cols-[minmax(0,1.6fr)_repeat(3,minmax(0,1fr))] gap-2">
+                <Input label="Message type" list="bench-message-types" placeholder="any" mono error={errorAt(`faults.${index}.messageType`)} {...register(`faults.${index}.messageType`, optionalTextField)} />
+                <Input label="nth" type="number" min={1} placeholder="every" mono error={errorAt(`faults.${index}.nth`)} {...register(`faults.${index}.nth`, optionalNumberField)} />
+                <Input label="At (ms)" type="number" min={0} placeholder="—" mono error={errorAt(`faults.${index}.atMs`)} {...register(`faults.${index}.atMs`, optionalNumberField)} />
+                <Input
+                  label="Delay (ms)"
+                  type="number"
+                  min={0}
+                  placeholder="delay only"
+                  mono
+                  error={errorAt(`faults.${index}.delayMs`)}
+                  {...register(`faults.${index}.delayMs`, optionalNumberField)}
+                />
               </div>
             </li>
           );

@@ -25,18 +25,18 @@ const FIELDS: Record<OfferKind, { key: NumberKey; label: string; step: number }[
     { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
   ],
   variable: [
-    { key: 'minVoltageMv', label: 'Min (mV)', step: 50 },
-    { key: 'maxVoltageMv', label: 'Max (mV)', step: 50 },
+    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 50 },
+    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 50 },
     { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
   ],
   battery: [
-    { key: 'minVoltageMv', label: 'Min (mV)', step: 50 },
-    { key: 'maxVoltageMv', label: 'Max (mV)', step: 50 },
+    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 50 },
+    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 50 },
     { key: 'maxPowerMw', label: 'Max power (mW)', step: 250 },
   ],
   pps: [
-    { key: 'minVoltageMv', label: 'Min (mV)', step: 100 },
-    { key: 'maxVoltageMv', label: 'Max (mV)', step: 100 },
+    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 100 },
+    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 100 },
     { key: 'maxCurrentMa', label: 'Max current (mA)', step: 50 },
   ],
   'spr-avs': [
@@ -44,8 +44,8 @@ const FIELDS: Record<OfferKind, { key: NumberKey; label: string; step: number }[
     { key: 'maxCurrent20vMa', label: 'Max at 20 V (mA)', step: 10 },
   ],
   'epr-avs': [
-    { key: 'minVoltageMv', label: 'Min (mV)', step: 100 },
-    { key: 'maxVoltageMv', label: 'Max (mV)', step: 100 },
+    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 100 },
+    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 100 },
     { key: 'pdpW', label: 'PDP (W)', step: 1 },
   ],
 };
@@ -94,35 +94,21 @@ export function OffersEditor() {
           return (
             <li
               key={field.id}
-              className="grid grid-cols-[2rem_7.5rem_1fr_auto] items-start gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
+              className="flex flex-col gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
               aria-label={`Offer ${index + 1}: ${KIND_LABELS[kind]}`}
             >
-              <span className="pt-7 text-center font-mono text-xs text-slate-500" title="Object position">
-                #{index + 1}
-              </span>
-              <Select
-                label="Kind"
-                value={kind}
-                options={Object.entries(KIND_LABELS).map(([value, label]) => ({ value, label }))}
-                onChange={(event) => {
-                  update(index, defaultOffer(event.target.value as OfferKind));
-                }}
-              />
-              <div className="grid grid-cols-3 gap-2">
-                {FIELDS[kind].map(({ key, label, step }) => (
-                  <Input
-                    key={key}
-                    label={label}
-                    type="number"
-                    mono
-                    step={step}
-                    min={0}
-                    error={fieldError(formState.errors, index, key)}
-                    {...register(`offers.${index}.${key}` as `offers.${number}.voltageMv`, numberField)}
-                  />
-                ))}
-              </div>
-              <div className="flex gap-1 pt-6">
+              <div className="flex items-end gap-2">
+                <span className="w-7 pb-2 font-mono text-xs text-slate-500" title="Object position">
+                  #{index + 1}
+                </span>
+                <Select
+                  label="Kind"
+                  className="w-36"
+                  value={kind}
+                  options={Object.entries(KIND_LABELS).map(([value, label]) => ({ value, label }))}
+                  onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))}
+                />
+                <span className="grow" />
                 <Button variant="ghost" size="sm" aria-label={`Move offer ${index + 1} up`} disabled={index === 0} onClick={() => move(index, index - 1)}>
                   ↑
                 </Button>
@@ -138,6 +124,20 @@ export function OffersEditor() {
                 <Button variant="ghost" size="sm" aria-label={`Remove offer ${index + 1}`} disabled={fields.length <= 1} onClick={() => remove(index)}>
                   ✕
                 </Button>
+              </div>
+              <div className="grid grid-cols-3 gap-2 pl-9">
+                {FIELDS[kind].map(({ key, label, step }) => (
+                  <Input
+                    key={key}
+                    label={label}
+                    type="number"
+                    mono
+                    step={step}
+                    min={0}
+                    error={fieldError(formState.errors, index, key)}
+                    {...register(`offers.${index}.${key}` as `offers.${number}.voltageMv`, numberField)}
+                  />
+                ))}
               </div>
             </li>
           );

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario, simulate } from '../../../../shared/sim/index.ts';
 import { defaultScenario } from './form-model.ts';
-import { laneMessagesOf, measurementsOf } from './timeline-data.ts';
+import { chartMeasurements, laneMessagesOf } from './timeline-data.ts';
 
 function run(input: unknown) {
   const parsed = parseScenario(input);
@@ -29,12 +29,25 @@ describe('timeline data', () => {
     expect(requests[1]?.retry).toBe(true);
   });
 
-  it('turns packed samples into source and sink measurements within a budget', () => {
-    const data = Int32Array.from([0, 5_000, 100, 4_990, 1_000, 9_000, 2_000, 8_800, 2_000, 9_000, 3_000, 8_700]);
-    expect(measurementsOf({ data, count: 3 })).toEqual({
-      source: [{ t: 0, mv: 5_000, ma: 100 }, { t: 1_000, mv: 9_000, ma: 2_000 }, { t: 2_000, mv: 9_000, ma: 3_000 }],
-      sink: [{ t: 0, mv: 4_990 }, { t: 1_000, mv: 8_800 }, { t: 2_000, mv: 8_700 }],
-    });
-    expect(measurementsOf({ data, count: 3 }, 2).source.map((m) => m.t)).toEqual([0, 2_000]);
+  it('gives the chart the whole run coarsely and the window in detail', () => {
+    const count = 100_000;
+    const data = new Int32Array(count * 4);
+    // 5 V for the first half, 20 V after; a one-sample current spike at 70 s; the sink 200 mV lower.
+    for (let index = 0; index < count; index += 1) data.set([index * 1_000, index < 50_000 ? 5_000 : 20_000, index === 70_000 ? 5_000 : 1_000, index < 50_000 ? 4_800 : 19_800], index * 4);
+    const samples = { data, count };
+    const whole = chartMeasurements(samples, { startUs: 0, endUs: 100_000_000 });
+    expect(whole.source.length).toBeLessThanOrEqual(1_400);
+    expect(Math.max(...whole.source.map((m) => m.ma ?? 0))).toBe(5_000);
+    expect(whole.sink[0]).toEqual({ t: 0, mv: 4_800 });
+
+    const zoomed = chartMeasurements(samples, { startUs: 49_990_000, endUs: 50_010_000 });
+    const inWindow = zoomed.source.filter((m) => m.t >= 49_990_000 && m.t <= 50_010_000);
+    expect(inWindow).toHaveLength(21);
+    expect(zoomed.source.length).toBeLessThan(650);
+    expect(zoomed.source[0]?.t).toBe(0);
+    expect(zoomed.source.at(-1)?.t).toBe(99_999_000);
+    const times = zoomed.source.map((m) => m.t);
+    expect(times).toEqual([...times].sort((a, b) => a - b));
+    expect(chartMeasurements({ data: new Int32Array(0), count: 0 }, { startUs: 0, endUs: 1 })).toEqual({ source: [], sink: [] });
   });
 });

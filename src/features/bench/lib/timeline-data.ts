@@ -1,14 +1,15 @@
 /**
  * A run's records in the shapes the shared timeline (src/components/timeline) draws: messages for
- * the lanes, with retries and GoodCRC links worked out, and VBUS measurements from the packed
- * samples within a point budget (the chart thins each window further with LTTB).
+ * the lanes, with retries and GoodCRC links worked out, and the chart's VBUS/IBUS measurements.
  */
 import type { Message } from '../../../../shared/pd/types.ts';
 import type { TraceRecord } from '../../../../shared/trace/records.ts';
 import { messageDurationUs } from '../../../../shared/trace/wire-time.ts';
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
-import { SAMPLE_FIELDS, type PackedSamples } from './samples.ts';
+import { createLTTB } from 'downsample';
+import type { TimeWindow } from '../../../components/timeline/time-window.ts';
+import { firstIndexAtOrAfter, SAMPLE_FIELDS, type PackedSamples } from './samples.ts';
 
 /** One simulated message with everything the side panel shows. */
 export type RunMessage = { t: number; from?: string; hex: string; crcOk: boolean; message: Message };
@@ -58,19 +59,53 @@ export function laneMessagesOf(records: readonly TraceRecord[]): { lanes: LaneMe
   return { lanes, messages };
 }
 
-/** At most this many measurements go to the chart (a 10-minute run at 1 ms has 600 000). */
-const MEASUREMENT_BUDGET = 100_000;
+const byVoltage = createLTTB<Measurement>({ x: 't', y: 'mv' });
+const byCurrent = createLTTB<Measurement>({ x: 't', y: (point) => point.ma ?? 0 });
 
-export function measurementsOf(samples: PackedSamples, budget = MEASUREMENT_BUDGET): { source: Measurement[]; sink: Measurement[] } {
-  const stride = Math.max(1, Math.ceil(samples.count / budget));
-  const source: Measurement[] = [];
-  const sink: Measurement[] = [];
+function measurementsBetween(samples: PackedSamples, from: number, to: number, field: 1 | 3, stride = 1): Measurement[] {
+  const out: Measurement[] = [];
   const { data } = samples;
-  for (let index = 0; index < samples.count; index += stride) {
+  for (let index = from; index < to; index += stride) {
     const offset = index * SAMPLE_FIELDS;
     const t = data[offset] ?? 0;
-    source.push({ t, mv: data[offset + 1] ?? 0, ma: data[offset + 2] ?? 0 });
-    sink.push({ t, mv: data[offset + 3] ?? 0 });
+    out.push(field === 1 ? { t, mv: data[offset + 1] ?? 0, ma: data[offset + 2] ?? 0 } : { t, mv: data[offset + 3] ?? 0 });
   }
-  return { source, sink };
+  return out;
+}
+
+/** Before LTTB, very long windows are strided to this many points (LTTB is linear, not free). */
+const PRE_STRIDE_LIMIT = 50_000;
+
+/** LTTB on the voltage and, where there is one, on the current too; the points either kept, in time order. */
+function thinned(samples: PackedSamples, from: number, to: number, field: 1 | 3, maxPoints: number): Measurement[] {
+  const stride = Math.max(1, Math.floor((to - from) / PRE_STRIDE_LIMIT));
+  const points = measurementsBetween(samples, from, to, field, stride);
+  if (points.length <= maxPoints) return points;
+  const kept = new Set<Measurement>(byVoltage(points, maxPoints) as Measurement[]);
+  if (field === 1) for (const point of byCurrent(points, maxPoints) as Measurement[]) kept.add(point);
+  return points.filter((point) => kept.has(point));
+}
+
+function union(coarse: Measurement[], detail: Measurement[]): Measurement[] {
+  const startUs = detail[0]?.t ?? Number.POSITIVE_INFINITY;
+  const endUs = detail[detail.length - 1]?.t ?? Number.NEGATIVE_INFINITY;
+  return [...coarse.filter((m) => m.t < startUs), ...detail, ...coarse.filter((m) => m.t > endUs)];
+}
+
+/**
+ * What the chart needs for one window, and no more: the whole run coarsely (the overview and the
+ * brush) joined with the window in detail, each thinned with LTTB (the `downsample` package) on voltage and
+ * current alike, so a ten-minute run at 1 ms (600 000 samples) charts from about a thousand points.
+ */
+export function chartMeasurements(samples: PackedSamples, window: TimeWindow, detailPoints = 700, overviewPoints = 300): { source: Measurement[]; sink: Measurement[] } {
+  if (samples.count === 0) return { source: [], sink: [] };
+  // One sample either side of the window, so the lines reach its edges.
+  const from = Math.max(0, firstIndexAtOrAfter(samples, window.startUs) - 1);
+  const to = Math.min(samples.count, firstIndexAtOrAfter(samples, window.endUs + 1) + 1);
+  const whole = from === 0 && to === samples.count;
+  const series = (field: 1 | 3) => {
+    const detail = thinned(samples, from, to, field, whole ? Math.max(detailPoints, overviewPoints) : detailPoints);
+    return whole ? detail : union(thinned(samples, 0, samples.count, field, overviewPoints), detail);
+  };
+  return { source: series(1), sink: series(3) };
 }

@@ -1,5 +1,6 @@
 import { SeverityBadge } from '../../../components/badge.tsx';
 import { Card, CardHeader } from '../../../components/card.tsx';
+import { RatingText } from '../../../components/mono.tsx';
 import { RuleLink } from '../../../components/rule-link.tsx';
 import type { Finding } from '../../../../shared/core/finding.ts';
 import { isRuleId, ruleCatalog } from '../../../../shared/rules/catalog.ts';
@@ -36,7 +37,10 @@ export function FindingsPanel({ findings, pdpW, pdpInferred }: { findings: reado
                   <RuleLink rule={finding.rule} />
                   {finding.object !== undefined && <span className="font-mono text-xs text-slate-500">object {finding.object}</span>}
                 </div>
-                <p className="text-sm text-slate-900 dark:text-slate-100">{finding.message}</p>
+                {/* caps.label-mismatch quotes the printed rating, DC symbol and all. */}
+                <p className="text-sm text-slate-900 dark:text-slate-100">
+                  <RatingText value={finding.message} />
+                </p>
                 {entry && (
                   <details className="text-xs text-slate-600 dark:text-slate-400">
                     <summary className="cursor-pointer select-none">Why it matters</summary>

@@ -1,11 +1,15 @@
 import { useState } from 'react';
-import { useFieldArray, type Path, type UseFormReturn } from 'react-hook-form';
+import { useFieldArray, useWatch, type Path, type UseFormReturn } from 'react-hook-form';
 import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { Input } from '../../../components/input.tsx';
+import { RatingText } from '../../../components/mono.tsx';
 import { Select } from '../../../components/select.tsx';
 import { defaultOffer, type OfferKind } from '../../../../shared/rules/offer-input.ts';
 import { cableOptions, kindFields, kindLabels, type OffersFormValues } from '../lib/offers-form.ts';
+
+/** An example in the form adapters print it; U+2393 is the DC symbol. */
+const exampleRating = '5V\u23933A 9V\u23933A 15V\u23933A 20V\u23933.25A 65W max';
 
 const kindOptions = (Object.keys(kindLabels) as OfferKind[]).map((kind) => ({ value: kind, label: kindLabels[kind] }));
 
@@ -14,6 +18,7 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
   const { control, register, formState } = form;
   const { fields, append, remove, move, update } = useFieldArray({ control, name: 'offers' });
   const [kindToAdd, setKindToAdd] = useState<OfferKind>('fixed');
+  const rating = useWatch({ control, name: 'label' }) ?? '';
   const errors = formState.errors;
   const offerErrors = (index: number) => (errors.offers?.[index] ?? {}) as Record<string, { message?: string } | undefined>;
 
@@ -73,7 +78,25 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
         <div className="grid gap-4 border-t border-slate-200 pt-4 sm:grid-cols-2 dark:border-slate-800">
           <Input label="Declared PDP (W)" mono inputMode="numeric" hint="Leave empty to infer it from the offers." error={errors.pdpW?.message} {...register('pdpW')} />
           <Select label="Cable" options={cableOptions} error={errors.cable?.message} {...register('cable')} />
-          <Input label="Printed rating" className="sm:col-span-2" placeholder="5V⎓3A 9V⎓3A 15V⎓3A 20V⎓3.25A 65W max" error={errors.label?.message} {...register('label')} />
+          {/* An input draws the text in the page font, which has no DC symbol: the hint shows it rendered. */}
+          <Input
+            label="Printed rating"
+            className="sm:col-span-2"
+            placeholder="As printed on the adapter"
+            hint={
+              rating.trim() === '' ? (
+                <>
+                  For example <RatingText value={exampleRating} className="font-mono text-slate-700 dark:text-slate-300" />
+                </>
+              ) : (
+                <span>
+                  As printed: <RatingText value={rating} className="font-mono text-slate-700 dark:text-slate-300" />
+                </span>
+              )
+            }
+            error={errors.label?.message}
+            {...register('label')}
+          />
           <label className="flex items-center gap-2 text-sm text-slate-700 sm:col-span-2 dark:text-slate-300">
             <input type="checkbox" className="size-4 accent-amber-500" {...register('epr')} />
             EPR_Source_Capabilities (EPR offers from position 8)

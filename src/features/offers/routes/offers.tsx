@@ -2,6 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
+import { RatingText } from '../../../components/mono.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { isCancelled } from '../../../lib/engine-worker.ts';
 import type { OffersAnalysis } from '../../../../shared/rules/analyse-offers.ts';
@@ -100,7 +101,8 @@ export function OffersRoute() {
         <div className="space-y-6">
           {engineError && (
             <p role="alert" className="rounded-md border border-red-200 bg-red-50 px-4 py-2.5 text-sm text-red-800 dark:border-red-500/30 dark:bg-red-500/10 dark:text-red-200">
-              {engineError}
+              {/* A label the engine cannot read is quoted back, with the DC symbol of its example. */}
+              <RatingText value={engineError} />
             </p>
           )}
           {analysis ? (

@@ -42,3 +42,13 @@ describe('property examples', () => {
     expect(vectorSchema.safeParse(result.counterexampleVector).success).toBe(true);
   });
 });
+
+describe('the blank template', () => {
+  it('holds on the real engine', async () => {
+    const { blankExample } = await import('./examples.ts');
+    const vector = vectorSchema.parse({ vector: 1, id: blankExample.id, title: blankExample.title, tags: [], ref: blankExample.ref, kind: 'property', input: { code: blankExample.code, runs: 100, seed: 1 }, expect: { holds: true } });
+    const result = await runVector(vector);
+    expect(result.message).toBeUndefined();
+    expect(result.property?.holds).toBe(true);
+  });
+});

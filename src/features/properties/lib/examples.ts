@@ -68,9 +68,11 @@ export const blankExample: PropertyExample = {
   ref: 'common practice',
   code: `export default ({ fc, engine }: PropertyContext) =>
   fc.property(engine.arbitraries.lawfulCaps(), ({ pdpW, pdos }) => {
-    const objects = pdos.map((hex) => engine.codec.decodeSourcePdo(Number.parseInt(hex, 16) >>> 0));
-    const { findings } = engine.rules.checkCaps(objects, { pdpW });
-    if (findings.some((f) => f.severity === 'error')) throw new Error(\`\${pdpW} W: \${findings[0]?.message}\`);
+    const offers = engine.rules.readPdoList(pdos);
+    if (!offers.ok) throw new Error(offers.error.message);
+    const { findings } = engine.rules.checkCaps(offers.pdos, { pdpW });
+    const error = findings.find((f) => f.severity === 'error');
+    if (error) throw new Error(\`\${pdpW} W: \${error.rule}: \${error.message}\`);
   });
 `,
   runs: 100,

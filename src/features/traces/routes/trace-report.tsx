@@ -9,6 +9,8 @@ import { useComments } from '../api/get-comments.ts';
 import { useTrace } from '../api/get-trace.ts';
 import { contractLabel, formatBytes, formatPower, formatSeconds } from '../lib/format.ts';
 
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
 /** A print-styled diagnosis (`/traces/:id/report`): summary, contracts, findings, comments. */
 export function TraceReportRoute() {
   const { traceId = '' } = useParams();
@@ -48,7 +50,7 @@ export function TraceReportRoute() {
             <h2 className="mb-1 text-base font-semibold">Summary</h2>
             <p className="text-[15px]">{analysis.summary}</p>
             <p className="mt-1 text-sm text-slate-600">
-              {analysis.messages} messages · {analysis.counts.error} errors · {analysis.counts.warning} warnings · {analysis.counts.info} notes
+              {[plural(analysis.messages, 'message'), plural(analysis.counts.error, 'error'), plural(analysis.counts.warning, 'warning'), plural(analysis.counts.info, 'note')].join(' · ')}
             </p>
             {item.notes && <p className="mt-2 text-sm whitespace-pre-wrap">Notes: {item.notes}</p>}
           </section>

@@ -1,0 +1,3 @@
+import { createQueryKeys } from '../../../lib/query-keys.ts';
+
+export const runKeys = createQueryKeys('runs');

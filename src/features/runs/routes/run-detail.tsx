@@ -1,0 +1,89 @@
+import { useParams, useSearchParams } from 'react-router';
+import { Badge } from '../../../components/badge.tsx';
+import { ButtonLink } from '../../../components/button.tsx';
+import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
+import { ErrorMessage } from '../../../components/error-message.tsx';
+import { PageHeader } from '../../../components/page-header.tsx';
+import { paths } from '../../../config/paths.ts';
+import { formatDateTime } from '../../../lib/format.ts';
+import { useRun } from '../api/get-run.ts';
+import type { RunResult } from '../api/types.ts';
+import { FailureDetail } from '../components/failure-detail.tsx';
+import { RunCounts } from '../components/run-counts.tsx';
+
+const noResults: RunResult[] = [];
+
+const col = dataColumnHelper<RunResult>();
+const columns = col.columns([
+  col.accessor('ok', {
+    header: 'Result',
+    cell: ({ row }) => (
+      <span className="flex items-center gap-1">
+        <Badge tone={row.original.ok ? 'success' : 'error'} dot>
+          {row.original.ok ? 'pass' : 'fail'}
+        </Badge>
+        {row.original.newFailure && <Badge tone="warning">new</Badge>}
+      </span>
+    ),
+  }),
+  col.accessor('vectorId', {
+    header: 'Vector',
+    cell: ({ row }) => (
+      <div className="min-w-0">
+        <p className="font-mono text-xs text-slate-900 dark:text-slate-100">{row.original.vectorId}</p>
+        {row.original.message && <p className="mt-0.5 line-clamp-2 font-mono text-[11px] text-red-700 dark:text-red-300">{row.original.message}</p>}
+      </div>
+    ),
+  }),
+  col.accessor((r) => r.kind ?? '', { id: 'kind', header: 'Kind', cell: ({ getValue }) => (getValue() ? <Badge mono>{getValue()}</Badge> : <span className="text-slate-400">—</span>) }),
+  col.accessor('durationMs', { header: 'ms', meta: { align: 'end', mono: true }, cell: ({ getValue }) => getValue().toFixed(1) }),
+]);
+
+export function RunDetailRoute() {
+  const { runId } = useParams();
+  const id = Number(runId);
+  const run = useRun(Number.isInteger(id) && id > 0 ? id : 0);
+  const [params, setParams] = useSearchParams();
+  const selectedId = params.get('result');
+  if (run.isPending) return <p className="text-sm text-slate-500" role="status">Loading the run…</p>;
+  if (run.isError) return <ErrorMessage title="The run could not be loaded" error={run.error} action={<ButtonLink to={paths.runs.index.getHref()}>All runs</ButtonLink>} />;
+  const { run: summary, results } = run.data;
+  const selected = results.find((r) => r.vectorId === selectedId) ?? results.find((r) => !r.ok) ?? null;
+  return (
+    <>
+      <PageHeader
+        eyebrow={summary.source === 'ci' ? 'Posted by CI' : 'Library run'}
+        title={`Run #${summary.id} · ${summary.project}${summary.build ? ` · ${summary.build}` : ''}`}
+        description={
+          <>
+            {summary.selection} · {summary.startedBy} · {formatDateTime(summary.createdAt)}
+            {summary.finishedAt ? '' : ' · still running'}
+          </>
+        }
+        actions={<ButtonLink to={paths.runs.index.getHref(summary.project)}>Runs of {summary.project}</ButtonLink>}
+      />
+      <div className="mb-4">
+        <RunCounts run={summary} />
+      </div>
+      {summary.error && <ErrorMessage className="mb-4" title="The run stopped" error={new Error(summary.error)} />}
+      <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <DataTable
+          label="Results"
+          dense
+          columns={columns}
+          data={results.length > 0 ? results : noResults}
+          getRowId={(r) => r.vectorId}
+          selectedRowId={selected?.vectorId}
+          onRowClick={(r) => {
+            const next = new URLSearchParams(params);
+            next.set('result', r.vectorId);
+            setParams(next, { replace: true });
+          }}
+        />
+        <div className="xl:sticky xl:top-4">
+          <FailureDetail result={selected} />
+        </div>
+      </div>
+    </>
+  );
+}

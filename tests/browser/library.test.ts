@@ -1,0 +1,158 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import {
+  launchBrowser,
+  requireChromium,
+  requireDist,
+  screenshot,
+  signIn,
+  startTestServer,
+  watchPage,
+  type TestBrowser,
+  type TestServer,
+} from './support.ts';
+
+const hasChromium = requireChromium();
+
+// The team library end to end: the demo server seeds it from the built-in vectors/ folder.
+const vectorId = 'caps/power-rules/45w-without-9v';
+
+async function monacoText(page: Page): Promise<string> {
+  // Monaco renders only the visible lines; the model holds the whole file.
+  return page.evaluate(() => {
+    const w = window as unknown as { monaco?: { editor: { getModels(): { uri: { path: string }; getValue(): string }[] } } };
+    const model = w.monaco?.editor.getModels().find((m) => m.uri.path === '/vector.json');
+    if (model) return model.getValue();
+    // Monaco draws spaces as no-break spaces.
+    return Array.from(document.querySelectorAll('[data-testid="code-editor"] .view-lines'))
+      .map((el) => (el as HTMLElement).innerText)
+      .join('\n')
+      .replace(/\u00a0/g, ' ');
+  });
+}
+
+describe.skipIf(!hasChromium)('the team library', () => {
+  let server: TestServer;
+  let browser: TestBrowser;
+
+  beforeAll(async () => {
+    requireDist();
+    server = await startTestServer();
+    browser = await launchBrowser();
+  }, 60_000);
+
+  afterAll(async () => {
+    await browser?.close();
+    await server?.close();
+  });
+
+  it('filters, edits in the form with the JSON following, saves, shows history and a diff, merges a stale edit, runs all', async () => {
+    const page = await browser.context.newPage();
+    const watch = watchPage(page);
+    await signIn(page, server.url, 'qa');
+
+    await page.goto(`${server.url}/library`);
+    await page.getByRole('heading', { level: 1, name: 'Library' }).waitFor();
+    const table = page.getByRole('table', { name: 'Vectors' });
+    await table.getByRole('row').nth(1).waitFor();
+    await page.getByLabel('Kind').selectOption('caps');
+    await page.getByLabel('Search').fill('45w-without');
+    await expect.poll(() => table.getByRole('row').count(), { timeout: 10_000 }).toBe(2);
+    await expect.poll(() => page.url()).toContain('kind=caps');
+    await screenshot(page, 'library-filtered');
+
+    await table.getByText(vectorId, { exact: true }).click();
+    await page.getByRole('heading', { level: 1, name: vectorId }).waitFor();
+    await page.getByTestId('code-editor').first().locator('.monaco-editor').waitFor({ timeout: 20_000 });
+    await expect.poll(() => monacoText(page), { timeout: 10_000 }).toContain('"id": "caps/power-rules/45w-without-9v"');
+
+    // Edit in the form; the file follows.
+    const title = page.getByLabel('Title');
+    await title.fill('A 45 W source must offer 9 V (edited in the form)');
+    await expect.poll(() => monacoText(page)).toContain('"title": "A 45 W source must offer 9 V (edited in the form)"');
+    await page.getByLabel('Findings that must appear').fill('caps.power-rules-missing, caps.pdp-inferred');
+    await expect.poll(() => monacoText(page)).toContain('"include": ["caps.power-rules-missing", "caps.pdp-inferred"]');
+    await page.getByLabel('Findings that must appear').fill('caps.power-rules-missing');
+    await page.getByLabel('Revision message').fill('Clearer title');
+    await screenshot(page, 'library-vector-edit');
+    await page.getByRole('button', { name: 'Save revision 2' }).click();
+    await page.getByRole('status').filter({ hasText: 'Saved revision 2.' }).waitFor();
+
+    // History and a diff between revisions 1 and 2.
+    await page.getByRole('tab', { name: 'History' }).click();
+    const revisions = page.getByRole('table', { name: 'Revisions' });
+    await revisions.getByText('Clearer title').waitFor();
+    const diff = page.getByRole('region', { name: 'Diff from revision 1 to 2' });
+    await diff.locator('[data-diff="added"]').first().waitFor();
+    expect(await diff.locator('[data-diff="removed"]').allInnerTexts()).toEqual([expect.stringContaining('"title": "A 45 W source must offer 9 V",')]);
+    expect(await diff.locator('[data-diff="added"]').allInnerTexts()).toEqual([expect.stringContaining('(edited in the form)')]);
+    await screenshot(page, 'library-history');
+    await page.getByRole('tab', { name: 'Edit' }).click();
+
+    // A second page opens revision 2; the first saves revision 3; the second's save is stale.
+    const second = await browser.context.newPage();
+    const secondWatch = watchPage(second);
+    await second.goto(`${server.url}/library/${encodeURIComponent(vectorId)}`);
+    await second.getByRole('heading', { level: 1, name: vectorId }).waitFor();
+    await page.getByLabel('Title').fill('First page wins');
+    await page.getByRole('button', { name: 'Save revision 3' }).click();
+    await page.getByRole('status').filter({ hasText: 'Saved revision 3.' }).waitFor();
+    await second.getByLabel('Title').fill('Second page was late');
+    await second.getByRole('button', { name: 'Save revision 3' }).click();
+    const merge = second.getByRole('region', { name: 'Merge your change' });
+    await merge.waitFor();
+    await merge.getByText('Someone saved this vector while you were editing').waitFor();
+    await expect.poll(() => merge.getByRole('region', { name: 'Their version' }).innerText()).toContain('First page wins');
+    await expect.poll(() => merge.getByRole('region', { name: 'Your version' }).innerText()).toContain('Second page was late');
+    await screenshot(second, 'library-merge');
+    await merge.getByRole('button', { name: 'Keep mine and save' }).click();
+    await second.getByRole('status').filter({ hasText: 'Saved revision 4.' }).waitFor();
+    secondWatch.assertClean();
+    await second.close();
+
+    // Run all from the library; the progress bar fed by the event stream reaches the end.
+    await page.goto(`${server.url}/library`);
+    await page.getByRole('button', { name: 'Run all' }).click();
+    const bar = page.getByRole('progressbar', { name: 'Vectors run' });
+    await bar.waitFor();
+    await expect.poll(() => bar.getAttribute('aria-valuenow'), { timeout: 120_000, interval: 500 }).toBe('100');
+    await page.getByRole('link', { name: 'Open the results' }).waitFor({ timeout: 15_000 });
+    await screenshot(page, 'library-run-done');
+    await page.getByRole('link', { name: 'Open the results' }).click();
+    await page.getByRole('table', { name: 'Results' }).getByRole('row').nth(1).waitFor();
+    await screenshot(page, 'runs-detail');
+    await page.emulateMedia({ colorScheme: 'dark' });
+    await screenshot(page, 'runs-detail-dark');
+    await page.goto(`${server.url}/library`);
+    await page.getByRole('table', { name: 'Vectors' }).getByRole('row').nth(1).waitFor();
+    await screenshot(page, 'library-dark');
+    watch.assertClean();
+  }, 240_000);
+
+  it('lets an admin create an API token and shows it once with the curl command', async () => {
+    const adminBrowser = await launchBrowser();
+    const page = await adminBrowser.context.newPage();
+    const watch = watchPage(page);
+    await signIn(page, server.url, 'admin');
+    await page.goto(`${server.url}/admin/tokens`);
+    await page.getByLabel('Project').fill('k65-firmware');
+    await page.getByLabel('Name').fill('Firmware CI');
+    await page.getByRole('button', { name: 'Create token' }).click();
+    const token = await page.getByTestId('new-token').innerText();
+    expect(token).toMatch(/^prl_/);
+    await page.getByRole('region', { name: 'New token' }).getByText(`-F project=k65-firmware`).waitFor();
+    await page.getByRole('table', { name: 'API tokens' }).getByText('Firmware CI').waitFor();
+    await screenshot(page, 'tokens');
+    // The token posts a result; the Runs page lists it.
+    const posted = await page.evaluate(async (bearer) => {
+      const res = await fetch('/api/runs?build=fw-2.0.1', { method: 'POST', headers: { Authorization: `Bearer ${bearer}`, 'Content-Type': 'application/json' }, body: JSON.stringify({ results: [{ id: 'caps/power-rules/45w-without-9v', ok: true }] }) });
+      return res.status;
+    }, token);
+    expect(posted).toBe(201);
+    await page.goto(`${server.url}/runs`);
+    await page.getByRole('table', { name: 'Runs' }).getByText('fw-2.0.1').waitFor();
+    await screenshot(page, 'runs-list');
+    watch.assertClean();
+    await adminBrowser.close();
+  }, 60_000);
+});
