@@ -84,7 +84,7 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await revisions.getByText('Clearer title').waitFor();
     const diff = page.getByRole('region', { name: 'Diff from revision 1 to 2' });
     await diff.locator('[data-diff="added"]').first().waitFor();
-    expect(await diff.locator('[data-diff="removed"]').allInnerTexts()).toEqual([expect.stringContaining('"title": "A 45 W source must offer 9 V",')]);
+    expect(await diff.locator('[data-diff="removed"]').allInnerTexts()).toEqual([expect.stringContaining('"title": "A 45 W source must offer 9 V (vector.md example)')]);
     expect(await diff.locator('[data-diff="added"]').allInnerTexts()).toEqual([expect.stringContaining('(edited in the form)')]);
     await screenshot(page, 'library-history');
     await page.getByRole('tab', { name: 'Edit' }).click();
@@ -102,8 +102,8 @@ describe.skipIf(!hasChromium)('the team library', () => {
     const merge = second.getByRole('region', { name: 'Merge your change' });
     await merge.waitFor();
     await merge.getByText('Someone saved this vector while you were editing').waitFor();
-    await expect.poll(() => merge.getByRole('region', { name: 'Their version' }).innerText()).toContain('First page wins');
-    await expect.poll(() => merge.getByRole('region', { name: 'Your version' }).innerText()).toContain('Second page was late');
+    await expect.poll(() => merge.getByRole('region', { name: 'Their version', exact: true }).innerText()).toContain('First page wins');
+    await expect.poll(() => merge.getByRole('region', { name: 'Your version', exact: true }).innerText()).toContain('Second page was late');
     await screenshot(second, 'library-merge');
     await merge.getByRole('button', { name: 'Keep mine and save' }).click();
     await second.getByRole('status').filter({ hasText: 'Saved revision 4.' }).waitFor();

@@ -38,6 +38,11 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     await picker.selectOption({ label: label! });
   };
   const result = () => page.getByRole('region', { name: 'Result' });
+  // From the top: a full-page shot of a scrolled page paints the sticky top bar mid-page.
+  const shoot = async (name: string) => {
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await screenshot(page, name);
+  };
   const runButton = () => page.getByRole('button', { name: /Run property|Running/ });
 
   it('runs a shipped property, finds and shrinks the planted bug, saves it, cancels a long run', async () => {
@@ -79,10 +84,10 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
           if (!texts) await page.keyboard.press('Control+Space');
           return texts;
         },
-        { timeout: 20_000, intervals: [1_000] },
+        { timeout: 20_000, interval: 1_000 },
       )
       .toContain('decodeMessage');
-    await screenshot(page, 'properties-completion');
+    await shoot('properties-completion');
     await page.keyboard.press('Escape');
     await page.keyboard.insertText('esage;');
     await page.keyboard.press('Escape');
@@ -106,8 +111,7 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     const messages = await scenario.getByRole('table', { name: 'Counterexample messages' }).locator('tbody tr td:nth-child(4)').allInnerTexts();
     expect(messages.filter((m) => m !== 'GoodCRC')).toEqual(['Source_Capabilities', 'Request', 'Accept', 'PS_RDY']);
     expect(await scenario.getByTestId('message-lane-source').locator('span').count()).toBeGreaterThan(0);
-    await scenario.scrollIntoViewIfNeeded();
-    await screenshot(page, 'properties-planted-bug');
+    await shoot('properties-planted-bug');
 
     // One click saves the counterexample: to the team library when the server has it, else as a download.
     const download = page.waitForEvent('download', { timeout: 15_000 }).catch(() => null);
@@ -120,15 +124,29 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
       expect(saved.kind).toBe('negotiation');
       expect(saved.input.scenario.source.caps.pdos).toEqual(['0x0001912c', '0x0002d12c', '0x0004b0bb']);
     } else {
-      expect(status).toContain('Saved to the team library as property/demo/planted-bug-contract-above-offer/counterexample');
+      expect(status).toContain('Saved to the team library as property/demo/planted-bug-contract-above-offer/counterexample (revision 1)');
+      const stored = await page.evaluate(async () => (await fetch(`/api/vectors/${encodeURIComponent('property/demo/planted-bug-contract-above-offer/counterexample')}`)).json());
+      expect(stored).toMatchObject({ kind: 'negotiation', revision: 1, input: { scenario: { source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b0bb'] } } } } });
     }
+    // A download is offered in any case.
+    const offered = page.waitForEvent('download', { timeout: 15_000 });
+    await scenario.getByRole('button', { name: 'Download vector' }).click();
+    expect((await offered).suggestedFilename()).toBe('property-demo-planted-bug-contract-above-offer-counterexample.vector.json');
+
+    // The property itself saves as a property vector (library or download), with the page's runs and seed.
+    const saveProperty = page.getByRole('region', { name: 'Save as property vector' });
+    const propertyDownload = page.waitForEvent('download', { timeout: 15_000 }).catch(() => null);
+    await saveProperty.getByRole('button', { name: 'Save to library' }).click();
+    const propertyStatus = await saveProperty.getByTestId('save-status').textContent({ timeout: 15_000 });
+    if (propertyStatus?.includes('downloaded')) expect((await propertyDownload)?.suggestedFilename()).toBe('property-demo-planted-bug-contract-above-offer.vector.json');
+    else expect(propertyStatus).toContain('Saved to the team library as property/demo/planted-bug-contract-above-offer (revision 1)');
 
     // A long run can be cancelled, and the next run starts a fresh worker.
     await pick(/^One lost GoodCRC never prevents a contract/);
     await page.getByLabel('Runs').fill('1000000');
     await runButton().click();
     await expect.poll(async () => Number(((await page.getByTestId('run-progress').textContent()) ?? '').replace(/[, ].*$/, '').replace(/\D/g, '')), { timeout: 20_000 }).toBeGreaterThan(0);
-    await screenshot(page, 'properties-running');
+    await shoot('properties-running');
     await page.getByRole('button', { name: 'Cancel' }).click();
     await expect.poll(() => result().textContent()).toContain('Cancelled after');
     await page.getByLabel('Runs').fill('40');
@@ -141,7 +159,7 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     await runButton().click();
     await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Fails');
     await page.getByRole('region', { name: 'Counterexample scenario' }).locator('.recharts-line').first().waitFor();
-    await screenshot(page, 'properties-planted-bug-dark');
+    await shoot('properties-planted-bug-dark');
     watch.assertClean();
   }, 240_000);
 });

@@ -107,7 +107,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await page.waitForURL(/\/rules\/timing\.sender-response$/);
     await page.getByRole('heading', { level: 1, name: 'Response came too late' }).waitFor();
     await page.goBack();
-    await page.getByTestId('trace-summary').waitFor({ timeout: 5000 }).catch(async (e) => { await screenshot(page, 'debug-goback'); console.log('URL', page.url(), watch.consoleErrors); throw e; });
+    await page.getByTestId('trace-summary').waitFor();
 
     await page.getByRole('button', { name: 'Share diagnosis' }).click();
     const dialog = page.getByRole('dialog', { name: 'Share diagnosis' });

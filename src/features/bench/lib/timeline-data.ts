@@ -65,11 +65,14 @@ const byCurrent = createLTTB<Measurement>({ x: 't', y: (point) => point.ma ?? 0 
 function measurementsBetween(samples: PackedSamples, from: number, to: number, field: 1 | 3, stride = 1): Measurement[] {
   const out: Measurement[] = [];
   const { data } = samples;
-  for (let index = from; index < to; index += stride) {
+  const at = (index: number): Measurement => {
     const offset = index * SAMPLE_FIELDS;
     const t = data[offset] ?? 0;
-    out.push(field === 1 ? { t, mv: data[offset + 1] ?? 0, ma: data[offset + 2] ?? 0 } : { t, mv: data[offset + 3] ?? 0 });
-  }
+    return field === 1 ? { t, mv: data[offset + 1] ?? 0, ma: data[offset + 2] ?? 0 } : { t, mv: data[offset + 3] ?? 0 };
+  };
+  for (let index = from; index < to; index += stride) out.push(at(index));
+  // A stride may step over the last sample; the line must still reach it.
+  if (to > from && (to - 1 - from) % stride !== 0) out.push(at(to - 1));
   return out;
 }
 
@@ -97,7 +100,7 @@ function union(coarse: Measurement[], detail: Measurement[]): Measurement[] {
  * brush) joined with the window in detail, each thinned with LTTB (the `downsample` package) on voltage and
  * current alike, so a ten-minute run at 1 ms (600 000 samples) charts from about a thousand points.
  */
-export function chartMeasurements(samples: PackedSamples, window: TimeWindow, detailPoints = 700, overviewPoints = 300): { source: Measurement[]; sink: Measurement[] } {
+export function chartMeasurements(samples: PackedSamples, window: TimeWindow, detailPoints = 400, overviewPoints = 150): { source: Measurement[]; sink: Measurement[] } {
   if (samples.count === 0) return { source: [], sink: [] };
   // One sample either side of the window, so the lines reach its edges.
   const from = Math.max(0, firstIndexAtOrAfter(samples, window.startUs) - 1);

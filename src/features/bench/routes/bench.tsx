@@ -14,6 +14,7 @@ import { cn } from '../../../lib/cn.ts';
 import { useIsDark } from '../../../lib/theme.ts';
 import { useTrace } from '../api/get-trace.ts';
 import { BenchTimeline } from '../components/bench-timeline.tsx';
+import { ChartWarmup } from '../components/chart-warmup.tsx';
 import { ExportPanel } from '../components/export-panel.tsx';
 import { MessagePanel } from '../components/message-panel.tsx';
 import { ContractSummary, FindingsTable } from '../components/run-summary.tsx';
@@ -194,6 +195,7 @@ export function BenchRoute() {
         description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation."
       />
       <SafetyNote />
+      {!shown && <ChartWarmup dark={dark} />}
       {notice && (
         <p role="status" className="mb-4 flex items-start justify-between gap-3 rounded-md bg-sky-50 px-4 py-2 text-sm text-sky-900 dark:bg-sky-500/10 dark:text-sky-100">
           <span>{notice}</span>

@@ -36,8 +36,8 @@ function FindingsFields({ v, set, disabled, path = ['expect', 'findings'] }: Fie
 function CapsSource({ v, set, disabled, hexKey }: FieldsProps & { hexKey: 'hex' | 'caps' }) {
   return (
     <>
-      <ListInput label="PDOs (32-bit hex)" hint="The offers as numbers, e.g. 0x0001912c; or give the message hex instead." disabled={disabled} value={getIn(v, ['input', 'pdos'])} onChange={(x) => set(['input', 'pdos'], x)} />
-      <TextInput label="Source_Capabilities message (hex)" mono disabled={disabled} value={getIn(v, ['input', hexKey])} onChange={(x) => set(['input', hexKey], x)} />
+      <ListInput label="PDOs (32-bit hex)" className="sm:col-span-2" hint="The offers as numbers, e.g. 0x0001912c; or give the message hex instead." disabled={disabled} value={getIn(v, ['input', 'pdos'])} onChange={(x) => set(['input', 'pdos'], x)} />
+      <TextInput label="Source_Capabilities message (hex)" className="sm:col-span-2" mono disabled={disabled} value={getIn(v, ['input', hexKey])} onChange={(x) => set(['input', hexKey], x)} />
     </>
   );
 }
@@ -88,7 +88,7 @@ function CapsFields(props: FieldsProps) {
         <CapsSource {...props} hexKey="hex" />
         <NumberInput label="Declared PDP (W)" disabled={disabled} value={getIn(v, ['input', 'pdpW'])} onChange={(x) => set(['input', 'pdpW'], x)} />
         <CableSelect {...props} />
-        <TextInput label="Printed rating label" className="sm:col-span-2" disabled={disabled} value={getIn(v, ['input', 'label'])} onChange={(x) => set(['input', 'label'], x)} placeholder="5V⎓3A 9V⎓3A 15V⎓3A 20V⎓2.25A 45W" />
+        <TextInput label="Printed rating label" className="sm:col-span-2" disabled={disabled} value={getIn(v, ['input', 'label'])} onChange={(x) => set(['input', 'label'], x)} placeholder="As printed on the adapter, e.g. 45W" />
       </Section>
       <Section title="Expected">
         <FindingsFields {...props} />

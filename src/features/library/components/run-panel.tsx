@@ -1,11 +1,20 @@
+import { useEffect } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { ButtonLink } from '../../../components/button.tsx';
 import { ProgressBar } from '../../../components/progress-bar.tsx';
 import { paths } from '../../../config/paths.ts';
+import { vectorKeys } from '../api/keys.ts';
 import { useRunEvents } from '../api/use-run-events.ts';
 
 /** A run's progress, fed by its server-sent events: done of total, the last result, the outcome. */
 export function RunPanel({ runId, selection }: { runId: number; selection: string }) {
   const progress = useRunEvents(runId);
+  const queryClient = useQueryClient();
+  const finished = progress?.finished ?? false;
+  // The list's "Last run" column changes with the run.
+  useEffect(() => {
+    if (finished) void queryClient.invalidateQueries({ queryKey: vectorKeys.lists() });
+  }, [finished, queryClient]);
   const total = progress?.total ?? 0;
   const fraction = progress && total > 0 ? progress.done / total : undefined;
   return (

@@ -183,7 +183,7 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
                 )}
               </CardBody>
             </Card>
-            <Card className="xl:sticky xl:top-4">
+            <Card>
               <CardHeader title="File" description="The vector file exactly as it is saved and exported." />
               <CardBody>
                 <CodeEditor language="json" label="Vector JSON" path="vector.json" jsonSchema={schema} readOnly={!canWrite} height="36rem" value={text} onChange={setText} />

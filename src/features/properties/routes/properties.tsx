@@ -15,7 +15,7 @@ import { checkInWorker, usePropertyWorker, type PropertyProgress } from '../lib/
 const BLANK_ID = '__new__';
 
 const exampleOptions = [
-  ...examples.map((example) => ({ value: example.id, label: example.origin === 'demo' ? `${example.title}` : example.title })),
+  ...examples.map((example) => ({ value: example.id, label: example.title })),
   { value: BLANK_ID, label: 'A new property (template)' },
 ];
 
@@ -38,7 +38,7 @@ function ProblemsLine({ problems, typesReady }: { problems: CodeEditorProblem[];
       <ul className="mt-1 list-disc pl-5 font-mono">
         {errors.slice(0, 3).map((p) => (
           <li key={`${p.line}:${p.column}:${p.message}`}>
-            {p.line}:{p.column} {p.message}
+            {p.line}:{p.column} {p.message.length > 160 ? `${p.message.slice(0, 160)}…` : p.message}
           </li>
         ))}
       </ul>

@@ -1,7 +1,9 @@
+import { useState } from 'react';
 import { useParams, useSearchParams } from 'react-router';
 import { Badge } from '../../../components/badge.tsx';
 import { ButtonLink } from '../../../components/button.tsx';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
+import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
@@ -12,6 +14,7 @@ import { FailureDetail } from '../components/failure-detail.tsx';
 import { RunCounts } from '../components/run-counts.tsx';
 
 const noResults: RunResult[] = [];
+const pageSize = 50;
 
 const col = dataColumnHelper<RunResult>();
 const columns = col.columns([
@@ -45,10 +48,15 @@ export function RunDetailRoute() {
   const run = useRun(Number.isInteger(id) && id > 0 ? id : 0);
   const [params, setParams] = useSearchParams();
   const selectedId = params.get('result');
+  const [onlyFailures, setOnlyFailures] = useState(false);
+  const [page, setPage] = useState(0);
   if (run.isPending) return <p className="text-sm text-slate-500" role="status">Loading the run…</p>;
   if (run.isError) return <ErrorMessage title="The run could not be loaded" error={run.error} action={<ButtonLink to={paths.runs.index.getHref()}>All runs</ButtonLink>} />;
   const { run: summary, results } = run.data;
   const selected = results.find((r) => r.vectorId === selectedId) ?? results.find((r) => !r.ok) ?? null;
+  const shown = onlyFailures ? results.filter((r) => !r.ok) : results;
+  const pageIndex = Math.min(page, Math.max(0, Math.ceil(shown.length / pageSize) - 1));
+  const pageRows = shown.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize);
   return (
     <>
       <PageHeader
@@ -62,8 +70,20 @@ export function RunDetailRoute() {
         }
         actions={<ButtonLink to={paths.runs.index.getHref(summary.project)}>Runs of {summary.project}</ButtonLink>}
       />
-      <div className="mb-4">
+      <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
         <RunCounts run={summary} />
+        <label className="inline-flex items-center gap-2 text-sm text-slate-700 dark:text-slate-300">
+          <input
+            type="checkbox"
+            className="size-4 accent-amber-500"
+            checked={onlyFailures}
+            onChange={(event) => {
+              setOnlyFailures(event.target.checked);
+              setPage(0);
+            }}
+          />
+          Failures only
+        </label>
       </div>
       {summary.error && <ErrorMessage className="mb-4" title="The run stopped" error={new Error(summary.error)} />}
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
@@ -71,7 +91,9 @@ export function RunDetailRoute() {
           label="Results"
           dense
           columns={columns}
-          data={results.length > 0 ? results : noResults}
+          data={pageRows.length > 0 ? pageRows : noResults}
+          pagination={{ pageIndex, pageSize, rowCount: shown.length, onPageChange: setPage }}
+          empty={<EmptyState title={onlyFailures ? 'No failures in this run' : 'No results'} />}
           getRowId={(r) => r.vectorId}
           selectedRowId={selected?.vectorId}
           onRowClick={(r) => {

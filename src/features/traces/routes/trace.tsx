@@ -31,7 +31,9 @@ export function TraceRoute() {
   const { traceId = '' } = useParams();
   const trace = useTrace(traceId);
   // Arriving from a scrolled list, start at the top of the trace.
-  useEffect(() => window.scrollTo(0, 0), [traceId]);
+  useEffect(() => {
+    window.scrollTo(0, 0);
+  }, [traceId]);
   if (trace.isError) return <ErrorMessage title="The trace could not be loaded" error={trace.error} action={<ButtonLink to={paths.traces.index.getHref()}>All traces</ButtonLink>} />;
   if (!trace.data) return <p className="text-xs text-slate-500">Loading the trace…</p>;
   return <TracePage item={trace.data.trace} analysis={trace.data.analysis} />;
