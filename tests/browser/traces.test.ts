@@ -24,7 +24,8 @@ function customerLog(): Buffer {
 /** Records whether a progress bar with that label was ever on the page (uploads of small files are quick). */
 async function recordProgressBars(page: Page): Promise<void> {
   await page.evaluate(() => {
-    const seen = ((window as unknown as { __progressSeen: string[] }).__progressSeen = []);
+    const seen: string[] = [];
+    (window as unknown as { __progressSeen: string[] }).__progressSeen = seen;
     new MutationObserver(() => {
       for (const bar of document.querySelectorAll('[role="progressbar"]')) {
         const label = bar.getAttribute('aria-label') ?? '';
