@@ -141,7 +141,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     await current.getByTestId('scenario-json-error').waitFor();
     expect(await current.locator('.view-lines').innerText()).toContain('oops');
     await screenshot(current, 'bench-json-error');
-    await current.keyboard.press('ControlOrMeta+z');
+    for (let index = 0; index < ' oops'.length; index += 1) await current.keyboard.press('Backspace');
     await expect.poll(() => current.getByTestId('scenario-json-error').count()).toBe(0);
 
     await current.getByRole('tab', { name: 'Form' }).click();

@@ -1,4 +1,4 @@
-import { get, useFieldArray, useFormContext } from 'react-hook-form';
+import { get, useFieldArray, useFormContext, useFormState } from 'react-hook-form';
 import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
@@ -19,7 +19,9 @@ const MESSAGE_TYPES = ['GoodCRC', 'Source_Capabilities', 'Request', 'Accept', 'R
 
 /** The faults to inject, each selected by side, message type and nth, or by time. */
 export function FaultsEditor() {
-  const { control, register, formState } = useFormContext<BenchFormValues>();
+  const { control, register } = useFormContext<BenchFormValues>();
+  // Subscribed here: the form panel is memoised, so errors reach the fields through this hook.
+  const formState = useFormState({ control });
   const { fields, append, remove } = useFieldArray({ control, name: 'faults' });
   const errorAt = (path: string): string | undefined => (get(formState.errors, path) as { message?: string } | undefined)?.message;
 

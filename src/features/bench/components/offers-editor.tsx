@@ -1,4 +1,4 @@
-import { useFieldArray, useFormContext, type FieldErrors } from 'react-hook-form';
+import { useFieldArray, useFormContext, useFormState, type FieldErrors } from 'react-hook-form';
 import { defaultOffer, offerInputOf, type OfferInput, type OfferKind } from '../../../../shared/rules/offer-input.ts';
 import { resolveCaps } from '../../../../shared/sim/caps.ts';
 import { Button } from '../../../components/button.tsx';
@@ -62,7 +62,8 @@ function fieldError(errors: FieldErrors<BenchFormValues>, index: number, key: Nu
 
 /** The source's offers: one row per object position, in order; add, remove, reorder, or load a demo device. */
 export function OffersEditor() {
-  const { control, register, formState } = useFormContext<BenchFormValues>();
+  const { control, register } = useFormContext<BenchFormValues>();
+  const formState = useFormState({ control });
   const { fields, append, remove, move, replace, update } = useFieldArray({ control, name: 'offers' });
   const devices = useSourceDevices();
   const listError = formState.errors.offers?.message ?? formState.errors.offers?.root?.message;

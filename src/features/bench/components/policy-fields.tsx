@@ -1,4 +1,4 @@
-import { get, useFormContext, useWatch } from 'react-hook-form';
+import { get, useFormContext, useFormState, useWatch } from 'react-hook-form';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
 import { defaultPolicy, type BenchFormValues, type PolicyKind } from '../lib/form-model.ts';
@@ -31,7 +31,8 @@ const NUMBERS: Record<Exclude<PolicyKind, 'max-power'>, { key: string; label: st
 
 /** One sink policy (vector.md's four): the kind, then that kind's numbers. */
 export function PolicyFields({ name, label }: { name: PolicyPath; label: string }) {
-  const { register, setValue, formState, control } = useFormContext<BenchFormValues>();
+  const { register, setValue, control } = useFormContext<BenchFormValues>();
+  const formState = useFormState({ control });
   const kind = (useWatch({ control, name: `${name}.kind` as 'policy.kind' }) ?? 'max-power') as PolicyKind;
   const errorAt = (key: string): string | undefined => (get(formState.errors, `${name}.${key}`) as { message?: string } | undefined)?.message;
 

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { useFieldArray, useFormContext } from 'react-hook-form';
+import { useFieldArray, useFormContext, useFormState } from 'react-hook-form';
 import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
@@ -27,7 +27,8 @@ function Section({ title, description, children }: { title: string; description?
 }
 
 function PolicyChanges() {
-  const { control, register, formState } = useFormContext<BenchFormValues>();
+  const { control, register } = useFormContext<BenchFormValues>();
+  const formState = useFormState({ control });
   const { fields, append, remove } = useFieldArray({ control, name: 'changes' });
   return (
     <div className="flex flex-col gap-2">
@@ -59,8 +60,8 @@ function PolicyChanges() {
 
 /** The scenario as a form: source, sink, cable, faults, run length. */
 export function ScenarioForm() {
-  const { register, formState } = useFormContext<BenchFormValues>();
-  const errors = formState.errors;
+  const { register, control } = useFormContext<BenchFormValues>();
+  const { errors } = useFormState({ control });
   return (
     <div className="flex flex-col gap-5">
       <Section title="Source" description="What the source offers, in object-position order.">

@@ -1,5 +1,5 @@
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { FormProvider, useForm } from 'react-hook-form';
+import { memo, useCallback, useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
+import { FormProvider, useForm, type UseFormReturn } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useSearchParams } from 'react-router';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
@@ -67,6 +67,20 @@ function SafetyNote() {
     </aside>
   );
 }
+
+/**
+ * The form on its own, memoised: progress updates and results re-render the page many times a
+ * second, and the form's hundred inputs need not follow.
+ */
+const ScenarioFormPanel = memo(function ScenarioFormPanel({ form, hidden, onSubmit }: { form: UseFormReturn<BenchFormValues>; hidden: boolean; onSubmit(event: FormEvent): Promise<void> }) {
+  return (
+    <FormProvider {...form}>
+      <form id="bench-scenario" aria-label="Scenario" onSubmit={(event) => void onSubmit(event)} noValidate className={hidden ? 'hidden' : ''}>
+        <ScenarioForm />
+      </form>
+    </FormProvider>
+  );
+});
 
 export function BenchRoute() {
   const [initial] = useState(initialScenario);
@@ -158,11 +172,16 @@ export function BenchRoute() {
     setSelected(null);
   }
 
-  const run = form.handleSubmit((values) => {
-    const mapped = scenarioOfForm(values, baseRef.current);
-    if (!mapped.ok) return;
-    void simulation.start(mapped.scenario);
-  });
+  const { start } = simulation;
+  const submit = useMemo(
+    () =>
+      form.handleSubmit((values) => {
+        const mapped = scenarioOfForm(values, baseRef.current);
+        if (!mapped.ok) return;
+        void start(mapped.scenario);
+      }),
+    [form, start],
+  );
 
   const share = async () => {
     const values = benchFormResolverSchema.safeParse(form.getValues());
@@ -231,11 +250,7 @@ export function BenchRoute() {
             }
           />
           <CardBody>
-            <FormProvider {...form}>
-              <form id="bench-scenario" aria-label="Scenario" onSubmit={(event) => void run(event)} noValidate className={tab === 'form' ? '' : 'hidden'}>
-                <ScenarioForm />
-              </form>
-            </FormProvider>
+            <ScenarioFormPanel form={form} hidden={tab !== 'form'} onSubmit={submit} />
             {tab === 'json' && <ScenarioJson text={jsonText} error={jsonError} onChange={onJsonChange} />}
           </CardBody>
         </Card>
