@@ -4,13 +4,15 @@
  * A vector that runs longer than `timeoutMs` (a property stuck in a loop) is stopped: piscina
  * ends that worker and the vector fails with a clear message.
  *
- * Property vectors are TypeScript that the runner evaluates. The workers get an empty
- * environment (no PARLEY_SECRET, no SMTP_URL) and a heap limit; the code still runs with the
- * server's file access, which is why only admin, engineer and qa may write or run vectors.
+ * Property vectors are TypeScript written by a user, so they never run in these threads: they go
+ * to the property sandbox (./property-sandbox.ts, a child process under Node's permission model),
+ * and the workers refuse them (./run-task.ts). The workers get an empty environment and a heap
+ * limit for the other kinds.
  */
 import { Piscina } from 'piscina';
-import type { VectorResult } from '../../shared/vectors/index.ts';
+import { runVectorText, toJsonSafe, type VectorResult } from '../../shared/vectors/index.ts';
 import { defaultThreads } from '../analysis/pool.ts';
+import { createPropertySandbox, type PropertySandbox } from './property-sandbox.ts';
 import type { RunVectorTask } from './run-task.ts';
 
 export interface RunPool {
@@ -21,18 +23,46 @@ export interface RunPool {
 const workerUrl = new URL('./worker.mjs', import.meta.url).href;
 export const DEFAULT_VECTOR_TIMEOUT_MS = 60_000;
 
-export function createRunPool(options: { maxThreads?: number; idleTimeoutMs?: number; timeoutMs?: number } = {}): RunPool {
+/** True for a vector file whose kind is `property` (a broken file goes to the pool, which reports it). */
+export function isPropertyVectorText(text: string): boolean {
+  try {
+    const json = JSON.parse(text) as { kind?: unknown } | null;
+    return typeof json === 'object' && json !== null && json.kind === 'property';
+  } catch {
+    return false;
+  }
+}
+
+/** Validation and matching here (small for a property vector), the code itself in the sandbox. */
+async function runInSandbox(task: RunVectorTask, sandbox: PropertySandbox): Promise<VectorResult> {
+  const result = await runVectorText(task.text, task.vectorId, { checkProperty: (code, job) => sandbox.check(code, job) });
+  return toJsonSafe(result) as VectorResult;
+}
+
+export interface RunPoolOptions {
+  maxThreads?: number;
+  idleTimeoutMs?: number;
+  /** Per vector; a property's sandbox gets the same limit. */
+  timeoutMs?: number;
+  /** Default: a sandbox with `timeoutMs` and `maxThreads` children at once. */
+  sandbox?: PropertySandbox;
+}
+
+export function createRunPool(options: RunPoolOptions = {}): RunPool {
   const timeoutMs = options.timeoutMs ?? DEFAULT_VECTOR_TIMEOUT_MS;
+  const maxThreads = options.maxThreads ?? defaultThreads();
+  const sandbox = options.sandbox ?? createPropertySandbox({ timeoutMs, maxConcurrent: maxThreads });
   const pool = new Piscina({
     filename: workerUrl,
     minThreads: 0,
-    maxThreads: options.maxThreads ?? defaultThreads(),
+    maxThreads,
     idleTimeout: options.idleTimeoutMs ?? 30_000,
     env: {},
     resourceLimits: { maxOldGenerationSizeMb: 512 },
   });
   return {
     async run(task) {
+      if (isPropertyVectorText(task.text)) return runInSandbox(task, sandbox);
       try {
         return (await pool.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as VectorResult;
       } catch (cause) {
@@ -42,7 +72,7 @@ export function createRunPool(options: { maxThreads?: number; idleTimeoutMs?: nu
       }
     },
     async close() {
-      await pool.destroy();
+      await Promise.all([pool.destroy(), sandbox.close()]);
     },
   };
 }

@@ -1,11 +1,13 @@
 /**
  * The run pool's task: one vector file's text in, its result out (JSON-safe, for the results
  * table). A trace vector's `file` is read from the built-in library folder the id names
- * (`vectors/<folder of the id>/<file>`), never from outside it.
+ * (`vectors/<folder of the id>/<file>`), never from outside it. Property code never runs in this
+ * thread: the pool sends property vectors to the sandbox, and one that reaches a worker anyway is
+ * refused here.
  */
 import { readFile } from 'node:fs/promises';
 import { dirname, resolve, sep } from 'node:path';
-import { runVectorText, toJsonSafe, type VectorResult } from '../../shared/vectors/index.ts';
+import { runVectorText, toJsonSafe, type PropertyOutcome, type VectorResult } from '../../shared/vectors/index.ts';
 
 export interface RunVectorTask {
   text: string;
@@ -23,8 +25,12 @@ export function libraryFileReader(vectorsRoot: string, vectorId: string): (path:
   };
 }
 
+async function refuseProperty(_code: string, options: { runs: number; seed: number }): Promise<PropertyOutcome> {
+  return { holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.sandbox', message: 'property vectors run only in the property sandbox, not in the server\'s run pool' } };
+}
+
 export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> {
-  const result = await runVectorText(task.text, task.vectorId, { readFile: libraryFileReader(task.vectorsRoot, task.vectorId) });
+  const result = await runVectorText(task.text, task.vectorId, { readFile: libraryFileReader(task.vectorsRoot, task.vectorId), checkProperty: refuseProperty });
   return toJsonSafe(result) as VectorResult;
 }
 

@@ -6,49 +6,60 @@ import { paths } from '../../config/paths.ts';
 import { DevicesTable } from '../../features/devices/components/devices-table.tsx';
 import { useSession } from '../../lib/auth.ts';
 import { roleLabels, type Role } from '../../lib/roles.ts';
-import { navFor } from '../nav.ts';
+import { navSectionsFor } from '../nav.ts';
 
-/** What the product does for each role, in the words of the person holding it. */
-const roleSummaries: Record<Role, { lead: string; points: string[] }> = {
+/** What the product does for each role, in the words of the person holding it, and the pages to start with. */
+const roleSummaries: Record<Role, { lead: string; points: string[]; startWith: string[] }> = {
   admin: {
     lead: 'You run Parley for your organisation, and can do everything the other roles do.',
     points: [
       'Invite people and choose their role; deactivate accounts that should no longer sign in.',
-      'Read every e-mail Parley sends, such as invitations and password resets.',
-      'Follow the audit log of sign-ins and account changes.',
+      'Read every e-mail Parley sends, such as invitations, password resets and failed-run notices.',
+      'Follow the audit log, and give CI a token to post test results.',
     ],
+    startWith: [paths.admin.users.path, paths.admin.outbox.path],
   },
   engineer: {
     lead: 'You build chargers, power banks and devices, and use Parley to see how they negotiate.',
     points: [
-      'Replay USB PD negotiations with faults injected, and watch the contract that results.',
-      'Write test vectors and properties for your firmware, and analyse traces you capture.',
+      'Simulate a negotiation on the Bench with faults injected, and watch the contract that results.',
+      'Decode single messages, check a source\'s offers and analyse the traces you capture.',
+      'Write test vectors and properties for your firmware.',
     ],
+    startWith: [paths.bench.path, paths.decoder.path],
   },
   qa: {
-    lead: 'You keep the test vector library and run it, here and in CI.',
+    lead: 'You keep the library of test vectors and run it, here and in CI.',
     points: [
-      'Write and revise test vectors; every edit is a new revision.',
-      'Run the library with the parley command line in CI, and analyse failing traces.',
+      'Write and revise test vectors; every save is a new revision you can compare and restore.',
+      'Run the library here or post results from CI, and see what newly fails in each build.',
+      'Write properties that hunt for a counterexample, and keep it as a vector.',
     ],
+    startWith: [paths.library.index.path, paths.runs.index.path],
   },
   support: {
     lead: 'You help customers whose devices charge slowly or not at all.',
     points: [
-      'Upload field logs to have them decoded and checked against the USB PD rules.',
+      'Upload a log from the field: Parley decodes it, checks it against the USB PD rules and says what went wrong.',
+      'Check an adapter\'s offers, decode a single message, and share a diagnosis by e-mail or as a printable report.',
       'Read the vector library to compare a report with known behaviour.',
     ],
+    startWith: [paths.traces.index.path, paths.offers.path],
   },
   viewer: {
-    lead: 'You can read everything shared with you; nothing you do changes it.',
-    points: ['Read devices, test vectors, traces and their findings.'],
+    lead: 'You can read what the team has stored; nothing you do changes it.',
+    points: [
+      'Read traces and their findings, the vector library and every run.',
+      'Use the Decoder, Offers and the Bench; what you try there is not saved.',
+    ],
+    startWith: [paths.traces.index.path, paths.library.index.path],
   },
 };
 
 export function HomeRoute() {
   const { user, organisation } = useSession();
   const summary = roleSummaries[user.role];
-  const destinations = navFor(user.role).filter((entry) => entry.to !== paths.home.path);
+  const sections = navSectionsFor(user.role).filter((section) => section.id !== 'home');
 
   return (
     <>
@@ -59,24 +70,6 @@ export function HomeRoute() {
       />
 
       <div className="grid gap-5 lg:grid-cols-3">
-        <Card aria-labelledby="account-heading">
-          <CardHeader title={<span id="account-heading">Your account</span>} />
-          <CardBody>
-            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2.5 text-sm">
-              <dt className="text-slate-500 dark:text-slate-400">Name</dt>
-              <dd className="font-medium text-slate-900 dark:text-slate-100">{user.name}</dd>
-              <dt className="text-slate-500 dark:text-slate-400">E-mail</dt>
-              <dd className="truncate font-mono text-xs leading-5">{user.email}</dd>
-              <dt className="text-slate-500 dark:text-slate-400">Role</dt>
-              <dd>
-                <Badge tone="accent" mono>
-                  {user.role}
-                </Badge>
-              </dd>
-            </dl>
-          </CardBody>
-        </Card>
-
         <Card className="lg:col-span-2" aria-labelledby="role-heading">
           <CardHeader title={<span id="role-heading">What Parley does for you as {roleLabels[user.role]}</span>} />
           <CardBody className="space-y-3">
@@ -89,34 +82,66 @@ export function HomeRoute() {
                 </li>
               ))}
             </ul>
-            {destinations.length > 0 && (
-              <nav aria-label="Your pages" className="flex flex-wrap gap-2 pt-2">
-                {destinations.map((entry) => (
-                  <Link
-                    key={entry.to}
-                    to={entry.to}
-                    className="group rounded-md border border-slate-200 px-3 py-2 hover:border-amber-400 hover:bg-amber-50/60 dark:border-slate-700 dark:hover:border-amber-500/60 dark:hover:bg-amber-400/5"
-                  >
-                    <span className="block text-sm font-medium text-slate-900 group-hover:text-amber-800 dark:text-slate-100 dark:group-hover:text-amber-300">
-                      {entry.label} →
-                    </span>
-                    <span className="block text-xs text-slate-500 dark:text-slate-400">{entry.summary}</span>
-                  </Link>
-                ))}
-              </nav>
-            )}
+          </CardBody>
+        </Card>
+
+        <Card aria-labelledby="account-heading">
+          <CardHeader title={<span id="account-heading">Your account</span>} />
+          <CardBody>
+            <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-4 gap-y-2.5 text-sm">
+              <dt className="text-slate-500 dark:text-slate-400">Name</dt>
+              <dd className="font-medium text-slate-900 dark:text-slate-100">{user.name}</dd>
+              <dt className="text-slate-500 dark:text-slate-400">E-mail</dt>
+              <dd className="truncate font-mono text-xs leading-5">{user.email}</dd>
+              <dt className="text-slate-500 dark:text-slate-400">Role</dt>
+              <dd>
+                <Badge tone="accent">{roleLabels[user.role]}</Badge>
+              </dd>
+            </dl>
           </CardBody>
         </Card>
       </div>
 
-      <section aria-labelledby="devices-heading" className="mt-8">
+      <nav aria-label="Your pages" className="mt-8 space-y-6">
+        {sections.map((section) => (
+          <section key={section.id} aria-labelledby={`home-${section.id}`}>
+            <div className="mb-2.5 flex flex-wrap items-baseline gap-x-3">
+              <h2 id={`home-${section.id}`} className="text-base font-semibold text-slate-900 dark:text-slate-50">
+                {section.label}
+              </h2>
+              <p className="text-xs text-slate-500 dark:text-slate-400">{section.summary}</p>
+            </div>
+            <ul className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+              {section.entries.map((entry) => (
+                <li key={entry.to} className="flex">
+                  <Link
+                    to={entry.to}
+                    className="group flex w-full flex-col rounded-lg border border-slate-200 bg-white px-4 py-3 shadow-xs hover:border-amber-400 hover:bg-amber-50/60 dark:border-slate-800 dark:bg-slate-900 dark:hover:border-amber-500/60 dark:hover:bg-amber-400/5"
+                  >
+                    <span className="flex items-center gap-2 text-sm font-medium text-slate-900 group-hover:text-amber-800 dark:text-slate-100 dark:group-hover:text-amber-300">
+                      {entry.label}
+                      {summary.startWith.includes(entry.to) && <Badge tone="accent">Start here</Badge>}
+                      <span aria-hidden="true" className="ml-auto text-slate-400 group-hover:text-amber-600 dark:group-hover:text-amber-400">
+                        →
+                      </span>
+                    </span>
+                    <span className="mt-1 block text-xs text-slate-600 dark:text-slate-400">{entry.summary}</span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          </section>
+        ))}
+      </nav>
+
+      <section aria-labelledby="devices-heading" className="mt-10">
         <div className="mb-3 flex flex-wrap items-end justify-between gap-2">
           <div>
             <h2 id="devices-heading" className="text-base font-semibold text-slate-900 dark:text-slate-50">
               Devices under test
             </h2>
             <p className="text-xs text-slate-500 dark:text-slate-400">
-              The adapters and devices {organisation?.name ?? 'your organisation'} works with, and the power objects each offers or asks for.
+              The adapters and devices {organisation?.name ?? 'your organisation'} works with, and the power objects (PDOs) each offers or asks for.
             </p>
           </div>
         </div>

@@ -73,6 +73,11 @@ export function VbusChart({ measurements, window, endUs, pins, bands = [], onWin
         <span className="flex items-center gap-1.5">
           <span className="h-0.5 w-4 bg-amber-600" /> VBUS (V, left)
         </span>
+        {sinkMeasurements && (
+          <span className="flex items-center gap-1.5">
+            <span className="w-4 border-t-2 border-dashed border-violet-600" /> VBUS at the sink, after the cable (V, left)
+          </span>
+        )}
         {hasCurrent && (
           <span className="flex items-center gap-1.5">
             <span className="h-0.5 w-4 bg-sky-600" /> IBUS (A, right)

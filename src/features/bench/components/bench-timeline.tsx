@@ -88,22 +88,6 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
           dark={dark}
         />
       )}
-      {parts >= 2 && (
-        <ul className="flex flex-wrap gap-x-4 gap-y-1 text-[11px] text-slate-600 dark:text-slate-400" style={{ paddingLeft: PLOT_INSET_LEFT_PX }} aria-label="Chart legend">
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-[#d97706]" /> VBUS at the source (V)
-          </li>
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block w-4 border-t-2 border-dashed border-[#7c3aed]" /> VBUS at the sink, after the cable (V)
-          </li>
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-[#0284c7]" /> IBUS (A, right axis)
-          </li>
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block h-3 w-0 border-l border-dashed border-red-600" /> finding
-          </li>
-        </ul>
-      )}
       {parts >= 3 && (
         <>
           <MessageLanes

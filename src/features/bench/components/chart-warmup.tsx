@@ -14,13 +14,16 @@ const noop = () => undefined;
  * page draws costs about twice what later ones do (code compiled on first use, text measured and
  * cached), and that first time should not land in the middle of a run.
  */
-export function ChartWarmup({ dark }: { dark: boolean }) {
+export function ChartWarmup({ dark, onDone }: { dark: boolean; onDone?(): void }) {
   const [phase, setPhase] = useState<'waiting' | 'drawing' | 'done'>('waiting');
   useEffect(() => {
-    if (phase === 'done') return;
+    if (phase === 'done') {
+      onDone?.();
+      return;
+    }
     const timer = setTimeout(() => setPhase(phase === 'waiting' ? 'drawing' : 'done'), phase === 'waiting' ? 400 : 200);
     return () => clearTimeout(timer);
-  }, [phase]);
+  }, [phase, onDone]);
   if (phase !== 'drawing') return null;
   return (
     <div aria-hidden="true" inert className="pointer-events-none invisible fixed top-0 -left-[10000px] w-[900px]">

@@ -36,6 +36,14 @@ describe('scenarioFromMessages', () => {
     expect(derived.scenario.sink?.changes?.[0]?.atMs).toBeGreaterThanOrEqual(1_500);
   });
 
+  it('takes a 5 A cable when the sink asked for more than 3 A', () => {
+    const messages = captured({ ...defaultScenario, sink: { policy: { kind: 'fixed', voltageMv: 20_000, currentMa: 3_250 } }, cable: { currentRatingMa: 5_000 } });
+    const derived = scenarioFromMessages(messages);
+    if (!derived.ok) throw new Error(derived.message);
+    expect(derived.scenario.sink?.policy).toEqual({ kind: 'fixed', voltageMv: 20_000, currentMa: 3_250 });
+    expect(derived.scenario.cable).toEqual({ currentRatingMa: 5_000 });
+  });
+
   it('explains a trace without offers', () => {
     expect(scenarioFromMessages([])).toEqual({ ok: false, message: expect.stringContaining('Source_Capabilities') });
   });

@@ -66,6 +66,10 @@ export function scenarioFromMessages(messages: readonly CapturedMessage[], optio
   const lastUs = Math.max(options.endUs ?? 0, messages[messages.length - 1]?.t ?? 0);
   const durationMs = Math.min(600_000, Math.max(1_000, Math.ceil(lastUs / 1_000) + 500));
 
+  // A sink that asked for more than 3 A was on a 5 A cable (USB Type-C R2.3 §4.9, from memory).
+  const overThreeAmps = choices.some(({ policy }) => 'currentMa' in policy && policy.currentMa > 3_000);
+  if (overThreeAmps) notes.push('The sink asked for more than 3 A, so the cable is taken as a 5 A one.');
+
   const scenario: ScenarioInput = {
     source: {
       caps: { pdos: offers.map((pdo) => pdo.raw) },
@@ -73,6 +77,7 @@ export function scenarioFromMessages(messages: readonly CapturedMessage[], optio
       ...(capsIntervalMs !== undefined && capsIntervalMs >= 1 && capsIntervalMs <= 10_000 ? { behaviour: { capsIntervalMs } } : {}),
     },
     sink: { specRevision: revisionOf(requests[0]?.decoded ?? lastCaps.decoded), policy: first?.policy ?? { kind: 'max-power' }, changes: later },
+    ...(overThreeAmps ? { cable: { currentRatingMa: 5_000 } } : {}),
     durationMs,
     seed: 1,
   };

@@ -3,7 +3,6 @@ import { FormProvider, useForm, type UseFormReturn } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useSearchParams } from 'react-router';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
-import { formatVector } from '../../../../shared/vectors/format.ts';
 import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
@@ -32,6 +31,9 @@ import { capturedMessagesOf, scenarioFromMessages } from '../lib/scenario-from-t
 import { shareHash, sharedFromHash } from '../lib/share-url.ts';
 import type { RunMessage } from '../lib/timeline-data.ts';
 import { useSimulation } from '../lib/use-simulation.ts';
+
+/** The JSON view's text: two-space indent, keys in the order people read a scenario (source first). */
+const scenarioText = (scenario: ScenarioInput) => `${JSON.stringify(scenario, null, 2)}\n`;
 
 type Loaded = { input: ScenarioInput; values: BenchFormValues };
 
@@ -87,7 +89,7 @@ export function BenchRoute() {
   const [notice, setNotice] = useState<string | null>(initial.notice);
   const baseRef = useRef<ScenarioInput>(initial.loaded.input);
   const applyingRef = useRef(false);
-  const [jsonText, setJsonText] = useState(() => formatVector(initial.loaded.input));
+  const [jsonText, setJsonText] = useState(() => scenarioText(initial.loaded.input));
   const [jsonError, setJsonError] = useState<string | null>(null);
   const [tab, setTab] = useState<'form' | 'json'>('form');
   const [shareUrl, setShareUrl] = useState<string | null>(null);
@@ -95,6 +97,8 @@ export function BenchRoute() {
   const [selected, setSelected] = useState<{ index: number; message: RunMessage } | null>(null);
   const timelineRef = useRef<HTMLDivElement>(null);
   const dark = useIsDark();
+  const [chartWarm, setChartWarm] = useState(false);
+  const onWarm = useCallback(() => setChartWarm(true), []);
   const simulation = useSimulation();
   const { state, lastRun } = simulation;
 
@@ -119,7 +123,7 @@ export function BenchRoute() {
       const mapped = scenarioOfForm(parsed.data, baseRef.current);
       if (!mapped.ok) return;
       baseRef.current = mapped.scenario;
-      setJsonText(formatVector(mapped.scenario));
+      setJsonText(scenarioText(mapped.scenario));
       setJsonError(null);
     });
     return () => subscription.unsubscribe();
@@ -156,7 +160,7 @@ export function BenchRoute() {
       return;
     }
     apply(loaded.loaded);
-    setJsonText(formatVector(loaded.loaded.input));
+    setJsonText(scenarioText(loaded.loaded.input));
     setNotice(`Opened trace ${fromTrace} as a scenario. ${derived.ok ? derived.notes.join(' ') : ''} Change one thing and run it to see what would have happened.`);
   }, [fromTrace, trace.data, apply]);
   useEffect(() => {
@@ -207,14 +211,14 @@ export function BenchRoute() {
   const findingsCount = useMemo(() => shown?.findings.length ?? 0, [shown]);
 
   return (
-    <div>
+    <div data-chart-warm={chartWarm || undefined}>
       <PageHeader
         eyebrow="Simulator"
         title="Bench"
         description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation."
       />
       <SafetyNote />
-      {!shown && <ChartWarmup dark={dark} />}
+      {!shown && !chartWarm && <ChartWarmup dark={dark} onDone={onWarm} />}
       {notice && (
         <p role="status" className="mb-4 flex items-start justify-between gap-3 rounded-md bg-sky-50 px-4 py-2 text-sm text-sky-900 dark:bg-sky-500/10 dark:text-sky-100">
           <span>{notice}</span>
