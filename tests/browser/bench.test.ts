@@ -84,6 +84,8 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     expect(summary).toContain('fixed, object 3');
 
     await current.getByTestId('bench-timeline').waitFor();
+    // The timeline mounts part by part (one part a task): wait for the last part.
+    await current.getByTestId('timer-lane-sink').waitFor();
     expect(await current.getByTestId('vbus-chart').locator('svg.recharts-surface').count()).toBeGreaterThan(0);
     expect(await current.getByTestId('state-lane-source').locator('div').count()).toBeGreaterThan(2);
     expect(await current.getByTestId('timer-lane-sink').locator('div').count()).toBeGreaterThan(0);

@@ -40,49 +40,51 @@ export function SideNav({ id, role, open, onClose }: SideNavProps) {
   return (
     <>
       {open && <div aria-hidden="true" onClick={onClose} className="fixed inset-0 top-[3.625rem] z-20 bg-slate-950/40 lg:hidden" />}
-      <nav
-        ref={navRef}
-        id={id}
-        aria-label="Main"
-        className={cn(
-          'w-56 shrink-0 overflow-y-auto border-r border-slate-200 bg-white dark:border-slate-800 dark:bg-slate-900',
-          'fixed top-[3.625rem] bottom-0 left-0 z-30 shadow-xl',
-          'lg:sticky lg:z-0 lg:block lg:h-[calc(100vh-3.625rem)] lg:bg-white/70 lg:shadow-none lg:dark:bg-slate-900/50',
-          open ? 'block' : 'hidden',
-        )}
-      >
-        <div className="space-y-5 px-3 py-5">
-          {sections.map((section) => {
-            const headingId = `${id}-${section.id}`;
-            return (
-              <div key={section.id}>
-                {section.id !== 'home' && (
-                  <p
-                    id={headingId}
-                    className="mb-1.5 px-2.5 font-mono text-[10.5px] font-medium tracking-widest text-slate-500 uppercase dark:text-slate-400"
-                  >
-                    {section.label}
-                  </p>
-                )}
-                <ul className="space-y-0.5" aria-labelledby={section.id === 'home' ? undefined : headingId}>
-                  {section.entries.map((entry) => (
-                    <li key={entry.to}>
-                      <NavLink
-                        to={entry.to}
-                        end={entry.to === paths.home.path}
-                        onClick={onClose}
-                        className={({ isActive }) => cn(linkBase, isActive && linkActive)}
-                      >
-                        {entry.label}
-                      </NavLink>
-                    </li>
-                  ))}
-                </ul>
-              </div>
-            );
-          })}
-        </div>
-      </nav>
+      {/* At lg and up this column runs the full height of the page, so its rule and tint never stop short. */}
+      <div className="contents lg:block lg:w-52 lg:shrink-0 lg:border-r lg:border-slate-200 lg:bg-white/70 lg:dark:border-slate-800 lg:dark:bg-slate-900/50">
+        <nav
+          ref={navRef}
+          id={id}
+          aria-label="Main"
+          className={cn(
+            'fixed top-[3.625rem] bottom-0 left-0 z-30 w-60 max-w-[85vw] overflow-y-auto border-r border-slate-200 bg-white shadow-xl dark:border-slate-800 dark:bg-slate-900',
+            'lg:sticky lg:z-0 lg:block lg:h-[calc(100vh-3.625rem)] lg:w-full lg:max-w-none lg:border-r-0 lg:bg-transparent lg:shadow-none lg:dark:bg-transparent',
+            open ? 'block' : 'hidden',
+          )}
+        >
+          <div className="space-y-5 px-3 py-5">
+            {sections.map((section) => {
+              const headingId = `${id}-${section.id}`;
+              return (
+                <div key={section.id}>
+                  {section.id !== 'home' && (
+                    <p
+                      id={headingId}
+                      className="mb-1.5 px-2.5 font-mono text-[10.5px] font-medium tracking-widest text-slate-500 uppercase dark:text-slate-400"
+                    >
+                      {section.label}
+                    </p>
+                  )}
+                  <ul className="space-y-0.5" aria-labelledby={section.id === 'home' ? undefined : headingId}>
+                    {section.entries.map((entry) => (
+                      <li key={entry.to}>
+                        <NavLink
+                          to={entry.to}
+                          end={entry.to === paths.home.path}
+                          onClick={onClose}
+                          className={({ isActive }) => cn(linkBase, isActive && linkActive)}
+                        >
+                          {entry.label}
+                        </NavLink>
+                      </li>
+                    ))}
+                  </ul>
+                </div>
+              );
+            })}
+          </div>
+        </nav>
+      </div>
     </>
   );
 }

@@ -57,8 +57,8 @@ export function UserMenu() {
           {initialsOf(user.name, user.email)}
         </span>
         <span className="hidden text-sm sm:inline">{user.name}</span>
-        <Badge tone="accent" className="hidden sm:inline-flex" mono>
-          {user.role}
+        <Badge tone="accent" className="hidden sm:inline-flex">
+          {roleLabels[user.role]}
         </Badge>
       </button>
       {open && (
@@ -72,7 +72,7 @@ export function UserMenu() {
             <p className="text-sm font-medium text-slate-900 dark:text-slate-100">{user.name}</p>
             <p className="truncate font-mono text-xs text-slate-500 dark:text-slate-400">{user.email}</p>
             <p className="mt-2 text-xs text-slate-600 dark:text-slate-400">
-              Role: <Badge tone="accent" mono>{user.role}</Badge>
+              Role: <Badge tone="accent">{roleLabels[user.role]}</Badge>
             </p>
           </div>
           <button

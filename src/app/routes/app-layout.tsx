@@ -49,11 +49,11 @@ export function AppLayout() {
               </svg>
               Menu
             </button>
-            <Link to={paths.home.getHref()} className="flex min-w-0 items-center gap-2.5 rounded-md px-1 lg:w-52" aria-label="Parley home">
+            <Link to={paths.home.getHref()} className="flex min-w-0 shrink-0 items-center gap-2.5 rounded-md px-1" aria-label="Parley home">
               <ParleyMark className="size-7 shrink-0" />
               <span className="text-[15px] font-semibold tracking-tight">Parley</span>
               {organisation && (
-                <span className="hidden truncate border-l border-slate-700 pl-2.5 font-mono text-[11px] text-slate-400 md:inline">
+                <span className="hidden border-l border-slate-700 pl-2.5 font-mono text-[11px] whitespace-nowrap text-slate-400 md:inline">
                   {organisation.name}
                 </span>
               )}
@@ -75,7 +75,7 @@ export function AppLayout() {
         <div className="flex flex-1">
           <SideNav id={navId} role={user.role} open={menuOpen} onClose={closeMenu} />
           <div className="flex min-w-0 flex-1 flex-col">
-            <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-8 sm:px-6 lg:px-8">
+            <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-8 sm:px-6 2xl:px-8">
               <Suspense fallback={<p className="text-xs text-slate-500 dark:text-slate-400">Loading…</p>}>
                 <Outlet />
               </Suspense>

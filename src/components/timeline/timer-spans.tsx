@@ -48,7 +48,7 @@ export function TimerSpans({ timers, window, insetLeftPx = 0, insetRightPx = 0, 
                   className={cn(
                     'absolute h-[14px] min-w-[2px] overflow-hidden rounded-[3px] px-1 font-mono text-[9px] leading-[14px] whitespace-nowrap ring-1 ring-inset',
                     timer.expired
-                      ? 'bg-[repeating-linear-gradient(135deg,var(--color-red-100),var(--color-red-100)_4px,var(--color-red-200)_4px,var(--color-red-200)_8px)] text-red-800 ring-red-400 dark:bg-red-500/20 dark:text-red-200'
+                      ? 'bg-[repeating-linear-gradient(135deg,var(--color-red-100),var(--color-red-100)_4px,var(--color-red-200)_4px,var(--color-red-200)_8px)] text-red-800 ring-red-400 dark:bg-none dark:bg-red-500/25 dark:text-red-200'
                       : 'bg-violet-100 text-violet-800 ring-violet-300 dark:bg-violet-500/15 dark:text-violet-200 dark:ring-violet-500/40',
                   )}
                   style={{ ...style, top: 1 + (rows[index] ?? 0) * ROW_PX }}

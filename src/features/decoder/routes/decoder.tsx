@@ -38,7 +38,7 @@ export function DecoderRoute() {
   return (
     <>
       <PageHeader
-        eyebrow="Codec"
+        eyebrow="Analyse"
         title="Decoder"
         description="Paste one USB PD message as bytes or words and read every field, bit by bit, with the specification table it comes from. The link in the address bar reproduces this decode."
       />

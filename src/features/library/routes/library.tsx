@@ -160,6 +160,7 @@ export function LibraryRoute() {
   return (
     <>
       <PageHeader
+        eyebrow="Test"
         title="Library"
         description="The team's test vectors: every known behaviour and every bug ever found, each with where its expected value comes from. Run them here or from CI."
         actions={

@@ -85,7 +85,7 @@ export function OffersRoute() {
   return (
     <>
       <PageHeader
-        eyebrow="Sources"
+        eyebrow="Analyse"
         title="Offers"
         description="Build or load a source's Source_Capabilities, check them against the structural rules and the Power Rules, and see the contract a sink takes."
       />

@@ -97,7 +97,7 @@ export function PropertiesRoute() {
   return (
     <>
       <PageHeader
-        eyebrow="Vectors"
+        eyebrow="Test"
         title="Properties"
         description="Write a property over the engine in TypeScript, let fast-check look for an input that breaks it, and keep the shrunk counterexample as a negotiation vector."
       />

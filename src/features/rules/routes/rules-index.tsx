@@ -18,7 +18,7 @@ export function RulesIndexRoute() {
   return (
     <>
       <PageHeader
-        eyebrow="Reference"
+        eyebrow="Analyse"
         title="Rules"
         description="Every check Parley reports as a finding, with what it means, why it matters and where it comes from. Findings everywhere link here."
       />

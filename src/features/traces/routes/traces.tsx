@@ -67,11 +67,11 @@ export function TracesRoute() {
   return (
     <>
       <PageHeader
-        eyebrow="Support"
+        eyebrow="Analyse"
         title="Traces"
         description="Logs from the field and the lab, decoded and checked against the USB PD rules. Open one to see what happened on the wire and share the diagnosis."
       />
-      <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_24rem]">
+      <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_24rem]">
         <section aria-label="Stored traces" className="min-w-0 space-y-3">
           <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
             <Input label="Search" type="search" value={search} onChange={(event) => setSearch(event.target.value)} placeholder="Title, customer, rule id…" />
