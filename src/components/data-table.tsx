@@ -228,7 +228,8 @@ export function DataTable<TData extends RowData>({
           )}
         </div>
       )}
-      {pagination && <Pager table={table} pagination={pagination} />}
+      {/* An empty table says so above; "0–0 of 0" would only repeat it. */}
+      {pagination && pagination.rowCount > 0 && <Pager table={table} pagination={pagination} />}
     </div>
   );
 }

@@ -69,8 +69,8 @@ export function HomeRoute() {
         description="Parley decodes, checks and simulates USB Power Delivery negotiations between sources and sinks."
       />
 
-      <div className="grid gap-5 lg:grid-cols-3">
-        <Card className="lg:col-span-2" aria-labelledby="role-heading">
+      <div className="grid gap-5 xl:grid-cols-3">
+        <Card className="xl:col-span-2" aria-labelledby="role-heading">
           <CardHeader title={<span id="role-heading">What Parley does for you as {roleLabels[user.role]}</span>} />
           <CardBody className="space-y-3">
             <p className="text-slate-700 dark:text-slate-300">{summary.lead}</p>
@@ -92,7 +92,7 @@ export function HomeRoute() {
               <dt className="text-slate-500 dark:text-slate-400">Name</dt>
               <dd className="font-medium text-slate-900 dark:text-slate-100">{user.name}</dd>
               <dt className="text-slate-500 dark:text-slate-400">E-mail</dt>
-              <dd className="truncate font-mono text-xs leading-5">{user.email}</dd>
+              <dd className="font-mono text-xs leading-5 break-all">{user.email}</dd>
               <dt className="text-slate-500 dark:text-slate-400">Role</dt>
               <dd>
                 <Badge tone="accent">{roleLabels[user.role]}</Badge>

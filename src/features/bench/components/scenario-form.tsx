@@ -51,7 +51,7 @@ function PolicyChanges() {
       </ol>
       <div>
         <Button variant="secondary" size="sm" onClick={() => append({ atMs: 2_000, policy: defaultPolicy('fixed') })}>
-          + Change the policy at a time
+          + Change the policy later in the run
         </Button>
       </div>
     </div>

@@ -213,7 +213,7 @@ export function BenchRoute() {
   return (
     <div data-chart-warm={chartWarm || undefined}>
       <PageHeader
-        eyebrow="Simulator"
+        eyebrow="Simulate"
         title="Bench"
         description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation."
       />

@@ -17,7 +17,7 @@ export function UsersRoute() {
         title="Users"
         description="Everyone who can sign in to Parley, with their role. Roles decide what each person may change."
       />
-      <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
+      <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_22rem]">
         <section aria-label="People" className="space-y-3">
           <p className="font-mono text-xs text-slate-500 tabular dark:text-slate-400">
             {users.data ? `${users.data.total} accounts · ${pending} invite${pending === 1 ? '' : 's'} pending` : '\u00a0'}
