@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { niceStepAtLeast, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
+import { fittedZeroBasedTicks, niceStepAtLeast, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
 
 // Nice steps of 1, 2, 2.5 and 5 × 10ⁿ: common practice for chart axes.
 describe('niceStepAtLeast', () => {
@@ -46,5 +46,13 @@ describe('timeTicksMs', () => {
     expect(timeTicksMs(0, 10, 50).length).toBeGreaterThanOrEqual(2);
     expect(timeTicksMs(0, 1_000, 10_000).length).toBeLessThanOrEqual(13);
     expect(timeTicksMs(5, 5, 800)).toEqual([5]);
+  });
+});
+
+describe('fittedZeroBasedTicks', () => {
+  it('picks 4, 5 or 6 steps, whichever spares the least room', () => {
+    expect(fittedZeroBasedTicks(21)).toEqual({ max: 25, ticks: [0, 5, 10, 15, 20, 25] });
+    expect(fittedZeroBasedTicks(15.75)).toEqual({ max: 20, ticks: [0, 5, 10, 15, 20] });
+    expect(fittedZeroBasedTicks(5.25)).toEqual({ max: 6, ticks: [0, 1, 2, 3, 4, 5, 6] });
   });
 });

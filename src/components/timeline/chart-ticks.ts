@@ -47,3 +47,16 @@ export function timeTicksMs(startMs: number, endMs: number, widthPx: number, spa
   }
   return ticks;
 }
+
+/**
+ * Zero-based ticks in 4, 5 or 6 nice steps, whichever reaches `maxValue` with the least room to
+ * spare (20.5 V: 0–25 in steps of 5 rather than 0–40 in steps of 10).
+ */
+export function fittedZeroBasedTicks(maxValue: number): ValueTicks {
+  let best = zeroBasedTicks(maxValue, 4);
+  for (const intervals of [5, 6]) {
+    const candidate = zeroBasedTicks(maxValue, intervals);
+    if (candidate.max < best.max - 1e-12) best = candidate;
+  }
+  return best;
+}

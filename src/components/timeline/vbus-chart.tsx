@@ -1,13 +1,22 @@
-import { useMemo } from 'react';
-import { Brush, CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { memo, useMemo, type ReactNode } from 'react';
+import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
+import { fittedZeroBasedTicks, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
+import { OverviewBrush } from './overview-brush.tsx';
 import { thin, windowSeries, type Measurement, type SeriesPoint } from './trace-series.ts';
 import type { TimeWindow } from './time-window.ts';
+import { useElementWidth } from './use-element-width.ts';
 
 /** Plot-area insets (px), so lanes under the chart line up with its time axis. */
 export const PLOT_INSET_LEFT_PX = 56;
 export const PLOT_INSET_RIGHT_PX = 56;
 const AXIS_WIDTH_PX = 48;
+const CHART_HEIGHT_PX = 224;
 const MARGIN = { top: 8, right: PLOT_INSET_RIGHT_PX - AXIS_WIDTH_PX, bottom: 0, left: PLOT_INSET_LEFT_PX - AXIS_WIDTH_PX };
+// Without a current axis its width goes to the margin, so the plot keeps the same insets.
+const MARGIN_NO_CURRENT = { ...MARGIN, right: PLOT_INSET_RIGHT_PX };
+const ACTIVE_DOT = { r: 3, strokeWidth: 0 };
+/** Head room above the highest value, so a line at the top does not sit on the frame. */
+const HEADROOM = 1.05;
 
 export type ChartPin = { tUs: number; tone: 'error' | 'warning' | 'info'; label: string; selected?: boolean };
 export type ChartBand = { startUs: number; endUs: number; minMv: number; maxMv: number };
@@ -30,6 +39,8 @@ export type VbusChartProps = {
   sinkMeasurements?: readonly Measurement[];
 };
 
+const NO_BANDS: readonly ChartBand[] = [];
+
 type Merged = { tMs: number; v?: number; a?: number; s?: number };
 
 function merge(vbusV: SeriesPoint[], ibusA: SeriesPoint[], sinkV: SeriesPoint[] = []): Merged[] {
@@ -40,24 +51,121 @@ function merge(vbusV: SeriesPoint[], ibusA: SeriesPoint[], sinkV: SeriesPoint[] 
   return [...byTime.values()].sort((x, y) => x.tMs - y.tMs);
 }
 
+
+/** Points per series: about one per two px of plot width (LTTB keeps the shape), in steps of 50. */
+function pointBudget(plotWidthPx: number): number {
+  return Math.min(600, Math.max(150, Math.round(plotWidthPx / 100) * 50));
+}
+
+type TickProps = { x?: number | string; y?: number | string; textAnchor?: 'start' | 'middle' | 'end' | 'inherit'; fill?: string; payload?: { value: number | string } };
+
+/**
+ * Tick labels as plain <text>: recharts' own label component measures every word in the DOM
+ * (each a forced layout) to wrap it, which these short labels never need.
+ */
+function tickRenderer(format: (value: number) => string, dy: string) {
+  return function AxisTick({ x, y, textAnchor, fill, payload }: TickProps): ReactNode {
+    return (
+      <text x={x} y={y} dy={dy} textAnchor={textAnchor} fill={fill} fontSize={11} className="recharts-cartesian-axis-tick-value">
+        {format(Number(payload?.value ?? 0))}
+      </text>
+    );
+  };
+}
+const valueLabel = (unit: string) => (value: number) => `${Number(value.toFixed(3))} ${unit}`;
+const timeTick = tickRenderer(formatAxisMs, '0.71em');
+const voltTick = tickRenderer(valueLabel('V'), '0.355em');
+const ampTick = tickRenderer(valueLabel('A'), '0.355em');
+const tooltipLabel = (label: unknown) => formatAxisMs(Number(label));
+const tooltipValue = (value: unknown, name: unknown): [string, string] => [`${Number(value).toFixed(3)} ${name === 'IBUS' ? 'A' : 'V'}`, String(name)];
+
+type PlotMarksProps = { window: TimeWindow; maxV: number; gridV: readonly number[]; gridColour: string; bands: readonly ChartBand[]; pins: readonly ChartPin[] };
+
+/**
+ * The horizontal grid, tolerance bands and finding pins, drawn inside the chart's SVG (so they are
+ * in an exported picture) from the plot area and our own axis domains: one small layer instead of
+ * recharts' grid (which measures tick labels again) and a reference component, each with its own
+ * store entries, per pin and band.
+ */
+function PlotMarks({ window, maxV, gridV, gridColour, bands, pins }: PlotMarksProps) {
+  const plot = usePlotArea();
+  if (!plot || plot.width <= 0 || plot.height <= 0) return null;
+  const spanUs = Math.max(1, window.endUs - window.startUs);
+  const xOf = (tUs: number) => plot.x + ((Math.min(Math.max(tUs, window.startUs), window.endUs) - window.startUs) / spanUs) * plot.width;
+  const yOf = (volts: number) => plot.y + plot.height - (Math.min(Math.max(volts, 0), maxV) / maxV) * plot.height;
+  return (
+    <g className="parley-plot-marks" pointerEvents="none">
+      {gridV.map((volts) => (
+        <line key={volts} x1={plot.x} x2={plot.x + plot.width} y1={yOf(volts)} y2={yOf(volts)} stroke={gridColour} strokeDasharray="3 3" />
+      ))}
+      {bands.map((band) => {
+        if (band.endUs < window.startUs || band.startUs > window.endUs) return null;
+        const x1 = xOf(band.startUs);
+        const top = yOf(band.maxMv / 1_000);
+        return (
+          <rect key={`${band.startUs}-${band.minMv}`} x={x1} width={Math.max(0, xOf(band.endUs) - x1)} y={top} height={Math.max(0, yOf(band.minMv / 1_000) - top)} fill="#10b981" fillOpacity={0.08} />
+        );
+      })}
+      {pins.map((pin, index) => (
+        <line
+          key={`${pin.tUs}-${index}`}
+          x1={xOf(pin.tUs)}
+          x2={xOf(pin.tUs)}
+          y1={plot.y}
+          y2={plot.y + plot.height}
+          stroke={PIN_COLOURS[pin.tone]}
+          strokeWidth={pin.selected ? 2.5 : 1}
+          strokeDasharray={pin.selected ? undefined : '4 3'}
+        />
+      ))}
+    </g>
+  );
+}
+
 /**
  * VBUS (V, left axis) and IBUS (A, right axis) over the visible window, with findings as vertical
  * pins and contract tolerance bands; under it a whole-trace overview whose brush sets the window.
+ *
+ * Kept cheap to draw (issue: no main-thread task over 50 ms): a fixed width from a debounced
+ * ResizeObserver instead of a re-measuring container, our own ticks and domains (recharts measures
+ * no label), about one point per two px, no animation, and memoised so a parent's unrelated state
+ * (a selected message, a checkbox) does not redraw it.
  */
-export function VbusChart({ measurements, window, endUs, pins, bands = [], onWindowChange, dark = false, sinkMeasurements }: VbusChartProps) {
+export const VbusChart = memo(function VbusChart({ measurements, window, endUs, pins, bands = NO_BANDS, onWindowChange, dark = false, sinkMeasurements }: VbusChartProps) {
+  const [box, widthPx] = useElementWidth<HTMLDivElement>();
+  const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
+  const measured = plotWidthPx > 0;
+  const budget = pointBudget(plotWidthPx);
   const data = useMemo(() => {
-    const { vbusV, ibusA } = windowSeries(measurements, window);
-    return merge(vbusV, ibusA, sinkMeasurements ? windowSeries(sinkMeasurements, window).vbusV : undefined);
-  }, [measurements, window, sinkMeasurements]);
+    if (!measured) return [];
+    const { vbusV, ibusA } = windowSeries(measurements, window, budget);
+    return merge(vbusV, ibusA, sinkMeasurements ? windowSeries(sinkMeasurements, window, budget).vbusV : undefined);
+  }, [measurements, window, sinkMeasurements, budget, measured]);
   const overview = useMemo(() => thin(measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })), 300), [measurements]);
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
+  const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
+  const visiblePins = useMemo(() => pins.filter((p) => p.tUs >= window.startUs && p.tUs <= window.endUs).slice(0, 120), [pins, window]);
+  const axes = useMemo(() => {
+    let maxV = 0;
+    let maxA = 0;
+    for (const row of data) {
+      maxV = Math.max(maxV, row.v ?? 0, row.s ?? 0);
+      maxA = Math.max(maxA, row.a ?? 0);
+    }
+    for (const band of visibleBands) maxV = Math.max(maxV, band.maxMv / 1_000);
+    const volts = fittedZeroBasedTicks(maxV * HEADROOM);
+    const amps = zeroBasedTicks(maxA * HEADROOM, volts.ticks.length - 1);
+    const startMs = window.startUs / 1_000;
+    const endMs = window.endUs / 1_000;
+    return {
+      time: { domain: [startMs, endMs] as [number, number], ticks: timeTicksMs(startMs, endMs, plotWidthPx) },
+      volts: { domain: [0, volts.max] as [number, number], ticks: volts.ticks },
+      amps: { domain: [0, amps.max] as [number, number], ticks: amps.ticks },
+    };
+  }, [data, visibleBands, window, plotWidthPx]);
   const axis = dark ? '#94a3b8' : '#475569';
   const grid = dark ? '#1e293b' : '#e2e8f0';
-  const domain: [number, number] = [window.startUs / 1_000, window.endUs / 1_000];
-  const visiblePins = pins.filter((p) => p.tUs >= window.startUs && p.tUs <= window.endUs).slice(0, 120);
-  const startIndex = Math.max(0, overview.findIndex((p) => p.tMs * 1_000 >= window.startUs));
-  const endFound = overview.findIndex((p) => p.tMs * 1_000 >= window.endUs);
-  const endIndex = endFound === -1 ? Math.max(0, overview.length - 1) : endFound;
+  const tooltipStyle = useMemo(() => ({ fontSize: 12, background: dark ? '#0f172a' : '#fff', borderColor: grid }), [dark, grid]);
 
   if (measurements.length === 0) {
     return (
@@ -94,73 +202,25 @@ export function VbusChart({ measurements, window, endUs, pins, bands = [], onWin
           </span>
         )}
       </div>
-      <div className="h-56 w-full" data-testid="vbus-chart">
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={data} margin={MARGIN} accessibilityLayer={false}>
-            <CartesianGrid stroke={grid} strokeDasharray="3 3" />
-            <XAxis dataKey="tMs" type="number" domain={domain} allowDataOverflow tickFormatter={formatAxisMs} stroke={axis} fontSize={11} />
-            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} unit=" V" domain={[0, 'auto']} />
-            <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} unit=" A" domain={[0, 'auto']} hide={!hasCurrent} />
-            {bands.map((band) => (
-              <ReferenceArea
-                key={`${band.startUs}-${band.minMv}`}
-                yAxisId="v"
-                x1={Math.max(band.startUs, window.startUs) / 1_000}
-                x2={Math.min(band.endUs, window.endUs) / 1_000}
-                y1={band.minMv / 1_000}
-                y2={band.maxMv / 1_000}
-                fill="#10b981"
-                fillOpacity={0.08}
-                ifOverflow="hidden"
-              />
-            ))}
-            <Tooltip
-              labelFormatter={(label) => formatAxisMs(Number(label))}
-              formatter={(value, name) => [`${Number(value).toFixed(3)} ${name === 'IBUS' ? 'A' : 'V'}`, name]}
-              contentStyle={{ fontSize: 12, background: dark ? '#0f172a' : '#fff', borderColor: grid }}
-            />
-            {visiblePins.map((pin, index) => (
-              <ReferenceLine
-                key={`${pin.tUs}-${index}`}
-                yAxisId="v"
-                x={pin.tUs / 1_000}
-                stroke={PIN_COLOURS[pin.tone]}
-                strokeWidth={pin.selected ? 2.5 : 1}
-                strokeDasharray={pin.selected ? undefined : '4 3'}
-              />
-            ))}
-            <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} strokeWidth={1.6} isAnimationActive={false} connectNulls />
-            {sinkMeasurements && (
-              <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
+      <div ref={box} className="h-56 w-full" data-testid="vbus-chart">
+        {measured && (
+          <LineChart width={widthPx} height={CHART_HEIGHT_PX} data={data} margin={hasCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
+            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
+            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} allowDataOverflow tick={voltTick} />
+            {hasCurrent && (
+              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} allowDataOverflow tick={ampTick} />
             )}
-            {hasCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
+            <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={visiblePins} />
+            <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />
+            <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.6} isAnimationActive={false} connectNulls />
+            {sinkMeasurements && (
+              <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
+            )}
+            {hasCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
           </LineChart>
-        </ResponsiveContainer>
+        )}
       </div>
-      <div className="h-12 w-full" data-testid="vbus-overview">
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={overview} margin={{ ...MARGIN, top: 0 }} accessibilityLayer={false}>
-            <XAxis dataKey="tMs" type="number" domain={[0, endUs / 1_000]} hide />
-            <YAxis width={AXIS_WIDTH_PX} hide />
-            <Line dataKey="value" stroke={axis} dot={false} strokeWidth={1} isAnimationActive={false} />
-            <Brush
-              dataKey="tMs"
-              height={22}
-              travellerWidth={8}
-              startIndex={startIndex}
-              endIndex={Math.max(startIndex, endIndex)}
-              tickFormatter={(value) => formatAxisMs(Number(value))}
-              stroke="#f59e0b"
-              fill={dark ? '#0f172a' : '#fffbeb'}
-              onChange={(range) => {
-                const from = overview[range.startIndex ?? 0];
-                const to = overview[range.endIndex ?? overview.length - 1];
-                if (from && to && to.tMs > from.tMs) onWindowChange({ startUs: Math.round(from.tMs * 1_000), endUs: Math.round(to.tMs * 1_000) });
-              }}
-            />
-          </LineChart>
-        </ResponsiveContainer>
-      </div>
+      <OverviewBrush points={overview} endUs={endUs} window={window} onWindowChange={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} dark={dark} />
     </div>
   );
-}
+});
