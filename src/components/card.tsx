@@ -1,7 +1,7 @@
-import type { HTMLAttributes, ReactNode } from 'react';
+import type { HTMLAttributes, ReactNode, Ref } from 'react';
 import { cn } from '../lib/cn.ts';
 
-export function Card({ className, ...rest }: HTMLAttributes<HTMLElement>) {
+export function Card({ className, ...rest }: HTMLAttributes<HTMLElement> & { ref?: Ref<HTMLElement> }) {
   return (
     <section
       className={cn(

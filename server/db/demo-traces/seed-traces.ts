@@ -12,6 +12,7 @@ import type { Clock } from '../../context.ts';
 import { traceStore } from '../../features/traces/store.ts';
 import { sniffTrace, SNIFF_BYTES } from '../../features/traces/sniff.ts';
 import { analyseTrace } from '../../features/traces/analyse.ts';
+import { createQueuedTrace } from '../../features/traces/new-trace.ts';
 import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 
 /** Uploads a day apart, the newest an hour before the seed. */
@@ -30,7 +31,7 @@ export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: s
     if (!existsSync(store.pathOf(sha256))) writeFileSync(store.pathOf(sha256), bytes, { mode: 0o600 });
     const sniffed = sniffTrace(bytes.subarray(0, SNIFF_BYTES), bytes.length <= SNIFF_BYTES);
     if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.message}`);
-    return em.create(Trace, {
+    return createQueuedTrace(em, {
       title: entry.title,
       fileName: entry.fileName,
       sha256,
@@ -41,18 +42,7 @@ export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: s
       deviceId: devices.find((d) => d.model === entry.deviceModel)?.id ?? null,
       customerRef: entry.customerRef,
       notes: entry.notes,
-      status: 'queued',
-      errorCode: null,
-      errorMessage: null,
-      summary: null,
-      messages: 0,
-      errorCount: 0,
-      warningCount: 0,
-      infoCount: 0,
-      rules: '',
-      analysis: null,
       createdAt: new Date(clock.now().getTime() - 3_600_000 - (manifest.length - 1 - index) * DAY_MS),
-      analysedAt: null,
     });
   });
   await em.flush();

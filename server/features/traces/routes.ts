@@ -16,6 +16,7 @@ import { recordAudit } from '../audit/record.ts';
 import { analysisPool } from '../../analysis/pool.ts';
 import type { Analysis, TraceFormat } from '../../../shared/trace/index.ts';
 import { analyseTrace, runningAnalysis } from './analyse.ts';
+import { createQueuedTrace } from './new-trace.ts';
 import { presentComment, presentTrace, type DeviceRef } from './present.ts';
 import { currentProgress, subscribeProgress, type ProgressEvent } from './progress.ts';
 import { buildReport, diagnosisMail } from './report.ts';
@@ -171,7 +172,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
 
   const store = traceStore(deps.dataDir);
   const now = deps.clock.now();
-  const trace = em.create(Trace, {
+  const trace = createQueuedTrace(em, {
     title: body.title,
     fileName: cleanFileName(file.originalname),
     sha256: file.sha256,
@@ -182,18 +183,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
     deviceId: body.deviceId,
     customerRef: body.customerRef,
     notes: body.notes,
-    status: 'queued',
-    errorCode: null,
-    errorMessage: null,
-    summary: null,
-    messages: 0,
-    errorCount: 0,
-    warningCount: 0,
-    infoCount: 0,
-    rules: '',
-    analysis: null,
     createdAt: now,
-    analysedAt: null,
   });
   recordAudit(em, deps.clock, { actor: me, action: 'trace.uploaded', target: `trace:${file.sha256.slice(0, 12)}`, details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format } });
   try {

@@ -1,6 +1,7 @@
-import { useEffect, useMemo, useRef, useState, type RefObject } from 'react';
+import { memo, useMemo } from 'react';
 import { cn } from '../../lib/cn.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
+import { useElementWidth } from './use-element-width.ts';
 
 /** One message on the CC wire, as the lanes need it (a subset of the analysis timeline). */
 export type LaneMessage = {
@@ -31,20 +32,6 @@ export type MessageLanesProps = {
 /** A label's width in px, estimated from its length (10 px monospace) plus padding and the tick. */
 const labelWidthPx = (text: string) => text.length * 6.1 + 16;
 
-/** The element's width in px, kept up to date as it resizes. */
-function useWidth<T extends HTMLElement>(): [RefObject<T | null>, number] {
-  const ref = useRef<T>(null);
-  const [width, setWidth] = useState(0);
-  useEffect(() => {
-    const element = ref.current;
-    if (!element) return;
-    setWidth(element.clientWidth);
-    const observer = new ResizeObserver(() => setWidth(element.clientWidth));
-    observer.observe(element);
-    return () => observer.disconnect();
-  }, []);
-  return [ref, width];
-}
 /** At most this many arrows are drawn; a wider window asks the user to zoom. */
 const DRAW_LIMIT = 1_500;
 
@@ -63,7 +50,7 @@ function firstIndexFrom(messages: readonly LaneMessage[], tUs: number): number {
  * Source and sink as two lanes, each message an arrow from its sender to the receiver at its
  * time; retries dashed, bad CRCs red, a message without GoodCRC marked with a hollow end.
  */
-export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, insetRightPx = 0, onSelect, selectedIndex, className }: MessageLanesProps) {
+export const MessageLanes = memo(function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, insetRightPx = 0, onSelect, selectedIndex, className }: MessageLanesProps) {
   const acknowledged = useMemo(() => {
     const set = new Set<number>();
     for (const m of messages) if (m.goodCrcFor !== undefined) set.add(m.goodCrcFor);
@@ -81,7 +68,7 @@ export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, i
     return out;
   }, [messages, window.startUs, window.endUs, foldGoodCrc]);
   const drawn = useMemo(() => visible.slice(0, DRAW_LIMIT), [visible]);
-  const [lane, widthPx] = useWidth<HTMLDivElement>();
+  const [lane, widthPx] = useElementWidth<HTMLDivElement>();
   // Labels go in three rows; each sits in the first row where it does not run into the label before
   // it, or is left out (the arrow's tooltip has it).
   const labelRow = useMemo(() => {
@@ -156,4 +143,4 @@ export function MessageLanes({ messages, window, foldGoodCrc, insetLeftPx = 0, i
       </div>
     </div>
   );
-}
+});

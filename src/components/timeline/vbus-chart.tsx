@@ -1,4 +1,4 @@
-import { memo, useMemo, type ReactNode } from 'react';
+import { memo, startTransition, useDeferredValue, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
 import { fittedZeroBasedTicks, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
 import { OverviewBrush } from './overview-brush.tsx';
@@ -131,10 +131,23 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins }: PlotMarksPr
  * no label), about one point per two px, no animation, and memoised so a parent's unrelated state
  * (a selected message, a checkbox) does not redraw it.
  */
-export const VbusChart = memo(function VbusChart({ measurements, window, endUs, pins, bands = NO_BANDS, onWindowChange, dark = false, sinkMeasurements }: VbusChartProps) {
+export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
+  // A new window or series redraws the chart in a later, interruptible render: the lanes (and the
+  // click that asked) go first, and no task carries both.
+  const window = useDeferredValue(props.window);
+  const measurements = useDeferredValue(props.measurements);
+  const sinkMeasurements = useDeferredValue(props.sinkMeasurements);
+  const { endUs, pins, bands = NO_BANDS, onWindowChange, dark = false } = props;
   const [box, widthPx] = useElementWidth<HTMLDivElement>();
   const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
   const measured = plotWidthPx > 0;
+  // The tooltip (nothing to see until a pointer hovers) joins in a task after the first draw.
+  const [interactive, setInteractive] = useState(false);
+  useEffect(() => {
+    if (!measured || interactive) return;
+    const timer = setTimeout(() => startTransition(() => setInteractive(true)), 0);
+    return () => clearTimeout(timer);
+  }, [measured, interactive]);
   const budget = pointBudget(plotWidthPx);
   const data = useMemo(() => {
     if (!measured) return [];
@@ -205,13 +218,13 @@ export const VbusChart = memo(function VbusChart({ measurements, window, endUs, 
       <div ref={box} className="h-56 w-full" data-testid="vbus-chart">
         {measured && (
           <LineChart width={widthPx} height={CHART_HEIGHT_PX} data={data} margin={hasCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
-            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
-            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} allowDataOverflow tick={voltTick} />
+            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
+            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
             {hasCurrent && (
-              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} allowDataOverflow tick={ampTick} />
+              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} niceTicks="none" allowDataOverflow tick={ampTick} />
             )}
             <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={visiblePins} />
-            <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />
+            {interactive && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
             <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.6} isAnimationActive={false} connectNulls />
             {sinkMeasurements && (
               <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
@@ -220,7 +233,7 @@ export const VbusChart = memo(function VbusChart({ measurements, window, endUs, 
           </LineChart>
         )}
       </div>
-      <OverviewBrush points={overview} endUs={endUs} window={window} onWindowChange={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} dark={dark} />
+      <OverviewBrush points={overview} endUs={endUs} window={props.window} onWindowChange={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} dark={dark} />
     </div>
   );
 });

@@ -1,27 +1,22 @@
-import { useSearchParams } from 'react-router';
 import { Badge, type BadgeTone } from '../../../components/badge.tsx';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { formatDateTimeSeconds } from '../../../lib/format.ts';
+import { pageParam } from '../../../lib/list-params.ts';
+import { useListParams } from '../../../lib/use-list-params.ts';
 import { useAudit, type AuditEvent } from '../api/get-audit.ts';
 import { AuditDetails } from '../components/audit-details.tsx';
+import { actionLabel } from '../lib/action-labels.ts';
 
 const pageSize = 25;
 const noEvents: AuditEvent[] = [];
 
 function toneOf(action: string): BadgeTone {
-  if (action.endsWith('_failed') || action.endsWith('deactivated')) return 'warning';
+  if (action.endsWith('_failed') || action.endsWith('deactivated') || action.endsWith('deleted') || action.endsWith('revoked')) return 'warning';
   if (action.startsWith('user.')) return 'accent';
   return 'neutral';
-}
-
-function compactDetails(details: AuditEvent['details']): string {
-  if (!details || Object.keys(details).length === 0) return '';
-  return Object.entries(details)
-    .map(([key, value]) => `${key}=${typeof value === 'string' ? value : JSON.stringify(value)}`)
-    .join(' ');
 }
 
 const col = dataColumnHelper<AuditEvent>();
@@ -47,46 +42,33 @@ const columns = col.columns([
     header: 'Action',
     enableSorting: false,
     cell: ({ getValue }) => (
-      <Badge tone={toneOf(getValue())} mono>
-        {getValue()}
-      </Badge>
+      <span className="flex flex-col items-start gap-0.5">
+        <Badge tone={toneOf(getValue())}>{actionLabel(getValue())}</Badge>
+        <span className="font-mono text-[11px] text-slate-500 dark:text-slate-400">{getValue()}</span>
+      </span>
     ),
   }),
   col.accessor('target', {
     header: 'Target',
     enableSorting: false,
     meta: { mono: true },
-    cell: ({ getValue }) => getValue() ?? '—',
-  }),
-  col.accessor((event) => compactDetails(event.details), {
-    id: 'details',
-    header: 'Details',
-    enableSorting: false,
-    meta: { mono: true },
-    cell: ({ getValue }) => <span className="line-clamp-1 max-w-56 text-slate-500 dark:text-slate-400">{getValue()}</span>,
+    cell: ({ getValue }) => <span className="break-all">{getValue() ?? '—'}</span>,
   }),
 ]);
 
 export function AuditRoute() {
-  const [params, setParams] = useSearchParams();
-  const page = Math.max(1, Number(params.get('page')) || 1);
-  const selectedId = params.get('event');
+  const { page, selectedId, update } = useListParams('event');
   const audit = useAudit({ page, pageSize });
   const items = audit.data?.items ?? noEvents;
   const selected = items.find((event) => String(event.id) === selectedId) ?? null;
 
-  const update = (changes: Record<string, string | null>) => {
-    const next = new URLSearchParams(params);
-    for (const [key, value] of Object.entries(changes)) {
-      if (value === null) next.delete(key);
-      else next.set(key, value);
-    }
-    setParams(next);
-  };
-
   return (
     <>
-      <PageHeader eyebrow="Admin" title="Audit log" description="Sign-ins and account changes, newest first. Entries cannot be edited." />
+      <PageHeader
+        eyebrow="Admin"
+        title="Audit log"
+        description="Sign-ins, account changes and what was done to traces, vectors and API tokens, newest first. Pick a line for its details. Entries cannot be edited."
+      />
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         {audit.isError ? (
           <ErrorMessage title="The audit log could not be loaded" error={audit.error} />
@@ -104,7 +86,7 @@ export function AuditRoute() {
               pageIndex: page - 1,
               pageSize,
               rowCount: audit.data?.total ?? 0,
-              onPageChange: (pageIndex) => update({ page: pageIndex > 0 ? String(pageIndex + 1) : null, event: null }),
+              onPageChange: (pageIndex) => update({ page: pageParam(pageIndex), event: null }),
             }}
             empty={<EmptyState title="Nothing recorded yet" />}
           />

@@ -4,58 +4,17 @@ import { resolveCaps } from '../../../../shared/sim/caps.ts';
 import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
+import { offerFields, offerKindLabels, offerKindOptions, offerKinds, type OfferNumberKey } from '../../../lib/offers-form/offer-fields.ts';
 import { useSourceDevices } from '../api/get-source-devices.ts';
 import type { BenchFormValues } from '../lib/form-model.ts';
 import { numberField } from './form-fields.ts';
-
-const KIND_LABELS: Record<OfferKind, string> = {
-  fixed: 'Fixed',
-  variable: 'Variable',
-  battery: 'Battery',
-  pps: 'PPS',
-  'spr-avs': 'SPR AVS',
-  'epr-avs': 'EPR AVS',
-};
-
-type NumberKey = 'voltageMv' | 'maxCurrentMa' | 'minVoltageMv' | 'maxVoltageMv' | 'maxPowerMw' | 'pdpW' | 'maxCurrent15vMa' | 'maxCurrent20vMa';
-
-const FIELDS: Record<OfferKind, { key: NumberKey; label: string; step: number }[]> = {
-  fixed: [
-    { key: 'voltageMv', label: 'Voltage (mV)', step: 50 },
-    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
-  ],
-  variable: [
-    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 50 },
-    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 50 },
-    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 10 },
-  ],
-  battery: [
-    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 50 },
-    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 50 },
-    { key: 'maxPowerMw', label: 'Max power (mW)', step: 250 },
-  ],
-  pps: [
-    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 100 },
-    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 100 },
-    { key: 'maxCurrentMa', label: 'Max current (mA)', step: 50 },
-  ],
-  'spr-avs': [
-    { key: 'maxCurrent15vMa', label: 'Max at 15 V (mA)', step: 10 },
-    { key: 'maxCurrent20vMa', label: 'Max at 20 V (mA)', step: 10 },
-  ],
-  'epr-avs': [
-    { key: 'minVoltageMv', label: 'Min voltage (mV)', step: 100 },
-    { key: 'maxVoltageMv', label: 'Max voltage (mV)', step: 100 },
-    { key: 'pdpW', label: 'PDP (W)', step: 1 },
-  ],
-};
 
 function offersOfDevice(pdos: readonly string[]): OfferInput[] | null {
   const caps = resolveCaps({ pdos: [...pdos] });
   return caps.ok ? caps.pdos.map(offerInputOf) : null;
 }
 
-function fieldError(errors: FieldErrors<BenchFormValues>, index: number, key: NumberKey): string | undefined {
+function fieldError(errors: FieldErrors<BenchFormValues>, index: number, key: OfferNumberKey): string | undefined {
   const row = errors.offers?.[index] as Record<string, { message?: string } | undefined> | undefined;
   return row?.[key]?.message;
 }
@@ -96,7 +55,7 @@ export function OffersEditor() {
             <li
               key={field.id}
               className="flex flex-col gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
-              aria-label={`Offer ${index + 1}: ${KIND_LABELS[kind]}`}
+              aria-label={`Offer ${index + 1}: ${offerKindLabels[kind]}`}
             >
               <div className="flex items-end gap-2">
                 <span className="w-7 pb-2 font-mono text-xs text-slate-500" title="Object position">
@@ -106,7 +65,7 @@ export function OffersEditor() {
                   label="Kind"
                   className="w-36"
                   value={kind}
-                  options={Object.entries(KIND_LABELS).map(([value, label]) => ({ value, label }))}
+                  options={offerKindOptions}
                   onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))}
                 />
                 <span className="grow" />
@@ -127,7 +86,7 @@ export function OffersEditor() {
                 </Button>
               </div>
               <div className="grid grid-cols-3 gap-2 pl-9">
-                {FIELDS[kind].map(({ key, label, step }) => (
+                {offerFields[kind].map(({ name: key, label, step }) => (
                   <Input
                     key={key}
                     label={label}
@@ -151,9 +110,9 @@ export function OffersEditor() {
       )}
       <div className="flex flex-wrap items-center gap-2">
         <span className="text-xs text-slate-500 dark:text-slate-400">Add:</span>
-        {(Object.keys(KIND_LABELS) as OfferKind[]).map((kind) => (
+        {offerKinds.map((kind) => (
           <Button key={kind} variant="secondary" size="sm" disabled={fields.length >= 7} onClick={() => append(defaultOffer(kind))}>
-            + {KIND_LABELS[kind]}
+            + {offerKindLabels[kind]}
           </Button>
         ))}
       </div>

@@ -3,11 +3,15 @@ import { useFieldArray, useFormContext, useFormState } from 'react-hook-form';
 import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
-import { defaultPolicy, type BenchFormValues } from '../lib/form-model.ts';
+import { timersPd3 } from '../../../../shared/core/timers.ts';
+import { defaultPolicy } from '../../../lib/offers-form/policy-fields.ts';
+import type { BenchFormValues } from '../lib/form-model.ts';
 import { FaultsEditor } from './faults-editor.tsx';
 import { numberField, optionalNumberField } from './form-fields.ts';
 import { OffersEditor } from './offers-editor.tsx';
 import { PolicyFields } from './policy-fields.tsx';
+
+const sendSourceCapMs = { min: timersPd3.tTypeCSendSourceCap.minUs / 1_000, max: timersPd3.tTypeCSendSourceCap.maxUs / 1_000 };
 
 const REVISIONS = [
   { value: '3.0', label: 'Revision 3.x' },
@@ -73,8 +77,8 @@ export function ScenarioForm() {
             type="number"
             min={1}
             mono
-            placeholder="within tTypeCSendSourceCap"
-            hint="Empty: jitter within the specification’s range."
+            placeholder="Random"
+            hint={`Empty: a random interval within tTypeCSendSourceCap (${sendSourceCapMs.min}–${sendSourceCapMs.max} ms).`}
             error={errors.capsIntervalMs?.message}
             {...register('capsIntervalMs', optionalNumberField)}
           />

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { scenarioSchema } from '../../../../shared/sim/scenario.ts';
-import { benchFormResolverSchema, defaultPolicy, defaultScenario, formOfScenario, parseScenarioText, scenarioOfForm } from './form-model.ts';
+import { defaultPolicy } from '../../../lib/offers-form/policy-fields.ts';
+import { benchFormResolverSchema, defaultScenario, formOfScenario, parseScenarioText, scenarioOfForm } from './form-model.ts';
 
 function formOf(input: unknown) {
   const scenario = scenarioSchema.parse(input);

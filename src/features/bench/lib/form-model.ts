@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import { buildOffers, offerInputOf, offerListSchema, type OfferInput } from '../../../../shared/rules/offer-input.ts';
-import { sinkPolicySchema, type SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
+import { sinkPolicySchema } from '../../../../shared/rules/sink-policy.ts';
 import { resolveCaps } from '../../../../shared/sim/caps.ts';
 import { faultSchema, scenarioSchema, type Scenario, type ScenarioInput } from '../../../../shared/sim/scenario.ts';
 
@@ -30,22 +30,6 @@ export const benchFormSchema = z
   });
 
 export type BenchFormValues = z.infer<typeof benchFormSchema>;
-export type PolicyKind = SinkPolicy['kind'];
-
-/** Typical values of a policy kind, for the kind selector. */
-export function defaultPolicy(kind: PolicyKind): SinkPolicy {
-  switch (kind) {
-    case 'max-power':
-      return { kind };
-    case 'fixed':
-      return { kind, voltageMv: 9_000, currentMa: 3_000 };
-    case 'pps':
-      return { kind, voltageMv: 8_400, currentMa: 2_500 };
-    case 'range':
-      return { kind, minVoltageMv: 9_000, maxVoltageMv: 20_000, powerMw: 45_000 };
-  }
-}
-
 /** The Kestrel K65's offers (demo data): 5, 9, 15 V at 3 A, 20 V at 3.25 A, PPS 3.3–21 V at 3 A. */
 export const defaultScenario: ScenarioInput = {
   source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x00064145', '0xc1a4213c'] }, specRevision: '3.0' },

@@ -3,9 +3,10 @@ import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Hex, Mono } from '../../../components/mono.tsx';
 import { Select } from '../../../components/select.tsx';
+import { policyFields, policyKindHelp, policyKindOptions, type PolicyKind } from '../../../lib/offers-form/policy-fields.ts';
 import type { CableContract } from '../../../../shared/rules/analyse-offers.ts';
 
-export type PolicyDraft = { kind: 'max-power' | 'fixed' | 'pps' | 'range'; voltageMv: string; currentMa: string; minVoltageMv: string; maxVoltageMv: string; powerMw: string };
+export type PolicyDraft = { kind: PolicyKind; voltageMv: string; currentMa: string; minVoltageMv: string; maxVoltageMv: string; powerMw: string };
 
 export const initialPolicy: PolicyDraft = { kind: 'max-power', voltageMv: '9000', currentMa: '2000', minVoltageMv: '9000', maxVoltageMv: '20000', powerMw: '45000' };
 
@@ -23,13 +24,6 @@ export function policyOf(draft: PolicyDraft): Record<string, unknown> {
   }
 }
 
-const policyOptions = [
-  { value: 'max-power', label: 'Most power' },
-  { value: 'fixed', label: 'Fixed voltage and current' },
-  { value: 'pps', label: 'Programmable (PPS)' },
-  { value: 'range', label: 'Voltage range with power' },
-];
-
 export type ContractPanelProps = {
   draft: PolicyDraft;
   onDraft(draft: PolicyDraft): void;
@@ -39,55 +33,60 @@ export type ContractPanelProps = {
 
 /** A sink policy and the contract it takes over a 3 A and a 5 A cable, with the Request it sends. */
 export function ContractPanel({ draft, onDraft, contracts, error }: ContractPanelProps) {
-  const field = (name: keyof PolicyDraft, label: string) => (
-    <Input label={label} mono inputMode="numeric" className="w-36" value={draft[name]} onChange={(event) => onDraft({ ...draft, [name]: event.target.value })} />
-  );
   return (
     <Card aria-labelledby="contract-heading">
       <CardHeader title={<span id="contract-heading">Contract</span>} description="What a sink with this policy requests, and the contract it gets." />
       <CardBody className="space-y-4">
-        <div className="flex flex-wrap items-end gap-3">
-          <Select label="Sink policy" className="w-56" options={policyOptions} value={draft.kind} onChange={(event) => onDraft({ ...draft, kind: event.target.value as PolicyDraft['kind'] })} />
-          {(draft.kind === 'fixed' || draft.kind === 'pps') && (
-            <>
-              {field('voltageMv', 'Voltage (mV)')}
-              {field('currentMa', 'Current (mA)')}
-            </>
-          )}
-          {draft.kind === 'range' && (
-            <>
-              {field('minVoltageMv', 'Min voltage (mV)')}
-              {field('maxVoltageMv', 'Max voltage (mV)')}
-              {field('powerMw', 'Power (mW)')}
-            </>
-          )}
+        <div className="flex flex-wrap items-start gap-3">
+          <Select
+            label="Sink policy"
+            className="w-full"
+            options={policyKindOptions}
+            value={draft.kind}
+            hint={
+              <>
+                <Mono>{draft.kind}</Mono> · {policyKindHelp[draft.kind]}
+              </>
+            }
+            onChange={(event) => onDraft({ ...draft, kind: event.target.value as PolicyDraft['kind'] })}
+          />
+          {policyFields[draft.kind].map(({ name, label }) => (
+            <Input key={name} label={label} mono inputMode="numeric" className="w-36" value={draft[name]} onChange={(event) => onDraft({ ...draft, [name]: event.target.value })} />
+          ))}
         </div>
         {error && (
           <p role="alert" className="text-xs font-medium text-red-600 dark:text-red-400">
             {error}
           </p>
         )}
-        <div className="grid gap-3 md:grid-cols-2">
-          {contracts.map((c) => (
-            <div key={c.cableMa} className="space-y-2 rounded-md border border-slate-200 p-3 text-sm dark:border-slate-800" aria-label={`Over a ${c.cableMa / 1_000} A cable`}>
-              <p className="flex items-center gap-2 font-medium text-slate-900 dark:text-slate-100">
-                Over a {c.cableMa / 1_000} A cable
-                {c.capabilityMismatch && <Badge tone="warning">Capability Mismatch</Badge>}
-              </p>
-              <p>
-                <Mono>
-                  {c.contract.kind} {c.contract.voltageMv / 1_000} V · {c.contract.currentMa / 1_000} A · {c.contract.powerMw / 1_000} W
-                </Mono>{' '}
-                <span className="text-slate-500">from object {c.objectPosition}</span>
-              </p>
-              <p className="text-xs text-slate-600 dark:text-slate-400">
-                RDO <Hex value={c.rdo} groupBytes={4} />
-              </p>
-              <p className="text-xs text-slate-600 dark:text-slate-400">
-                Request <Hex value={c.hex} />
-              </p>
-            </div>
-          ))}
+        {/* One card per cable, side by side only where both fit with the RDO and Request unbroken. */}
+        <div className="@container">
+          <div className="grid gap-3 @2xl:grid-cols-2">
+            {contracts.map((c) => (
+              <div key={c.cableMa} className="space-y-2 rounded-md border border-slate-200 p-3 text-sm dark:border-slate-800" aria-label={`Over a ${c.cableMa / 1_000} A cable`}>
+                <p className="flex flex-wrap items-center justify-between gap-2 font-medium text-slate-900 dark:text-slate-100">
+                  Over a {c.cableMa / 1_000} A cable
+                  {c.capabilityMismatch && <Badge tone="warning">Capability Mismatch</Badge>}
+                </p>
+                <p className="flex flex-wrap items-baseline gap-x-2">
+                  <Mono className="whitespace-nowrap text-slate-900 dark:text-slate-100">
+                    {c.contract.kind} {c.contract.voltageMv / 1_000} V · {c.contract.currentMa / 1_000} A · {c.contract.powerMw / 1_000} W
+                  </Mono>
+                  <span className="text-xs text-slate-500 dark:text-slate-400">from object {c.objectPosition}</span>
+                </p>
+                <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-1 text-xs text-slate-600 dark:text-slate-400">
+                  <dt>RDO</dt>
+                  <dd className="whitespace-nowrap">
+                    <Hex value={c.rdo} groupBytes={4} />
+                  </dd>
+                  <dt>Request</dt>
+                  <dd className="whitespace-nowrap">
+                    <Hex value={c.hex} />
+                  </dd>
+                </dl>
+              </div>
+            ))}
+          </div>
         </div>
       </CardBody>
     </Card>

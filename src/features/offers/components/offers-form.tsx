@@ -6,12 +6,11 @@ import { Input } from '../../../components/input.tsx';
 import { RatingText } from '../../../components/mono.tsx';
 import { Select } from '../../../components/select.tsx';
 import { defaultOffer, type OfferKind } from '../../../../shared/rules/offer-input.ts';
-import { cableOptions, kindFields, kindLabels, type OffersFormValues } from '../lib/offers-form.ts';
+import { offerFields, offerKindOptions } from '../../../lib/offers-form/offer-fields.ts';
+import { cableOptions, type OffersFormValues } from '../lib/offers-form.ts';
 
 /** An example in the form adapters print it; U+2393 is the DC symbol. */
 const exampleRating = '5V\u23933A 9V\u23933A 15V\u23933A 20V\u23933.25A 65W max';
-
-const kindOptions = (Object.keys(kindLabels) as OfferKind[]).map((kind) => ({ value: kind, label: kindLabels[kind] }));
 
 /** The source's offers in object-position order: add, remove, reorder, change kind; and how to check them. */
 export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) {
@@ -37,11 +36,11 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
                 <Select
                   label="Kind"
                   className="w-32"
-                  options={kindOptions}
+                  options={offerKindOptions}
                   value={field.kind}
                   onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))}
                 />
-                {kindFields[field.kind].map((f) => (
+                {offerFields[field.kind].map((f) => (
                   <Input
                     key={f.name}
                     label={f.label}
@@ -70,7 +69,7 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
         </ol>
         {errors.offers?.root?.message && <p role="alert" className="text-xs font-medium text-red-600">{errors.offers.root.message}</p>}
         <div className="flex flex-wrap items-end gap-2">
-          <Select label="New offer" className="w-36" options={kindOptions} value={kindToAdd} onChange={(event) => setKindToAdd(event.target.value as OfferKind)} />
+          <Select label="New offer" className="w-36" options={offerKindOptions} value={kindToAdd} onChange={(event) => setKindToAdd(event.target.value as OfferKind)} />
           <Button variant="secondary" disabled={fields.length >= 13} onClick={() => append(defaultOffer(kindToAdd))}>
             Add offer
           </Button>

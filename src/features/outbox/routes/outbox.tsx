@@ -1,9 +1,10 @@
-import { useSearchParams } from 'react-router';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
+import { pageParam } from '../../../lib/list-params.ts';
+import { useListParams } from '../../../lib/use-list-params.ts';
 import { useOutbox, type OutboxItem } from '../api/get-outbox.ts';
 import { MailReader } from '../components/mail-reader.tsx';
 
@@ -31,26 +32,15 @@ const columns = col.columns([
 ]);
 
 export function OutboxRoute() {
-  const [params, setParams] = useSearchParams();
-  const page = Math.max(1, Number(params.get('page')) || 1);
-  const mailId = params.get('mail');
+  const { page, selectedId: mailId, update } = useListParams('mail');
   const outbox = useOutbox({ page, pageSize });
-
-  const update = (changes: Record<string, string | null>) => {
-    const next = new URLSearchParams(params);
-    for (const [key, value] of Object.entries(changes)) {
-      if (value === null) next.delete(key);
-      else next.set(key, value);
-    }
-    setParams(next);
-  };
 
   return (
     <>
       <PageHeader
         eyebrow="Admin"
         title="Outbox"
-        description="Every e-mail Parley has sent — invitations and password resets — exactly as it went out."
+        description="Every e-mail Parley has sent — invitations, password resets, notices of newly failing vectors and shared trace diagnoses — exactly as it went out."
       />
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         {outbox.isError ? (
@@ -68,9 +58,9 @@ export function OutboxRoute() {
               pageIndex: page - 1,
               pageSize,
               rowCount: outbox.data?.total ?? 0,
-              onPageChange: (pageIndex) => update({ page: pageIndex > 0 ? String(pageIndex + 1) : null }),
+              onPageChange: (pageIndex) => update({ page: pageParam(pageIndex) }),
             }}
-            empty={<EmptyState title="No mail sent yet" description="Invitations and password resets appear here." />}
+            empty={<EmptyState title="No mail sent yet" description="Invitations, password resets, failing-vector notices and shared diagnoses appear here." />}
           />
         )}
         <MailReader mailId={mailId} />

@@ -1,5 +1,4 @@
 import { Button } from '../../../components/button.tsx';
-import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { Input } from '../../../components/input.tsx';
 import { ProgressBar } from '../../../components/progress-bar.tsx';
 import type { PropertyProgress } from '../lib/property-worker.ts';
@@ -25,7 +24,7 @@ function progressText(progress: PropertyProgress | null): string {
   return runs;
 }
 
-export type RunPanelProps = {
+export type RunControlsProps = {
   settings: RunSettings;
   onSettings: (next: RunSettings) => void;
   running: boolean;
@@ -36,36 +35,49 @@ export type RunPanelProps = {
   disabledReason?: string;
 };
 
-export function RunPanel({ settings, onSettings, running, progress, onRun, onCancel, disabledReason }: RunPanelProps) {
+/**
+ * Runs, seed, Run and Cancel as items of the editor's tool row (a wrapping flex row), so they stay
+ * above the editor; the progress takes a line of its own under them.
+ */
+export function RunControls({ settings, onSettings, running, progress, onRun, onCancel, disabledReason }: RunControlsProps) {
   const read = readSettings(settings);
   const errors = read.ok ? {} : read.errors;
   const fraction = progress ? (progress.phase === 'shrinking' ? undefined : progress.runs / Math.max(1, progress.totalRuns)) : undefined;
   return (
-    <Card aria-labelledby="run-heading">
-      <CardHeader title={<span id="run-heading">Run</span>} description="fast-check runs the property with this many generated inputs from this seed; the same seed gives the same inputs everywhere." />
-      <CardBody className="space-y-4">
-        <div className="grid grid-cols-2 gap-3">
-          <Input label="Runs" mono inputMode="numeric" value={settings.runs} error={errors.runs} onChange={(e) => onSettings({ ...settings, runs: e.target.value })} disabled={running} />
-          <Input label="Seed" mono inputMode="numeric" value={settings.seed} error={errors.seed} onChange={(e) => onSettings({ ...settings, seed: e.target.value })} disabled={running} />
+    <>
+      <Input label="Runs" mono inputMode="numeric" className="w-28" value={settings.runs} error={errors.runs} onChange={(e) => onSettings({ ...settings, runs: e.target.value })} disabled={running} />
+      <Input
+        label="Seed"
+        mono
+        inputMode="numeric"
+        className="w-28"
+        title="The same seed gives the same generated inputs everywhere."
+        value={settings.seed}
+        error={errors.seed}
+        onChange={(e) => onSettings({ ...settings, seed: e.target.value })}
+        disabled={running}
+      />
+      {/* pt-5.5: the height of a field's label and gap, so the buttons line up with the inputs. */}
+      <div className="flex items-center gap-2 pt-5.5">
+        <Button onClick={onRun} loading={running} disabled={!read.ok || disabledReason !== undefined}>
+          {running ? 'Running…' : 'Run property'}
+        </Button>
+        <Button variant="secondary" onClick={onCancel} disabled={!running}>
+          Cancel
+        </Button>
+      </div>
+      <p className="basis-full text-xs text-slate-500 dark:text-slate-400">
+        {disabledReason && !running ? `${disabledReason} ` : ''}fast-check runs the property with this many generated inputs from this seed; the same seed gives the same inputs
+        everywhere.
+      </p>
+      {running && (
+        <div className="basis-full space-y-1.5" aria-live="polite">
+          <ProgressBar fraction={fraction} label="Property runs" />
+          <p className="font-mono text-xs text-slate-600 tabular dark:text-slate-400" data-testid="run-progress">
+            {progressText(progress)}
+          </p>
         </div>
-        <div className="flex items-center gap-2">
-          <Button onClick={onRun} loading={running} disabled={!read.ok || disabledReason !== undefined}>
-            {running ? 'Running…' : 'Run property'}
-          </Button>
-          <Button variant="secondary" onClick={onCancel} disabled={!running}>
-            Cancel
-          </Button>
-          {disabledReason && !running && <span className="text-xs text-slate-500">{disabledReason}</span>}
-        </div>
-        {running && (
-          <div className="space-y-1.5" aria-live="polite">
-            <ProgressBar fraction={fraction} label="Property runs" />
-            <p className="font-mono text-xs text-slate-600 tabular dark:text-slate-400" data-testid="run-progress">
-              {progressText(progress)}
-            </p>
-          </div>
-        )}
-      </CardBody>
-    </Card>
+      )}
+    </>
   );
 }

@@ -6,7 +6,7 @@ import { Select } from '../../../components/select.tsx';
 import { isCancelled } from '../../../lib/engine-worker.ts';
 import { CounterexamplePanel } from '../components/counterexample-panel.tsx';
 import { ResultPanel, type RunOutcome } from '../components/result-panel.tsx';
-import { readSettings, RunPanel, type RunSettings } from '../components/run-panel.tsx';
+import { readSettings, RunControls, type RunSettings } from '../components/run-panel.tsx';
 import { propertyVectorOf, SavePropertyPanel, vectorProblem, type PropertyMeta } from '../components/save-property-panel.tsx';
 import { useEngineTypes } from '../lib/engine-types.ts';
 import { blankExample, examples, type PropertyExample } from '../lib/examples.ts';
@@ -101,46 +101,47 @@ export function PropertiesRoute() {
         title="Properties"
         description="Write a property over the engine in TypeScript, let fast-check look for an input that breaks it, and keep the shrunk counterexample as a negotiation vector."
       />
-      <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,7fr)_minmax(0,5fr)]">
-        <Card aria-labelledby="code-heading">
-          <CardHeader
-            title={<span id="code-heading">Property code</span>}
-            description={
-              <>
-                <span className="font-mono">export default ({'{ fc, engine }'}: PropertyContext) =&gt; fc.property(…)</span>; completion knows fast-check and{' '}
-                <span className="font-mono">engine.codec</span>, <span className="font-mono">.rules</span>, <span className="font-mono">.sim</span>, <span className="font-mono">.trace</span>,{' '}
-                <span className="font-mono">.arbitraries</span>. Throw (or return false) to fail a run.
-              </>
-            }
-          />
-          <CardBody className="space-y-3">
-            <Select label="Example" value={exampleId} options={exampleOptions} onChange={(e) => load(e.target.value)} disabled={running} />
-            <CodeEditor
-              language="typescript"
-              label="Property code"
-              path="property.ts"
-              value={code}
-              onChange={setCode}
-              typeDeclarations={typeDeclarations}
-              onProblems={setProblems}
-              height="28rem"
+      {/* The editor takes the page's width (property code has long lines); results and saving go below. */}
+      <Card aria-labelledby="code-heading">
+        <CardHeader
+          title={<span id="code-heading">Property code</span>}
+          description={
+            <>
+              <span className="font-mono">export default ({'{ fc, engine }'}: PropertyContext) =&gt; fc.property(…)</span>; completion knows fast-check and{' '}
+              <span className="font-mono">engine.codec</span>, <span className="font-mono">.rules</span>, <span className="font-mono">.sim</span>, <span className="font-mono">.trace</span>,{' '}
+              <span className="font-mono">.arbitraries</span>. Throw (or return false) to fail a run.
+            </>
+          }
+        />
+        <CardBody className="space-y-3">
+          <div className="flex flex-wrap items-start gap-x-3 gap-y-2" role="group" aria-label="Run">
+            <Select label="Example" className="min-w-64 flex-1" value={exampleId} options={exampleOptions} onChange={(e) => load(e.target.value)} disabled={running} />
+            <RunControls
+              settings={settings}
+              onSettings={setSettings}
+              running={running}
+              progress={progress}
+              onRun={run}
+              onCancel={() => worker?.cancel()}
+              disabledReason={worker ? (code.trim() === '' ? 'Write a property first.' : undefined) : 'Starting the worker…'}
             />
-            <ProblemsLine problems={problems} typesReady={typeDeclarations !== undefined} />
-          </CardBody>
-        </Card>
-        <div className="space-y-6">
-          <RunPanel
-            settings={settings}
-            onSettings={setSettings}
-            running={running}
-            progress={progress}
-            onRun={run}
-            onCancel={() => worker?.cancel()}
-            disabledReason={worker ? (code.trim() === '' ? 'Write a property first.' : undefined) : 'Starting the worker…'}
+          </div>
+          <CodeEditor
+            language="typescript"
+            label="Property code"
+            path="property.ts"
+            value={code}
+            onChange={setCode}
+            typeDeclarations={typeDeclarations}
+            onProblems={setProblems}
+            height="28rem"
           />
-          <ResultPanel outcome={outcome} />
-          <SavePropertyPanel meta={meta} onMeta={setMeta} vector={propertyVector} />
-        </div>
+          <ProblemsLine problems={problems} typesReady={typeDeclarations !== undefined} />
+        </CardBody>
+      </Card>
+      <div className="mt-6 grid items-start gap-6 lg:grid-cols-2">
+        <ResultPanel outcome={outcome} />
+        <SavePropertyPanel meta={meta} onMeta={setMeta} vector={propertyVector} />
       </div>
       {checked?.counterexampleRun && counterexampleVector && (
         <div className="mt-6">

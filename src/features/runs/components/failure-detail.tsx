@@ -2,12 +2,11 @@ import { Link } from 'react-router';
 import { Badge } from '../../../components/badge.tsx';
 import { ButtonLink } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
+import { ExpectedActual, JsonBlock, ResultSummary } from '../../../components/expected-actual.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useVectorRevision } from '../api/get-vector-revision.ts';
 import type { RunResult } from '../api/types.ts';
 import { benchHref } from '../lib/bench-link.ts';
-
-const pre = 'max-h-96 overflow-auto rounded-md border border-slate-200 bg-slate-50 p-3 font-mono text-xs whitespace-pre text-slate-700 dark:border-slate-800 dark:bg-slate-950 dark:text-slate-300';
 
 /** One result in full: why it failed, expected against actual, and where to go next. */
 export function FailureDetail({ result }: { result: RunResult | null }) {
@@ -44,15 +43,10 @@ export function FailureDetail({ result }: { result: RunResult | null }) {
         }
       />
       <CardBody className="flex flex-col gap-3">
-        <p className="flex flex-wrap items-center gap-2">
-          <Badge tone={result.ok ? 'success' : 'error'} dot>
-            {result.ok ? 'Passed' : 'Failed'}
-          </Badge>
+        <ResultSummary ok={result.ok} durationMs={result.durationMs} message={result.message}>
           {result.newFailure && <Badge tone="warning">new since the previous run</Badge>}
           {result.revision !== null && <span className="font-mono text-xs text-slate-500">revision {result.revision}</span>}
-          <span className="font-mono text-xs text-slate-500">{result.durationMs.toFixed(1)} ms</span>
-        </p>
-        {result.message && <p className="font-mono text-xs whitespace-pre-wrap text-red-700 dark:text-red-300">{result.message}</p>}
+        </ResultSummary>
         {result.mismatches && result.mismatches.length > 1 && (
           <ul className="list-disc pl-5 font-mono text-xs text-slate-700 dark:text-slate-300">
             {result.mismatches.map((m, i) => (
@@ -61,22 +55,13 @@ export function FailureDetail({ result }: { result: RunResult | null }) {
           </ul>
         )}
         {!result.ok && (result.expected !== undefined || result.actual !== undefined) && (
-          <div className="grid gap-3 lg:grid-cols-2">
-            <section aria-label="Expected">
-              <h3 className="mb-1 text-xs font-semibold text-slate-700 dark:text-slate-300">Expected</h3>
-              <pre className={pre}>{JSON.stringify(result.expected ?? null, null, 2)}</pre>
-            </section>
-            <section aria-label="Actual">
-              <h3 className="mb-1 text-xs font-semibold text-slate-700 dark:text-slate-300">Actual</h3>
-              <pre className={pre}>{JSON.stringify(result.actual ?? null, null, 2)}</pre>
-            </section>
-          </div>
+          <ExpectedActual expected={result.expected} actual={result.actual} />
         )}
         {!result.ok && result.expected === undefined && result.actual === undefined && <p className="text-xs text-slate-500">CI reported this failure; the report carries the message only.</p>}
         {result.counterexampleVector !== undefined && (
           <section aria-label="Counterexample">
             <h3 className="mb-1 text-xs font-semibold text-slate-700 dark:text-slate-300">Counterexample as a negotiation vector</h3>
-            <pre className={pre}>{JSON.stringify(result.counterexampleVector, null, 2)}</pre>
+            <JsonBlock value={result.counterexampleVector} />
           </section>
         )}
       </CardBody>

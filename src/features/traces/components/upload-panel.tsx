@@ -1,4 +1,4 @@
-import { useEffect, useId, useRef, useState, type DragEvent } from 'react';
+import { useEffect, useId, useImperativeHandle, useRef, useState, type DragEvent, type Ref } from 'react';
 import { Link } from 'react-router';
 import { useQueryClient } from '@tanstack/react-query';
 import { Button } from '../../../components/button.tsx';
@@ -36,8 +36,11 @@ function describeError(error: unknown): { title: string; message: string } {
   return { title: 'The upload failed', message: 'Something went wrong. Try again.' };
 }
 
+/** What the page can ask of the panel: bring it into view with the file chooser focused. */
+export type UploadPanelHandle = { focus(): void };
+
 /** Drag-and-drop or choose a trace; upload progress (XHR) then analysis progress (SSE), then the summary. */
-export function UploadPanel() {
+export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
   const queryClient = useQueryClient();
   const devices = useDevices();
   const inputId = useId();
@@ -51,6 +54,14 @@ export function UploadPanel() {
   const [phase, setPhase] = useState<Phase>({ kind: 'idle' });
   const stopWatching = useRef<(() => void) | null>(null);
   useEffect(() => () => stopWatching.current?.(), []);
+  const panel = useRef<HTMLElement>(null);
+  useImperativeHandle(ref, () => ({
+    focus() {
+      panel.current?.scrollIntoView({ behavior: 'smooth', block: 'start' });
+      // The file input is visually hidden inside the drop zone, which shows its focus.
+      fileInput.current?.focus({ preventScroll: true });
+    },
+  }));
 
   const busy = phase.kind === 'uploading' || phase.kind === 'analysing';
 
@@ -110,7 +121,7 @@ export function UploadPanel() {
   const deviceOptions = [{ value: '', label: 'Not recorded' }, ...(devices.data?.items ?? []).map((d) => ({ value: String(d.id), label: d.name }))];
 
   return (
-    <Card aria-label="Upload a trace">
+    <Card aria-label="Upload a trace" ref={panel} className="scroll-mt-24">
       <CardHeader title="Upload a trace" description="JSON Lines, a plain-text console log or a VCD capture of the CC wire; up to 50 MB." />
       <CardBody className="space-y-4">
         <label
@@ -124,6 +135,7 @@ export function UploadPanel() {
           data-testid="trace-dropzone"
           className={cn(
             'flex cursor-pointer flex-col items-center justify-center gap-1 rounded-lg border-2 border-dashed px-4 py-6 text-center transition-colors',
+            'focus-within:outline-2 focus-within:outline-offset-2 focus-within:outline-amber-500',
             dragging ? 'border-amber-500 bg-amber-50 dark:bg-amber-400/10' : 'border-slate-300 hover:border-amber-400 dark:border-slate-700',
             busy && 'cursor-not-allowed opacity-60',
           )}

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router';
 import { Button } from '../../../components/button.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
@@ -7,11 +7,12 @@ import { PageHeader } from '../../../components/page-header.tsx';
 import { Select } from '../../../components/select.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useUser } from '../../../lib/auth.ts';
+import { pageOf, pageParam, withParams } from '../../../lib/list-params.ts';
 import { useDevices } from '../../devices/api/get-devices.ts';
 import { useTraces, type TraceListParams, type TraceSort } from '../api/get-traces.ts';
 import type { TraceItem } from '../api/types.ts';
 import { TracesTable } from '../components/traces-table.tsx';
-import { UploadPanel } from '../components/upload-panel.tsx';
+import { UploadPanel, type UploadPanelHandle } from '../components/upload-panel.tsx';
 import { mayWriteTraces } from '../lib/roles.ts';
 
 const pageSize = 20;
@@ -37,22 +38,17 @@ export function TracesRoute() {
     severity: (params.get('severity') ?? '') as TraceListParams['severity'],
     uploaderId: params.get('uploaderId') ?? '',
     sort: sortParam && sorts.includes(sortParam) ? sortParam : '-createdAt',
-    page: Math.max(1, Number(params.get('page')) || 1),
+    page: pageOf(params),
     pageSize,
   };
   const traces = useTraces(query);
   const [search, setSearch] = useState(query.q ?? '');
 
-  const update = (changes: Record<string, string | null>) => {
-    const next = new URLSearchParams(params);
-    for (const [key, value] of Object.entries(changes)) {
-      if (value === null || value === '') next.delete(key);
-      else next.set(key, value);
-    }
-    // A new filter starts on the first page.
-    if (!('page' in changes)) next.delete('page');
-    setParams(next);
-  };
+  const uploadPanel = useRef<UploadPanelHandle>(null);
+  const mayUpload = mayWriteTraces(user.role);
+
+  // A new filter starts on the first page.
+  const update = (changes: Record<string, string | null>) => setParams(withParams(params, 'page' in changes ? changes : { ...changes, page: null }));
 
   // Search as one types, a moment after the last key.
   useEffect(() => {
@@ -70,6 +66,12 @@ export function TracesRoute() {
         eyebrow="Analyse"
         title="Traces"
         description="Logs from the field and the lab, decoded and checked against the USB PD rules. Open one to see what happened on the wire and share the diagnosis."
+        actions={
+          mayUpload && (
+            // Below 2xl the panel sits under the list: this brings it up with the file chooser focused.
+            <Button onClick={() => uploadPanel.current?.focus()}>Upload a trace</Button>
+          )
+        }
       />
       <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_24rem]">
         <section aria-label="Stored traces" className="min-w-0 space-y-3">
@@ -118,13 +120,13 @@ export function TracesRoute() {
               sort={query.sort}
               filtered={filtered}
               onSortChange={(sort) => update({ sort: sort === '-createdAt' ? null : sort })}
-              onPageChange={(pageIndex) => update({ page: pageIndex > 0 ? String(pageIndex + 1) : null })}
+              onPageChange={(pageIndex) => update({ page: pageParam(pageIndex) })}
               onOpen={(item) => navigate(paths.traces.detail.getHref(item.id))}
             />
           )}
         </section>
-        {mayWriteTraces(user.role) ? (
-          <UploadPanel />
+        {mayUpload ? (
+          <UploadPanel ref={uploadPanel} />
         ) : (
           <p className="rounded-md border border-slate-200 px-4 py-3 text-xs text-slate-500 dark:border-slate-800">Your role can read traces; uploading needs the support, QA, engineer or admin role.</p>
         )}
