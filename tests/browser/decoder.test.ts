@@ -1,7 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { parseHex } from '../../shared/pd/index.ts';
 import { encodeWaveform } from '../../shared/wire/index.ts';
-import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -10,24 +10,11 @@ const hasChromium = requireChromium();
 const CAPS = 'a1 61 2c 91 01 08 2c d1 02 00 2c c1 03 00 2c b1 04 00 45 41 06 00 3c 21 dc c0';
 
 describe.skipIf(!hasChromium)('Decoder page', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
-
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
-  });
+  const suite = useBrowserSuite();
 
   it('decodes a pasted Source_Capabilities, and the shared link reproduces it', async () => {
-    const page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await signIn(page, server.url, 'support');
+    const { page, watch } = await suite.newPage();
+    await signIn(page, suite.url, 'support');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Decoder' }).click();
     await page.getByRole('heading', { level: 1, name: 'Decoder' }).waitFor();
     await page.getByLabel('Message', { exact: true }).fill(CAPS);
@@ -53,7 +40,7 @@ describe.skipIf(!hasChromium)('Decoder page', () => {
     // The input is in the URL: a new page with the same address shows the same decode.
     await page.waitForURL(/in=/);
     const shared = page.url();
-    const second = await browser.context.newPage();
+    const second = await suite.context.newPage();
     await second.goto(shared);
     await second.getByRole('table', { name: 'Data objects' }).getByRole('row').nth(6).waitFor();
     expect(await second.getByTestId('message-type').innerText()).toBe('Source_Capabilities');
@@ -64,12 +51,10 @@ describe.skipIf(!hasChromium)('Decoder page', () => {
   });
 
   it('shows a length error with its byte offset highlighted', async () => {
-    const page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await browser.context.clearCookies();
-    await signIn(page, server.url, 'engineer');
+    const { page, watch } = await suite.newPage();
+    await signIn(page, suite.url, 'engineer');
     // One byte more than the header's 6 objects (26 bytes) allow: the error points at byte 26.
-    await page.goto(`${server.url}/decoder?in=${encodeURIComponent(`${CAPS} 00`)}`);
+    await page.goto(`${suite.url}/decoder?in=${encodeURIComponent(`${CAPS} 00`)}`);
     const alert = page.getByRole('alert').filter({ hasText: 'decode.length' });
     await alert.waitFor();
     expect(await alert.innerText()).toContain('byte 26');
@@ -80,11 +65,9 @@ describe.skipIf(!hasChromium)('Decoder page', () => {
   });
 
   it('lists the messages of a dropped VCD capture and opens one', async () => {
-    const page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await browser.context.clearCookies();
-    await signIn(page, server.url, 'support');
-    await page.goto(`${server.url}/decoder`);
+    const { page, watch } = await suite.newPage();
+    await signIn(page, suite.url, 'support');
+    await page.goto(`${suite.url}/decoder`);
     const caps = parseHex(CAPS);
     const goodCrc = parseHex('4100'); // GoodCRC (0x01, no objects) from a sink UFP, rev 2.0: Table 6.1 by hand
     if (!caps.ok || !goodCrc.ok) throw new Error('hex');

@@ -1,16 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import {
-  launchBrowser,
-  requireChromium,
-  requireDist,
-  screenshot,
-  signIn,
-  startTestServer,
-  watchPage,
-  type TestBrowser,
-  type TestServer,
-} from './support.ts';
+import { launchBrowser, requireChromium, screenshot, signIn, useBrowserSuite, watchPage } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -32,26 +22,13 @@ async function monacoText(page: Page): Promise<string> {
 }
 
 describe.skipIf(!hasChromium)('the team library', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
-
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  }, 60_000);
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
-  });
+  const suite = useBrowserSuite();
 
   it('filters, edits in the form with the JSON following, saves, shows history and a diff, merges a stale edit, runs all', async () => {
-    const page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await signIn(page, server.url, 'qa');
+    const { page, watch } = await suite.newPage();
+    await signIn(page, suite.url, 'qa');
 
-    await page.goto(`${server.url}/library`);
+    await page.goto(`${suite.url}/library`);
     await page.getByRole('heading', { level: 1, name: 'Library' }).waitFor();
     const table = page.getByRole('table', { name: 'Vectors' });
     await table.getByRole('row').nth(1).waitFor();
@@ -90,9 +67,9 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await page.getByRole('tab', { name: 'Edit' }).click();
 
     // A second page opens revision 2; the first saves revision 3; the second's save is stale.
-    const second = await browser.context.newPage();
+    const second = await suite.context.newPage();
     const secondWatch = watchPage(second);
-    await second.goto(`${server.url}/library/${encodeURIComponent(vectorId)}`);
+    await second.goto(`${suite.url}/library/${encodeURIComponent(vectorId)}`);
     await second.getByRole('heading', { level: 1, name: vectorId }).waitFor();
     await page.getByLabel('Title').fill('First page wins');
     await page.getByRole('button', { name: 'Save revision 3' }).click();
@@ -111,7 +88,7 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await second.close();
 
     // Run all from the library; the progress bar fed by the event stream reaches the end.
-    await page.goto(`${server.url}/library`);
+    await page.goto(`${suite.url}/library`);
     await page.getByRole('button', { name: 'Run all' }).click();
     const bar = page.getByRole('progressbar', { name: 'Vectors run' });
     await bar.waitFor();
@@ -123,7 +100,7 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await screenshot(page, 'runs-detail');
     await page.emulateMedia({ colorScheme: 'dark' });
     await screenshot(page, 'runs-detail-dark');
-    await page.goto(`${server.url}/library`);
+    await page.goto(`${suite.url}/library`);
     await page.getByRole('table', { name: 'Vectors' }).getByRole('row').nth(1).waitFor();
     await screenshot(page, 'library-dark');
     watch.assertClean();
@@ -133,8 +110,8 @@ describe.skipIf(!hasChromium)('the team library', () => {
     const adminBrowser = await launchBrowser();
     const page = await adminBrowser.context.newPage();
     const watch = watchPage(page);
-    await signIn(page, server.url, 'admin');
-    await page.goto(`${server.url}/admin/tokens`);
+    await signIn(page, suite.url, 'admin');
+    await page.goto(`${suite.url}/admin/tokens`);
     await page.getByLabel('Project').fill('k65-firmware');
     await page.getByLabel('Name').fill('Firmware CI');
     await page.getByRole('button', { name: 'Create token' }).click();
@@ -149,7 +126,7 @@ describe.skipIf(!hasChromium)('the team library', () => {
       return res.status;
     }, token);
     expect(posted).toBe(201);
-    await page.goto(`${server.url}/runs`);
+    await page.goto(`${suite.url}/runs`);
     await page.getByRole('table', { name: 'Runs' }).getByText('fw-2.0.1').waitFor();
     await screenshot(page, 'runs-list');
     watch.assertClean();

@@ -3,33 +3,20 @@
  * its 9 V offer and see caps.power-rules-missing (a 65 W source must offer 9 V: USB PD R3.1 V1.8
  * §10.2.3, Table 10-2, from memory), then follow the finding's link to the rule's page.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
 
 const hasChromium = requireChromium();
 
 describe.skipIf(!hasChromium)('the Offers page', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
 
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await page?.close();
-    await browser?.close();
-    await server?.close();
-  });
-
   it('checks the 65 W demo adapter, flags a missing 9 V and links to the rule page', async () => {
-    page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await signIn(page, server.url, 'engineer');
+    const { page: opened, watch } = await suite.newPage();
+    page = opened;
+    await signIn(page, suite.url, 'engineer');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Offers' }).click();
     await page.getByRole('heading', { level: 1, name: 'Offers' }).waitFor();
 

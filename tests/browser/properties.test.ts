@@ -7,28 +7,15 @@
  * violation.
  */
 import { readFile } from 'node:fs/promises';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
 
 const hasChromium = requireChromium();
 
 describe.skipIf(!hasChromium)('the Properties page', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
-
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await page?.close();
-    await browser?.close();
-    await server?.close();
-  });
 
   const pick = async (title: RegExp) => {
     const picker = page.getByLabel('Example', { exact: true });
@@ -46,11 +33,11 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
   const runButton = () => page.getByRole('button', { name: /Run property|Running/ });
 
   it('runs a shipped property, finds and shrinks the planted bug, saves it, cancels a long run', async () => {
-    page = await browser.context.newPage();
-    const watch = watchPage(page);
+    const { page: opened, watch } = await suite.newPage();
+    page = opened;
     const workers: string[] = [];
     page.on('worker', (worker) => workers.push(worker.url()));
-    await signIn(page, server.url, 'qa');
+    await signIn(page, suite.url, 'qa');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Properties' }).click();
     await page.getByRole('heading', { level: 1, name: 'Properties' }).waitFor();
 

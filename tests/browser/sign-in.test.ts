@@ -1,51 +1,19 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { roles } from '../../src/lib/roles.ts';
-import {
-  demoAccounts,
-  demoPassword,
-  launchBrowser,
-  requireChromium,
-  requireDist,
-  screenshot,
-  signIn,
-  signInAs,
-  startTestServer,
-  watchPage,
-  type PageWatch,
-  type TestBrowser,
-  type TestServer,
-} from './support.ts';
+import { demoAccounts, demoPassword, requireChromium, screenshot, signIn, signInAs, useBrowserSuite, type PageWatch } from './support.ts';
 
 const hasChromium = requireChromium();
 
 const adminNav = ['Users', 'Outbox', 'Audit log'];
 
 describe.skipIf(!hasChromium)('signing in through the browser', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
   let watch: PageWatch;
 
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
-  });
-
-  afterEach(async () => {
-    await page?.close();
-    await browser.context.clearCookies();
-  });
-
   async function openPage(): Promise<Page> {
-    page = await browser.context.newPage();
-    watch = watchPage(page);
+    ({ page, watch } = await suite.newPage());
     return page;
   }
 
@@ -56,7 +24,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
   for (const role of roles) {
     it(`signs in as the demo ${role} and sees only the nav that role allows`, async () => {
       const current = await openPage();
-      await signIn(current, server.url, role);
+      await signIn(current, suite.url, role);
 
       expect(new URL(current.url()).pathname).toBe('/');
       await current.getByRole('button', { name: new RegExp(`^Account: .*, ${role === 'qa' ? 'QA' : role}`, 'i') }).waitFor();
@@ -72,7 +40,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
 
       // A role without admin rights gets a friendly refusal, not the page.
       if (role !== 'admin') {
-        await current.goto(`${server.url}/admin/users`);
+        await current.goto(`${suite.url}/admin/users`);
         await current.getByRole('heading', { name: 'Not available to your role' }).waitFor();
       }
       watch.assertClean();
@@ -81,7 +49,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
 
   it('shows an inline error for a wrong password and stays on the sign-in page', async () => {
     const current = await openPage();
-    await current.goto(`${server.url}/sign-in`);
+    await current.goto(`${suite.url}/sign-in`);
     await current.getByLabel('E-mail').fill(demoAccounts.engineer);
     await current.getByLabel('Password', { exact: true }).fill('not-the-password');
     await current.getByRole('button', { name: 'Sign in' }).click();
@@ -101,7 +69,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
 
   it('sends a signed-out visitor to sign-in and back to the page asked for', async () => {
     const current = await openPage();
-    await current.goto(`${server.url}/admin/audit`);
+    await current.goto(`${suite.url}/admin/audit`);
     await current.getByRole('heading', { name: 'Sign in' }).waitFor();
     expect(new URL(current.url()).searchParams.get('next')).toBe('/admin/audit');
     await current.getByLabel('E-mail').fill(demoAccounts.admin);
@@ -113,7 +81,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
 
   it('keeps the chosen colour scheme across reloads', async () => {
     const current = await openPage();
-    await signIn(current, server.url, 'engineer');
+    await signIn(current, suite.url, 'engineer');
     await current.getByRole('button', { name: 'Dark colour scheme' }).click();
     expect(await current.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
     await current.reload();
@@ -129,7 +97,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
     const current = await openPage();
     const email = `rowan.${Date.now()}@kestrel.example`;
     const password = 'kestrel-tested-42';
-    await signIn(current, server.url, 'admin');
+    await signIn(current, suite.url, 'admin');
 
     await current.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
     await current.getByRole('heading', { level: 1, name: 'Users' }).waitFor();
@@ -159,7 +127,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
     await current.getByRole('button', { name: /^Account:/ }).click();
     await current.getByRole('menuitem', { name: 'Sign out' }).click();
     await current.getByRole('heading', { name: 'Sign in' }).waitFor();
-    await current.goto(`${server.url}${href}`);
+    await current.goto(`${suite.url}${href}`);
     await current.getByRole('heading', { name: 'Join Parley' }).waitFor();
     expect(await current.getByTestId('invite-email').innerText()).toBe(email);
     await current.getByLabel('Password', { exact: true }).fill(password);
@@ -173,7 +141,7 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
     await current.getByRole('button', { name: /^Account:/ }).click();
     await current.getByRole('menuitem', { name: 'Sign out' }).click();
     await current.getByRole('heading', { name: 'Sign in' }).waitFor();
-    await signInAs(current, server.url, email, password);
+    await signInAs(current, suite.url, email, password);
     await current.getByRole('button', { name: /^Account: Rowan Test, QA/ }).waitFor();
     watch.assertClean();
   });

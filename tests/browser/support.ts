@@ -10,6 +10,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll } from 'vitest';
 import type { Role } from '../../src/lib/roles.ts';
 
 export const chromiumPath = '/usr/bin/chromium';
@@ -91,6 +92,79 @@ export async function startTestServer(): Promise<TestServer> {
     async close() {
       await server.close();
       await rm(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+export type BrowserSuite = {
+  /** The server's base URL, e.g. http://127.0.0.1:41234. */
+  readonly url: string;
+  readonly server: TestServer;
+  readonly browser: TestBrowser;
+  /** The browser's one context (a fresh profile): open extra pages here, clear cookies, … */
+  readonly context: BrowserContext;
+  /** A new page with watchPage() attached, at `width`×`height` when given; closed after the test. */
+  newPage(viewport?: { width: number; height: number }): Promise<{ page: Page; watch: PageWatch }>;
+};
+
+export type BrowserSuiteOptions = {
+  colorScheme?: 'light' | 'dark';
+  /** For the server and browser to start; default 60 s (a cold tsx start on a busy machine). */
+  startTimeoutMs?: number;
+};
+
+/**
+ * The set-up every browser suite shares, for use inside `describe`: before all tests the real
+ * server (demo data) and chromium start; after each test the pages from `newPage()` close and the
+ * cookies are cleared (each test signs in as its own role); after all, browser and server stop.
+ */
+export function useBrowserSuite(options: BrowserSuiteOptions = {}): BrowserSuite {
+  let server: TestServer | undefined;
+  let browser: TestBrowser | undefined;
+  const pages: Page[] = [];
+  const started = <T>(value: T | undefined): T => {
+    if (value === undefined) throw new Error('the browser suite has not started: call useBrowserSuite() inside describe() and use it inside tests');
+    return value;
+  };
+  const closePages = async () => {
+    for (const page of pages.splice(0)) await page.close().catch(() => undefined);
+  };
+
+  beforeAll(async () => {
+    requireDist();
+    server = await startTestServer();
+    browser = await launchBrowser({ colorScheme: options.colorScheme });
+  }, options.startTimeoutMs ?? 60_000);
+
+  afterEach(async () => {
+    await closePages();
+    await browser?.context.clearCookies();
+  });
+
+  afterAll(async () => {
+    await closePages();
+    await browser?.close();
+    await server?.close();
+  });
+
+  return {
+    get url() {
+      return started(server).url;
+    },
+    get server() {
+      return started(server);
+    },
+    get browser() {
+      return started(browser);
+    },
+    get context() {
+      return started(browser).context;
+    },
+    async newPage(viewport) {
+      const page = await started(browser).context.newPage();
+      pages.push(page);
+      if (viewport) await page.setViewportSize(viewport);
+      return { page, watch: watchPage(page) };
     },
   };
 }

@@ -35,6 +35,26 @@ async function recordProgressBars(page: Page): Promise<void> {
   });
 }
 
+/** Main-thread tasks over 50 ms (the browser's long-task threshold) from now on, in this document. */
+async function installLongTaskObserver(page: Page): Promise<void> {
+  await page.evaluate(() => {
+    const seen: number[] = [];
+    (window as unknown as { __longTasks: number[] }).__longTasks = seen;
+    new PerformanceObserver((list) => {
+      for (const entry of list.getEntries()) seen.push(Math.round(entry.duration));
+    }).observe({ type: 'longtask' });
+  });
+}
+
+/** The entries so far, once delivered (they are handed over after the task, when the page is idle). */
+async function longTasks(page: Page): Promise<number[]> {
+  return page.evaluate(async () => {
+    await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
+    await new Promise((resolve) => requestIdleCallback(resolve, { timeout: 1_000 }));
+    return (window as unknown as { __longTasks: number[] }).__longTasks.slice();
+  });
+}
+
 describe.skipIf(!hasChromium)('the Traces pages', () => {
   let server: TestServer;
   let browser: TestBrowser;
@@ -86,10 +106,13 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     expect(seen).toContain('Upload');
     await screenshot(page, 'traces-uploaded');
 
+    // Opening the trace draws the shared timeline; no main-thread task may pass 50 ms while it does,
+    // nor while a finding zooms it (below).
+    await installLongTaskObserver(page);
     await panel.getByRole('link', { name: 'Open the trace' }).click();
     await page.getByRole('heading', { level: 1, name: 'customer-console.log' }).waitFor();
     expect(await page.getByTestId('trace-summary').textContent()).toMatch(/^Contract 20 V 3.25 A/);
-    await page.getByTestId('vbus-chart').waitFor();
+    await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
     await page.getByTestId('message-lanes').waitFor();
     expect(await page.getByTestId('message-lanes').locator('[data-message-type="Source_Capabilities"]').count()).toBe(1);
     await screenshot(page, 'trace-page');
@@ -101,6 +124,9 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await findings.getByRole('button', { name: /Show timing.sender-response at/ }).click();
     await expect.poll(() => timeline.getAttribute('data-window')).not.toBe(whole);
     expect(await page.getByTestId('finding-pins').getByRole('button', { name: /timing.sender-response/ }).count()).toBe(1);
+    await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
+    const tasks = await longTasks(page);
+    expect(tasks.filter((duration) => duration > 50), `long tasks: ${tasks.join(', ')} ms`).toEqual([]);
     await screenshot(page, 'trace-finding-focused');
 
     // The rule's explanation page, and back.

@@ -7,23 +7,11 @@
  */
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { navEntries, navFor } from '../../src/app/nav.ts';
 import { roles, type Role } from '../../src/lib/roles.ts';
-import {
-  launchBrowser,
-  requireChromium,
-  requireDist,
-  screenshot,
-  screenshotDir,
-  signIn,
-  startTestServer,
-  watchPage,
-  type PageWatch,
-  type TestBrowser,
-  type TestServer,
-} from './support.ts';
+import { requireChromium, screenshot, screenshotDir, signIn, useBrowserSuite, type PageWatch } from './support.ts';
 
 const hasChromium = requireChromium();
 const shotFolder = 'walkthrough';
@@ -78,37 +66,21 @@ async function photograph(page: Page, name: string): Promise<void> {
 }
 
 describe.skipIf(!hasChromium)('walking through every page as every role', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
   let watch: PageWatch;
 
   beforeAll(async () => {
-    requireDist();
     mkdirSync(join(screenshotDir, shotFolder), { recursive: true });
-    server = await startTestServer();
-    browser = await launchBrowser();
     // A first visit warms the server and the sign-in chunk, so the first role is not judged on a cold start.
-    const warm = await browser.context.newPage();
-    await warm.goto(`${server.url}/sign-in`);
+    const warm = await suite.context.newPage();
+    await warm.goto(`${suite.url}/sign-in`);
     await warm.getByLabel('E-mail').waitFor({ timeout: 60_000 });
     await warm.close();
   }, 120_000);
 
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
-  });
-
-  afterEach(async () => {
-    await page?.close();
-    await browser.context.clearCookies();
-  });
-
   async function openPage(width = 1280, height = 800): Promise<Page> {
-    page = await browser.context.newPage();
-    await page.setViewportSize({ width, height });
-    watch = watchPage(page);
+    ({ page, watch } = await suite.newPage({ width, height }));
     return page;
   }
 
@@ -117,7 +89,7 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
   for (const role of roles) {
     it(`${role}: every page in the nav opens cleanly, the others say they are not available`, async () => {
       const current = await openPage();
-      await signIn(current, server.url, role);
+      await signIn(current, suite.url, role);
       const entries = navFor(role);
       expect(await mainNav(current).getByRole('link').allInnerTexts()).toEqual(entries.map((entry) => entry.label));
 
@@ -141,7 +113,7 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
       const refused = [...navEntries, ...guardedExtras].filter((entry) => !entry.roles.includes(role));
       if (role === 'admin') expect(refused).toEqual([]);
       for (const entry of refused) {
-        await current.goto(`${server.url}${entry.to}`);
+        await current.goto(`${suite.url}${entry.to}`);
         await current.getByRole('heading', { level: 1, name: 'Not available to your role' }).waitFor();
         // The shell stays around the refusal, so the way on is right there.
         await mainNav(current).getByRole('link', { name: 'Home', exact: true }).waitFor();
@@ -153,14 +125,14 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
 
   it('admin: the detail pages open cleanly too', async () => {
     const current = await openPage();
-    await signIn(current, server.url, 'admin');
+    await signIn(current, suite.url, 'admin');
     const details: { name: string; to: string }[] = [];
-    await current.goto(`${server.url}/rules`);
+    await current.goto(`${suite.url}/rules`);
     await expectPage(current, 'Rules');
     const ruleHref = await current.locator('main a[href^="/rules/"]').first().getAttribute('href');
     if (ruleHref) details.push({ name: 'rule-detail', to: ruleHref });
     const firstId = async (api: string): Promise<string | undefined> => {
-      const response = await current.request.get(`${server.url}${api}`);
+      const response = await current.request.get(`${suite.url}${api}`);
       expect(response.status()).toBe(200);
       const body = (await response.json()) as { items: { id: string | number }[] };
       return body.items[0] === undefined ? undefined : String(body.items[0].id);
@@ -175,18 +147,18 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
     expect(details.map((detail) => detail.name)).toEqual(expect.arrayContaining(['rule-detail', 'trace-detail', 'vector-detail']));
 
     for (const detail of details) {
-      await current.goto(`${server.url}${detail.to}`);
+      await current.goto(`${suite.url}${detail.to}`);
       await expectPage(current, /./);
       await photograph(current, detail.name);
     }
-    await current.goto(`${server.url}/no-such-page`);
+    await current.goto(`${suite.url}/no-such-page`);
     await current.getByRole('heading', { level: 1, name: 'Page not found' }).waitFor();
     watch.assertClean();
   }, 180_000);
 
   it('fits the whole nav at 1024 px wide', async () => {
     const current = await openPage(1024, 768);
-    await signIn(current, server.url, 'admin');
+    await signIn(current, suite.url, 'admin');
     const links = mainNav(current).getByRole('link');
     expect(await links.count()).toBe(navFor('admin').length);
     for (const link of await links.all()) {
@@ -206,7 +178,7 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
 
   it('opens the nav as a menu in a narrow window, by keyboard', async () => {
     const current = await openPage(480, 800);
-    await signIn(current, server.url, 'admin');
+    await signIn(current, suite.url, 'admin');
     const menu = current.getByRole('button', { name: 'Menu' });
     expect(await mainNav(current).isVisible()).toBe(false);
     await menu.focus();

@@ -127,8 +127,8 @@ export const OverviewBrush = memo(function OverviewBrush({ points, endUs, window
         <svg viewBox={`0 0 ${VIEW_WIDTH} ${VIEW_HEIGHT}`} preserveAspectRatio="none" className="absolute inset-0 h-full w-full" aria-hidden="true">
           <path d={path} fill="none" stroke={dark ? '#94a3b8' : '#475569'} strokeWidth={1} vectorEffect="non-scaling-stroke" />
         </svg>
-        <div aria-hidden="true" className="absolute inset-y-0 left-0 bg-slate-500/15 dark:bg-slate-950/60" style={{ width: `${left.toFixed(3)}%` }} />
-        <div aria-hidden="true" className="absolute inset-y-0 right-0 bg-slate-500/15 dark:bg-slate-950/60" style={{ width: `${(100 - right).toFixed(3)}%` }} />
+        <div aria-hidden="true" className="absolute inset-y-0 left-0 bg-slate-500/15 dark:bg-slate-950/40" style={{ width: `${left.toFixed(3)}%` }} />
+        <div aria-hidden="true" className="absolute inset-y-0 right-0 bg-slate-500/15 dark:bg-slate-950/40" style={{ width: `${(100 - right).toFixed(3)}%` }} />
         <div
           className={cn('absolute inset-y-0 cursor-grab touch-none border-y-2 border-amber-500/70 active:cursor-grabbing', dark ? 'bg-amber-400/10' : 'bg-amber-300/15')}
           style={{ left: `${left.toFixed(3)}%`, width: `${Math.max(0, right - left).toFixed(3)}%` }}

@@ -52,9 +52,28 @@ function merge(vbusV: SeriesPoint[], ibusA: SeriesPoint[], sinkV: SeriesPoint[] 
 }
 
 
-/** Points per series: about one per two px of plot width (LTTB keeps the shape), in steps of 50. */
+/**
+ * 1 once `ready`, then one more in each following task up to `stages` (as transitions, so React
+ * may slice each part's render). Never goes back: later updates draw every part at once.
+ */
+function useMountStages(ready: boolean, stages: number): number {
+  const [stage, setStage] = useState(0);
+  const shown = ready ? Math.max(1, stage) : stage;
+  useEffect(() => {
+    if (!ready || shown >= stages) return;
+    const timer = setTimeout(() => startTransition(() => setStage(shown + 1)), 0);
+    return () => clearTimeout(timer);
+  }, [ready, shown, stages]);
+  return shown;
+}
+
+/**
+ * Points per series: about one per three px of plot width, in steps of 50 (LTTB keeps the peaks,
+ * and a VBUS trace is mostly flat steps). recharts copies and freezes every row into its store on
+ * each draw, so rows cost time in proportion.
+ */
 function pointBudget(plotWidthPx: number): number {
-  return Math.min(600, Math.max(150, Math.round(plotWidthPx / 100) * 50));
+  return Math.min(400, Math.max(100, Math.round(plotWidthPx / 150) * 50));
 }
 
 type TickProps = { x?: number | string; y?: number | string; textAnchor?: 'start' | 'middle' | 'end' | 'inherit'; fill?: string; payload?: { value: number | string } };
@@ -141,13 +160,11 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   const [box, widthPx] = useElementWidth<HTMLDivElement>();
   const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
   const measured = plotWidthPx > 0;
-  // The tooltip (nothing to see until a pointer hovers) joins in a task after the first draw.
-  const [interactive, setInteractive] = useState(false);
-  useEffect(() => {
-    if (!measured || interactive) return;
-    const timer = setTimeout(() => startTransition(() => setInteractive(true)), 0);
-    return () => clearTimeout(timer);
-  }, [measured, interactive]);
+  // The chart mounts in three tasks (each of recharts' parts registers in its store, and every
+  // registration re-runs its selectors): the VBUS line on its axes with the grid and pins, then the
+  // sink's VBUS and IBUS with its axis, then the tooltip (nothing to see until a pointer hovers).
+  // Our own fixed domains mean a later part adds to the picture without moving the first.
+  const stage = useMountStages(measured, 3);
   const budget = pointBudget(plotWidthPx);
   const data = useMemo(() => {
     if (!measured) return [];
@@ -156,6 +173,7 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   }, [measurements, window, sinkMeasurements, budget, measured]);
   const overview = useMemo(() => thin(measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })), 300), [measurements]);
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
+  const withCurrent = hasCurrent && stage >= 2;
   const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
   const visiblePins = useMemo(() => pins.filter((p) => p.tUs >= window.startUs && p.tUs <= window.endUs).slice(0, 120), [pins, window]);
   const axes = useMemo(() => {
@@ -215,21 +233,22 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
           </span>
         )}
       </div>
-      <div ref={box} className="h-56 w-full" data-testid="vbus-chart">
+      {/* data-drawn: every part is on (tests wait for it before judging main-thread tasks). */}
+      <div ref={box} className="h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={stage >= 3 || undefined}>
         {measured && (
-          <LineChart width={widthPx} height={CHART_HEIGHT_PX} data={data} margin={hasCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
+          <LineChart width={widthPx} height={CHART_HEIGHT_PX} data={data} margin={withCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
             <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
             <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
-            {hasCurrent && (
+            {withCurrent && (
               <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} niceTicks="none" allowDataOverflow tick={ampTick} />
             )}
             <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={visiblePins} />
-            {interactive && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
+            {stage >= 3 && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
             <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.6} isAnimationActive={false} connectNulls />
-            {sinkMeasurements && (
+            {sinkMeasurements && stage >= 2 && (
               <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
             )}
-            {hasCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
+            {withCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
           </LineChart>
         )}
       </div>

@@ -25,14 +25,14 @@ export function AuditDetails({ event }: { event: AuditEvent | null }) {
           <dt className="text-slate-500">By</dt>
           <dd className="break-words text-slate-800 dark:text-slate-200">{event.actor ? `${event.actor.name} · ${event.actor.email}` : 'Parley (no signed-in user)'}</dd>
           <dt className="text-slate-500">Target</dt>
-          <dd className="font-mono break-all text-slate-800 dark:text-slate-200">{event.target ?? '—'}</dd>
+          <dd className="font-mono break-words text-slate-800 dark:text-slate-200">{event.target ?? '—'}</dd>
         </dl>
         <div>
           <h3 className="mb-1 text-xs font-medium text-slate-500 dark:text-slate-400">Details</h3>
           {hasDetails ? (
             <pre
               data-testid="audit-event-details"
-              className="max-h-80 overflow-auto rounded-md border border-slate-200 bg-slate-50 px-3 py-2 font-mono text-xs leading-relaxed whitespace-pre-wrap break-all text-slate-800 dark:border-slate-800 dark:bg-slate-950 dark:text-slate-200"
+              className="max-h-80 overflow-auto rounded-md border border-slate-200 bg-slate-50 px-3 py-2 font-mono text-xs leading-relaxed whitespace-pre-wrap break-words text-slate-800 dark:border-slate-800 dark:bg-slate-950 dark:text-slate-200"
             >
               {JSON.stringify(event.details, null, 2)}
             </pre>

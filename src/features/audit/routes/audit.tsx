@@ -52,7 +52,7 @@ const columns = col.columns([
     header: 'Target',
     enableSorting: false,
     meta: { mono: true },
-    cell: ({ getValue }) => <span className="break-all">{getValue() ?? '—'}</span>,
+    cell: ({ getValue }) => <span className="break-words">{getValue() ?? '—'}</span>,
   }),
 ]);
 

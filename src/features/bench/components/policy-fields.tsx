@@ -20,7 +20,6 @@ export function PolicyFields({ name, label }: { name: PolicyPath; label: string 
     <div className="flex flex-col gap-2">
       <Select
         label={label}
-        className="max-w-64"
         value={kind}
         options={policyKindOptions}
         hint={

@@ -17,9 +17,10 @@ const columns = col.columns([
     header: 'Mail',
     enableSorting: false,
     cell: ({ row }) => (
+      // Wrapped, not truncated: a nowrap cell would push the Sent column out of the table.
       <div className="min-w-0">
-        <p className="truncate font-medium text-slate-900 dark:text-slate-100">{row.original.subject}</p>
-        <p className="truncate font-mono text-xs text-slate-500 dark:text-slate-400">{row.original.to}</p>
+        <p className="line-clamp-2 font-medium break-words text-slate-900 dark:text-slate-100">{row.original.subject}</p>
+        <p className="font-mono text-xs break-words text-slate-500 dark:text-slate-400">{row.original.to}</p>
       </div>
     ),
   }),
