@@ -1,17 +1,6 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import {
-  launchBrowser,
-  requireChromium,
-  requireDist,
-  screenshot,
-  signIn,
-  startTestServer,
-  watchPage,
-  type PageWatch,
-  type TestBrowser,
-  type TestServer,
-} from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite, watchPage, type PageWatch } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -45,31 +34,13 @@ async function timelineDrawn(page: Page): Promise<void> {
 }
 
 describe.skipIf(!hasChromium)('the Bench page', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
   let watch: PageWatch;
 
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
-  });
-
-  afterEach(async () => {
-    await page?.close();
-    await browser.context.clearCookies();
-  });
-
   async function openBench(): Promise<Page> {
-    page = await browser.context.newPage();
-    watch = watchPage(page);
-    await signIn(page, server.url, 'engineer');
+    ({ page, watch } = await suite.newPage());
+    await signIn(page, suite.url, 'engineer');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Bench' }).click();
     await page.getByRole('heading', { level: 1, name: 'Bench' }).waitFor();
     return page;
@@ -155,7 +126,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     });
     const reference = listed.items.find((item) => item.title === 'K65 with Wren 14 on bench 2');
     expect(reference, `demo traces: ${listed.items.map((item) => item.title).join(', ')}`).toBeDefined();
-    await current.goto(`${server.url}/bench?fromTrace=${encodeURIComponent(String(reference!.id))}`);
+    await current.goto(`${suite.url}/bench?fromTrace=${encodeURIComponent(String(reference!.id))}`);
     await current.getByText(/^Opened trace .* as a scenario/).waitFor({ timeout: 20_000 });
     // The capture's last Source_Capabilities are the K65's five offers; the laptop asked for 20 V.
     await expect.poll(() => current.getByRole('list', { name: 'Offers in object-position order' }).getByRole('listitem').count()).toBe(5);
@@ -195,7 +166,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     const link = await current.getByLabel('Share link').inputValue();
     expect(link).toMatch(/\/bench#scenario=[A-Za-z0-9_-]+$/);
 
-    const other = await browser.context.newPage();
+    const other = await suite.context.newPage();
     const otherWatch = watchPage(other);
     await other.goto(link);
     await other.getByRole('heading', { level: 1, name: 'Bench' }).waitFor();

@@ -7,10 +7,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
-import { launchBrowser, requireChromium, requireDist, screenshot, signIn, startTestServer, watchPage, type TestBrowser, type TestServer } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -56,26 +56,13 @@ async function longTasks(page: Page): Promise<number[]> {
 }
 
 describe.skipIf(!hasChromium)('the Traces pages', () => {
-  let server: TestServer;
-  let browser: TestBrowser;
+  const suite = useBrowserSuite();
   let page: Page;
 
-  beforeAll(async () => {
-    requireDist();
-    server = await startTestServer();
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await page?.close();
-    await browser?.close();
-    await server?.close();
-  });
-
   it('lets support upload a log, read the diagnosis, open a rule and share it; the admin sees the mail', async () => {
-    page = await browser.context.newPage();
-    const watch = watchPage(page);
-    await signIn(page, server.url, 'support');
+    const { page: opened, watch } = await suite.newPage();
+    page = opened;
+    await signIn(page, suite.url, 'support');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Traces' }).click();
     await page.getByRole('heading', { level: 1, name: 'Traces' }).waitFor();
     const table = page.getByRole('table', { name: 'Traces' });
@@ -156,7 +143,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await page.emulateMedia({ media: 'screen' });
 
     // A file that is no trace, dropped on the panel.
-    await page.goto(`${server.url}/traces`);
+    await page.goto(`${suite.url}/traces`);
     const dropzone = page.getByTestId('trace-dropzone');
     const dataTransfer = await page.evaluateHandle(() => {
       const transfer = new DataTransfer();
@@ -173,9 +160,9 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     watch.assertClean({ allow: [/status of 400/] });
 
     // The admin reads the mail in the Outbox.
-    await page.request.post(`${server.url}/api/auth/logout`);
-    await signIn(page, server.url, 'admin');
-    await page.goto(`${server.url}/admin/outbox`);
+    await page.request.post(`${suite.url}/api/auth/logout`);
+    await signIn(page, suite.url, 'admin');
+    await page.goto(`${suite.url}/admin/outbox`);
     await expect.poll(() => page.getByText('Parley diagnosis: customer-console.log').count()).toBeGreaterThan(0);
     await page.getByText('Parley diagnosis: customer-console.log').first().click();
     await page.getByRole('tab', { name: 'Plain text' }).click();
@@ -183,4 +170,25 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     expect(await page.getByRole('tabpanel').textContent()).toContain('Request comes 38 ms after the offer');
     await screenshot(page, 'traces-outbox');
   }, 120_000);
+
+  it('brings the upload panel into view from the page header, with the file chooser focused', async () => {
+    const { page: current, watch } = await suite.newPage({ width: 1280, height: 800 });
+    await signIn(current, suite.url, 'support');
+    await current.goto(`${suite.url}/traces`);
+    await current.getByRole('heading', { level: 1, name: 'Traces' }).waitFor();
+    // Below 1536 px the panel sits under the list, out of sight at first.
+    const panel = current.getByRole('region', { name: 'Upload a trace' });
+    expect(await panel.evaluate((element) => element.getBoundingClientRect().top)).toBeGreaterThan(800);
+    await current.getByRole('button', { name: 'Upload a trace' }).click();
+    await expect.poll(() => current.getByTestId('trace-file-input').evaluate((input) => input === document.activeElement)).toBe(true);
+    await expect.poll(() => panel.evaluate((element) => element.getBoundingClientRect().top)).toBeLessThan(400);
+
+    // A role that may not upload gets no button.
+    await current.request.post(`${suite.url}/api/auth/logout`);
+    await signIn(current, suite.url, 'viewer');
+    await current.goto(`${suite.url}/traces`);
+    await current.getByRole('heading', { level: 1, name: 'Traces' }).waitFor();
+    expect(await current.getByRole('button', { name: 'Upload a trace' }).count()).toBe(0);
+    watch.assertClean();
+  });
 });

@@ -147,7 +147,7 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins }: PlotMarksPr
  *
  * Kept cheap to draw (issue: no main-thread task over 50 ms): a fixed width from a debounced
  * ResizeObserver instead of a re-measuring container, our own ticks and domains (recharts measures
- * no label), about one point per two px, no animation, and memoised so a parent's unrelated state
+ * no label), about one point per three px, no animation, and memoised so a parent's unrelated state
  * (a selected message, a checkbox) does not redraw it.
  */
 export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
