@@ -13,7 +13,6 @@ import { cn } from '../../../lib/cn.ts';
 import { useIsDark } from '../../../lib/theme.ts';
 import { useTrace } from '../api/get-trace.ts';
 import { BenchTimeline } from '../components/bench-timeline.tsx';
-import { ChartWarmup } from '../components/chart-warmup.tsx';
 import { ExportPanel } from '../components/export-panel.tsx';
 import { MessagePanel } from '../components/message-panel.tsx';
 import { ContractSummary, FindingsTable } from '../components/run-summary.tsx';
@@ -97,8 +96,6 @@ export function BenchRoute() {
   const [selected, setSelected] = useState<{ index: number; message: RunMessage } | null>(null);
   const timelineRef = useRef<HTMLDivElement>(null);
   const dark = useIsDark();
-  const [chartWarm, setChartWarm] = useState(false);
-  const onWarm = useCallback(() => setChartWarm(true), []);
   const simulation = useSimulation();
   const { state, lastRun } = simulation;
 
@@ -211,14 +208,13 @@ export function BenchRoute() {
   const findingsCount = useMemo(() => shown?.findings.length ?? 0, [shown]);
 
   return (
-    <div data-chart-warm={chartWarm || undefined}>
+    <div>
       <PageHeader
         eyebrow="Simulate"
         title="Bench"
         description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation."
       />
       <SafetyNote />
-      {!shown && !chartWarm && <ChartWarmup dark={dark} onDone={onWarm} />}
       {notice && (
         <p role="status" className="mb-4 flex items-start justify-between gap-3 rounded-md bg-sky-50 px-4 py-2 text-sm text-sky-900 dark:bg-sky-500/10 dark:text-sky-100">
           <span>{notice}</span>
