@@ -149,6 +149,10 @@ describe('analysis', () => {
       'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s after the sink stopped re-requesting its programmable contract; 1 error.',
     );
   });
+  it('names the earliest error in the summary when no Hard Reset explains it', () => {
+    const result = analyzeTrace(readFileSync(join(FIXTURES, 'vbus-out-of-range.trace.jsonl'), 'utf8'));
+    expect(result.ok && result.analysis.summary).toBe("Contract 9 V 2 A at 0.361 s; 1 error, the first: VBUS outside the contract's tolerance at 0.5 s.");
+  });
   it('builds a timeline with wire durations and acknowledgements', () => {
     const { timeline } = analyzeRecords(negotiation().records);
     const [caps, goodCrc] = timeline.messages;

@@ -8,7 +8,7 @@
 import type { Contract } from '../core/contract.ts';
 import type { Finding, Severity } from '../core/finding.ts';
 import type { Sop } from '../pd/types.ts';
-import { isRuleId, makeFinding, type RuleId } from '../rules/index.ts';
+import { isRuleId, makeFinding, ruleCatalog, type RuleId } from '../rules/index.ts';
 import { crc32 } from '../wire/index.ts';
 import { createDecodeCache } from './decode-cache.ts';
 import type { TraceFormat } from './detect-format.ts';
@@ -279,6 +279,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
         hardResets,
         summary: summarize({
           records, messages, measurements, contracts, contractCount, sourceCapabilities, hardResets, hardResetCount, counts, goodCrcSeen: protocol.goodCrcSeen(),
+          firstError: firstErrorOf(store.list()),
         }),
         timeline: timeline.timeline,
       };
@@ -287,6 +288,15 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       return analysis;
     },
   };
+}
+
+/** The earliest error finding, by the catalog's title, for the summary sentence. */
+function firstErrorOf(findings: readonly Finding[]): { title: string; t?: number } | undefined {
+  let first: Finding | undefined;
+  for (const f of findings) if (f.severity === 'error' && (first === undefined || (f.t ?? Infinity) < (first.t ?? Infinity))) first = f;
+  if (!first) return undefined;
+  const title = isRuleId(first.rule) ? ruleCatalog[first.rule].title : first.rule;
+  return first.t === undefined ? { title } : { title, t: first.t };
 }
 
 /** Analyses records already in memory (vectors, the simulator's output, tests). */

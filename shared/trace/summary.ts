@@ -17,7 +17,11 @@ export interface SummaryInput {
   hardResetCount: number;
   counts: Record<Severity, number>;
   goodCrcSeen: boolean;
+  /** The earliest error, named in the sentence when no Hard Reset cause already explains the trace. */
+  firstError?: { title: string; t?: number };
 }
+
+const lowerFirst = (text: string): string => (/^[A-Z][a-z]/.test(text) ? text[0]!.toLowerCase() + text.slice(1) : text);
 
 const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
@@ -41,7 +45,10 @@ export function summarize(s: SummaryInput): string {
     if (s.hardResetCount > 1) parts.push(`${plural(s.hardResetCount, 'Hard Reset')} in all`);
   }
   const { error, warning } = s.counts;
-  parts.push(error + warning === 0 ? 'no errors or warnings' : [error > 0 ? plural(error, 'error') : '', warning > 0 ? plural(warning, 'warning') : ''].filter(Boolean).join(' and '));
+  const tally = error + warning === 0 ? 'no errors or warnings' : [error > 0 ? plural(error, 'error') : '', warning > 0 ? plural(warning, 'warning') : ''].filter(Boolean).join(' and ');
+  const explained = reset?.cause !== undefined;
+  const named = s.firstError && !explained ? `, the first: ${lowerFirst(s.firstError.title)}${s.firstError.t !== undefined ? ` at ${seconds(s.firstError.t)}` : ''}` : '';
+  parts.push(tally + named);
   if (s.messages > 0 && !s.goodCrcSeen) parts.push('the trace holds no GoodCRC, so acknowledgements were not checked');
   return `${parts.join('; ')}.`;
 }
