@@ -16,6 +16,7 @@ import { systemClock } from './context.ts';
 import { closeAnalysisPool } from './analysis/pool.ts';
 import { closeRunPool } from './runner/pool.ts';
 import { verifyApiToken } from './features/tokens/verify.ts';
+import { resumeUnfinishedTraces } from './features/traces/resume.ts';
 
 export interface StartOptions {
   /** 0 = a random free port. Default PORT or 3000. */
@@ -37,6 +38,8 @@ export interface RunningServer {
   close(): Promise<void>;
   orm: Orm;
   mailbox: Mailbox;
+  /** Settles once the traces left unfinished by the last run have been analysed again. */
+  resumed: Promise<void>;
 }
 
 const repoRoot = resolve(fileURLToPath(new URL('..', import.meta.url)));
@@ -85,6 +88,20 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
 
+  // Traces left queued or analysing by the last run resume now, in the background.
+  const resumed = resumeUnfinishedTraces({
+    orm,
+    clock: systemClock,
+    dataDir,
+    onError: (traceId, message) => logger.warn(`trace ${traceId}: ${message}`),
+  }).then(
+    ({ ids, done }) => {
+      if (ids.length > 0) logger.info(`resuming the analysis of ${ids.length} unfinished trace(s)`);
+      return done;
+    },
+    (cause: unknown) => logger.error(`unfinished traces could not be resumed: ${cause instanceof Error ? cause.message : String(cause)}`),
+  );
+
   let closing: Promise<void> | undefined;
   const close = () => {
     closing ??= (async () => {
@@ -101,5 +118,5 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     })();
     return closing;
   };
-  return { url, close, orm, mailbox: createMailbox(orm) };
+  return { url, close, orm, mailbox: createMailbox(orm), resumed: resumed.then(() => undefined) };
 }

@@ -33,7 +33,10 @@ export async function resumeUnfinishedTraces({ orm, clock, dataDir, pool, onErro
         const message = 'The analysis failed: the stored file is missing.';
         onError?.(row.id, message);
         return em.nativeUpdate(Trace, { id: row.id }, { status: 'failed', errorCode: 'trace.file-missing', errorMessage: message, analysedAt: clock.now() })
-          .then((): AnalysisOutcome => ({ ok: false, code: 'trace.file-missing', message, removed: false }));
+          .then(
+            (): AnalysisOutcome => ({ ok: false, code: 'trace.file-missing', message, removed: false }),
+            (cause: unknown): AnalysisOutcome => ({ ok: false, code: 'analysis.failed', message: cause instanceof Error ? cause.message : String(cause), removed: false }),
+          );
       }
       return analyseTrace({ fork: () => orm.em.fork(), clock, store, trace, ...(pool ? { pool } : {}) }).then((outcome) => {
         if (!outcome.ok) onError?.(row.id, outcome.message);

@@ -1,33 +1,12 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
+import type { Run, RunResult } from '../../../lib/run-types.ts';
 import type { VectorFilter } from './types.ts';
 
-export type RunSummary = {
-  id: number;
-  project: string;
-  build: string | null;
-  source: 'ui' | 'ci';
-  status: 'running' | 'done' | 'failed';
-  selection: string;
-  total: number;
-  done: number;
-  passed: number;
-  failed: number;
-  newFailures: number;
-  createdAt: string;
-  finishedAt: string | null;
-};
+/** What the Library needs of a run; the full shape is in src/lib/run-types.ts. */
+export type RunSummary = Omit<Run, 'startedBy' | 'error'>;
 
-export type RunResultRow = {
-  id: number;
-  vectorId: string;
-  ok: boolean;
-  message: string | null;
-  durationMs: number;
-  expected?: unknown;
-  actual?: unknown;
-  mismatches?: { path: string; message: string }[];
-};
+export type RunResultRow = Pick<RunResult, 'id' | 'vectorId' | 'ok' | 'message' | 'durationMs' | 'expected' | 'actual' | 'mismatches'>;
 
 export type StartRunInput = { ids: string[] } | { filter: VectorFilter } | { all: true };
 
