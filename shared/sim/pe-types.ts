@@ -26,7 +26,11 @@ export type SinkMode = 'off' | 'default' | 'standby' | 'operating';
 
 export type PeEffect =
   | { kind: 'send'; type: MessageType; objects: readonly number[] }
-  | { kind: 'start-timer'; name: TimerName }
+  /**
+   * `afterGoodCrc`: the timer starts when this port's GoodCRC for the message just received has
+   * been sent (its end on the wire), not when the message itself ended.
+   */
+  | { kind: 'start-timer'; name: TimerName; afterGoodCrc?: true }
   | { kind: 'stop-timer'; name: TimerName }
   | { kind: 'hard-reset' }
   | { kind: 'protocol-reset' }

@@ -103,6 +103,8 @@ class Run {
   snk: SinkPe;
   readonly running: Record<Side, Partial<Record<TimerName, { gen: number; span: TimerSpan }>>> = { source: {}, sink: {} };
   timerGen = 0;
+  /** When each port's last GoodCRC ends on the wire (µs). */
+  readonly goodCrcEndUs: Record<Side, number> = { source: 0, sink: 0 };
 
   // The wire and the power path.
   lineFreeUs = 0;
@@ -274,7 +276,8 @@ class Run {
         // tTransmit: the GoodCRC starts within 195 µs of the message's end (§6.6 Time Values); the
         // line is held for it, so no other message of this port can slip in first.
         const startUs = Math.max(nowUs + this.random.between(TRANSMIT.minUs, TRANSMIT.maxUs), this.lineFreeUs);
-        this.lineFreeUs = startUs + packetDurationUs(0) + INTER_FRAME_GAP_US;
+        this.goodCrcEndUs[side] = startUs + packetDurationUs(0);
+        this.lineFreeUs = this.goodCrcEndUs[side] + INTER_FRAME_GAP_US;
         this.schedule(startUs, { kind: 'tx', frame: { from: side, type: 'GoodCRC', objects: [], messageId: effect.messageId, attempt: 0 } });
         return;
       }
@@ -321,7 +324,7 @@ class Run {
         this.runProtocol(side, { kind: 'send', type: effect.type, objects: effect.objects });
         return;
       case 'start-timer':
-        this.startTimer(side, effect.name);
+        this.startTimer(side, effect.name, effect.afterGoodCrc ? Math.max(this.clock.nowUs, this.goodCrcEndUs[side]) : this.clock.nowUs);
         return;
       case 'stop-timer':
         this.stopTimer(side, effect.name);

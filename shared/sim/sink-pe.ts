@@ -141,7 +141,9 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
         return [{ ...pe, state: 'PE_SNK_Send_Soft_Reset' }, effects];
       }
       if (event.kind === 'message' && event.type === 'Accept') {
-        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'start-timer', name: 'tPSTransition' });
+        // §8.3.3.3.6: PSTransitionTimer starts on entry to PE_SNK_Transition_Sink, once the Accept has
+        // been received and the protocol layer has sent its GoodCRC for it (from memory).
+        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'start-timer', name: 'tPSTransition', afterGoodCrc: true });
         // §7.2.3: Sink Standby (pSnkStdby) during the transition, except between programmable levels.
         if (!(pe.contract?.kind === 'pps' && pe.requested?.contract.kind === 'pps')) effects.push({ kind: 'sink-mode', mode: 'standby' });
         return [{ ...pe, state: 'PE_SNK_Transition_Sink' }, effects];

@@ -1,31 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { requireChromium, screenshot, signIn, useBrowserSuite, watchPage, type PageWatch } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite, watchLongTasks, watchPage, type PageWatch } from './support.ts';
 
 const hasChromium = requireChromium();
-
-/** Long tasks (over 50 ms, the browser's own threshold) seen on the main thread since install. */
-async function installLongTaskObserver(page: Page): Promise<void> {
-  await page.evaluate(() => {
-    const seen: number[] = [];
-    (window as unknown as { __longTasks: number[] }).__longTasks = seen;
-    new PerformanceObserver((list) => {
-      for (const entry of list.getEntries()) seen.push(Math.round(entry.duration));
-    }).observe({ type: 'longtask' });
-  });
-}
-
-/**
- * The observer's entries, once the browser has delivered them: they are queued after the task
- * ends and handed over when the page is idle, so wait two frames and an idle callback first.
- */
-async function longTasks(page: Page): Promise<number[]> {
-  return page.evaluate(async () => {
-    await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
-    await new Promise((resolve) => requestIdleCallback(resolve, { timeout: 1_000 }));
-    return (window as unknown as { __longTasks: number[] }).__longTasks.slice();
-  });
-}
 
 /** Waits until the timeline's last part and every part of the chart are on the page. */
 async function timelineDrawn(page: Page): Promise<void> {
@@ -101,7 +78,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
 
     // Watched from the click on Run (no warm-up draw waited for) until the timeline has drawn every
     // part, and on through a zoom that redraws the chart and the lanes.
-    await installLongTaskObserver(current);
+    const longTasks = await watchLongTasks(current);
     await runAndWait(current);
     await timelineDrawn(current);
 
@@ -112,8 +89,8 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     await expect.poll(() => requests.count()).toBeGreaterThanOrEqual(2);
     expect(await current.getByTestId('timer-lane-sink').locator('[data-expired]').count()).toBeGreaterThan(0);
     await timelineDrawn(current);
-    const tasks = await longTasks(current);
-    expect(tasks.filter((duration) => duration > 50), `long tasks: ${tasks.join(', ')} ms`).toEqual([]);
+    const overBudget = await longTasks.over(50);
+    expect(overBudget, `long tasks: ${overBudget.join(', ')} ms`).toEqual([]);
     await screenshot(current, 'bench-dropped-goodcrc');
     watch.assertClean();
   });

@@ -50,6 +50,9 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await page.getByLabel('Findings that must appear').fill('caps.power-rules-missing, caps.pdp-inferred');
     await expect.poll(() => monacoText(page)).toContain('"include": ["caps.power-rules-missing", "caps.pdp-inferred"]');
     await page.getByLabel('Findings that must appear').fill('caps.power-rules-missing');
+    // The input's font has no DC symbol (U+2393): the placeholder goes without it, the hint below draws it.
+    expect(await page.getByLabel('Printed rating label').getAttribute('placeholder')).not.toContain('\u2393');
+    await page.getByText(/^(For example|As printed:)/).filter({ has: page.locator('svg') }).first().waitFor();
     await page.getByLabel('Revision message').fill('Clearer title');
     await screenshot(page, 'library-vector-edit');
     await page.getByRole('button', { name: 'Save revision 2' }).click();

@@ -253,6 +253,54 @@ export function watchPage(page: Page): PageWatch {
   return watch;
 }
 
+export type LongTaskWatch = {
+  /** Forgets the tasks seen so far (and observes again if the page loaded a new document). */
+  reset(): Promise<void>;
+  /** Every long task's duration (ms) since the watch began or was reset, once delivered. */
+  tasks(): Promise<number[]>;
+  /** The longest of them (0 when there was none). */
+  longest(): Promise<number>;
+  /** Those longer than `ms`. */
+  over(ms: number): Promise<number[]>;
+};
+
+/**
+ * Main-thread long tasks (over 50 ms, the browser's own threshold) in the page's document from
+ * now on, through a PerformanceObserver of `longtask` entries.
+ */
+export async function watchLongTasks(page: Page): Promise<LongTaskWatch> {
+  const reset = () =>
+    page.evaluate(() => {
+      const holder = window as unknown as { __parleyLongTasks?: number[] };
+      if (holder.__parleyLongTasks) {
+        holder.__parleyLongTasks.length = 0;
+        return;
+      }
+      const seen: number[] = [];
+      holder.__parleyLongTasks = seen;
+      new PerformanceObserver((list) => {
+        for (const entry of list.getEntries()) seen.push(Math.round(entry.duration));
+      }).observe({ type: 'longtask' });
+    });
+  // Entries are queued after the task ends and handed over when the page is idle: wait two frames
+  // and an idle callback before reading them.
+  const tasks = () =>
+    page.evaluate(async () => {
+      await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
+      await new Promise((resolve) => requestIdleCallback(resolve, { timeout: 1_000 }));
+      const seen = (window as unknown as { __parleyLongTasks?: number[] }).__parleyLongTasks;
+      if (!seen) throw new Error('watchLongTasks: the page loaded a new document since the watch began; call reset() after navigating');
+      return seen.slice();
+    });
+  await reset();
+  return {
+    reset,
+    tasks,
+    longest: async () => Math.max(0, ...(await tasks())),
+    over: async (ms) => (await tasks()).filter((duration) => duration > ms),
+  };
+}
+
 /** Saves a full-page screenshot to tmp/screenshots/<name>.png (git-ignored) for a human look. */
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(screenshotDir, { recursive: true });

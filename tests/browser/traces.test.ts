@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
-import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
+import { requireChromium, screenshot, signIn, useBrowserSuite, watchLongTasks } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -32,26 +32,6 @@ async function recordProgressBars(page: Page): Promise<void> {
         if (!seen.includes(label)) seen.push(label);
       }
     }).observe(document.body, { childList: true, subtree: true });
-  });
-}
-
-/** Main-thread tasks over 50 ms (the browser's long-task threshold) from now on, in this document. */
-async function installLongTaskObserver(page: Page): Promise<void> {
-  await page.evaluate(() => {
-    const seen: number[] = [];
-    (window as unknown as { __longTasks: number[] }).__longTasks = seen;
-    new PerformanceObserver((list) => {
-      for (const entry of list.getEntries()) seen.push(Math.round(entry.duration));
-    }).observe({ type: 'longtask' });
-  });
-}
-
-/** The entries so far, once delivered (they are handed over after the task, when the page is idle). */
-async function longTasks(page: Page): Promise<number[]> {
-  return page.evaluate(async () => {
-    await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
-    await new Promise((resolve) => requestIdleCallback(resolve, { timeout: 1_000 }));
-    return (window as unknown as { __longTasks: number[] }).__longTasks.slice();
   });
 }
 
@@ -95,7 +75,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
 
     // Opening the trace draws the shared timeline; no main-thread task may pass 50 ms while it does,
     // nor while a finding zooms it (below).
-    await installLongTaskObserver(page);
+    const longTasks = await watchLongTasks(page);
     await panel.getByRole('link', { name: 'Open the trace' }).click();
     await page.getByRole('heading', { level: 1, name: 'customer-console.log' }).waitFor();
     expect(await page.getByTestId('trace-summary').textContent()).toMatch(/^Contract 20 V 3.25 A/);
@@ -112,8 +92,8 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await expect.poll(() => timeline.getAttribute('data-window')).not.toBe(whole);
     expect(await page.getByTestId('finding-pins').getByRole('button', { name: /timing.sender-response/ }).count()).toBe(1);
     await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
-    const tasks = await longTasks(page);
-    expect(tasks.filter((duration) => duration > 50), `long tasks: ${tasks.join(', ')} ms`).toEqual([]);
+    const overBudget = await longTasks.over(50);
+    expect(overBudget, `long tasks: ${overBudget.join(', ')} ms`).toEqual([]);
     await screenshot(page, 'trace-finding-focused');
 
     // The rule's explanation page, and back.

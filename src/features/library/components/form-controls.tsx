@@ -3,7 +3,7 @@
  * its own draft and reports a value when the draft reads; when the vector changes elsewhere
  * (the JSON editor), the draft follows unless it already means the same.
  */
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Input } from '../../../components/input.tsx';
 import { Textarea } from '../../../components/textarea.tsx';
 import { listFromText, numberOrUndefined, textFromList } from '../lib/vector-model.ts';
@@ -18,7 +18,7 @@ function useDraft(canonical: string, same: (draft: string, canonical: string) =>
   return [draft, setDraft] as const;
 }
 
-type Common = { label: string; hint?: string; className?: string; disabled?: boolean };
+type Common = { label: string; hint?: ReactNode; className?: string; disabled?: boolean };
 
 export function TextInput({ label, hint, className, disabled, value, onChange, mono, placeholder }: Common & { value: unknown; onChange: (next: string | undefined) => void; mono?: boolean; placeholder?: string }) {
   return (

@@ -1,7 +1,9 @@
 /** The fields of each vector kind (../shared/contract/vector.md's table). */
 import { useMemo, useState } from 'react';
 import { CodeEditor } from '../../../components/code-editor.tsx';
+import { Mono, RatingText } from '../../../components/mono.tsx';
 import { Select } from '../../../components/select.tsx';
+import { defaultPolicy, policyFields, policyKindHelp, policyKindOptions, type PolicyKind } from '../../../lib/offers-form/policy-fields.ts';
 import { scenarioJsonSchema, traceJsonSchema } from '../../../../shared/vectors/schema.ts';
 import { getIn, type Path, type VectorObject } from '../lib/vector-model.ts';
 import { Checkbox, JsonArea, ListInput, NumberInput, TextInput } from './form-controls.tsx';
@@ -9,6 +11,10 @@ import { Checkbox, JsonArea, ListInput, NumberInput, TextInput } from './form-co
 export type FieldsProps = { v: VectorObject; set: (path: Path, value: unknown) => void; disabled?: boolean };
 
 const sopOptions = [{ value: '', label: 'SOP (default)' }, ...["SOP'", "SOP''", "SOP'_Debug", "SOP''_Debug"].map((s) => ({ value: s, label: s }))];
+// The DC symbol (U+2393) as on a printed label; the page font has no glyph for it, so RatingText draws it.
+const exampleRating = '5V\u23933A 9V\u23933A 15V\u23933A 45W max';
+const ratingText = 'font-mono text-slate-700 dark:text-slate-300';
+
 const cableOptions = [
   { value: '', label: 'Not given' },
   { value: '3000', label: '3 A cable' },
@@ -88,7 +94,7 @@ function CapsFields(props: FieldsProps) {
         <CapsSource {...props} hexKey="hex" />
         <NumberInput label="Declared PDP (W)" disabled={disabled} value={getIn(v, ['input', 'pdpW'])} onChange={(x) => set(['input', 'pdpW'], x)} />
         <CableSelect {...props} />
-        <TextInput label="Printed rating label" className="sm:col-span-2" disabled={disabled} value={getIn(v, ['input', 'label'])} onChange={(x) => set(['input', 'label'], x)} placeholder="As printed on the adapter, e.g. 45W" />
+        <PrintedLabel {...props} />
       </Section>
       <Section title="Expected">
         <FindingsFields {...props} />
@@ -98,32 +104,56 @@ function CapsFields(props: FieldsProps) {
   );
 }
 
-const policyKinds = [
-  { value: 'max-power', label: 'Most power' },
-  { value: 'fixed', label: 'Fixed voltage and current' },
-  { value: 'pps', label: 'Programmable (PPS)' },
-  { value: 'range', label: 'Voltage range with power' },
-];
+/** An input draws the text in the page font, which has no DC symbol: the hint shows it rendered. */
+function PrintedLabel({ v, set, disabled }: FieldsProps) {
+  const value = getIn(v, ['input', 'label']);
+  const rating = typeof value === 'string' ? value : '';
+  return (
+    <TextInput
+      label="Printed rating label"
+      className="sm:col-span-2"
+      disabled={disabled}
+      value={value}
+      onChange={(x) => set(['input', 'label'], x)}
+      placeholder="As printed on the adapter"
+      hint={
+        rating.trim() === '' ? (
+          <>
+            For example <RatingText value={exampleRating} className={ratingText} />
+          </>
+        ) : (
+          <>
+            As printed: <RatingText value={rating} className={ratingText} />
+          </>
+        )
+      }
+    />
+  );
+}
 
+const isPolicyKind = (kind: unknown): kind is PolicyKind => policyKindOptions.some((option) => option.value === kind);
+
+/** The sink policy as on the Bench and Offers pages: the kind with a line of help, then its numbers. */
 function SinkPolicyFields({ v, set, disabled, path }: FieldsProps & { path: Path }) {
-  const kind = String(getIn(v, [...path, 'kind']) ?? 'max-power');
-  const num = (key: string, label: string) => <NumberInput label={label} disabled={disabled} value={getIn(v, [...path, key])} onChange={(x) => set([...path, key], x)} />;
+  const stored = getIn(v, [...path, 'kind']);
+  const kind: PolicyKind = isPolicyKind(stored) ? stored : 'max-power';
   return (
     <>
-      <Select label="Sink policy" disabled={disabled} options={policyKinds} value={kind} onChange={(e) => set(path, { kind: e.target.value })} />
-      {(kind === 'fixed' || kind === 'pps') && (
-        <>
-          {num('voltageMv', 'Voltage (mV)')}
-          {num('currentMa', 'Current (mA)')}
-        </>
-      )}
-      {kind === 'range' && (
-        <>
-          {num('minVoltageMv', 'Lowest voltage (mV)')}
-          {num('maxVoltageMv', 'Highest voltage (mV)')}
-          {num('powerMw', 'Power (mW)')}
-        </>
-      )}
+      <Select
+        label="Sink policy"
+        disabled={disabled}
+        options={policyKindOptions}
+        value={kind}
+        hint={
+          <>
+            <Mono>{kind}</Mono> · {policyKindHelp[kind]}
+          </>
+        }
+        onChange={(e) => set(path, defaultPolicy(e.target.value as PolicyKind))}
+      />
+      {policyFields[kind].map(({ name, label }) => (
+        <NumberInput key={`${kind}-${name}`} label={label} disabled={disabled} value={getIn(v, [...path, name])} onChange={(x) => set([...path, name], x)} />
+      ))}
     </>
   );
 }
