@@ -56,20 +56,31 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   try {
-    const command = commands[name];
+    // Own keys only, so `parley toString` is an unknown command rather than Object.prototype's.
+    const command = Object.hasOwn(commands, name) ? commands[name] : undefined;
     if (!command) throw new CliError('usage', `unknown command "${name}"; run "parley --help" for the list`);
     const module = await command.load();
     return await module.run(rest, io);
   } catch (error) {
+    // Anything but a CliError is a bug of ours that slipped through: say so, still in one line.
     const cliError =
       error instanceof CliError
         ? error
-        : new CliError('usage', error instanceof Error ? error.message : String(error));
-    const { code, message, where } = cliError;
+        : new CliError('internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
+    const { code, where } = cliError;
+    const message = oneLine(cliError.message);
     io.stderr(`parley ${name}: ${message}\n`);
     if (json) printJson(io, { ok: false, error: { code, message, ...where } });
     return EXIT_BAD_INPUT;
   }
+}
+
+const MESSAGE_MAX_CHARS = 400;
+
+/** Messages echo the user's input: keep them to one line of readable length. */
+function oneLine(message: string): string {
+  const flat = message.replace(/[\u0000-\u001f\u007f]+/g, ' ').trim();
+  return flat.length > MESSAGE_MAX_CHARS ? `${flat.slice(0, MESSAGE_MAX_CHARS)}… (${flat.length} characters)` : flat;
 }
 
 const isEntry = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/'));

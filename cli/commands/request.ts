@@ -58,8 +58,10 @@ async function readPolicy(text: string, io: CliIo): Promise<SinkPolicy> {
   if (!text.trim().startsWith('{')) {
     try {
       source = await readFile(resolve(io.cwd, text), 'utf8');
-    } catch {
-      throw new CliError('input.sink', `--sink: no such file "${text}" (give a JSON policy like '{"kind":"max-power"}' or a file holding one)`);
+    } catch (error) {
+      const code = (error as NodeJS.ErrnoException).code;
+      const why = code === 'EISDIR' ? `"${text}" is a folder` : code === 'ENOENT' ? `no such file "${text}"` : `cannot read "${text}"`;
+      throw new CliError('input.sink', `--sink: ${why} (give a JSON policy like '{"kind":"max-power"}' or a file holding one)`);
     }
   }
   let json: unknown;

@@ -27,6 +27,9 @@ interface RunArgs {
   json: boolean;
 }
 
+/** Far longer than any vector id; a glob is matched in time proportional to its length times the id's. */
+const FILTER_MAX_CHARS = 1_000;
+
 function parseArgs(args: string[]): RunArgs {
   const parsed: RunArgs = { paths: [], json: false };
   for (let i = 0; i < args.length; i += 1) {
@@ -46,6 +49,7 @@ function parseArgs(args: string[]): RunArgs {
     else parsed.paths.push(arg);
   }
   if (parsed.paths.length === 0) throw new CliError('usage', 'give at least one vector file or folder, e.g. "parley run vectors"');
+  if (parsed.filter !== undefined && parsed.filter.length > FILTER_MAX_CHARS) throw new CliError('usage', `--filter: at most ${FILTER_MAX_CHARS} characters, got ${parsed.filter.length}`);
   return parsed;
 }
 
@@ -218,7 +222,13 @@ export async function run(args: string[], io: CliIo): Promise<number> {
 
   if (options.junit !== undefined) {
     const cases: JunitCase[] = results.map((r, i) => ({ id: r.id, ok: r.ok, message: r.message, durationMs: r.durationMs, file: relative(io.cwd, loaded[i]?.file ?? '') }));
-    await writeFile(resolve(io.cwd, options.junit), toJunitXml(cases));
+    try {
+      await writeFile(resolve(io.cwd, options.junit), toJunitXml(cases));
+    } catch (error) {
+      const code = (error as NodeJS.ErrnoException).code;
+      const why = code === 'EISDIR' ? 'it is a folder' : code === 'ENOENT' ? 'its folder does not exist' : code === 'EACCES' ? 'permission denied' : 'it could not be written';
+      throw new CliError('output.junit', `--junit: cannot write "${options.junit}": ${why}`);
+    }
   }
   if (options.json) {
     printJson(io, { ok: failed === 0, passed, failed, results: results.map((r) => (r.ok ? { id: r.id, ok: true } : { id: r.id, ok: false, message: r.message })) });

@@ -18,7 +18,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   if (unknownOption) throw new CliError('usage', `unknown option ${unknownOption}; schema takes vector, scenario or trace`);
   const [name, extra] = names;
   if (name === undefined || extra !== undefined) throw new CliError('usage', 'give one of: vector, scenario, trace');
-  const build = schemas[name];
+  // Own keys only: `schema toString` is not a schema.
+  const build = Object.hasOwn(schemas, name) ? schemas[name] : undefined;
   if (!build) throw new CliError('usage', `no schema "${name}"; give one of: vector, scenario, trace`);
   printJson(io, build());
   return EXIT_OK;

@@ -98,7 +98,9 @@ async function encode(positionals: string[], values: ReturnType<typeof parse>['v
   try {
     await writeFile(path, vcd);
   } catch (error) {
-    throw new CliError('output.file', `cannot write ${values.vcd}: ${error instanceof Error ? error.message : String(error)}`);
+    const code = (error as NodeJS.ErrnoException).code;
+    const why = code === 'EISDIR' ? 'it is a folder' : code === 'ENOENT' ? 'its folder does not exist' : code === 'EACCES' ? 'permission denied' : 'it could not be written';
+    throw new CliError('output.file', `--vcd: cannot write "${values.vcd}": ${why}`);
   }
   if (values.json) printJson(io, { ok: true, messages: packets.length, durationUs });
   else io.stdout(`wrote ${packets.length} packet(s), ${durationUs} µs at ${bitrate} bit/s, to ${values.vcd}\n`);

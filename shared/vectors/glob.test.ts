@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { matchesGlob } from './glob.ts';
+import fc from 'fast-check';
+import { globToRegExp, matchesGlob } from './glob.ts';
 
 // `--filter <glob>` of ../shared/contract/cli.md `run`; the `*`/`**`/`?` meanings are common
 // practice for path globs (one segment, any segments, one character).
@@ -24,5 +25,18 @@ describe('matchesGlob', () => {
     expect(matchesGlob('caps/4/w', 'caps/4?w')).toBe(false);
     expect(matchesGlob('caps/a.b', 'caps/a.b')).toBe(true);
     expect(matchesGlob('caps/axb', 'caps/a.b')).toBe(false);
+  });
+
+  it('agrees with globToRegExp on small ids and globs', () => {
+    const id = fc.string({ unit: fc.constantFrom('a', 'b', '/', '.'), maxLength: 8 });
+    const glob = fc.string({ unit: fc.constantFrom('a', 'b', '/', '.', '*', '?'), maxLength: 8 });
+    fc.assert(fc.property(id, glob, (i, g) => matchesGlob(i, g) === globToRegExp(g).test(i)), { numRuns: 3_000, seed: 20_261_201 });
+  });
+
+  it('answers at once for globs that make a backtracking engine take exponential time', () => {
+    expect(matchesGlob('a'.repeat(60), `${'*a'.repeat(40)}b`)).toBe(false);
+    expect(matchesGlob('a'.repeat(60), `${'**'.repeat(40)}b`)).toBe(false);
+    expect(matchesGlob('a/'.repeat(30), `${'**/'.repeat(40)}b`)).toBe(false);
+    expect(matchesGlob('a'.repeat(60), '*a'.repeat(40))).toBe(true);
   });
 });
