@@ -7,6 +7,9 @@ import type { Logger } from 'pino';
  * Build them with the factories below; the one error middleware turns them into JSON.
  */
 export class HttpError extends Error {
+  /** An own field, so it survives libraries that copy an error's fields into their own wrapper. */
+  readonly forCaller = true;
+
   constructor(
     readonly status: number,
     readonly code: string,
@@ -52,8 +55,17 @@ interface StatusLike {
   field?: unknown;
 }
 
+/**
+ * busboy (multer's parser) rejects a malformed multipart body with a plain `Error` and no status or
+ * code; these are all of its messages (busboy 1.x, lib/index.js and lib/types/*.js).
+ */
+const multipartParseErrors = /^(Multipart: Boundary not found|Malformed content type|Missing Content-Type|Unsupported content type: |Malformed part header|Unexpected end of form|Unexpected end of file|Malformed urlencoded form)/;
+
 /** Maps errors thrown by body-parser, multer and friends, which carry a status or a code but no message for people. */
 function fromLibrary(err: StatusLike): HttpError | null {
+  if (err instanceof Error && err.constructor === Error && multipartParseErrors.test(err.message)) {
+    return badRequest('body: the multipart form is malformed or cut off; send it again with its boundary and every part complete', 'invalid_upload');
+  }
   if (err.type === 'entity.parse.failed') return badRequest('body: malformed JSON', 'malformed_json');
   if (err.type === 'entity.too.large') return tooLarge('body: the request body is larger than the server accepts');
   if (err.type === 'encoding.unsupported' || err.type === 'charset.unsupported') {
@@ -70,8 +82,20 @@ function fromLibrary(err: StatusLike): HttpError | null {
   return null;
 }
 
+/** MikroORM wraps what is thrown inside a query (our `onQuery` guard) in a DriverException that copies its own fields. */
+function copiedHttpError(err: object): HttpError | null {
+  const copy = err as { forCaller?: unknown; status?: unknown; code?: unknown; message?: unknown; details?: unknown };
+  if (copy.forCaller !== true || typeof copy.status !== 'number' || copy.status < 400 || copy.status >= 500) return null;
+  if (typeof copy.code !== 'string' || typeof copy.message !== 'string') return null;
+  return new HttpError(copy.status, copy.code, copy.message, copy.details);
+}
+
 export function toHttpError(err: unknown): HttpError | null {
   if (err instanceof HttpError) return err;
+  if (typeof err === 'object' && err !== null) {
+    const copied = copiedHttpError(err);
+    if (copied) return copied;
+  }
   if (err instanceof ZodError) return fromZod(err);
   if (typeof err === 'object' && err !== null) return fromLibrary(err as StatusLike);
   return null;

@@ -2,8 +2,21 @@ import { MikroORM } from '@mikro-orm/better-sqlite';
 import { Migrator } from '@mikro-orm/migrations';
 import { entities } from './entities.ts';
 import { migrationsList } from './migrations/index.ts';
+import { badRequest } from '../errors.ts';
 
 export type Orm = MikroORM;
+
+/**
+ * MikroORM inlines the parameters into the SQL text, and SQLite ends a statement at a NUL byte, so a
+ * value holding U+0000 would break the statement (a 500). Validation refuses NUL in request fields;
+ * this catches text that arrives inside files (reports, zips) on its way to any query.
+ */
+function refuseNul(sql: string, params: readonly unknown[]): string {
+  if (params.some((p) => typeof p === 'string' && p.includes('\u0000'))) {
+    throw badRequest('body: text must not contain NUL characters (\\u0000)', 'invalid_input');
+  }
+  return sql;
+}
 
 /**
  * Opens the SQLite database (a file path or `:memory:`) and brings its schema up to date by running
@@ -18,6 +31,7 @@ export async function openOrm(options: { dbName: string; debug?: boolean }): Pro
     debug: options.debug ?? false,
     allowGlobalContext: false,
     discovery: { warnWhenNoEntities: false },
+    onQuery: refuseNul,
   });
   await orm.getMigrator().up();
   return orm;

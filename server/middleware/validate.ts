@@ -1,11 +1,34 @@
 import type { RequestHandler } from 'express';
 import type { z } from 'zod';
-import { fromZod } from '../errors.ts';
+import { badRequest, fromZod } from '../errors.ts';
 
 export interface Schemas {
   body?: z.ZodType;
   query?: z.ZodType;
   params?: z.ZodType;
+}
+
+/**
+ * The path of the first string (value or key) holding U+0000, or null. SQLite ends a statement at a
+ * NUL byte, and no text field of ours has a use for one, so it is refused before any schema runs.
+ */
+export function findNul(value: unknown, path: (string | number)[] = [], depth = 0): (string | number)[] | null {
+  if (typeof value === 'string') return value.includes('\u0000') ? path : null;
+  // Deeper than any schema of ours reaches; the schema itself rejects such a body.
+  if (typeof value !== 'object' || value === null || depth > 64) return null;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i += 1) {
+      const found = findNul(value[i], [...path, i], depth + 1);
+      if (found) return found;
+    }
+    return null;
+  }
+  for (const [key, item] of Object.entries(value)) {
+    if (key.includes('\u0000')) return [...path, key.replace(/\u0000/g, '\\0')];
+    const found = findNul(item, [...path, key], depth + 1);
+    if (found) return found;
+  }
+  return null;
 }
 
 /**
@@ -18,6 +41,12 @@ export function validate(schemas: Schemas): RequestHandler {
     for (const location of ['params', 'query', 'body'] as const) {
       const schema = schemas[location];
       if (!schema) continue;
+      const nulAt = findNul(req[location]);
+      if (nulAt) {
+        const field = nulAt.length > 0 ? nulAt.join('.') : location;
+        next(badRequest(`${field}: must not contain NUL characters (\\u0000)`, 'invalid_input', [{ path: field, message: 'must not contain NUL characters' }]));
+        return;
+      }
       const result = schema.safeParse(req[location]);
       if (!result.success) {
         next(fromZod(result.error, location));
