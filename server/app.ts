@@ -41,6 +41,7 @@ export interface AppOptions {
 const fifteenMinutesMs = 15 * 60_000;
 const defaultLogin: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 10 };
 const defaultForgot: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 5 };
+const defaultShare: RateLimitOptions = { windowMs: 60 * 60_000, limit: 30 };
 
 /** Only our own origin: no CDN, no wildcard. Monaco's workers and charts need blob: and data:. */
 export const contentSecurityPolicy = {
@@ -78,7 +79,11 @@ export function createApp(options: AppOptions): Express {
     publicUrl: options.publicUrl.replace(/\/+$/, ''),
     production: options.production ?? false,
     logger,
-    rateLimits: { login: options.rateLimits?.login ?? defaultLogin, forgot: options.rateLimits?.forgot ?? defaultForgot },
+    rateLimits: {
+      login: options.rateLimits?.login ?? defaultLogin,
+      forgot: options.rateLimits?.forgot ?? defaultForgot,
+      share: options.rateLimits?.share ?? defaultShare,
+    },
     verifyBearer: options.verifyBearer,
     dataDir: options.dataDir ?? join(tmpdir(), 'parley-data'),
   };

@@ -34,7 +34,7 @@ export interface AppDeps {
   /** Secure cookies and no development fallbacks. */
   production: boolean;
   logger: Logger;
-  rateLimits: { login: RateLimitOptions; forgot: RateLimitOptions };
+  rateLimits: { login: RateLimitOptions; forgot: RateLimitOptions; share: RateLimitOptions };
   verifyBearer?: BearerVerifier;
   /** Folder for stored files (`PARLEY_DATA`): uploaded traces live in `<dataDir>/traces`. */
   dataDir: string;

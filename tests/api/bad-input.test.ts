@@ -18,7 +18,7 @@ const cookies = new Map<Role, string>();
 
 beforeAll(async () => {
   const generous = { windowMs: 60_000, limit: 100_000 };
-  t = await createTestApp({ rateLimits: { login: generous, forgot: generous } });
+  t = await createTestApp({ rateLimits: { login: generous, forgot: generous, share: generous } });
   for (const role of ['admin', 'engineer', 'qa', 'support', 'viewer'] as const) cookies.set(role, await t.cookieFor(role));
 });
 afterAll(async () => {

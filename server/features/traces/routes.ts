@@ -116,16 +116,17 @@ function uploadMiddleware(deps: AppDeps): RequestHandler[] {
   return [cleanup, upload];
 }
 
-/** Share sends mail to any address: at most 30 an hour per user. */
-function shareLimit(): RequestHandler[] {
+/** Share sends mail to any address: a per-user limit (default 30 an hour, `rateLimits.share`). */
+function shareLimit(deps: AppDeps): RequestHandler[] {
+  const { windowMs, limit } = deps.rateLimits.share;
   return [
     rateLimit({
-      windowMs: 60 * 60_000,
-      limit: 30,
+      windowMs,
+      limit,
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       keyGenerator: (_req, res) => `user:${String(res.locals.user?.id ?? 'anonymous')}`,
-      handler: (_req, _res, next) => next(rateLimited('You have shared 30 diagnoses in the last hour; try again later')),
+      handler: (_req, _res, next) => next(rateLimited(`You have shared ${limit} diagnoses recently; try again later`)),
     }),
   ];
 }
