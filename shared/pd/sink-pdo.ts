@@ -12,7 +12,7 @@
 import { code, flag, keptReserved, units } from './guards.ts';
 import { hex32 } from './hex.ts';
 import { decodeApdo, encodeApdo, SINK_APDO_RESERVED_MASKS } from './apdo.ts';
-import { PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE } from './source-pdo.ts';
+import { encodeRangePdo, PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE } from './source-pdo.ts';
 import type { RawObject, SinkPdo } from './types.ts';
 
 export const SINK_RESERVED_MASKS = {
@@ -64,21 +64,9 @@ export function encodeSinkPdo(pdo: SinkPdo | RawObject): number {
         0
       );
     case 'variable':
-      return (
-        ((PDO_TYPE_VARIABLE << 30) |
-          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
-          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
-          units(pdo.operationalCurrentMa, 10, 10, 'operationalCurrentMa', 'mA')) >>>
-        0
-      );
+      return encodeRangePdo(PDO_TYPE_VARIABLE, pdo, pdo.operationalCurrentMa, 10, 'operationalCurrentMa', 'mA');
     case 'battery':
-      return (
-        ((PDO_TYPE_BATTERY << 30) |
-          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
-          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
-          units(pdo.operationalPowerMw, 250, 10, 'operationalPowerMw', 'mW')) >>>
-        0
-      );
+      return encodeRangePdo(PDO_TYPE_BATTERY, pdo, pdo.operationalPowerMw, 250, 'operationalPowerMw', 'mW');
     default:
       return encodeApdo(pdo, false);
   }

@@ -88,24 +88,34 @@ export function encodeSourcePdo(pdo: SourcePdo | RawObject): number {
         0
       );
     case 'variable':
-      return (
-        ((PDO_TYPE_VARIABLE << 30) |
-          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
-          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
-          units(pdo.maxCurrentMa, 10, 10, 'maxCurrentMa', 'mA')) >>>
-        0
-      );
+      return encodeRangePdo(PDO_TYPE_VARIABLE, pdo, pdo.maxCurrentMa, 10, 'maxCurrentMa', 'mA');
     case 'battery':
-      return (
-        ((PDO_TYPE_BATTERY << 30) |
-          (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
-          (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
-          units(pdo.maxPowerMw, 250, 10, 'maxPowerMw', 'mW')) >>>
-        0
-      );
+      return encodeRangePdo(PDO_TYPE_BATTERY, pdo, pdo.maxPowerMw, 250, 'maxPowerMw', 'mW');
     default:
       return encodeApdo(pdo, true);
   }
 }
 
 export { APDO_TYPE_EPR_AVS, APDO_TYPE_PPS, APDO_TYPE_SPR_AVS, decodeApdo, encodeApdo, SINK_APDO_RESERVED_MASKS } from './apdo.ts';
+
+/**
+ * Variable and Battery PDOs share one layout in source and sink form (B31..30 type, B29..20 Maximum
+ * Voltage and B19..10 Minimum Voltage in 50 mV, B9..0 the current or power in `step` units); only the
+ * name of the low field differs. Throws RangeError naming the field.
+ */
+export function encodeRangePdo(
+  type: number,
+  pdo: { maxVoltageMv: unknown; minVoltageMv: unknown },
+  value: unknown,
+  step: number,
+  field: string,
+  unit: string,
+): number {
+  return (
+    ((type << 30) |
+      (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
+      (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
+      units(value, step, 10, field, unit)) >>>
+    0
+  );
+}
