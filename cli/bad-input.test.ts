@@ -1,5 +1,5 @@
 /**
- * A bad-input sweep over every command of `commands` (../shared/contract/cli.md): hostile arguments
+ * A bad-input sweep over every command of `commands` (docs/cli.md): hostile arguments
  * and files must give exit 2 (or 0/1 where the input is in fact valid), one stderr line
  * `parley <command>: …` with no stack trace, and under `--json` one `{"ok": false, "error"}` document.
  * The table is iterated, so a new command is covered without touching this file.

@@ -1,5 +1,5 @@
 /**
- * The `parley` command line (../shared/contract/cli.md). Each command lives in `commands/<name>.ts`
+ * The `parley` command line (docs/cli.md). Each command lives in `commands/<name>.ts`
  * and exports `run(args, io)` returning the exit code; this file only dispatches and maps errors.
  */
 import { readFileSync } from 'node:fs';
@@ -9,7 +9,7 @@ type CommandModule = { run(args: string[], io: CliIo): Promise<number> };
 
 /** Command name → summary and lazy loader (lazy so `parley decode` does not load the simulator). */
 export const commands: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
-  // One line per command, in the order of ../shared/contract/cli.md; each module is `commands/<name>.ts`.
+  // One line per command, in the order of docs/cli.md; each module is `commands/<name>.ts`.
   decode: { summary: 'decode one message: decode <hex>… [--words] [--crc] [--sop SOP|SOP\'|SOP\'\'] [--caps <hex>]', load: () => import('./commands/decode.ts') },
   encode: { summary: 'encode a Message (JSON file, or - for stdin) to wire hex', load: () => import('./commands/encode.ts') },
   wire: { summary: 'CC-line waveforms: wire encode <hex>… --vcd <out.vcd>, wire decode <in.vcd> [--signal NAME]', load: () => import('./commands/wire.ts') },

@@ -1,4 +1,4 @@
-/** `parley analyze` in-process through runCli with a fake io (../shared/contract/cli.md, `analyze`). */
+/** `parley analyze` in-process through runCli with a fake io (docs/cli.md, `analyze`). */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';

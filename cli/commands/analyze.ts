@@ -1,5 +1,5 @@
 /**
- * `parley analyze <file>` (../shared/contract/cli.md): decodes and checks a trace, read from disk
+ * `parley analyze <file>` (docs/cli.md): decodes and checks a trace, read from disk
  * as a stream (never the whole file in memory). `--format auto|jsonl|text|vcd` (default auto: by
  * content), `--fail-on error|warning` exits 1 when such a finding exists, `--signal NAME` picks the
  * VCD wire, `--timeline` adds the chart timeline to the JSON output.

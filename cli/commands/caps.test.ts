@@ -1,4 +1,4 @@
-/** `parley caps` in-process through runCli with a fake io (../shared/contract/cli.md). */
+/** `parley caps` in-process through runCli with a fake io (docs/cli.md). */
 import { describe, expect, it } from 'vitest';
 import type { CliIo } from '../io.ts';
 import { runCli } from '../main.ts';

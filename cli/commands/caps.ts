@@ -1,5 +1,5 @@
 /**
- * `parley caps <hex>…` / `--pdos 0x…,0x…` (../shared/contract/cli.md): checks a Source_Capabilities
+ * `parley caps <hex>…` / `--pdos 0x…,0x…` (docs/cli.md): checks a Source_Capabilities
  * (or EPR_Source_Capabilities) message against the structural rules and the Power Rules.
  * `--pdp W` declares the PDP (else inferred and said so), `--cable 3000|5000` the cable's rating,
  * `--label "…"` a printed rating to compare, `--epr` reads a `--pdos` list as EPR_Source_Capabilities.

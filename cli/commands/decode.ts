@@ -1,5 +1,5 @@
 /**
- * `parley decode <hex>…` (../shared/contract/cli.md): decodes one message. `--words` reads a 16-bit
+ * `parley decode <hex>…` (docs/cli.md): decodes one message. `--words` reads a 16-bit
  * header and 32-bit objects as numbers, `--crc` checks the last 4 bytes as the CRC-32,
  * `--sop SOP|SOP'|SOP''`, `--caps <hex>` types a Request's RDO by the offer it references.
  */

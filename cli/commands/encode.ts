@@ -1,5 +1,5 @@
 /**
- * `parley encode <file.json|->` (../shared/contract/cli.md): a Message as `decode --json` prints it
+ * `parley encode <file.json|->` (docs/cli.md): a Message as `decode --json` prints it
  * (the whole `{"ok":true,"message":…}` document is accepted too; `raw` fields may be left out) to
  * wire hex. A chunked extended message whose block needs several chunks prints each chunk; the
  * JSON then has `chunks` beside `hex` (the first chunk).

@@ -1,4 +1,4 @@
-/** `parley request` in-process through runCli with a fake io (../shared/contract/cli.md). */
+/** `parley request` in-process through runCli with a fake io (docs/cli.md). */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';

@@ -1,5 +1,5 @@
 /**
- * `parley request --caps <hex> --sink <json|file> [--cable 3000|5000]` (../shared/contract/cli.md):
+ * `parley request --caps <hex> --sink <json|file> [--cable 3000|5000]` (docs/cli.md):
  * the Request a sink with the given policy (vector.md "Sink policies") sends for those offers.
  * The cable defaults to 3000 mA. Extensions: `--pdos 0x…,0x…` instead of `--caps`, and `--epr`
  * to let the sink take EPR offers (positions 8 and up). Exit 0 when it ran, 2 on bad input.

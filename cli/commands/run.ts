@@ -1,5 +1,5 @@
 /**
- * `parley run <path>…` (../shared/contract/cli.md): runs vector files and folders of them
+ * `parley run <path>…` (docs/cli.md): runs vector files and folders of them
  * (recursively, every `*.vector.json`), prints one line per vector and last `N passed, M failed`,
  * or with `--json` `{ ok, passed, failed, results: [{ id, ok, message? }] }`. `--filter <glob>` on
  * vector ids, `--junit <file>` writes JUnit XML. Exit 1 when a vector fails, 2 on usage errors.

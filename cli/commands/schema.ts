@@ -1,5 +1,5 @@
 /**
- * `parley schema vector|scenario|trace` (../shared/contract/cli.md): prints the JSON Schema of that
+ * `parley schema vector|scenario|trace` (docs/cli.md): prints the JSON Schema of that
  * format, generated from the engine's zod schemas (the same ones the UI's editors use). `trace` is
  * the schema of one record line; the header line is described in it and kept under `$defs.header`.
  */

@@ -1,6 +1,6 @@
 /**
  * `parley simulate <scenario.json|-> [--trace <out.trace.jsonl>] [--samples] [--json]`
- * (../shared/contract/cli.md): runs a negotiation scenario (vector.md) and prints its timeline.
+ * (docs/cli.md): runs a negotiation scenario (vector.md) and prints its timeline.
  * `--trace` writes the timeline as a JSON Lines trace (header line first); `--samples` adds
  * `[t, mv, ma, sinkMv]` every 1 ms (`--sample-every-us N` to change it). Extensions in the
  * `--json` document: `contracts`, `lanes` and `timers`. Exit 0 when it ran, 2 on bad input.

@@ -1,6 +1,6 @@
 /**
  * `parley wire encode <hex>… --vcd <out.vcd>` and `parley wire decode <in.vcd>`
- * (../shared/contract/cli.md): the CC wire as a Value Change Dump, through shared/wire.
+ * (docs/cli.md): the CC wire as a Value Change Dump, through shared/wire.
  *
  * encode: each argument is one message (header + objects, wire order, without CRC), optionally
  * prefixed by its SOP* (`SOP':…`, `SOP'':…`, `SOP'_Debug:…`; `"` may stand for `''`), or the word

@@ -1,4 +1,4 @@
-/** An explicit contract, as ../shared/contract/cli.md fixes it. */
+/** An explicit contract, as docs/cli.md fixes it. */
 export type ContractKind = 'fixed' | 'variable' | 'battery' | 'pps' | 'avs';
 
 export interface Contract {

@@ -1,4 +1,4 @@
-/** A finding, as ../shared/contract/rules.md fixes it. */
+/** A finding, as docs/rules.md fixes it. */
 export type Severity = 'error' | 'warning' | 'info';
 
 export interface Finding {

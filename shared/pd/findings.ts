@@ -1,5 +1,5 @@
 /**
- * The codec's findings (rule ids of ../shared/contract/rules.md, plus `decode.rdo-unknown-type`
+ * The codec's findings (rule ids of docs/rules.md, plus `decode.rdo-unknown-type`
  * and `decode.object-position`, added here). shared/pd cannot import shared/rules (rules imports
  * pd), so severities and references are set here and mirrored in shared/rules/catalog.ts.
  */

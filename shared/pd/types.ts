@@ -1,5 +1,5 @@
 /**
- * The decoded form of USB PD messages and data objects, as ../shared/contract/objects.md fixes it.
+ * The decoded form of USB PD messages and data objects, as docs/objects.md fixes it.
  * Field names are fixed by the contract; fields may be added. Every number is an integer in the
  * unit its name says; `raw` is `0x` + lower-case hex (4 digits for a header, 8 for an object).
  */

@@ -22,7 +22,7 @@ const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|vbus|trace)\.[a-
  */
 const ERROR_CODES = new Set(['decode.chunk', 'decode.internal', 'trace.empty', 'trace.internal']);
 
-// The fixed ids and severities of the contract's rule table (../shared/contract/rules.md).
+// The fixed ids and severities of the contract's rule table (docs/rules.md).
 const contractRules = new Map<string, string>([
   ['decode.length', 'error'], ['decode.reserved-type', 'warning'], ['decode.reserved-bits', 'warning'], ['decode.crc', 'error'],
   ['caps.first-not-vsafe5v', 'error'], ['caps.order', 'error'], ['caps.duplicate', 'error'], ['caps.power-rules-missing', 'error'],

@@ -1,5 +1,5 @@
 /**
- * Every rule Parley reports, by id (../shared/contract/rules.md fixes the ids and severities; the
+ * Every rule Parley reports, by id (docs/rules.md fixes the ids and severities; the
  * ones marked "added" are ours). Each entry carries what the UI's rule page shows: a title, an
  * explanation (what it means, why it matters for a charger or a sink, what to do) and `ref`, the
  * source of the rule.

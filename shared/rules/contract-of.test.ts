@@ -3,7 +3,7 @@ import { decodeRdo } from '../pd/index.ts';
 import { contractOf } from './contract-of.ts';
 import { batteryPdo, fixedPdo as fixed, ppsApdo as pps, variablePdo } from './pdo-builders.ts';
 
-// The Contract form is ../shared/contract/cli.md's; RDO layouts as in check-request.test.ts.
+// The Contract form is docs/cli.md's; RDO layouts as in check-request.test.ts.
 describe('contractOf', () => {
   it('fixed: the offer voltage at the operating current', () => {
     expect(contractOf(decodeRdo(0x4004_b12c), fixed(20_000, 3_250))).toEqual({ kind: 'fixed', objectPosition: 4, voltageMv: 20_000, currentMa: 3_000, powerMw: 60_000 });

@@ -1,5 +1,5 @@
 /**
- * The explicit contract a Request makes with the offer it names (../shared/contract/cli.md
+ * The explicit contract a Request makes with the offer it names (docs/cli.md
  * `Contract`). The RDO is read by the type of the referenced PDO (USB PD R3.1 V1.8 §6.4.2: the
  * RDO does not carry its own type — from memory), so an RDO decoded without the offers is re-read.
  *

@@ -1,5 +1,5 @@
 /**
- * Sink policies (../shared/contract/vector.md "Sink policies"): how a simulated or computed sink
+ * Sink policies (docs/vector.md "Sink policies"): how a simulated or computed sink
  * picks its Request. One zod schema serves vectors, scenarios, the CLI's `request --sink` and the UI.
  *
  * Beyond the contract's fields, every policy may carry the sink's RDO flags (all default false);

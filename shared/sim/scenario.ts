@@ -1,5 +1,5 @@
 /**
- * The negotiation scenario of ../shared/contract/vector.md as a zod schema, with defaults.
+ * The negotiation scenario of docs/vector.md as a zod schema, with defaults.
  * Extensions beyond vector.md (all optional): `source.behaviour.*` knobs, `sink.load`,
  * `sink.behaviour`, and a fault's `count`.
  */

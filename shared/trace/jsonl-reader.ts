@@ -1,5 +1,5 @@
 /**
- * The JSON Lines reader (../shared/contract/trace.md, "JSON Lines"): a header object first, then one
+ * The JSON Lines reader (docs/trace.md, "JSON Lines"): a header object first, then one
  * record a line; blank lines are ignored; a line that is not JSON, or no known record, goes to the
  * sink as malformed and reading goes on.
  */

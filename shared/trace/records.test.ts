@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkRecord, traceHeaderSchema, traceRecordSchema } from './records.ts';
 
-// Record shapes of ../shared/contract/trace.md ("JSON Lines" table).
+// Record shapes of docs/trace.md ("JSON Lines" table).
 describe('checkRecord', () => {
   it('reads each record kind and keeps unknown fields', () => {
     const message = { t: 152_000, msg: 'a1612c91', from: 'source', probe: 'bench 2' };

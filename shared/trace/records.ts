@@ -1,5 +1,5 @@
 /**
- * Trace records (../shared/contract/trace.md): a header line, then message, event, measurement and
+ * Trace records (docs/trace.md): a header line, then message, event, measurement and
  * note records, one a line. `traceRecordSchema` (zod) is the schema for the server, the UI and
  * `parley schema trace`; `checkRecord` is a hand-written check of the same shape for the hot path of
  * the readers (it validates in place and allocates nothing, where zod copies every object).

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readTextLine } from './text-reader.ts';
 
-// The plain-text format of ../shared/contract/trace.md ("Plain text").
+// The plain-text format of docs/trace.md ("Plain text").
 describe('readTextLine', () => {
   it('reads the examples of trace.md', () => {
     expect(readTextLine('0.152000  SRC  a1 61 2c 91 01 00 2c d1 02 00')).toEqual({ t: 152_000, msg: 'a1612c9101002cd10200', from: 'source' });

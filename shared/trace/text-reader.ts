@@ -1,5 +1,5 @@
 /**
- * The plain-text reader (../shared/contract/trace.md, "Plain text"), for logs printed by firmware:
+ * The plain-text reader (docs/trace.md, "Plain text"), for logs printed by firmware:
  *   `<time> <who> [SOP'|SOP''] <payload>`   with `#` starting a comment.
  * time: a decimal number with `s`, `ms` or `us` (no unit: seconds); who: SRC/SNK/CBL (or
  * source/sink/cable, any case), or VBUS for a measurement (`5030mV 410mA`, also `V`/`A`);

@@ -1,5 +1,5 @@
 /**
- * The VCD reader (../shared/contract/trace.md, "VCD"): the wire decoder of shared/wire recovers
+ * The VCD reader (docs/trace.md, "VCD"): the wire decoder of shared/wire recovers
  * messages and ordered sets from the CC line's waveform, chunk by chunk; each becomes a record.
  * Direction is left to the analyser (from the message header's power role or cable plug bit).
  */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { formatVector } from './format.ts';
 
-// The file layout is ../shared/contract/vector.md's: keys in its order, two-space indent, final newline.
+// The file layout is docs/vector.md's: keys in its order, two-space indent, final newline.
 const sample = {
   expect: { findings: { exclude: [], include: ['caps.power-rules-missing'] } },
   input: { pdpW: 45, pdos: ['0x0001912c', '0x0004b12c', '0x000640e1'] },

@@ -1,5 +1,5 @@
 /**
- * Byte-stable serialisation of vector files (../shared/contract/vector.md): import then export gives
+ * Byte-stable serialisation of vector files (docs/vector.md): import then export gives
  * the same bytes, and `formatVector(v) === formatVector(JSON.parse(formatVector(v)))`.
  *
  * The layout:

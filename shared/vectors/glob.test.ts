@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { globToRegExp, matchesGlob } from './glob.ts';
 
-// `--filter <glob>` of ../shared/contract/cli.md `run`; the `*`/`**`/`?` meanings are common
+// `--filter <glob>` of docs/cli.md `run`; the `*`/`**`/`?` meanings are common
 // practice for path globs (one segment, any segments, one character).
 describe('matchesGlob', () => {
   it('* stays within one word', () => {

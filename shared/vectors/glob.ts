@@ -1,5 +1,5 @@
 /**
- * `--filter <glob>` on vector ids (../shared/contract/cli.md): `*` matches within one `/`-separated
+ * `--filter <glob>` on vector ids (docs/cli.md): `*` matches within one `/`-separated
  * word, `**` across words (also none: `caps/**` matches `caps` and `caps/a/b`), `?` one character
  * other than `/`. Everything else is literal.
  */

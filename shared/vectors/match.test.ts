@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Finding } from '../core/finding.ts';
 import { describeMismatches, matchFindings, matchPartial, matchSequence, matchWithin } from './match.ts';
 
-// The matching rules are ../shared/contract/vector.md's ("Matching is partial: …").
+// The matching rules are docs/vector.md's ("Matching is partial: …").
 const finding = (rule: string, severity: Finding['severity'] = 'error'): Finding => ({ rule, severity, message: `${rule} fired.`, ref: 'common practice' });
 
 describe('matchPartial', () => {

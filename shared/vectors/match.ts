@@ -1,5 +1,5 @@
 /**
- * Partial matching of a vector's `expect` against the actual output (../shared/contract/vector.md):
+ * Partial matching of a vector's `expect` against the actual output (docs/vector.md):
  * - every key given under `expect` must be equal in the actual output; keys the actual output has
  *   beyond them are ignored;
  * - arrays match element by element by index (an expected element that the actual array lacks is

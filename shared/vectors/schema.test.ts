@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { describeZodError, scenarioJsonSchema, traceJsonSchema, vectorJsonSchema, vectorSchema } from './schema.ts';
 
-// The vector file of ../shared/contract/vector.md; the JSON Schemas are generated with zod 4's
+// The vector file of docs/vector.md; the JSON Schemas are generated with zod 4's
 // z.toJSONSchema (draft 2020-12).
 const caps = { vector: 1, id: 'caps/power-rules/45w-without-9v', title: 'A 45 W source must offer 9 V', tags: ['power-rules'], ref: 'USB PD R3.1, §10.2.3', kind: 'caps',
   input: { pdos: ['0x0001912c', '0x0004b12c', '0x000640e1'], pdpW: 45 }, expect: { findings: { include: ['caps.power-rules-missing'], exclude: [] } } };

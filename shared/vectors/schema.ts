@@ -1,5 +1,5 @@
 /**
- * The zod schema of a vector file (../shared/contract/vector.md), composed from the engine's own
+ * The zod schema of a vector file (docs/vector.md), composed from the engine's own
  * schemas (sink policy, scenario, trace record), and the JSON Schemas generated from it for
  * `parley schema vector|scenario|trace` and the web UI's editors.
  */

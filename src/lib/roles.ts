@@ -1,4 +1,4 @@
-/** Roles as the server defines them (shared/contract/api.md). */
+/** Roles as the server defines them (docs/api.md). */
 export const roles = ['admin', 'engineer', 'qa', 'support', 'viewer'] as const;
 export type Role = (typeof roles)[number];
 

@@ -1,4 +1,4 @@
-/** The fields of each vector kind (../shared/contract/vector.md's table). */
+/** The fields of each vector kind (docs/vector.md's table). */
 import { useMemo, useState } from 'react';
 import { CodeEditor } from '../../../components/code-editor.tsx';
 import { Mono, RatingText } from '../../../components/mono.tsx';

@@ -1,5 +1,5 @@
 /**
- * Saving a vector: to the team library (`POST /api/vectors`, shared/contract/api.md) when this
+ * Saving a vector: to the team library (`POST /api/vectors`, docs/api.md) when this
  * server has it, else as a download; and a download on request in any case. The file is always
  * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
  */
