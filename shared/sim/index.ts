@@ -3,3 +3,4 @@ export { scenarioSchema, faultSchema, sourceBehaviourSchema, parseScenario, type
 export { simulate, type SimulateOptions, type SimulationResult, type Sample } from './simulate.ts';
 export { resolveCaps, type ResolvedCaps, type CapsInput } from './caps.ts';
 export type { LaneEntry, TimerSpan, TimedContract, Side } from './types.ts';
+export { disagreements, sameContract, CONTRACT_SETTLE_US, type PortView, type PortViews, type Disagreement } from './port-views.ts';

@@ -19,6 +19,7 @@ import { initialSinkPe, sinkStep, type SinkContext, type SinkPe } from './sink-p
 import { initialSourcePe, sourceStep, type SourceContext, type SourcePe } from './source-pe.ts';
 import { responseDelayUs, timerDurationUs } from './timing.ts';
 import { initialTypec, typecStep, type TypecEvent, type TypecState } from './typec.ts';
+import type { PortView, PortViews } from './port-views.ts';
 import { otherSide, type LaneEntry, type Side, type TimedContract, type TimerSpan } from './types.ts';
 import { frameHex, HARD_RESET_DURATION_US, packetDurationUs, packHeader, type MessageType, type Revision } from './wire.ts';
 
@@ -35,6 +36,7 @@ export interface RunOutput {
   timers: TimerSpan[];
   contracts: TimedContract[];
   contract: Contract | null;
+  ports: PortViews;
   samples?: [number, number, number, number][];
   endUs: number;
   stopped: boolean;
@@ -93,6 +95,7 @@ class Run {
   readonly lanes: LaneEntry[] = [];
   readonly timers: TimerSpan[] = [];
   readonly contracts: TimedContract[] = [];
+  readonly portChanges: PortView[] = [];
   readonly samples: [number, number, number, number][] | undefined;
   seq = 0;
 
@@ -305,18 +308,31 @@ class Run {
   }
   runPe(side: Side, event: PeEvent): void {
     if (side === 'source') {
-      const before = this.src.state;
+      const before = this.src;
       const [next, effects] = sourceStep(this.src, event, this.sourceContext);
       this.src = next;
-      if (next.state !== before && next.state !== 'idle') this.lane('source', next.state);
+      if (next.state !== before.state && next.state !== 'idle') this.lane('source', next.state);
+      if (next.state !== before.state || next.contract !== before.contract) this.portChanged('source', next.state, next.contract);
       for (const effect of effects) this.performPe('source', effect);
     } else {
-      const before = this.snk.state;
+      const before = this.snk;
       const [next, effects] = sinkStep(this.snk, event, this.sinkContext);
       this.snk = next;
-      if (next.state !== before && next.state !== 'idle') this.lane('sink', next.state);
+      if (next.state !== before.state && next.state !== 'idle') this.lane('sink', next.state);
+      if (next.state !== before.state || next.contract !== before.contract) this.portChanged('sink', next.state, next.contract);
       for (const effect of effects) this.performPe('sink', effect);
     }
+  }
+  portChanged(side: Side, state: string, contract: Contract | null): void {
+    this.portChanges.push({ tUs: this.clock.nowUs, side, state, contract, eprMode: false });
+  }
+  portViews(): PortViews {
+    const finalOf = (side: Side): PortView => {
+      const pe = side === 'source' ? this.src : this.snk;
+      const state = pe.state === 'idle' ? this.typec[side].state : pe.state;
+      return { tUs: this.clock.nowUs, side, state, contract: pe.contract, eprMode: false };
+    };
+    return { changes: this.portChanges, final: { source: finalOf('source'), sink: finalOf('sink') } };
   }
   performPe(side: Side, effect: PeEffect): void {
     switch (effect.kind) {
@@ -496,6 +512,6 @@ class Run {
     }
     options.onProgress?.(1);
     const { records, lanes, timers, contracts, samples } = this;
-    return { records, lanes, timers, contracts, contract: this.sinkContract, samples, endUs: clock.nowUs, stopped };
+    return { records, lanes, timers, contracts, contract: this.sinkContract, ports: this.portViews(), samples, endUs: clock.nowUs, stopped };
   }
 }

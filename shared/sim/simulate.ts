@@ -10,6 +10,8 @@ import { decodeMessage, parseHex } from '../pd/index.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
 import { analyzeRecords } from '../trace/index.ts';
 import type { TraceRecord } from '../trace/records.ts';
+import type { Timeline } from '../trace/timeline.ts';
+import type { PortViews } from './port-views.ts';
 import { resolveCaps } from './caps.ts';
 import { runScenario } from './runner.ts';
 import type { Scenario } from './scenario.ts';
@@ -38,8 +40,12 @@ export interface SimulationResult {
   contract: Contract | null;
   /** Every explicit contract reached, with the time (µs) the sink got its PS_RDY. */
   contracts: TimedContract[];
+  /** What each policy engine believed over time, and at the end (port-views.ts). */
+  ports: PortViews;
   events: TraceRecord[];
   findings: Finding[];
+  /** The analyser's timeline of the simulated trace (absent with `analyze: false`). */
+  timeline?: Timeline;
   samples?: Sample[];
   lanes: LaneEntry[];
   timers: TimerSpan[];
@@ -51,7 +57,8 @@ export interface SimulationResult {
 
 function invalid(message: string): SimulationResult {
   const finding: Finding = { rule: 'sim.scenario', severity: 'error', message, ref: 'vector.md, Scenario' };
-  return { contract: null, contracts: [], events: [], findings: [finding], lanes: [], timers: [], endUs: 0, stopped: false };
+  const idle = (side: 'source' | 'sink') => ({ tUs: 0, side, state: side === 'source' ? 'Unattached.SRC' : 'Unattached.SNK', contract: null, eprMode: false });
+  return { contract: null, contracts: [], ports: { changes: [], final: { source: idle('source'), sink: idle('sink') } }, events: [], findings: [finding], lanes: [], timers: [], endUs: 0, stopped: false };
 }
 
 /** Decoded forms, once per distinct hex (a run repeats few distinct messages). */
@@ -80,17 +87,19 @@ export function simulate(scenario: Scenario, options: SimulateOptions = {}): Sim
     shouldStop: options.shouldStop,
   });
   if (options.decode !== false) decodeAll(run.records, caps.pdos);
-  const findings = options.analyze === false ? [] : analyzeRecords(run.records).findings;
+  const analysis = options.analyze === false ? undefined : analyzeRecords(run.records);
   const result: SimulationResult = {
     contract: run.contract,
     contracts: run.contracts,
+    ports: run.ports,
     events: run.records,
-    findings,
+    findings: analysis?.findings ?? [],
     lanes: run.lanes,
     timers: run.timers,
     endUs: run.endUs,
     stopped: run.stopped,
   };
+  if (analysis) result.timeline = analysis.timeline;
   if (run.samples) result.samples = run.samples;
   return result;
 }
