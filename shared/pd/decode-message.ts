@@ -6,7 +6,7 @@
  */
 import type { Finding } from '../core/finding.ts';
 import { fail, type Result } from '../core/result.ts';
-import { crc32 } from '../wire/crc32.ts';
+import { crc32 } from './crc32.ts';
 import { decodeObjects, type OfferLike } from './decode-objects.ts';
 import { decodeExtendedMessage } from './decode-extended.ts';
 import { decodeFinding } from './findings.ts';

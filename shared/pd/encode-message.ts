@@ -6,7 +6,7 @@
  * Never throws: bad input gives `encode.range` / `encode.input` with the field's path.
  */
 import { fail, type Result } from '../core/result.ts';
-import { crc32 } from '../wire/crc32.ts';
+import { crc32 } from './crc32.ts';
 import { chunkDataBytes, chunkObjectCount, MAX_CHUNK_BYTES, MAX_EXTENDED_BYTES } from './decode-extended.ts';
 import { encodeDataBlock, hasDataBlock } from './extended-data.ts';
 import { encodeExtendedHeader, encodeHeader, type HeaderFields } from './header.ts';

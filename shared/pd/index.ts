@@ -5,6 +5,7 @@
  */
 export type * from './types.ts';
 export { parseHex, parseWords, toHex, hex16, hex32 } from './hex.ts';
+export { crc32, crc32Bytes } from './crc32.ts';
 export { decodeHeader, encodeHeader, decodeExtendedHeader, encodeExtendedHeader, type HeaderFields } from './header.ts';
 export { messageTypeCode, messageTypeName, messageTypeNames } from './message-types.ts';
 export { decodeSourcePdo, encodeSourcePdo } from './source-pdo.ts';

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { bmcDecode, bmcEncode, estimateUiUs } from './bmc.ts';
 import { packetBits, preambleBits } from './packet-bits.ts';
-import { crc32Bytes } from './crc32.ts';
+import { crc32Bytes } from '../pd/crc32.ts';
 
 describe('BMC', () => {
   it('changes level at every bit start and in the middle of a 1, then closes the last bit', () => {

@@ -2,7 +2,8 @@
  * Public entry of the wire level: CRC-32, 4b5b, ordered sets, BMC, the VCD writer and the streaming
  * VCD decoder (notes/interfaces.md, shared/wire).
  */
-export { crc32, crc32Bytes } from './crc32.ts';
+// The CRC-32 belongs to the message codec (pd); wire re-exports it so callers of the wire level keep one import.
+export { crc32, crc32Bytes } from '../pd/crc32.ts';
 export { DATA_SYMBOLS, K_CODES, decode4b5b, decodeSymbol, encode4b5b, type KCodeName, type Symbol5 } from './4b5b.ts';
 export { ORDERED_SETS, orderedSetBits, recognizeOrderedSet, type OrderedSetMatch, type OrderedSetName } from './ordered-sets.ts';
 export { PREAMBLE_BITS, packetBits, preambleBits } from './packet-bits.ts';

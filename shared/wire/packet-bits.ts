@@ -4,7 +4,7 @@
  * Reset are a preamble and their ordered set only, with no EOP (§5.6.4, §5.6.5).
  */
 import { K_CODES, encode4b5b, pushSymbolBits } from './4b5b.ts';
-import { crc32Bytes } from './crc32.ts';
+import { crc32Bytes } from '../pd/crc32.ts';
 import { orderedSetBits } from './ordered-sets.ts';
 import type { WirePacket } from './types.ts';
 

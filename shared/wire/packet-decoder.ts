@@ -4,7 +4,7 @@
  */
 import { decodeSymbol, symbolAt } from './4b5b.ts';
 import { bmcDecode, estimateUiUs } from './bmc.ts';
-import { crc32 } from './crc32.ts';
+import { crc32 } from '../pd/crc32.ts';
 import { orderedSetAt, type OrderedSetMatch } from './ordered-sets.ts';
 import { PREAMBLE_BITS } from './packet-bits.ts';
 import type { WireEvent } from './types.ts';
