@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { hex16, hex32, parseHex, parseWords, toHex } from './hex.ts';
 
 describe('parseHex', () => {
@@ -38,5 +39,20 @@ describe('hex16/hex32', () => {
     expect(hex16(0x1a)).toBe('0x001a');
     expect(hex32(0xc0dc_213c)).toBe('0xc0dc213c');
     expect(hex32(-1)).toBe('0xffffffff');
+  });
+});
+
+describe('hex16 / hex32 / toHex (byte table)', () => {
+  // The table must give exactly what toString(16) + padStart gave before: decoded output stays identical.
+  it('match the arithmetic form on any 32-bit value and any bytes', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: -(2 ** 31), max: 2 ** 32 - 1 }), (value) => {
+        expect(hex32(value)).toBe('0x' + (value >>> 0).toString(16).padStart(8, '0'));
+        expect(hex16(value)).toBe('0x' + (value & 0xffff).toString(16).padStart(4, '0'));
+      }),
+    );
+    fc.assert(fc.property(fc.uint8Array({ maxLength: 40 }), (bytes) => {
+      expect(toHex(bytes)).toBe([...bytes].map((b) => b.toString(16).padStart(2, '0')).join(''));
+    }));
   });
 });

@@ -7,24 +7,24 @@ import { fail, type Result } from '../core/result.ts';
 
 const HEX_DIGITS = '0123456789abcdef';
 
+/** The two lower-case hex digits of every byte: a table lookup is much cheaper than toString(16) + padStart. */
+const BYTE_HEX: readonly string[] = Array.from({ length: 256 }, (_, b) => HEX_DIGITS[b >> 4]! + HEX_DIGITS[b & 0xf]!);
+
 /** Lower-case hex, no separators. */
 export function toHex(bytes: Uint8Array): string {
   let out = '';
-  for (let i = 0; i < bytes.length; i++) {
-    const b = bytes[i]!;
-    out += HEX_DIGITS[b >> 4]! + HEX_DIGITS[b & 0xf]!;
-  }
+  for (let i = 0; i < bytes.length; i++) out += BYTE_HEX[bytes[i]!]!;
   return out;
 }
 
 /** `0x` + four lower-case hex digits (a header or extended header). */
 export function hex16(value: number): string {
-  return '0x' + (value & 0xffff).toString(16).padStart(4, '0');
+  return '0x' + BYTE_HEX[(value >>> 8) & 0xff]! + BYTE_HEX[value & 0xff]!;
 }
 
 /** `0x` + eight lower-case hex digits (a data object). */
 export function hex32(value: number): string {
-  return '0x' + (value >>> 0).toString(16).padStart(8, '0');
+  return '0x' + BYTE_HEX[value >>> 24]! + BYTE_HEX[(value >>> 16) & 0xff]! + BYTE_HEX[(value >>> 8) & 0xff]! + BYTE_HEX[value & 0xff]!;
 }
 
 /**
