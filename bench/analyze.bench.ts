@@ -12,6 +12,7 @@ import { spawn } from 'node:child_process';
 import { closeSync, existsSync, mkdtempSync, openSync, rmSync, statSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { report } from './report.ts';
 
 const LINES = 1_200_000;
 const RUNS = 3;
@@ -148,6 +149,10 @@ async function main(): Promise<void> {
     console.log(`parley analyze --json:         ${(cliMs / 1000).toFixed(2)} s`);
     console.log(`ratio: ${ratio.toFixed(2)}× (target ≤ ${RATIO_TARGET}×) ${ratio <= RATIO_TARGET ? 'met' : 'NOT met'}`);
     console.log(`peak memory: ${rssMb.toFixed(0)} MB (target ≤ ${RSS_TARGET_MB} MB) ${rssMb <= RSS_TARGET_MB ? 'met' : 'NOT met'}`);
+    report('analyze', [
+      { figure: `parley analyze --json, ${(lines / 1e6).toFixed(1)} M JSON Lines`, unit: 's', parley: cliMs / 1000, peer: floorMs / 1000, peerName: 'readline + JSON.parse', target: `≤ ${RATIO_TARGET}× floor`, met: ratio <= RATIO_TARGET },
+      { figure: 'parley analyze, peak memory', unit: 'MB', parley: rssMb, target: `≤ ${RSS_TARGET_MB} MB`, met: rssMb <= RSS_TARGET_MB },
+    ]);
     if (ratio > RATIO_TARGET || rssMb > RSS_TARGET_MB) process.exitCode = 1;
   } finally {
     rmSync(dir, { recursive: true, force: true });

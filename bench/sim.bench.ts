@@ -6,6 +6,7 @@
  *  2. The time to simulate 60 s of a programmable contract with 1 ms samples (60,001 samples).
  */
 import { parseScenario, simulate, type SimulateOptions } from '../shared/sim/index.ts';
+import { report } from './report.ts';
 
 const TARGET_PER_S = 20_000;
 
@@ -54,3 +55,7 @@ for (let i = 0; i < 5; i++) {
 }
 timesMs.sort((a, b) => a - b);
 console.log(`60 s of a PPS contract with 1 ms samples (${fmt(samples)} samples, decoded + analysed): median ${timesMs[2]!.toFixed(1)} ms, best ${timesMs[0]!.toFixed(1)} ms`);
+report('sim', [
+  { figure: 'negotiations to contract, fast path', unit: '/s', parley: fast.perS, peer: full.perS, peerName: 'full path', higherIsBetter: true, target: `≥ ${fmt(TARGET_PER_S)}/s`, met: fast.perS >= TARGET_PER_S },
+  { figure: '60 s PPS run with 1 ms samples', unit: 'ms', parley: timesMs[2]! },
+]);
