@@ -15,6 +15,12 @@ import type { Mailer } from './mail/mailer.ts';
 import type { RouteDef } from './route-def.ts';
 import { errorMiddleware, notFound } from './errors.ts';
 import { buildApiRouter, routeTable } from './routes.ts';
+import type { JobQueue } from './jobs/types.ts';
+import { createLocalJobQueue } from './jobs/local-queue.ts';
+import { registerJobKinds } from './jobs/kinds.ts';
+import { createAnalysisPool, type AnalysisPool } from './analysis/pool.ts';
+import { createRunPool, type RunPool } from './runner/pool.ts';
+import { traceStore, type TraceStore } from './features/traces/store.ts';
 
 export interface AppOptions {
   orm: Orm;
@@ -36,6 +42,16 @@ export interface AppOptions {
   routes?: readonly RouteDef[];
   /** Folder for uploaded files (startServer passes PARLEY_DATA); default a folder in the system temp directory. */
   dataDir?: string;
+  /** Where trace files live; default the `traces` folder of `dataDir`. */
+  traceStore?: TraceStore;
+  /**
+   * The job queue; default an in-process one. The app registers its job kinds on it, so this
+   * process works on them. Pools default to fresh ones whose idle threads leave on their own;
+   * whoever passes them closes them.
+   */
+  jobs?: JobQueue;
+  analysisPool?: AnalysisPool;
+  runPool?: RunPool;
 }
 
 const fifteenMinutesMs = 15 * 60_000;
@@ -71,6 +87,7 @@ export const propertyWorkerCsp = Object.entries({ ...contentSecurityPolicy, scri
 
 export function createApp(options: AppOptions): Express {
   const logger = options.logger ?? pino({ level: 'silent' });
+  const dataDir = options.dataDir ?? join(tmpdir(), 'parley-data');
   const deps: AppDeps = {
     orm: options.orm,
     mailer: options.mailer,
@@ -85,8 +102,13 @@ export function createApp(options: AppOptions): Express {
       share: options.rateLimits?.share ?? defaultShare,
     },
     verifyBearer: options.verifyBearer,
-    dataDir: options.dataDir ?? join(tmpdir(), 'parley-data'),
+    dataDir,
+    traceStore: options.traceStore ?? traceStore(dataDir),
+    jobs: options.jobs ?? createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') }),
+    analysisPool: options.analysisPool ?? createAnalysisPool(),
+    runPool: options.runPool ?? createRunPool(),
   };
+  registerJobKinds(deps);
 
   const app = express();
   app.disable('x-powered-by');

@@ -4,6 +4,10 @@ import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { Orm } from './db/orm.ts';
 import type { IUser } from './db/entities.ts';
 import type { Mailer } from './mail/mailer.ts';
+import type { JobQueue } from './jobs/types.ts';
+import type { AnalysisPool } from './analysis/pool.ts';
+import type { RunPool } from './runner/pool.ts';
+import type { TraceStore } from './features/traces/store.ts';
 
 export interface Clock {
   now(): Date;
@@ -38,6 +42,13 @@ export interface AppDeps {
   verifyBearer?: BearerVerifier;
   /** Folder for stored files (`PARLEY_DATA`): uploaded traces live in `<dataDir>/traces`. */
   dataDir: string;
+  /** Where uploaded trace files live. */
+  traceStore: TraceStore;
+  /** Background jobs (analyses, runs): in-process, or shared through PostgreSQL. */
+  jobs: JobQueue;
+  /** Worker threads for trace analyses and vector runs. */
+  analysisPool: AnalysisPool;
+  runPool: RunPool;
 }
 
 declare global {

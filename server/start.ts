@@ -13,10 +13,13 @@ import { startMailFake } from './mail/fake-smtp.ts';
 import { createMailbox, type Mailbox } from './mail/mailbox.ts';
 import { createApp } from './app.ts';
 import { systemClock } from './context.ts';
-import { closeAnalysisPool } from './analysis/pool.ts';
-import { closeRunPool } from './runner/pool.ts';
+import { createAnalysisPool } from './analysis/pool.ts';
+import { createRunPool } from './runner/pool.ts';
 import { verifyApiToken } from './features/tokens/verify.ts';
 import { resumeUnfinishedTraces } from './features/traces/resume.ts';
+import { closeOrphanedRuns } from './features/runs/resume.ts';
+import { createLocalJobQueue } from './jobs/local-queue.ts';
+import { traceStore } from './features/traces/store.ts';
 
 export interface StartOptions {
   /** 0 = a random free port. Default PORT or 3000. */
@@ -83,18 +86,23 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
 
   const distDir = options.distDir ?? join(repoRoot, 'dist');
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
-  const app = createApp({ orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken });
+  const jobs = createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') });
+  const analysisPool = createAnalysisPool();
+  const runPool = createRunPool();
+  const app = createApp({
+    orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken,
+    jobs, analysisPool, runPool, traceStore: traceStore(dataDir),
+  });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
 
   // Traces left queued or analysing by the last run resume now, in the background.
-  const resumed = resumeUnfinishedTraces({
+  const resumed = closeOrphanedRuns(orm, systemClock).then(() => resumeUnfinishedTraces({
     orm,
-    clock: systemClock,
-    dataDir,
+    jobs,
     onError: (traceId, message) => logger.warn(`trace ${traceId}: ${message}`),
-  }).then(
+  })).then(
     ({ ids, done }) => {
       if (ids.length > 0) logger.info(`resuming the analysis of ${ids.length} unfinished trace(s)`);
       return done;
@@ -109,8 +117,10 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
         server.close(() => resolveClose());
         server.closeIdleConnections();
       });
-      await closeAnalysisPool();
-      await closeRunPool();
+      // Jobs stop first (their rows stay unfinished, for the next start to resume), then the threads.
+      const jobsStopped = jobs.close();
+      await Promise.all([analysisPool.close(), runPool.close()]);
+      await jobsStopped;
       mailer.close();
       await fake?.close();
       await orm.close();

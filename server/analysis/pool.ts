@@ -1,7 +1,7 @@
 /**
  * The worker-thread pool that analyses stored traces (piscina), so a 50 MB upload never blocks
- * the request thread. One pool per process, created on first use; idle threads are unref'd and
- * leave after `idleTimeoutMs`, and `closeAnalysisPool()` ends them at shutdown.
+ * the request thread. The server creates one and passes it through the app's deps; idle threads
+ * are unref'd and leave after `idleTimeoutMs`, and `close()` ends them at shutdown.
  */
 import { availableParallelism } from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
@@ -56,18 +56,4 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
       await pool.destroy();
     },
   };
-}
-
-let shared: AnalysisPool | undefined;
-
-/** The process's pool. */
-export function analysisPool(): AnalysisPool {
-  shared ??= createAnalysisPool();
-  return shared;
-}
-
-export async function closeAnalysisPool(): Promise<void> {
-  const pool = shared;
-  shared = undefined;
-  await pool?.close();
 }

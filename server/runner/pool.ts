@@ -1,6 +1,6 @@
 /**
  * The worker-thread pool that runs vectors (piscina), so a run of the whole library never blocks
- * the request thread. One pool per process, created on first use; threads leave when idle.
+ * the request thread. The server creates one and passes it through the app's deps; threads leave when idle.
  * A vector that runs longer than `timeoutMs` (a property stuck in a loop) is stopped: piscina
  * ends that worker and the vector fails with a clear message.
  *
@@ -17,6 +17,10 @@ import type { RunVectorTask } from './run-task.ts';
 
 export interface RunPool {
   run(task: RunVectorTask): Promise<VectorResult>;
+  /** Results in the order of the tasks; the engine's vectors of a batch share one worker message. */
+  runBatch?(tasks: readonly RunVectorTask[]): Promise<VectorResult[]>;
+  /** Worker threads it may use at once. */
+  threads?: number;
   close(): Promise<void>;
 }
 
@@ -60,37 +64,38 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
     env: {},
     resourceLimits: { maxOldGenerationSizeMb: 512 },
   });
+  const run = async (task: RunVectorTask): Promise<VectorResult> => {
+    if (isPropertyVectorText(task.text)) return runInSandbox(task, sandbox);
+    try {
+      return (await pool.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as VectorResult;
+    } catch (cause) {
+      const timedOut = cause instanceof Error && (cause.name === 'AbortError' || cause.name === 'TimeoutError' || /abort/i.test(cause.message));
+      const message = timedOut ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)` : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
+      return { id: task.vectorId, ok: false, message, durationMs: timedOut ? timeoutMs : 0 };
+    }
+  };
   return {
-    async run(task) {
-      if (isPropertyVectorText(task.text)) return runInSandbox(task, sandbox);
-      try {
-        return (await pool.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as VectorResult;
-      } catch (cause) {
-        const timedOut = cause instanceof Error && (cause.name === 'AbortError' || cause.name === 'TimeoutError' || /abort/i.test(cause.message));
-        const message = timedOut ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)` : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
-        return { id: task.vectorId, ok: false, message, durationMs: timedOut ? timeoutMs : 0 };
-      }
+    run,
+    threads: maxThreads,
+    async runBatch(tasks) {
+      const results = new Array<VectorResult>(tasks.length);
+      const inThreads = tasks.flatMap((task, index) => (isPropertyVectorText(task.text) ? [] : [{ task, index }]));
+      const sandboxed = tasks.flatMap((task, index) => (isPropertyVectorText(task.text) ? [{ task, index }] : []));
+      const batch = async () => {
+        if (inThreads.length === 0) return;
+        try {
+          const out = (await pool.run(inThreads.map((x) => x.task), { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) })) as VectorResult[];
+          out.forEach((result, i) => (results[inThreads[i]!.index] = result));
+        } catch {
+          // One vector stuck or crashing its worker: run that batch one by one, each with its own limit.
+          await Promise.all(inThreads.map(async ({ task, index }) => (results[index] = await run(task))));
+        }
+      };
+      await Promise.all([batch(), ...sandboxed.map(async ({ task, index }) => (results[index] = await runInSandbox(task, sandbox)))]);
+      return results;
     },
     async close() {
       await Promise.all([pool.destroy(), sandbox.close()]);
     },
   };
-}
-
-let shared: RunPool | undefined;
-
-export function runPool(): RunPool {
-  shared ??= createRunPool();
-  return shared;
-}
-
-/** For a test that needs its own limits; the previous pool is closed. */
-export async function replaceRunPool(pool: RunPool | undefined): Promise<void> {
-  const old = shared;
-  shared = pool;
-  if (old && old !== pool) await old.close();
-}
-
-export async function closeRunPool(): Promise<void> {
-  await replaceRunPool(undefined);
 }

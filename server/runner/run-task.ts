@@ -34,4 +34,11 @@ export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> 
   return toJsonSafe(result) as VectorResult;
 }
 
+/** Several vectors in one task: one message each way instead of one per vector keeps the request thread free. */
+export async function runVectorBatch(tasks: readonly RunVectorTask[]): Promise<VectorResult[]> {
+  const results: VectorResult[] = [];
+  for (const task of tasks) results.push(await runVectorTask(task));
+  return results;
+}
+
 export default runVectorTask;

@@ -4,6 +4,7 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { runVectorTask } = await import('./run-task.ts');
+const { runVectorTask, runVectorBatch } = await import('./run-task.ts');
 
 export default runVectorTask;
+export { runVectorBatch };

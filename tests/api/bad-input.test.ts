@@ -4,7 +4,6 @@ import type { z } from 'zod';
 import { routeTable } from '../../server/routes.ts';
 import type { Role } from '../../server/db/entities.ts';
 import type { RouteDef } from '../../server/route-def.ts';
-import { closeAnalysisPool } from '../../server/analysis/pool.ts';
 import { createTestApp, type TestApp } from '../support/test-app.ts';
 
 /**
@@ -23,7 +22,6 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await t.close();
-  await closeAnalysisPool();
 });
 
 /** Admin may call everything but routes that name other roles only; those get their first role. */

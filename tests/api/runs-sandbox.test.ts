@@ -2,7 +2,7 @@ import { chmodSync, existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeRunPool, createRunPool, replaceRunPool } from '../../server/runner/pool.ts';
+import { createRunPool, type RunPool } from '../../server/runner/pool.ts';
 import { createTestApp, type TestApp } from '../support/test-app.ts';
 
 /**
@@ -34,14 +34,27 @@ function propertyVector(id: string, predicateBody: string, extra: { runs?: numbe
   };
 }
 
+/** The app's run pool, whose limits a test may change by swapping the pool behind it. */
+let current: RunPool | undefined;
+const switchable: RunPool = {
+  run: (task) => current!.run(task),
+  runBatch: (tasks) => current!.runBatch!(tasks),
+  close: async () => current?.close(),
+};
+async function replaceRunPool(pool: RunPool): Promise<void> {
+  const old = current;
+  current = pool;
+  await old?.close();
+}
+
 beforeAll(async () => {
   // A data folder like PARLEY_DATA: the session secret (0600) next to the database.
   dataDir = mkdtempSync(join(tmpdir(), 'parley-data-'));
   secretPath = join(dataDir, 'secret');
   writeFileSync(secretPath, secret, { mode: 0o600 });
   chmodSync(dataDir, 0o755);
-  t = await createTestApp();
-  // Generous for a shared machine; the timeout test below uses its own pool.
+  // Generous for a shared machine; the timeout test below switches to a pool of its own.
+  t = await createTestApp({ runPool: switchable });
   await replaceRunPool(createRunPool({ maxThreads: 1, timeoutMs: 30_000 }));
   const engineer = await t.signInAs('engineer');
   const fs = "process.getBuiltinModule('node:fs')";
@@ -60,7 +73,6 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await closeRunPool();
   await t.close();
   rmSync(dataDir, { recursive: true, force: true });
 });

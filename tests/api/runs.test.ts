@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../support/test-app.ts';
 import { verifyApiToken } from '../../server/features/tokens/verify.ts';
-import { closeRunPool, createRunPool, replaceRunPool, type RunPool } from '../../server/runner/pool.ts';
+import { createRunPool, type RunPool } from '../../server/runner/pool.ts';
 import { toJunitXml } from '../../shared/vectors/index.ts';
 
 /**
@@ -57,14 +57,12 @@ function parseSse(text: string): SseEvent[] {
 }
 
 beforeAll(async () => {
-  t = await createTestApp({ verifyBearer: verifyApiToken });
   slowPool = slowed(createRunPool({ maxThreads: 1 }), 60);
-  await replaceRunPool(slowPool);
+  t = await createTestApp({ verifyBearer: verifyApiToken, runPool: slowPool });
   const engineer = await t.signInAs('engineer');
   for (const vector of [fortyFiveWithout9v, fifteenWatt, wrongOnPurpose]) expect((await engineer.post('/api/vectors').send(vector)).status).toBe(201);
 }, 30_000);
 afterAll(async () => {
-  await closeRunPool();
   await t.close();
 });
 

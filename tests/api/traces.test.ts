@@ -6,7 +6,6 @@ import { createHash } from 'node:crypto';
 import type supertest from 'supertest';
 import { createTestApp, type TestApp } from '../support/test-app.ts';
 import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
-import { closeAnalysisPool } from '../../server/analysis/pool.ts';
 import { encodeWaveform } from '../../shared/wire/index.ts';
 import { encodeMessage } from '../../shared/pd/index.ts';
 import { fixedPdo } from '../../shared/rules/index.ts';
@@ -31,7 +30,6 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await t.close();
-  await closeAnalysisPool();
   rmSync(dataDir, { recursive: true, force: true });
 });
 

@@ -8,6 +8,9 @@ import { startMailFake } from '../../server/mail/fake-smtp.ts';
 import { createSmtpMailer } from '../../server/mail/mailer.ts';
 import { createMailbox, type Mailbox } from '../../server/mail/mailbox.ts';
 import type { Clock } from '../../server/context.ts';
+import { createAnalysisPool } from '../../server/analysis/pool.ts';
+import { createRunPool } from '../../server/runner/pool.ts';
+import { createLocalJobQueue } from '../../server/jobs/local-queue.ts';
 
 /** A clock that stands still until a test moves it. */
 export function createTestClock(start = new Date('2026-03-02T09:00:00Z')): Clock & { advance(ms: number): void } {
@@ -45,7 +48,10 @@ export async function createTestApp(options: Partial<Omit<AppOptions, 'orm' | 'm
   if (options.demo !== false) await seedDemo(orm.em.fork(), clock);
   const fake = await startMailFake({ orm, clock });
   const mailer = createSmtpMailer({ url: fake.url, from: 'Parley <parley@localhost>' });
-  const app = createApp({ secret: 'test-secret-0123456789abcdef0123456789', publicUrl: testPublicUrl, ...options, clock, orm, mailer });
+  const jobs = options.jobs ?? createLocalJobQueue();
+  const analysisPool = options.analysisPool ?? createAnalysisPool();
+  const runPool = options.runPool ?? createRunPool();
+  const app = createApp({ secret: 'test-secret-0123456789abcdef0123456789', publicUrl: testPublicUrl, ...options, clock, orm, mailer, jobs, analysisPool, runPool });
 
   const signIn = async (agent: ReturnType<typeof supertest.agent> | ReturnType<typeof supertest>, role: Role) => {
     const account = demoAccounts.find((a) => a.role === role)!;
@@ -70,6 +76,9 @@ export async function createTestApp(options: Partial<Omit<AppOptions, 'orm' | 'm
       return setCookie.map((c) => c.split(';')[0]).join('; ');
     },
     async close() {
+      const jobsStopped = jobs.close();
+      await Promise.all([analysisPool.close(), runPool.close()]);
+      await jobsStopped;
       mailer.close();
       await fake.close();
       await orm.close();

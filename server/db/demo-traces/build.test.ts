@@ -6,12 +6,10 @@ import { analyzeTrace } from '../../../shared/trace/index.ts';
 import { openOrm } from '../orm.ts';
 import { seedDemo } from '../seed.ts';
 import { Trace } from '../trace-entities.ts';
-import { closeAnalysisPool } from '../../analysis/pool.ts';
 import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 import { buildDemoTraces } from './scenarios.ts';
 
 const traces = buildDemoTraces();
-afterAll(() => closeAnalysisPool());
 
 describe('the demo traces', () => {
   it('are the files generate.ts writes (run it after changing a scenario)', () => {

@@ -11,7 +11,9 @@ import { Trace } from '../trace-entities.ts';
 import type { Clock } from '../../context.ts';
 import { traceStore } from '../../features/traces/store.ts';
 import { sniffTrace, SNIFF_BYTES } from '../../features/traces/sniff.ts';
-import { analyseTrace } from '../../features/traces/analyse.ts';
+import { traceAnalysisHandler } from '../../features/traces/analyse.ts';
+import { createAnalysisPool } from '../../analysis/pool.ts';
+import type { ProgressEvent } from '../../features/traces/progress.ts';
 import { createQueuedTrace } from '../../features/traces/new-trace.ts';
 import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 
@@ -46,9 +48,17 @@ export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: s
     });
   });
   await em.flush();
-  for (const row of rows) {
-    const outcome = await analyseTrace({ fork: () => em.fork(), clock, store, trace: { id: row.id, sha256: row.sha256, format: row.format, sizeBytes: row.sizeBytes } });
-    if (!outcome.ok) throw new Error(`demo trace ${row.fileName}: ${outcome.message}`);
+  // The seed runs before the server takes requests, so it analyses here with a pool of its own.
+  const pool = createAnalysisPool({ maxThreads: 1 });
+  try {
+    const analyse = traceAnalysisHandler({ fork: () => em.fork(), clock, store, pool });
+    for (const row of rows) {
+      let final: ProgressEvent | undefined;
+      await analyse({ traceId: row.id }, { key: String(row.id), publish: (event) => (final = event), signal: new AbortController().signal });
+      if (final?.type !== 'done') throw new Error(`demo trace ${row.fileName}: ${final?.type === 'failed' ? final.error.message : 'not analysed'}`);
+    }
+  } finally {
+    await pool.close();
   }
   return rows.length;
 }

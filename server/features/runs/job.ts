@@ -1,24 +1,26 @@
 /**
- * A library run: every vector goes through the worker pool, each result is stored as it comes
- * and published to the run's event stream; at the end the run is closed, its new failures are
- * marked and their authors mailed. CI results (already run elsewhere) take only the last step.
+ * The vector-run job: the run's vectors go through the worker pool in batches (one worker message
+ * and one database write per batch, so a run of the whole library leaves the request thread
+ * free), each batch's results are stored and published as they come; at the end the run is
+ * closed, its new failures are marked and their authors mailed. CI results (already run
+ * elsewhere) take only the last step. A retried job (its first worker died) runs only the vectors
+ * that have no stored result yet, so nothing is run or stored twice.
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
-import { RunResult, TestRun, type ITestRun, type RunResultDetail } from '../../db/library-entities.ts';
+import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun, type RunResultDetail } from '../../db/library-entities.ts';
 import type { AppDeps } from '../../context.ts';
-import { runPool, type RunPool } from '../../runner/pool.ts';
+import type { RunPool } from '../../runner/pool.ts';
+import type { RunVectorTask } from '../../runner/run-task.ts';
 import { builtInVectorsDir } from '../vectors/seed.ts';
 import type { VectorResult } from '../../../shared/vectors/index.ts';
+import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import { mailAuthors, markNewFailures } from './notify.ts';
-import { publishRun } from './progress.ts';
+import type { RunEvent } from './progress.ts';
 
-export interface QueuedVector {
-  vectorId: string;
-  revision: number | null;
-  title: string | null;
-  kind: string | null;
-  text: string;
-}
+export const vectorRunJob = jobKind<{ runId: number; vectorIds: string[] }, RunEvent>('vector-run');
+
+/** Vectors per worker message and per database write. */
+export const RUN_BATCH_SIZE = 48;
 
 /** Evidence kept for one failure; an enormous actual output is cut rather than stored whole. */
 const MAX_DETAIL_CHARS = 256 * 1024;
@@ -29,14 +31,16 @@ export function detailOf(result: Pick<VectorResult, 'expected' | 'actual' | 'mis
   return { expected: result.expected, mismatches: result.mismatches, actual: { note: 'the actual output was too large to keep' } };
 }
 
-const running = new Map<number, Promise<void>>();
-
-export function runningJob(runId: number): Promise<void> | undefined {
-  return running.get(runId);
+/** The run's event as its row tells it: final once it is closed, else its progress. */
+export function runEvent(run: ITestRun): RunEvent {
+  if (run.status === 'running') return { type: 'progress', runId: run.id, done: run.done, total: run.total, passed: run.passed, failed: run.failed };
+  return { type: 'done', runId: run.id, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed: run.passed, failed: run.failed, newFailures: run.newFailures, ...(run.errorMessage ? { error: run.errorMessage } : {}) };
 }
 
-/** Closes a run whose results are all stored: status, counts, new failures, mail, the final event. */
-export async function finishRun(em: EntityManager, deps: AppDeps, runId: number, error?: string): Promise<ITestRun> {
+type RunDeps = Pick<AppDeps, 'orm' | 'clock' | 'mailer' | 'publicUrl' | 'logger' | 'runPool'>;
+
+/** Closes a run whose results are all stored: status, counts, new failures, mail; returns the row. */
+export async function finishRun(em: EntityManager, deps: RunDeps, runId: number, error?: string): Promise<ITestRun> {
   const run = await em.findOneOrFail(TestRun, { id: runId });
   const passed = await em.count(RunResult, { runId, ok: true });
   const failed = await em.count(RunResult, { runId, ok: false });
@@ -46,51 +50,92 @@ export async function finishRun(em: EntityManager, deps: AppDeps, runId: number,
   run.newFailures = fresh.size;
   await em.flush();
   await mailAuthors(em, deps, run, fresh);
-  publishRun({ type: 'done', runId, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed, failed, newFailures: fresh.size, ...(error ? { error } : {}) });
   return run;
 }
 
-export function startRunJob(deps: AppDeps, runId: number, vectors: readonly QueuedVector[], pool: RunPool = runPool()): Promise<void> {
-  const job = execute(deps, runId, vectors, pool)
-    .catch(async (cause: unknown) => {
+export function vectorRunHandler(deps: RunDeps): JobHandler<{ runId: number; vectorIds: string[] }, RunEvent> {
+  return async ({ runId, vectorIds }, job) => {
+    try {
+      await execute(deps, runId, vectorIds, job);
+    } catch (cause) {
+      if (job.signal.aborted) return;
       const message = `The run stopped: ${cause instanceof Error ? cause.message : String(cause)}`;
       deps.logger.error({ err: cause, runId }, 'run failed');
-      await finishRun(deps.orm.em.fork(), deps, runId, message).catch(() => undefined);
-    })
-    .finally(() => running.delete(runId));
-  running.set(runId, job);
-  return job;
+      const run = await finishRun(deps.orm.em.fork(), deps, runId, message).catch(() => undefined);
+      job.publish(run ? runEvent(run) : { type: 'done', runId, status: 'failed', done: 0, total: vectorIds.length, passed: 0, failed: 0, newFailures: 0, error: message });
+    }
+  };
 }
 
-async function execute(deps: AppDeps, runId: number, vectors: readonly QueuedVector[], pool: RunPool): Promise<void> {
-  const total = vectors.length;
-  let passed = 0;
-  let failed = 0;
-  publishRun({ type: 'progress', runId, done: 0, total, passed, failed });
-  await Promise.all(
-    vectors.map(async (vector) => {
-      const result = await pool.run({ text: vector.text, vectorId: vector.vectorId, vectorsRoot: builtInVectorsDir });
-      if (result.ok) passed += 1;
-      else failed += 1;
-      const em = deps.orm.em.fork();
-      em.create(RunResult, {
-        runId,
-        vectorId: vector.vectorId,
-        title: vector.title,
-        kind: vector.kind,
-        vectorRevision: vector.revision,
-        ok: result.ok,
-        message: result.message ?? null,
-        durationMs: Math.max(0, result.durationMs),
-        newFailure: false,
-        detail: result.ok ? null : detailOf(result),
-        createdAt: deps.clock.now(),
+function batchesOf<T>(items: readonly T[], size: number): T[][] {
+  const out: T[][] = [];
+  for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
+  return out;
+}
+
+async function runBatch(pool: RunPool, tasks: RunVectorTask[]): Promise<VectorResult[]> {
+  if (pool.runBatch) return pool.runBatch(tasks);
+  return Promise.all(tasks.map((task) => pool.run(task)));
+}
+
+async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[], job: JobContext<RunEvent>): Promise<void> {
+  const em = deps.orm.em.fork();
+  const run = await em.findOne(TestRun, { id: runId });
+  if (!run) return;
+  if (run.status !== 'running') return job.publish(runEvent(run));
+  const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
+  const todo = vectorIds.filter((id) => !stored.has(id));
+  const total = vectorIds.length;
+  let passed = await em.count(RunResult, { runId, ok: true });
+  let failed = stored.size - passed;
+  job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
+  // As many batches in flight as the pool has threads, plus one waiting, so no thread idles.
+  const batches = batchesOf(todo, RUN_BATCH_SIZE);
+  let next = 0;
+  const lane = async () => {
+    while (next < batches.length && !job.signal.aborted) {
+      const ids = batches[next++]!;
+      const batchEm = deps.orm.em.fork();
+      const rows = await batchEm.find(TeamVector, { vectorId: { $in: ids } }, { fields: ['vectorId', 'revision', 'title', 'kind', 'text'] });
+      const byId = new Map(rows.map((r) => [r.vectorId, r]));
+      const present = ids.filter((id) => byId.has(id));
+      const results = await runBatch(deps.runPool, present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir })));
+      if (job.signal.aborted) return;
+      const now = deps.clock.now();
+      const records: Omit<IRunResult, 'id'>[] = present.map((id, i) => {
+        const row = byId.get(id)!;
+        const result = results[i]!;
+        return {
+          runId,
+          vectorId: id,
+          title: row.title,
+          kind: row.kind,
+          vectorRevision: row.revision,
+          ok: result.ok,
+          message: result.message ?? null,
+          durationMs: Math.max(0, result.durationMs),
+          newFailure: false,
+          detail: result.ok ? null : detailOf(result),
+          createdAt: now,
+        };
       });
-      await em.flush();
-      await em.nativeUpdate(TestRun, { id: runId }, { done: passed + failed, passed, failed });
-      const last = { id: vector.vectorId, ok: result.ok, durationMs: result.durationMs, ...(result.message ? { message: result.message } : {}) };
-      publishRun({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });
-    }),
-  );
-  await finishRun(deps.orm.em.fork(), deps, runId);
+      // A vector deleted from the library since the run started still gets a result.
+      for (const id of ids.filter((x) => !byId.has(x))) {
+        records.push({ runId, vectorId: id, title: null, kind: null, vectorRevision: null, ok: false, message: 'the vector was deleted from the library before it ran', durationMs: 0, newFailure: false, detail: null, createdAt: now });
+      }
+      for (const record of records) batchEm.create(RunResult, record);
+      await batchEm.flush();
+      for (const record of records) {
+        if (record.ok) passed += 1;
+        else failed += 1;
+      }
+      await batchEm.nativeUpdate(TestRun, { id: runId }, { done: passed + failed, passed, failed });
+      const lastRecord = records[records.length - 1]!;
+      const last = { id: lastRecord.vectorId, ok: lastRecord.ok, durationMs: lastRecord.durationMs, ...(lastRecord.message ? { message: lastRecord.message } : {}) };
+      job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });
+    }
+  };
+  await Promise.all(Array.from({ length: Math.max(1, Math.min(batches.length, deps.runPool.threads ?? 2) + 1) }, lane));
+  if (job.signal.aborted) return;
+  job.publish(runEvent(await finishRun(deps.orm.em.fork(), deps, runId)));
 }

@@ -43,7 +43,7 @@ export function newFailureMail(options: { to: string; name: string; run: ITestRu
 }
 
 /** One mail per author of a newly failing vector; mail trouble is logged, never fatal to the run. */
-export async function mailAuthors(em: EntityManager, deps: AppDeps, run: ITestRun, fresh: Map<string, string>): Promise<number> {
+export async function mailAuthors(em: EntityManager, deps: Pick<AppDeps, 'mailer' | 'publicUrl' | 'logger'>, run: ITestRun, fresh: Map<string, string>): Promise<number> {
   if (fresh.size === 0) return 0;
   const vectors = await em.find(TeamVector, { vectorId: { $in: [...fresh.keys()] } }, { fields: ['vectorId', 'authorId'] });
   const byAuthor = new Map<number, [string, string][]>();

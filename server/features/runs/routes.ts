@@ -1,4 +1,4 @@
-import express, { type RequestHandler, type Response } from 'express';
+import express, { type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
@@ -8,8 +8,8 @@ import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { tokenOf } from '../tokens/verify.ts';
 import { describeFilter, vectorFilterSchema, vectorWhere } from '../vectors/query.ts';
-import { finishRun, runningJob, startRunJob, type QueuedVector } from './job.ts';
-import { currentRunProgress, subscribeRun, type RunEvent } from './progress.ts';
+import { finishRun, runEvent, vectorRunJob } from './job.ts';
+import { streamJobEvents } from '../../jobs/sse.ts';
 import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
 import { readJsonReport, readReportText, type ReportRead } from './report.ts';
 
@@ -89,14 +89,6 @@ async function runWithResults(em: EntityManager, run: ITestRun) {
   return { run: presentRun(run), results: results.map((r) => ({ ...presentResult(r), inLibrary: known.has(r.vectorId) })) };
 }
 
-function sendSse(res: Response, event: RunEvent): void {
-  res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
-}
-
-function finalEvent(run: ITestRun): RunEvent {
-  return { type: 'done', runId: run.id, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed: run.passed, failed: run.failed, newFailures: run.newFailures, ...(run.errorMessage ? { error: run.errorMessage } : {}) };
-}
-
 /** CI posts multipart (field `file` plus `project`, `build`), raw `application/xml`, or JSON. */
 function reportUpload(): RequestHandler[] {
   const multipart = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_REPORT_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024 } }).single('file');
@@ -121,7 +113,8 @@ export const runsRoutes: RouteDef[] = [
       const { em, body, res, deps } = ctx;
       const me = currentUser(ctx);
       const where = body.all ? {} : body.ids ? { vectorId: { $in: body.ids } } : vectorWhere(body.filter ?? {});
-      const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' } });
+      // Ids only: the job reads each batch's texts as it goes.
+      const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' }, fields: ['vectorId'] });
       if (body.ids) {
         const missing = body.ids.filter((id) => !rows.some((r) => r.vectorId === id));
         if (missing.length > 0) throw badRequest(`ids: not in the library: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ` and ${missing.length - 5} more` : ''}`, 'invalid_input');
@@ -147,10 +140,9 @@ export const runsRoutes: RouteDef[] = [
         finishedAt: null,
       });
       await em.flush();
-      const queued: QueuedVector[] = rows.map((r) => ({ vectorId: r.vectorId, revision: r.revision, title: r.title, kind: r.kind, text: r.text }));
-      const job = startRunJob(deps, run.id, queued);
+      const job = await deps.jobs.enqueue(vectorRunJob, run.id, { runId: run.id, vectorIds: rows.map((r) => r.vectorId) });
       if (body.wait) {
-        await job;
+        await job.finished;
         res.status(201);
         return runWithResults(em.fork(), await findRun(em.fork(), run.id));
       }
@@ -257,45 +249,12 @@ export const runsRoutes: RouteDef[] = [
     path: '/api/runs/:id/events',
     access: 'signed-in',
     params: runIdParams,
-    async handler({ em, params, req, res }) {
+    async handler({ em, params, req, res, deps }) {
       const run = await findRun(em, params.id);
-      res.status(200);
-      // no-transform keeps compression from buffering the stream.
-      res.set({ 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'no-cache, no-transform', 'X-Accel-Buffering': 'no' });
-      res.flushHeaders();
-      const job = runningJob(run.id);
-      if (run.status !== 'running' || !job) {
-        sendSse(res, finalEvent(run.status === 'running' ? await findRun(em.fork(), run.id) : run));
-        res.end();
-        return undefined;
-      }
-      await new Promise<void>((resolveStream) => {
-        let ended = false;
-        const stop = () => {
-          if (ended) return;
-          ended = true;
-          unsubscribe();
-          clearInterval(heartbeat);
-          resolveStream();
-        };
-        const unsubscribe = subscribeRun(run.id, (event) => {
-          if (ended) return;
-          sendSse(res, event);
-          if (event.type === 'done') stop();
-        });
-        const heartbeat = setInterval(() => res.write(': still running\n\n'), 15_000);
-        req.on('close', stop);
-        sendSse(res, currentRunProgress(run.id) ?? { type: 'progress', runId: run.id, done: run.done, total: run.total, passed: run.passed, failed: run.failed });
-        // The job may have ended between the lookup and the subscription.
-        void job.then(async () => {
-          if (ended) return;
-          const final = finalEvent(await findRun(em.fork(), run.id));
-          if (ended) return;
-          sendSse(res, final);
-          stop();
-        });
+      await streamJobEvents(req, res, deps.jobs, vectorRunJob, run.id, {
+        heartbeat: 'still running',
+        snapshot: async () => runEvent(await findRun(em.fork(), run.id)),
       });
-      if (!res.writableEnded) res.end();
       return undefined;
     },
   }),

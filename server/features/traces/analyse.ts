@@ -1,82 +1,91 @@
 /**
- * Runs the analysis of one stored trace through the worker pool and records the outcome on its
- * row: the analysis, its counts and rule ids, or the error. Progress goes to the SSE hub as it
- * comes. A file in which nothing at all could be read is not a trace: its row and file go.
+ * The trace-analysis job: runs the analysis of one stored trace through the worker pool and
+ * records the outcome on its row (the analysis, its counts and rule ids, or the error), publishing
+ * progress as it comes. A file in which nothing at all could be read is not a trace: its row and
+ * file go. The job reads everything it needs from the row, so any worker of the queue can run it,
+ * and a retried job (its first worker died) simply analyses again.
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
-import { Trace } from '../../db/trace-entities.ts';
+import { Trace, type ITrace } from '../../db/trace-entities.ts';
 import type { Clock } from '../../context.ts';
-import { analysisPool, type AnalysisPool } from '../../analysis/pool.ts';
+import type { AnalysisPool } from '../../analysis/pool.ts';
 import type { TraceFormat } from '../../../shared/trace/index.ts';
-import { publishProgress } from './progress.ts';
+import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
+import type { ProgressEvent } from './progress.ts';
 import type { TraceStore } from './store.ts';
 
-export type AnalysisOutcome = { ok: true } | { ok: false; code: string; message: string; removed: boolean };
+export const traceAnalysisJob = jobKind<{ traceId: number }, ProgressEvent>('trace-analysis');
 
-const running = new Map<number, Promise<AnalysisOutcome>>();
-
-/** The analysis of that trace still running in this process, if any. */
-export function runningAnalysis(traceId: number): Promise<AnalysisOutcome> | undefined {
-  return running.get(traceId);
+/** The final event of a trace's analysis as its row tells it, or its progress while it is not over. */
+export function traceEvent(trace: ITrace | null): ProgressEvent {
+  if (!trace) return { type: 'failed', status: 'failed', error: { code: 'trace.not-a-trace', message: 'This is not a trace: nothing in the file could be read.' } };
+  if (trace.status === 'done') return { type: 'done', status: 'done', summary: trace.summary ?? '', counts: { error: trace.errorCount, warning: trace.warningCount, info: trace.infoCount } };
+  if (trace.status === 'failed') return { type: 'failed', status: 'failed', error: { code: trace.errorCode ?? 'analysis.failed', message: trace.errorMessage ?? 'The analysis failed.' } };
+  return { type: 'progress', status: trace.status, bytesRead: 0, totalBytes: trace.sizeBytes };
 }
 
-export interface AnalyseInput {
-  /** A fresh entity manager for the job (it outlives the request). */
+export interface AnalysisJobDeps {
+  /** A fresh entity manager for the job (it outlives any request). */
   fork(): EntityManager;
   clock: Clock;
   store: TraceStore;
-  trace: { id: number; sha256: string; format: string; sizeBytes: number };
-  pool?: AnalysisPool;
+  pool: AnalysisPool;
 }
 
-export function analyseTrace(input: AnalyseInput): Promise<AnalysisOutcome> {
-  const existing = running.get(input.trace.id);
-  if (existing) return existing;
-  const job = run(input)
-    .catch((cause: unknown): AnalysisOutcome => {
-      // A database failure mid-job: the row stays as it was and the caller hears why.
+export function traceAnalysisHandler(deps: AnalysisJobDeps): JobHandler<{ traceId: number }, ProgressEvent> {
+  return async ({ traceId }, job) => {
+    try {
+      await analyse(deps, traceId, job);
+    } catch (cause) {
+      if (job.signal.aborted) return;
+      // A database failure mid-job: the row stays as it was and the subscribers hear why.
       const message = `The analysis could not be stored (${cause instanceof Error ? cause.message : String(cause)}).`;
-      publishProgress(input.trace.id, { type: 'failed', status: 'failed', error: { code: 'analysis.failed', message } });
-      return { ok: false, code: 'analysis.failed', message, removed: false };
-    })
-    .finally(() => running.delete(input.trace.id));
-  running.set(input.trace.id, job);
-  return job;
+      job.publish({ type: 'failed', status: 'failed', error: { code: 'analysis.failed', message } });
+    }
+  };
 }
 
-async function run({ fork, clock, store, trace, pool = analysisPool() }: AnalyseInput): Promise<AnalysisOutcome> {
+async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number, job: JobContext<ProgressEvent>): Promise<void> {
   const em = fork();
-  const { id, sizeBytes } = trace;
+  const row = await em.findOne(Trace, { id });
+  // Deleted, or finished by an earlier attempt: nothing to do but tell the subscribers.
+  if (!row || row.status === 'done' || row.status === 'failed') return job.publish(traceEvent(row));
+  const { sha256, sizeBytes } = row;
+  if (!store.has(sha256)) {
+    // The file is gone (data folder copied without it): say so on the row rather than loop.
+    const message = 'The analysis failed: the stored file is missing.';
+    await em.nativeUpdate(Trace, { id }, { status: 'failed', errorCode: 'trace.file-missing', errorMessage: message, analysedAt: clock.now() });
+    return job.publish({ type: 'failed', status: 'failed', error: { code: 'trace.file-missing', message } });
+  }
   await em.nativeUpdate(Trace, { id }, { status: 'analysing' });
-  publishProgress(id, { type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });
-  const result = await pool.analyze(store.pathOf(trace.sha256), {
-    format: trace.format as TraceFormat,
-    onProgress: (p) => publishProgress(id, { type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
+  job.publish({ type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });
+  const result = await pool.analyze(store.pathOf(sha256), {
+    format: row.format as TraceFormat,
+    onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
   });
+  // Stopped by a shutdown: the row stays `analysing` for the next worker (or start-up) to take.
+  if (job.signal.aborted) return;
   if (!result.ok) {
     const { code } = result.error;
     if (code === 'trace.empty') {
       // Nothing readable in the whole file: it is not a trace, so nothing of it is kept.
       await em.nativeDelete(Trace, { id });
-      await store.remove(trace.sha256);
-      const message = `This is not a trace: ${result.error.message}.`;
-      publishProgress(id, { type: 'failed', status: 'failed', error: { code: 'trace.not-a-trace', message } });
-      return { ok: false, code: 'trace.not-a-trace', message, removed: true };
+      await store.remove(sha256);
+      return job.publish({ type: 'failed', status: 'failed', error: { code: 'trace.not-a-trace', message: `This is not a trace: ${result.error.message}.` } });
     }
     const message = `The analysis failed: ${result.error.message}.`;
     await em.nativeUpdate(Trace, { id }, { status: 'failed', errorCode: code, errorMessage: message, analysedAt: clock.now() });
-    publishProgress(id, { type: 'failed', status: 'failed', error: { code, message } });
-    return { ok: false, code, message, removed: false };
+    return job.publish({ type: 'failed', status: 'failed', error: { code, message } });
   }
   const { analysis } = result;
   const rules = [...new Set(analysis.findings.map((f) => f.rule))].sort();
-  const row = await em.findOneOrFail(Trace, { id }, { populate: ['analysis'] });
+  const fresh = await em.findOneOrFail(Trace, { id }, { populate: ['analysis'] });
   const headerTitle = typeof analysis.header?.title === 'string' ? analysis.header.title.trim().slice(0, 200) : '';
-  em.assign(row, {
+  em.assign(fresh, {
     // A title left empty at upload becomes the header's title, else the file name (lists sort by it).
-    ...(row.title === '' ? { title: headerTitle || row.fileName } : {}),
+    ...(fresh.title === '' ? { title: headerTitle || fresh.fileName } : {}),
     status: 'done',
-    format: analysis.format ?? trace.format,
+    format: analysis.format ?? fresh.format,
     summary: analysis.summary,
     messages: analysis.messages,
     errorCount: analysis.counts.error,
@@ -89,6 +98,5 @@ async function run({ fork, clock, store, trace, pool = analysisPool() }: Analyse
     analysedAt: clock.now(),
   });
   await em.flush();
-  publishProgress(id, { type: 'done', status: 'done', summary: analysis.summary, counts: analysis.counts });
-  return { ok: true };
+  job.publish({ type: 'done', status: 'done', summary: analysis.summary, counts: analysis.counts });
 }

@@ -13,15 +13,14 @@ import type { AppDeps } from '../../context.ts';
 import { badGateway, badRequest, conflict, forbidden, notFound, rateLimited } from '../../errors.ts';
 import { currentUser, route, type RouteContext, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
-import { analysisPool } from '../../analysis/pool.ts';
 import type { Analysis, TraceFormat } from '../../../shared/trace/index.ts';
-import { analyseTrace, runningAnalysis } from './analyse.ts';
+import { traceAnalysisJob, traceEvent } from './analyse.ts';
+import { streamJobEvents } from '../../jobs/sse.ts';
 import { createQueuedTrace } from './new-trace.ts';
 import { presentComment, presentTrace, type DeviceRef } from './present.ts';
-import { currentProgress, subscribeProgress, type ProgressEvent } from './progress.ts';
 import { buildReport, diagnosisMail } from './report.ts';
 import { sniffTrace } from './sniff.ts';
-import { hashingStorage, traceStore, type ReceivedTrace } from './store.ts';
+import { hashingStorage, type ReceivedTrace } from './store.ts';
 import { traceVectorText, vectorIdOf } from './vector.ts';
 
 /** api.md: admin, engineer, qa and support work with traces; viewers read them. */
@@ -101,7 +100,7 @@ function cleanFileName(name: string | undefined): string {
 
 /** multer with the hashing store, and a hook that deletes the temporary file however the request ends. */
 function uploadMiddleware(deps: AppDeps): RequestHandler[] {
-  const store = traceStore(deps.dataDir);
+  const store = deps.traceStore;
   const upload = multer({
     storage: hashingStorage(store),
     limits: { fileSize: MAX_TRACE_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024, parts: 12 },
@@ -131,18 +130,9 @@ function shareLimit(deps: AppDeps): RequestHandler[] {
   ];
 }
 
-function sendSse(res: import('express').Response, event: ProgressEvent): void {
-  res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
-}
-
-function finalEvent(trace: ITrace): ProgressEvent {
-  if (trace.status === 'done') return { type: 'done', status: 'done', summary: trace.summary ?? '', counts: { error: trace.errorCount, warning: trace.warningCount, info: trace.infoCount } };
-  return { type: 'failed', status: 'failed', error: { code: trace.errorCode ?? 'analysis.failed', message: trace.errorMessage ?? 'The analysis failed.' } };
-}
-
-/** Starts the analysis of a stored trace (or joins the one running). */
+/** Queues the analysis of a stored trace (or joins the one queued or running). */
 function startAnalysis(deps: AppDeps, trace: ITrace) {
-  return analyseTrace({ fork: () => deps.orm.em.fork(), clock: deps.clock, store: traceStore(deps.dataDir), trace: { id: trace.id, sha256: trace.sha256, format: trace.format, sizeBytes: trace.sizeBytes } });
+  return deps.jobs.enqueue(traceAnalysisJob, trace.id, { traceId: trace.id });
 }
 
 function mayDelete(user: IUser, trace: ITrace): boolean {
@@ -171,7 +161,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   const earlier = await duplicateOf();
   if (earlier) return earlier;
 
-  const store = traceStore(deps.dataDir);
+  const store = deps.traceStore;
   const now = deps.clock.now();
   const trace = createQueuedTrace(em, {
     title: body.title,
@@ -198,13 +188,13 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   }
   await store.keep(file.path, file.sha256);
 
-  const job = startAnalysis(deps, trace);
+  const job = await startAnalysis(deps, trace);
   if (query.wait === 'false') {
     res.status(201);
     return { trace: presentTrace(trace, devices), analysis: null };
   }
-  const outcome = await job;
-  if (!outcome.ok && outcome.removed) throw badRequest(outcome.message, outcome.code);
+  const outcome = await job.finished;
+  if (outcome.type === 'failed' && outcome.error.code === 'trace.not-a-trace') throw badRequest(outcome.error.message, outcome.error.code);
   const fresh = await findTrace(em.fork(), trace.id, true);
   res.status(201);
   return { trace: presentTrace(fresh, devices), analysis: fresh.analysis ?? null };
@@ -276,8 +266,7 @@ export const tracesRoutes: RouteDef[] = [
     params: idParams,
     async handler({ em, params, deps }) {
       const trace = await findTrace(em, params.id, true);
-      if ((trace.status === 'queued' || trace.status === 'analysing') && !runningAnalysis(trace.id)) void startAnalysis(deps, trace);
-      const progress = currentProgress(trace.id);
+      const progress = trace.status === 'queued' || trace.status === 'analysing' ? deps.jobs.latest(traceAnalysisJob, trace.id) : undefined;
       return {
         trace: presentTrace(trace, await deviceMap(em)),
         analysis: trace.analysis ?? null,
@@ -292,32 +281,10 @@ export const tracesRoutes: RouteDef[] = [
     params: idParams,
     async handler({ em, params, req, res, deps }) {
       const trace = await findTrace(em, params.id);
-      res.status(200);
-      // no-transform keeps compression from buffering the stream.
-      res.set({ 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'no-cache, no-transform', 'X-Accel-Buffering': 'no' });
-      res.flushHeaders();
-      if (trace.status === 'done' || trace.status === 'failed') {
-        sendSse(res, finalEvent(trace));
-        res.end();
-        return undefined;
-      }
-      const job = runningAnalysis(trace.id) ?? startAnalysis(deps, trace);
-      sendSse(res, currentProgress(trace.id) ?? { type: 'progress', status: trace.status, bytesRead: 0, totalBytes: trace.sizeBytes });
-      const unsubscribe = subscribeProgress(trace.id, (event) => {
-        if (event.type === 'progress') sendSse(res, event);
+      await streamJobEvents(req, res, deps.jobs, traceAnalysisJob, trace.id, {
+        heartbeat: 'still analysing',
+        snapshot: async () => traceEvent(await em.fork().findOne(Trace, { id: trace.id })),
       });
-      const heartbeat = setInterval(() => res.write(': still analysing\n\n'), 15_000);
-      req.on('close', () => {
-        unsubscribe();
-        clearInterval(heartbeat);
-      });
-      const outcome = await job;
-      unsubscribe();
-      clearInterval(heartbeat);
-      if (res.writableEnded || res.destroyed) return undefined;
-      if (!outcome.ok && outcome.removed) sendSse(res, { type: 'failed', status: 'failed', error: { code: outcome.code, message: outcome.message } });
-      else sendSse(res, finalEvent(await findTrace(em.fork(), trace.id)));
-      res.end();
       return undefined;
     },
   }),
@@ -328,7 +295,7 @@ export const tracesRoutes: RouteDef[] = [
     params: idParams,
     async handler({ em, params, res, deps }) {
       const trace = await findTrace(em, params.id);
-      const path = resolve(traceStore(deps.dataDir).pathOf(trace.sha256));
+      const path = resolve(deps.traceStore.pathOf(trace.sha256));
       if (!existsSync(path)) throw notFound('The stored file of this trace is missing', 'trace.file-missing');
       res.attachment(trace.fileName);
       res.type('text/plain; charset=utf-8');
@@ -346,12 +313,12 @@ export const tracesRoutes: RouteDef[] = [
       const me = currentUser(ctx);
       const trace = await findTrace(em, params.id);
       if (!mayDelete(me, trace)) throw forbidden('Only the uploader or an admin may delete a trace');
-      if (runningAnalysis(trace.id)) throw conflict('The trace is still being analysed; delete it when that is done', 'trace.busy');
+      if (await deps.jobs.isActive(traceAnalysisJob, trace.id)) throw conflict('The trace is still being analysed; delete it when that is done', 'trace.busy');
       await em.nativeDelete(TraceComment, { traceId: trace.id });
       recordAudit(em, deps.clock, { actor: me, action: 'trace.deleted', target: `trace:${trace.id}`, details: { fileName: trace.fileName } });
       em.remove(trace);
       await em.flush();
-      await traceStore(deps.dataDir).remove(trace.sha256);
+      await deps.traceStore.remove(trace.sha256);
       return undefined;
     },
   }),
@@ -427,7 +394,7 @@ export const tracesRoutes: RouteDef[] = [
     async handler({ em, params, res, deps }) {
       const trace = await findTrace(em, params.id, true);
       const analysis = analysedOrConflict(trace);
-      const read = await analysisPool().records(traceStore(deps.dataDir).pathOf(trace.sha256), trace.format as TraceFormat, VECTOR_RECORD_LIMIT);
+      const read = await deps.analysisPool.records(deps.traceStore.pathOf(trace.sha256), trace.format as TraceFormat, VECTOR_RECORD_LIMIT);
       if (!read.ok) throw badRequest(`The trace cannot be kept as a vector: ${read.error.message}`, read.error.code);
       const presented = presentTrace(trace, await deviceMap(em));
       res.attachment(`${vectorIdOf(presented).split('/').pop()}.vector.json`);

@@ -1,0 +1,14 @@
+/**
+ * Every kind of background job and its handler, registered on the app's queue. A process that
+ * registers a kind works on its jobs: every server, and `parley worker`.
+ */
+import type { AppDeps } from '../context.ts';
+import { traceAnalysisHandler, traceAnalysisJob } from '../features/traces/analyse.ts';
+import { vectorRunHandler, vectorRunJob } from '../features/runs/job.ts';
+
+export type JobDeps = Pick<AppDeps, 'orm' | 'clock' | 'mailer' | 'publicUrl' | 'logger' | 'jobs' | 'traceStore' | 'analysisPool' | 'runPool'>;
+
+export function registerJobKinds(deps: JobDeps): void {
+  deps.jobs.handle(traceAnalysisJob, traceAnalysisHandler({ fork: () => deps.orm.em.fork(), clock: deps.clock, store: deps.traceStore, pool: deps.analysisPool }));
+  deps.jobs.handle(vectorRunJob, vectorRunHandler(deps));
+}
