@@ -7,6 +7,7 @@ import fc from 'fast-check';
 import type { MessageInput, DataObjectInput } from './encode-message.ts';
 import type { FieldLayout, WordLayout } from './layout.ts';
 import { otherLayout, VDM_STRUCTURED_LAYOUT, VDM_UNSTRUCTURED_LAYOUT } from './layouts-other.ts';
+import { VDO_LAYOUTS } from './layouts-vdo.ts';
 import { CONTROL_TYPES, EXTENDED_TYPES } from './message-types.ts';
 import type { Sop } from './types.ts';
 
@@ -76,8 +77,8 @@ const hexBytes = (min: number, max: number) => fc.uint8Array({ minLength: min, m
 /** `{ message, caps? }`: a valid message and, for a Request, the offers its RDO refers to. */
 export type Sample = { message: MessageInput; caps?: DataObjectInput[] };
 
-function withHeader(messageType: string, rest: fc.Arbitrary<Omit<MessageInput, 'header' | 'sop'> & { caps?: DataObjectInput[] }>): fc.Arbitrary<Sample> {
-  return sopArb.chain((sop) =>
+function withHeader(messageType: string, rest: fc.Arbitrary<Omit<MessageInput, 'header' | 'sop'> & { caps?: DataObjectInput[] }>, sops: fc.Arbitrary<Sop> = sopArb): fc.Arbitrary<Sample> {
+  return sops.chain((sop) =>
     fc.tuple(headerArb(sop, messageType), rest).map(([header, { caps, ...body }]) => ({ message: { sop, header, ...body }, ...(caps ? { caps } : {}) })),
   );
 }
@@ -92,7 +93,22 @@ const eprRequestArb = sourcePdoArb.chain((pdo) => fc.integer({ min: 1, max: 13 }
 
 const single = (type: string, kind: string) => withHeader(type, layoutObjectArb(otherLayout(kind, 0)!).map((o) => ({ objects: [o] })));
 
+const vdo = (kind: string, fixed: Record<string, unknown> = {}) => layoutObjectArb(VDO_LAYOUTS[kind]!, fixed);
+const ackHeader = (command: string) => layoutObjectArb(VDM_STRUCTURED_LAYOUT, { svid: 0xff00, structured: true, commandType: 'ACK', command });
+
+/** Discover Identity ACKs (USB PD R3.2 V1.1 §6.4.4.3.1): each cable type on SOP', each port type on SOP. */
+export const discoverIdentityArb: fc.Arbitrary<Sample> = fc.oneof(
+  ...([['Passive Cable', ['passive-cable']], ['Active Cable', ['active-cable-1', 'active-cable-2']], ['VCONN-Powered USB Device', ['vpd']]] as const).map(([type, kinds]) =>
+    withHeader('Vendor_Defined', fc.tuple(ackHeader('Discover Identity'), vdo('cable-id-header', { productTypeCablePlug: type }), vdo('cert-stat'), vdo('product'), ...kinds.map((k) => vdo(k))).map((objects) => ({ objects })), fc.constantFrom("SOP'" as const, "SOP''" as const)),
+  ),
+  ...([['PDUSB Peripheral', 'Not a DFP', ['ufp']], ['Not a UFP', 'Power Brick', ['dfp']], ['PDUSB Hub', 'PDUSB Hub', ['ufp', 'pad', 'dfp']], ['PSD', 'Not a DFP', []]] as const).map(([ufp, dfp, kinds]) =>
+    withHeader('Vendor_Defined', fc.tuple(ackHeader('Discover Identity'), vdo('id-header', { productTypeUfp: ufp, productTypeDfp: dfp }), vdo('cert-stat'), vdo('product'), ...kinds.map((k) => vdo(k))).map((objects) => ({ objects })), fc.constant('SOP' as const)),
+  ),
+  withHeader('Vendor_Defined', fc.tuple(ackHeader('Discover SVIDs'), fc.array(vdo('svids'), { minLength: 1, maxLength: 6 })).map(([h, rest]) => ({ objects: [h, ...rest] }))),
+);
+
 const dataArb = fc.oneof(
+  discoverIdentityArb,
   withHeader('Source_Capabilities', fc.array(sourcePdoArb, { minLength: 1, maxLength: 7 }).map((objects) => ({ objects }))),
   withHeader('Sink_Capabilities', fc.array(sinkPdoArb, { minLength: 1, maxLength: 7 }).map((objects) => ({ objects }))),
   requestArb,
@@ -100,7 +116,8 @@ const dataArb = fc.oneof(
   withHeader('BIST', fc.tuple(layoutObjectArb(otherLayout('bist', 0)!), fc.array(rawArb, { maxLength: 6 })).map(([b, rest]) => ({ objects: [b, ...rest] }))),
   withHeader(
     'Vendor_Defined',
-    fc.tuple(fc.oneof(layoutObjectArb(VDM_STRUCTURED_LAYOUT, { structured: true }), layoutObjectArb(VDM_UNSTRUCTURED_LAYOUT, { structured: false })), fc.array(rawArb, { maxLength: 6 })).map(([h, rest]) => ({ objects: [h, ...rest] })),
+    // Headers other than the Discover Identity / SVIDs ACKs above, whose VDOs stay raw.
+    fc.tuple(fc.oneof(layoutObjectArb(VDM_STRUCTURED_LAYOUT, { structured: true }).filter((h) => !((h as Record<string, unknown>).svid === 0xff00 && (h as Record<string, unknown>).commandType === 'ACK')), layoutObjectArb(VDM_UNSTRUCTURED_LAYOUT, { structured: false })), fc.array(rawArb, { maxLength: 6 })).map(([h, rest]) => ({ objects: [h, ...rest] })),
   ),
   single('Battery_Status', 'battery-status'),
   single('Alert', 'alert'),

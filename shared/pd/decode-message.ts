@@ -77,7 +77,7 @@ function decode(bytes: Uint8Array, options: DecodeOptions): DecodeResult {
     }
     const words = new Array<number>(header.numDataObjects);
     for (let i = 0, o = 2; i < words.length; i++, o += 4) words[i] = (body[o]! | (body[o + 1]! << 8) | (body[o + 2]! << 16) | (body[o + 3]! << 24)) >>> 0;
-    message = { sop, header, objects: decodeObjects(header.messageType, words, options.caps, warnings) };
+    message = { sop, header, objects: decodeObjects(header.messageType, words, options.caps, warnings, sop) };
   }
   if (crc) message.crc = crc;
   return { ok: true, message, warnings };

@@ -11,7 +11,8 @@ import { decodeOtherObject } from './other-objects.ts';
 import { decodeRdo, RDO_RESERVED_MASKS } from './rdo.ts';
 import { decodeSinkPdo, SINK_RESERVED_MASKS } from './sink-pdo.ts';
 import { decodeSourcePdo, SOURCE_RESERVED_MASKS } from './source-pdo.ts';
-import type { DataObject } from './types.ts';
+import type { DataObject, Sop } from './types.ts';
+import { vdmObjectKinds } from './vdm-objects.ts';
 
 const SINGLE_FORM: Record<string, string> = {
   Battery_Status: 'battery-status',
@@ -26,8 +27,18 @@ const SINGLE_FORM: Record<string, string> = {
 /** A referenced offer for typing an RDO: any object with a `kind`. */
 export type OfferLike = { kind: string };
 
-export function decodeObjects(messageType: string, words: ArrayLike<number>, caps: readonly OfferLike[] | undefined, warnings: Finding[]): DataObject[] {
+/** `sop` tells a cable plug's Discover Identity response (SOP'/SOP'') from a port partner's (SOP). */
+export function decodeObjects(messageType: string, words: ArrayLike<number>, caps: readonly OfferLike[] | undefined, warnings: Finding[], sop: Sop = 'SOP'): DataObject[] {
   const objects: DataObject[] = new Array(words.length);
+  if (messageType === 'Vendor_Defined') {
+    const kinds = vdmObjectKinds(words, sop);
+    for (let i = 0; i < words.length; i++) {
+      const raw = words[i]! >>> 0;
+      const kind = kinds[i];
+      objects[i] = kind ? other(kind, raw, i + 1, warnings) : { kind: 'raw', raw: hex32(raw) };
+    }
+    return objects;
+  }
   for (let i = 0; i < words.length; i++) {
     const raw = words[i]! >>> 0;
     objects[i] = decodeOne(messageType, i, raw, words, caps, warnings);
@@ -60,8 +71,6 @@ function decodeOne(type: string, i: number, raw: number, words: ArrayLike<number
     }
     case 'BIST':
       return i === 0 ? other('bist', raw, position, warnings) : { kind: 'raw', raw: hex32(raw) };
-    case 'Vendor_Defined':
-      return i === 0 ? other('vdm-header', raw, position, warnings) : { kind: 'raw', raw: hex32(raw) };
     default: {
       const kind = SINGLE_FORM[type];
       return kind && i === 0 ? other(kind, raw, position, warnings) : { kind: 'raw', raw: hex32(raw) };

@@ -23,6 +23,8 @@ export interface FieldLayout {
   values?: Readonly<Record<number, string>>;
   /** const: the value of the tag bits. */
   value?: number;
+  /** flag: the bit is 0 when the field is true (the specification's "0b = supported" fields). */
+  inverted?: boolean;
 }
 
 export interface WordLayout {
@@ -57,7 +59,7 @@ export function fieldValue(raw: number, f: FieldLayout): number | boolean | stri
   const count = fieldCount(raw, f);
   switch (f.type) {
     case 'flag':
-      return count === 1;
+      return f.inverted ? count === 0 : count === 1;
     case 'enum':
       return f.values?.[count] ?? count;
     case 'ascii': {
@@ -91,7 +93,7 @@ export function encodeFields(object: Record<string, unknown>, layout: WordLayout
         count = f.value ?? 0;
         break;
       case 'flag':
-        count = flag(object[f.name], f.name);
+        count = flag(object[f.name], f.name) ^ (f.inverted ? 1 : 0);
         break;
       case 'enum':
         count = enumCount(object[f.name], f, width);

@@ -4,6 +4,7 @@
  * a note says so).
  */
 import type { FieldLayout, WordLayout } from './layout.ts';
+import { VDO_LAYOUTS } from './layouts-vdo.ts';
 
 const R = (hi: number, lo: number): FieldLayout => ({ name: 'reserved', hi, lo, type: 'reserved', label: 'Reserved' });
 const flagAt = (bit: number, name: string, label: string): FieldLayout => ({ name, hi: bit, lo: bit, type: 'flag', label });
@@ -149,6 +150,6 @@ export function otherLayout(kind: string, raw: number): WordLayout | undefined {
     case 'source-info': return SOURCE_INFO_LAYOUT;
     case 'revision': return REVISION_LAYOUT;
     case 'vdm-header': return raw & 0x8000 ? VDM_STRUCTURED_LAYOUT : VDM_UNSTRUCTURED_LAYOUT;
-    default: return undefined;
+    default: return VDO_LAYOUTS[kind];
   }
 }
