@@ -8,6 +8,9 @@ const UNIT_SUFFIXES: readonly [suffix: string, unit: string, divisor: number][] 
   ['Mv', 'V', 1000], ['Ma', 'A', 1000], ['Mw', 'W', 1000], ['Mwh', 'Wh', 1000], ['Ms', 'ms', 1], ['W', 'W', 1], ['C', '°C', 1],
 ];
 
+/** Identifiers shown in hex, as the specification and USB descriptors print them. */
+const HEX_FIELDS = new Set(['svid', 'vid', 'pid', 'xid', 'usbVendorId', 'usbProductId', 'bcdDevice', 'svidN', 'svidNPlus1']);
+
 /** "maxCurrent15vMa" → "max current 15v"; "pdpW" → "PDP". */
 export function fieldWords(name: string): string {
   let base = name;
@@ -20,7 +23,7 @@ export function fieldWords(name: string): string {
   return base
     .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
     .toLowerCase()
-    .replace(/\b(pdp|usb|epr|spr|pps|avs|ocp|otp|ovp|svid|vid|pid|xid|drd|dp|tbt|pcie|ptf|omf)\b/g, (w) => w.toUpperCase())
+    .replace(/\b(pdp|usb|epr|spr|pps|avs|ocp|otp|ovp|svid|vid|pid|xid|drd|dp|tbt|pcie|ptf|omf|vbus|vconn|sbu|vdo|hw|id|vpd|ufp|dfp)\b/g, (w) => w.toUpperCase())
     .replace(/\busb(\d)/gi, 'USB$1')
     .replace(/([a-z])(\d+)v\b/g, '$1 $2 V');
 }
@@ -30,7 +33,7 @@ export function formatValue(name: string, value: unknown): string {
   if (value === null) return 'not supported';
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value !== 'number') return String(value);
-  if (name === 'svid' || name === 'vid' || name === 'pid' || name === 'xid') return '0x' + value.toString(16).padStart(4, '0');
+  if (HEX_FIELDS.has(name)) return '0x' + value.toString(16).padStart(value > 0xffff ? 8 : 4, '0');
   for (const [suffix, unit, divisor] of UNIT_SUFFIXES) {
     if (name.endsWith(suffix) && /[a-z0-9]/.test(name[name.length - suffix.length - 1] ?? '')) return `${trim(value / divisor)} ${unit}`;
   }
