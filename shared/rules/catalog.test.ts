@@ -14,7 +14,7 @@ function engineSources(dir: string): string[] {
   });
 }
 /** A quoted string that is a whole rule-like id: 'caps.order', "decode.crc", `timing.ps-transition`. */
-const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|vbus|trace)\.[a-z0-9-]+)['"`]/g;
+const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|epr|vbus|trace)\.[a-z0-9-]+)['"`]/g;
 /**
  * Result error codes of the engine's edge (shared/core/result.ts): input errors, never findings, so
  * they have no rule page. A decode error code becomes a finding only when it is a catalog id
@@ -32,6 +32,10 @@ const contractRules = new Map<string, string>([
   ['protocol.missing-goodcrc', 'error'], ['protocol.message-id', 'error'], ['protocol.unexpected', 'error'], ['protocol.hard-reset', 'info'],
   ['protocol.soft-reset', 'info'], ['vbus.out-of-range', 'error'], ['vbus.over-current', 'warning'], ['trace.malformed-line', 'warning'],
   ['trace.time-order', 'error'],
+  // Added in the second version.
+  ['caps.cable-epr', 'info'], ['caps.revision', 'error'], ['request.epr-copy', 'error'], ['timing.receiver-response', 'warning'],
+  ['timing.sink-request', 'error'], ['timing.epr-keepalive', 'error'], ['timing.hard-reset-recovery', 'error'], ['epr.entry', 'error'],
+  ['protocol.collision', 'error'],
 ]);
 
 describe('rule catalog', () => {
@@ -48,7 +52,7 @@ describe('rule catalog', () => {
       expect(entry.title.length, id).toBeGreaterThan(5);
       expect(entry.explanation.length, id).toBeGreaterThan(120);
       expect(entry.ref.length, id).toBeGreaterThan(5);
-      expect(['decode', 'caps', 'request', 'timing', 'protocol', 'vbus', 'trace']).toContain(ruleGroup(id));
+      expect(['decode', 'caps', 'request', 'timing', 'protocol', 'epr', 'vbus', 'trace']).toContain(ruleGroup(id));
     }
   });
 

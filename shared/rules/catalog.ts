@@ -10,7 +10,7 @@
 import type { Finding, Severity } from '../core/finding.ts';
 
 export type RuleBasis = 'specification' | 'from memory' | 'common practice';
-export type RuleGroup = 'decode' | 'caps' | 'request' | 'timing' | 'protocol' | 'vbus' | 'trace';
+export type RuleGroup = 'decode' | 'caps' | 'request' | 'timing' | 'protocol' | 'epr' | 'vbus' | 'trace';
 
 export interface RuleEntry {
   severity: Severity;
@@ -172,6 +172,22 @@ export const ruleCatalog = {
     ref: `${R31} §10.2.1 Source Power Rating (PDP); §6.5.1 Source_Capabilities_Extended (Source PDP)`,
     basis: 'from memory',
   },
+  'caps.cable-epr': {
+    severity: 'info',
+    title: 'EPR offers need an EPR-capable cable',
+    explanation:
+      'Offers above 20 V (fixed 28, 36 or 48 V, and the EPR adjustable range) exist only in EPR mode, and a sink may enter EPR mode only over a cable whose electronic marker says it carries 50 V and 5 A and is EPR capable. Over any other cable the sink stays in SPR mode and cannot use these offers at all (it does not get them at a lower current). If a customer expects the higher power, check the cable first: it needs an EPR-capable 240 W e-marked cable.',
+    ref: `${R32} §6.4.10 EPR Mode; §8.3.3.26 EPR entry (the source checks the cable); USB Type-C R2.3 §4.9 Electronically Marked Cables`,
+    basis: 'from memory',
+  },
+  'caps.revision': {
+    severity: 'error',
+    title: 'PD 2.0 source offers programmable supplies',
+    explanation:
+      'Augmented PDOs (programmable PPS ranges, adjustable AVS ranges) were added in USB PD Revision 3.0; a Revision 2.0 port cannot offer them and a Revision 2.0 sink reads them as reserved objects. A source whose messages say Specification Revision 2.0 while its Source_Capabilities hold APDOs is inconsistent: either the header field is wrong (the port really speaks 3.x) or the offers are. Ask the charger\'s firmware owner which one it is.',
+    ref: `${R32} §6.2.1.1.5 Specification Revision; §6.4.1 Power Data Objects (APDOs are Revision 3.x only)`,
+    basis: 'from memory',
+  },
   'caps.label-mismatch': {
     severity: 'warning',
     title: 'Offers disagree with the printed rating',
@@ -196,6 +212,22 @@ export const ruleCatalog = {
     explanation:
       'The Operating Current (or power) requested is higher than the offer allows; for fixed and variable supplies the Maximum Operating Current may exceed it only with Capability Mismatch set. A source must Reject such a request. Cap the request at the offered current and set Capability Mismatch when the sink needs more.',
     ref: `${R31} §6.4.2 Request Message, Tables 6-21 to 6-25 (Request Data Objects)`,
+    basis: 'from memory',
+  },
+  'request.epr-copy': {
+    severity: 'error',
+    title: 'EPR_Request carries the wrong PDO copy',
+    explanation:
+      'An EPR_Request sends, after its Request Data Object, a copy of the offer it names, so the source can check that the sink read the same EPR_Source_Capabilities. When the copy is not the object at that position, the two sides disagree about what is asked for, and the source must reject the request (or, worse, apply a different supply). Capture the EPR_Source_Capabilities the sink answered and compare: usually the sink kept a stale list or counted positions wrongly.',
+    ref: `${R32} §6.4.2 Request Message (EPR_Request: RDO then a copy of the PDO); §6.5.15 EPR_Source_Capabilities`,
+    basis: 'from memory',
+  },
+  'request.cable-current': {
+    severity: 'error',
+    title: 'More current requested than the cable carries',
+    explanation:
+      'The cable\'s electronic marker (its answer to Discover Identity on SOP\') states the VBUS current it is built for, 3 A or 5 A. A source must not offer, and a contract must not use, more than the cable carries: above it the cable heats and may be damaged. The trace shows a contract above the cable\'s rating; the source should have limited its offers to 3 A after reading the cable, or the sink should not have asked for more.',
+    ref: `${R32} §6.4.4.3.1 Discover Identity, Passive/Active Cable VDO (VBUS Current Handling Capability); §4.4 Cable Type Detection; USB Type-C R2.3 §4.9`,
     basis: 'from memory',
   },
   'request.out-of-range': {
@@ -232,6 +264,38 @@ export const ruleCatalog = {
     ref: `${R32} §6.6.20 SinkPPSPeriodicTimer; Time Values table (tPPSRequest, tPPSTimeout)`,
     basis: 'from memory',
   },
+  'timing.receiver-response': {
+    severity: 'warning',
+    title: 'Slow answer (tReceiverResponse)',
+    explanation:
+      'A port that receives a message needing an answer (Source_Capabilities, a Request, a swap request) should send that answer within tReceiverResponse, 15 ms. The partner still waits up to tSenderResponse (about 30 ms), so the negotiation did not fail, but there is little margin left: under load or with a retry the answer will be late and the partner will reset. Look at what the answering side does between receiving and answering.',
+    ref: `${R32} §6.6.2 SenderResponseTimer; Time Values table (tReceiverResponse 15 ms)`,
+    basis: 'from memory',
+  },
+  'timing.sink-request': {
+    severity: 'error',
+    title: 'Request repeated too soon after Wait',
+    explanation:
+      'When a source answers a Request with Wait, the sink must wait at least tSinkRequest (100 ms) before it asks again, unless new Source_Capabilities arrive first. Asking sooner floods a source that has just said it cannot serve the request yet. Fix the sink\'s SinkRequestTimer.',
+    ref: `${R32} §6.6.4.2 SinkRequestTimer; Time Values table (tSinkRequest)`,
+    basis: 'from memory',
+  },
+  'timing.epr-keepalive': {
+    severity: 'error',
+    title: 'No EPR keep-alive',
+    explanation:
+      'In EPR mode the sink must show it is still there: when it has nothing else to send it sends EPR_KeepAlive at least every tSinkEPRKeepAlive (0.5 s), and the source, hearing nothing for tSourceEPRKeepAlive (about 1 s), leaves EPR mode with a Hard Reset so that no 28–48 V stays on an unattended cable. A missing keep-alive is the sink\'s fault and is the usual cause of an EPR adapter dropping to 5 V about a second after the contract.',
+    ref: `${R32} §6.6.21 EPR timers (SinkEPRKeepAliveTimer, SourceEPRKeepAliveTimer); §8.3.3.3.11 EPR keep-alive`,
+    basis: 'from memory',
+  },
+  'timing.hard-reset-recovery': {
+    severity: 'error',
+    title: 'VBUS did not follow the Hard Reset',
+    explanation:
+      'After a Hard Reset the source must take VBUS to vSafe0V (starting tPSHardReset after the reset, reaching it within tSafe0V), keep it off for tSrcRecover, turn it back on to vSafe5V within tSrcTurnOn and offer again within tFirstSourceCap; it gives up after nHardResetCount resets with no answer. The VBUS readings show a step missed, too early or too late, or more resets than allowed. A source that does not remove VBUS leaves the sink unsure whether the reset happened; one that comes back too early can harm a sink still discharging.',
+    ref: `${R32} §7.1.5 Response to Hard Resets; §6.8.3 Hard Reset; Time Values table (tPSHardReset, tSafe0V, tSrcRecover, tSrcTurnOn, tFirstSourceCap); Counter Values (nHardResetCount)`,
+    basis: 'from memory',
+  },
   'timing.caps-interval': {
     severity: 'warning',
     title: 'Source_Capabilities repeated at the wrong interval',
@@ -266,6 +330,14 @@ export const ruleCatalog = {
     ref: `${R32} §8.3.3 State Diagrams`,
     basis: 'from memory',
   },
+  'protocol.collision': {
+    severity: 'error',
+    title: 'Sink started an exchange while the source said SinkTxNG',
+    explanation:
+      'In USB PD 3.x the source signals through its Rp who may start the next exchange: Rp at 3.0 A means SinkTxOK (the sink may start), Rp at 1.5 A means SinkTxNG (the source is about to send; the sink must not start). A sink that starts anyway, after the source has held SinkTxNG for tSinkTx, collides with the source\'s message, and one of them is lost. Fix the sink to read Rp before it starts an exchange.',
+    ref: `${R32} §5.7 Collision Avoidance; USB Type-C R2.3 §4.8.1.3 (Rp levels as SinkTxOK/SinkTxNG); Time Values table (tSinkTx)`,
+    basis: 'from memory',
+  },
   'protocol.hard-reset': {
     severity: 'info',
     title: 'Hard Reset',
@@ -280,6 +352,16 @@ export const ruleCatalog = {
     explanation:
       'A Soft_Reset resets the message counters and the protocol state without touching VBUS; the source then sends Source_Capabilities again. It is the normal answer to an unexpected message. An occasional one is harmless; many point at a protocol fault worth finding.',
     ref: `${R32} §6.8.1 Soft Reset and Protocol Error`,
+    basis: 'from memory',
+  },
+
+  // ---- epr ---------------------------------------------------------------------------------------
+  'epr.entry': {
+    severity: 'error',
+    title: 'EPR mode entered out of order',
+    explanation:
+      'EPR mode has a fixed way in: an explicit SPR contract, the sink\'s EPR_Mode (Enter), the source\'s Enter Acknowledged, the source checking the cable\'s e-marker, then Enter Succeeded; only then come EPR_Source_Capabilities and EPR_Request. The trace shows a step skipped — EPR offers or an EPR_Request outside EPR mode, or EPR mode entered over a cable whose e-marker is not EPR capable (which risks 28–48 V on a cable not built for it).',
+    ref: `${R32} §6.4.9 EPR_Mode; §8.3.3.26 EPR Mode entry (source and sink); §6.4.4.3.1 cable VDO EPR Mode Capable`,
     basis: 'from memory',
   },
 
@@ -332,14 +414,19 @@ export function ruleGroup(rule: RuleId): RuleGroup {
   return rule.slice(0, rule.indexOf('.')) as RuleGroup;
 }
 
-/** A finding with the catalog's severity and ref (a caller may give a more precise ref). */
+/**
+ * A finding with the catalog's severity and ref (a caller may give a more precise ref). `lowerTo`
+ * may only soften it: a fault the ports recovered from (a CRC error a retry repaired) is a warning.
+ */
 export function makeFinding(
   rule: RuleId,
   message: string,
-  extra: { t?: number; line?: number; object?: number; ref?: string } = {},
+  extra: { t?: number; line?: number; object?: number; ref?: string; lowerTo?: Severity } = {},
 ): Finding {
   const entry: RuleEntry = ruleCatalog[rule];
-  const finding: Finding = { rule, severity: entry.severity, message, ref: extra.ref ?? entry.ref };
+  const rank: Record<Severity, number> = { info: 0, warning: 1, error: 2 };
+  const severity = extra.lowerTo !== undefined && rank[extra.lowerTo] < rank[entry.severity] ? extra.lowerTo : entry.severity;
+  const finding: Finding = { rule, severity, message, ref: extra.ref ?? entry.ref };
   if (extra.t !== undefined) finding.t = extra.t;
   if (extra.line !== undefined) finding.line = extra.line;
   if (extra.object !== undefined) finding.object = extra.object;

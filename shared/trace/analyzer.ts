@@ -10,6 +10,7 @@ import type { Finding, Severity } from '../core/finding.ts';
 import type { Sop } from '../pd/types.ts';
 import { isRuleId, makeFinding, ruleCatalog, type RuleId } from '../rules/index.ts';
 import { crc32 } from '../wire/index.ts';
+import { createCrcErrors } from './crc-errors.ts';
 import { createDecodeCache } from './decode-cache.ts';
 import type { TraceFormat } from './detect-format.ts';
 import { createFindingStore } from './findings-store.ts';
@@ -95,6 +96,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
   };
 
   const protocol = createProtocolTracker(report);
+  const crcErrors = createCrcErrors(report);
   const policy = createPolicyTracker(report, {
     contract(contract, t, changed) {
       closeVbusProblems();
@@ -111,6 +113,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       store.add(f, f.t ?? lastT);
     },
     goodCrcSeen: () => protocol.goodCrcSeen(),
+    roleSwap: () => protocol.forgetIds('SOP'),
     softReset(m) {
       const cause = recentProblem(m.t);
       report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });
@@ -164,7 +167,6 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     const from: TraceSide = r.from ?? (d.cablePlug ? 'cable' : (d.powerRole ?? 'source'));
     let crcOk = r.crcOk !== false;
     if (crcOk && r.crc !== undefined && Number.parseInt(r.crc.replace(/^0x/i, ''), 16) !== crc32(d.bytes) >>> 0) crcOk = false;
-    if (!crcOk) report('decode.crc', `The ${d.messageType} from the ${from} at ${seconds(t)} arrived with a wrong CRC, so the receiver had to discard it.`, { t, line });
     if (d.messageType === 'Source_Capabilities' && crcOk) sourceCapabilities++;
     const seen: SeenMessage = { t, endUs: t + d.durationUs, from, sop, d, crcOk, line, index: -1, ackEndUs: undefined, acks: undefined };
     const delivery = protocol.onMessage(seen);
@@ -182,11 +184,13 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       ...(seen.acks && seen.acks.index >= 0 ? { goodCrcFor: seen.acks.index } : {}),
       ...(line !== undefined ? { line } : {}),
     });
+    crcErrors.onMessage(seen);
     if (delivery === 'new') policy.onMessage(seen);
   }
 
   function onEvent(r: EventRecord, t: number): void {
     timeline.event(r.from ? { t, event: r.event, from: r.from } : { t, event: r.event });
+    crcErrors.flush();
     if (r.event === 'cable_reset') {
       protocol.reset(t, 'cable');
       return;
@@ -267,6 +271,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       policy.advance(lastT);
       policy.finish(lastT);
       protocol.finish(lastT);
+      crcErrors.flush();
       closeVbusProblems();
       const counts = { ...store.counts };
       const analysis: Analysis = {

@@ -9,7 +9,7 @@
  */
 import type { Contract } from '../core/contract.ts';
 import type { Finding } from '../core/finding.ts';
-import { timersFor, type TimerTable } from '../core/timers.ts';
+import { timersFor, type TimerRangeUs, type TimerTable } from '../core/timers.ts';
 import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
 import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
 import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
@@ -37,6 +37,11 @@ interface PendingRequest extends Pending {
   rdo: Rdo;
   pdo: SourcePdo | undefined;
 }
+interface Accepted extends Pending {
+  request: PendingRequest;
+  /** Accepted in EPR mode (or an EPR_Request): tPSTransition is the EPR value. */
+  epr: boolean;
+}
 
 export interface ActiveContract {
   contract: Contract;
@@ -55,6 +60,10 @@ export interface PolicyEvents {
   softReset(m: SeenMessage): void;
   /** A finding of the rules engine (caps, request), passed on as it is with the message's time and line. */
   finding(f: Finding): void;
+  /** A PR_Swap or FR_Swap was accepted or completed: the protocol layers count MessageIDs afresh. */
+  roleSwap?(t: number): void;
+  /** Whether EPR mode holds now (epr.ts). */
+  inEpr?(): boolean;
   /** Whether the trace has shown any GoodCRC so far (logs without them time a Request from its own end). */
   goodCrcSeen?(): boolean;
 }
@@ -83,7 +92,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let capsWaiting: Pending | undefined;
   let lastUnackedCaps: SeenMessage | undefined;
   let request: PendingRequest | undefined;
-  let accepted: (Pending & { request: PendingRequest }) | undefined;
+  let accepted: Accepted | undefined;
   let other: Pending | undefined;
   let swapPsRdy = 0;
   let contract: ActiveContract | undefined;
@@ -127,8 +136,10 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       since: sinceText(p), none: 'no answer', giveUpAfterUs: tSenderResponse.minUs,
     };
   };
-  const awaitPsRdyAfter = (p: Pending & { request: PendingRequest }): Awaited => {
-    const { tPSTransition } = timers();
+  /** tPSTransition of the mode the Accept came in (§6.6.4.1, Time Values: SPR and EPR values differ). */
+  const psTransitionOf = (a: Accepted): TimerRangeUs => (a.epr ? timers().tPSTransitionEpr : timers().tPSTransition);
+  const awaitPsRdyAfter = (p: Accepted): Awaited => {
+    const tPSTransition = psTransitionOf(p);
     return {
       watch: p, rule: 'timing.ps-transition', timerName: 'tPSTransition', timer: tPSTransition, startUs: ackEnd(p.m), waiter: 'sink', line: p.m.line,
       missing: `The source accepted the Request at ${seconds(p.request.m.t)} but sent no PS_RDY`,
@@ -221,7 +232,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     if (request && request.m.from !== m.from) {
       checkResponse(request, m);
       if (type === 'Accept') {
-        accepted = { m, request, reported: false };
+        accepted = { m, request, reported: false, epr: request.m.d.messageType === 'EPR_Request' || events.inEpr?.() === true };
         transition = true;
       }
       request = undefined;
@@ -231,6 +242,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (type === 'Accept' && (other.m.d.messageType === 'PR_Swap' || other.m.d.messageType === 'FR_Swap')) {
         swapPsRdy = 2;
         transition = true;
+        events.roleSwap?.(m.t);
       }
       other = undefined;
       return;
@@ -240,15 +252,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
 
   const onPsRdy = (m: SeenMessage): void => {
     if (swapPsRdy > 0) {
+      // The port that sends the second PS_RDY is the new source: each side's count belongs to another port now.
       swapPsRdy--;
       if (swapPsRdy === 0) transition = false;
+      events.roleSwap?.(m.t);
       return;
     }
     if (!accepted || m.from !== 'source') {
       unexpected(m, 'without an Accept before it');
       return;
     }
-    const { tPSTransition } = timers();
+    const tPSTransition = psTransitionOf(accepted);
     const tookUs = m.endUs - ackEnd(accepted.m);
     if (tookUs > tPSTransition.maxUs) {
       const message = `The source sent PS_RDY ${millis(tookUs)} after its Accept at ${seconds(accepted.m.t)}; tPSTransition allows at most ${millis(tPSTransition.maxUs)}.`;
@@ -302,7 +316,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       }
     },
     advance(t) {
-      const { tSenderResponse, tPSTransition, tPPSRequest } = timers();
+      const { tSenderResponse, tPPSRequest } = timers();
       if (capsWaiting && pastDeadline(capsWaiting, capsWaiting.m.ackEndUs, tSenderResponse.maxUs, t)) expire(awaitRequestAfterCaps(capsWaiting), report);
       // Cheap test first: a Request's start is never later than its own end.
       if (request && !request.reported && t > request.m.endUs + tSenderResponse.maxUs) {
@@ -311,7 +325,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
         if (startUs === undefined) request.reported = true;
         else if (pastDeadline(request, startUs, tSenderResponse.maxUs, t)) expire(awaitAnswerTo(request), report);
       }
-      if (accepted && pastDeadline(accepted, ackEnd(accepted.m), tPSTransition.maxUs, t)) expire(awaitPsRdyAfter(accepted), report);
+      if (accepted && pastDeadline(accepted, ackEnd(accepted.m), psTransitionOf(accepted).maxUs, t)) expire(awaitPsRdyAfter(accepted), report);
       if (contract && contract.contract.kind === 'pps' && pastDeadline(contract.keepAlive, contract.lastRequestUs, tPPSRequest.maxUs, t)) {
         contract.keepAlive.reported = true;
         contract.keepAlive.finding = report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
@@ -324,8 +338,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (anyOpen()) for (const a of waits()) endedDuring(a, t);
     },
     hardResetCause(t) {
-      const { tSenderResponse, tPSTransition, tPPSRequest } = timers();
-      if (accepted && t - ackEnd(accepted.m) >= tPSTransition.minUs) return `the source accepted the Request at ${seconds(accepted.request.m.t)} but sent no PS_RDY within tPSTransition`;
+      const { tSenderResponse, tPPSRequest } = timers();
+      if (accepted && t - ackEnd(accepted.m) >= psTransitionOf(accepted).minUs) return `the source accepted the Request at ${seconds(accepted.request.m.t)} but sent no PS_RDY within tPSTransition`;
       if (contract && contract.contract.kind === 'pps' && t - contract.lastRequestUs > tPPSRequest.maxUs) {
         return 'the sink stopped re-requesting its programmable contract';
       }

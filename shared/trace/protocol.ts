@@ -27,6 +27,8 @@ interface SopState {
   /** The last message each side sent that the receiver took. */
   last: Partial<Record<TraceSide, SeenMessage>>;
   goodCrcSeen: boolean;
+  /** A GoodCRC since the last Hard Reset: before one, a source offering to a silent partner is normal. */
+  partnerAnswered: boolean;
   held: [string, FindingExtra][];
 }
 
@@ -46,6 +48,18 @@ export interface ProtocolTracker {
   reset(t: number, which: 'all' | 'cable'): void;
   finish(tEndUs: number): void;
   goodCrcSeen(): boolean;
+  /** The ports' protocol layers started again without a reset on the wire (after a PR_Swap): any next MessageID is lawful. */
+  forgetIds(sop: Sop): void;
+}
+
+/**
+ * A retry is the same message again from the same sender (§6.7.2): same MessageID and content. A
+ * corrupted copy cannot be compared byte for byte, so there the MessageID and type must agree — a
+ * Soft_Reset after the last retry (§6.8.1) is then a new message, never one more copy.
+ */
+function isRetryOf(p: SeenMessage, m: SeenMessage): boolean {
+  if (p.from !== m.from || p.d.messageId !== m.d.messageId) return false;
+  return p.crcOk && m.crcOk ? p.d.hex === m.d.hex : p.d.messageType === m.d.messageType;
 }
 
 export function createProtocolTracker(report: Report): ProtocolTracker {
@@ -53,7 +67,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
   const state = (sop: Sop): SopState => {
     let s = states.get(sop);
     if (!s) {
-      s = { pending: undefined, retries: 0, reported: false, last: {}, goodCrcSeen: false, held: [] };
+      s = { pending: undefined, retries: 0, reported: false, last: {}, goodCrcSeen: false, partnerAnswered: false, held: [] };
       states.set(sop, s);
     }
     return s;
@@ -71,8 +85,11 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
     if (!p || s.reported) return;
     const { tReceive } = timersFor(p.d.revision);
     if (nowUs - p.endUs <= tReceive.maxUs) return;
-    // Before any GoodCRC the partner may not speak PD yet: the source keeps offering (§8.3.3.2).
-    if (p.d.messageType === 'Source_Capabilities' && !s.goodCrcSeen) return;
+    // A corrupted copy gets no GoodCRC by design (§5.6.2): the CRC finding already says why.
+    if (!p.crcOk) return;
+    // Before any GoodCRC since attach or Hard Reset the partner may not speak PD yet: the source keeps
+    // offering (§8.3.3.2 PE_SRC_Discovery; §6.8.3 a Hard Reset starts both protocol layers over).
+    if (p.d.messageType === 'Source_Capabilities' && !s.partnerAnswered) return;
     const { nRetryCount } = countersFor(p.d.revision);
     const what = `${p.d.messageType} at ${seconds(p.firstUs ?? p.t)}`;
     const text =
@@ -92,6 +109,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
           for (const [text, extra] of s.held) report('protocol.missing-goodcrc', text, extra);
           s.held = [];
         }
+        s.partnerAnswered = true;
         const p = s.pending;
         if (!p || p.from === m.from) {
           report('protocol.unexpected', `A GoodCRC from the ${m.from} at ${seconds(m.t)} acknowledged no message.`, { t: m.t, line: m.line });
@@ -114,8 +132,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       }
 
       const p = s.pending;
-      const soon = p !== undefined && m.t - p.endUs <= RETRY_WINDOW_US;
-      if (p && soon && p.from === m.from && (!p.crcOk || (p.d.messageId === m.d.messageId && p.d.hex === m.d.hex))) {
+      if (p && m.t - p.endUs <= RETRY_WINDOW_US && isRetryOf(p, m)) {
         s.retries++;
         const { nRetryCount, ref } = countersFor(m.d.revision);
         if (s.retries > nRetryCount && !s.reported) {
@@ -144,6 +161,7 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       for (const [sop, s] of states) {
         if (which === 'cable' && sop === 'SOP') continue;
         close(s, t);
+        s.partnerAnswered = false;
         s.last = {};
         s.retries = 0;
         s.reported = false;
@@ -156,6 +174,10 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       }
     },
     goodCrcSeen: () => [...states.values()].some((s) => s.goodCrcSeen),
+    forgetIds(sop) {
+      const s = states.get(sop);
+      if (s) s.last = {};
+    },
   };
 
   /**

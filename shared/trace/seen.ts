@@ -30,6 +30,8 @@ export interface FindingExtra {
   line?: number;
   object?: number;
   ref?: string;
+  /** Soften the catalog's severity (never raise it). */
+  lowerTo?: 'warning' | 'info';
 }
 
 export type Report = (rule: RuleId, message: string, extra?: FindingExtra) => Finding;

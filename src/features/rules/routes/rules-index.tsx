@@ -9,6 +9,7 @@ const groups: { group: RuleGroup; title: string; description: string }[] = [
   { group: 'request', title: 'Requests', description: 'What a sink asks for, against what was offered.' },
   { group: 'timing', title: 'Timing', description: 'Answers and transitions within the specification’s timers.' },
   { group: 'protocol', title: 'Protocol', description: 'Acknowledgements, message counters, resets and message order.' },
+  { group: 'epr', title: 'EPR mode', description: 'Entering and holding Extended Power Range mode (above 20 V).' },
   { group: 'vbus', title: 'VBUS', description: 'Measured voltage and current against the contract.' },
   { group: 'decode', title: 'Decoding', description: 'Whether the bytes form a well-made message.' },
   { group: 'trace', title: 'Trace files', description: 'Whether a trace could be read in full and in order.' },
