@@ -18,6 +18,8 @@ export interface CheckCapsOptions {
   pdpW?: number;
   /** The cable's current rating in mA; unknown when absent. */
   cableMa?: number;
+  /** The cable's e-marker says EPR Mode Capable (unknown when absent). */
+  cableEpr?: boolean;
   /** A printed rating to compare with the offers. */
   label?: string;
   /** The objects are those of EPR_Source_Capabilities (SPR in 1–7, EPR from 8). */
@@ -40,7 +42,7 @@ export function checkCaps(pdos: readonly SourcePdo[], options: CheckCapsOptions 
     ...structure,
     ...checkPowerRules(pdos, pdpW, { epr: options.epr, cableMa: options.cableMa }),
     ...checkProgrammableRanges(pdos, pdpW, { epr: options.epr }),
-    ...checkCableCurrent(pdos, options.cableMa),
+    ...checkCableCurrent(pdos, options.cableMa, options.cableEpr),
   ];
   if (pdpInferred) {
     findings.push(makeFinding('caps.pdp-inferred', `No PDP was declared, so it was taken as ${pdpW} W, the power of the strongest fixed offer; the Power Rules were checked at that PDP.`));

@@ -48,4 +48,14 @@ describe('checkRequest', () => {
     const spr = [fixed(5_000, 3_000), sprAvsApdo(3_000, 2_250)];
     expect(rules(checkRequest(decodeRdo(avsRdo(20_000, 3_000), spr[1]), spr))).toEqual(['request.exceeds-offer']);
   });
+  // USB PD R3.2 V1.1 §6.4.2 AVS RDO (Output Voltage in 25 mV units, two lowest bits zero: 100 mV steps)
+  // and §6.4.1.3.4 EPR AVS APDO (current at most the lower of 5 A and PDP/V) — from memory.
+  it('keeps AVS requests to 100 mV steps and to the lower of 5 A and PDP/V', () => {
+    const epr = [fixed(5_000, 3_000), eprAvsApdo(15_000, 48_000, 240)];
+    const avsRdo = (mv: number, ma: number) => ((2 << 28) | ((mv / 25) << 9) | (ma / 50)) >>> 0;
+    expect(checkRequest(decodeRdo(avsRdo(20_100, 5_000), epr[1]), epr)).toEqual([]);
+    expect(rules(checkRequest(decodeRdo(avsRdo(20_050, 1_000), epr[1]), epr))).toEqual(['request.out-of-range']);
+    // 240 W at 20 V would be 12 A: the limit is 5 A.
+    expect(rules(checkRequest(decodeRdo(avsRdo(20_000, 5_050), epr[1]), epr))).toEqual(['request.exceeds-offer']);
+  });
 });

@@ -13,6 +13,11 @@ import { makeFinding } from './catalog.ts';
 import { typedRdo } from './contract-of.ts';
 import { describePdo, isPadding, voltageRangeMv } from './pdo-facts.ts';
 
+/** AVS output voltage resolution (§6.4.2 AVS RDO; from memory). */
+const AVS_STEP_MV = 100;
+/** An EPR AVS contract carries at most 5 A, whatever PDP/V gives (§6.4.1.3.4 EPR AVS APDO, §10.2.3.x; from memory). */
+const EPR_AVS_MAX_MA = 5_000;
+
 const V = (mv: number) => `${mv / 1_000} V`;
 const A = (ma: number) => `${ma / 1_000} A`;
 const W = (mw: number) => `${mw / 1_000} W`;
@@ -46,6 +51,9 @@ export function checkRequest(rdo: Rdo, pdos: readonly SourcePdo[], options: { t?
     const { minMv, maxMv } = voltageRangeMv(pdo);
     if (r.outputVoltageMv < minMv || r.outputVoltageMv > maxMv) {
       findings.push(makeFinding('request.out-of-range', `The Request asks for ${V(r.outputVoltageMv)} from ${what}, outside its ${V(minMv).slice(0, -2)}–${V(maxMv)} range.`, where));
+    } else if (r.kind === 'rdo-avs' && r.outputVoltageMv % AVS_STEP_MV !== 0) {
+      // AVS RDO: Output Voltage in 25 mV units with the two lowest bits zero, i.e. 100 mV steps (§6.4.2, AVS RDO table; from memory).
+      findings.push(makeFinding('request.out-of-range', `The Request asks for ${V(r.outputVoltageMv)} from ${what}; an adjustable (AVS) request must be in 100 mV steps.`, where));
     }
     const limitMa =
       pdo.kind === 'pps'
@@ -53,10 +61,10 @@ export function checkRequest(rdo: Rdo, pdos: readonly SourcePdo[], options: { t?
         : pdo.kind === 'spr-avs'
           ? r.outputVoltageMv <= 15_000 ? pdo.maxCurrent15vMa : pdo.maxCurrent20vMa
           : pdo.kind === 'epr-avs' && r.outputVoltageMv > 0
-            ? Math.floor((pdo.pdpW * 1_000_000) / r.outputVoltageMv)
+            ? Math.min(EPR_AVS_MAX_MA, Math.floor((pdo.pdpW * 1_000_000) / r.outputVoltageMv))
             : Number.POSITIVE_INFINITY;
     if (r.operatingCurrentMa > limitMa) {
-      const limit = pdo.kind === 'epr-avs' ? `${pdo.pdpW} W, ${A(limitMa)} at that voltage` : A(limitMa);
+      const limit = pdo.kind === 'epr-avs' ? `the lower of 5 A and its ${pdo.pdpW} W at that voltage, ${A(limitMa)}` : A(limitMa);
       findings.push(makeFinding('request.exceeds-offer', `The Request asks for ${A(r.operatingCurrentMa)} from ${what}, which allows at most ${limit}.`, where));
     }
   }

@@ -10,7 +10,11 @@ import type { Finding, Severity } from '../core/finding.ts';
 import type { Sop } from '../pd/types.ts';
 import { isRuleId, makeFinding, ruleCatalog, type RuleId } from '../rules/index.ts';
 import { crc32 } from '../wire/index.ts';
+import { cableIdentityOf, cableText, type CableIdentity } from './cable.ts';
+import { createCollisionWatch } from './collision.ts';
 import { createCrcErrors } from './crc-errors.ts';
+import { createEprTracker } from './epr.ts';
+import { createHardResetRecovery } from './hard-reset-recovery.ts';
 import { createDecodeCache } from './decode-cache.ts';
 import type { TraceFormat } from './detect-format.ts';
 import { createFindingStore } from './findings-store.ts';
@@ -97,9 +101,19 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
 
   const protocol = createProtocolTracker(report);
   const crcErrors = createCrcErrors(report);
+  const collision = createCollisionWatch(report);
+  const recovery = createHardResetRecovery(report);
+  let cable: CableIdentity | undefined;
+  let cableReported = false;
+  const epr = createEprTracker(report, {
+    cable: () => cable,
+    hasContract: () => policy.steadyContract() !== undefined,
+    finding: (f) => store.add(f, f.t ?? lastT),
+  });
   const policy = createPolicyTracker(report, {
     contract(contract, t, changed) {
       closeVbusProblems();
+      checkCableCurrent(contract, t);
       if (!changed) return;
       contractCount++;
       if (contracts.length < LIST_LIMIT) contracts.push({ ...contract, t });
@@ -114,6 +128,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     },
     goodCrcSeen: () => protocol.goodCrcSeen(),
     roleSwap: () => protocol.forgetIds('SOP'),
+    inEpr: () => epr.inEpr(),
     softReset(m) {
       const cause = recentProblem(m.t);
       report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });
@@ -128,6 +143,13 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       'protocol.missing-goodcrc': 'a message that got no GoodCRC',
     };
     return `${clause[lastProblem.rule] ?? 'a late response'} at ${seconds(lastProblem.t)}`;
+  }
+
+  /** A contract above what the cable's e-marker says it carries (§6.4.4.3.1 cable VDO; Type-C R2.3 §4.9). */
+  function checkCableCurrent(contract: Contract, t: number): void {
+    if (!cable || cable.currentMa === undefined || cableReported || contract.currentMa <= cable.currentMa) return;
+    cableReported = true;
+    report('request.cable-current', `The ${contractText(contract)} contract at ${seconds(t)} draws ${amps(contract.currentMa)} over ${cableText(cable)} (its Discover Identity at ${seconds(cable.t)}), which carries at most ${amps(cable.currentMa)}.`, { t });
   }
 
   function closeVbusProblems(): void {
@@ -156,9 +178,10 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     }
     let message = d.message;
     let warnings = entry.uses === 1 ? d.warnings : undefined;
-    const offers = policy.offers();
+    const eprOffers = d.messageType === 'EPR_Request' ? epr.offers() : undefined;
+    const offers = eprOffers ?? policy.offers();
     if ((d.messageType === 'Request' || d.messageType === 'EPR_Request') && offers) {
-      const typed = cache.typed(d, sop, policy.offersKey(), offers);
+      const typed = cache.typed(d, sop, eprOffers ? epr.offersKey() : policy.offersKey(), offers);
       message = typed.message;
       warnings = typed.uses === 1 ? typed.warnings : undefined;
     }
@@ -185,11 +208,26 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       ...(line !== undefined ? { line } : {}),
     });
     crcErrors.onMessage(seen);
-    if (delivery === 'new') policy.onMessage(seen);
+    if (delivery === 'goodcrc' && crcOk) recovery.onGoodCrc();
+    if (delivery !== 'new') return;
+    policy.onMessage(seen);
+    epr.onMessage(seen, policy.steadyContract() !== undefined);
+    collision.onMessage(seen);
+    if (d.messageType === 'Source_Capabilities' && from === 'source' && sop === 'SOP') recovery.onSourceCaps(t);
+    const identity = cableIdentityOf(seen);
+    if (identity) {
+      cable = identity;
+      const active = policy.steadyContract();
+      if (active) checkCableCurrent(active.contract, t);
+    }
   }
 
   function onEvent(r: EventRecord, t: number): void {
     timeline.event(r.from ? { t, event: r.event, from: r.from } : { t, event: r.event });
+    if (r.event === 'rp') {
+      collision.onRp(t, r.rp);
+      return;
+    }
     crcErrors.flush();
     if (r.event === 'cable_reset') {
       protocol.reset(t, 'cable');
@@ -202,21 +240,32 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       const cause =
         (unacked ? `the ${unacked.from}'s ${unacked.d.messageType} at ${seconds(unacked.firstUs ?? unacked.t)} got no GoodCRC` : undefined) ??
         policy.hardResetCause(t) ??
+        epr.hardResetCause(t) ??
+        recovery.hardResetCause(t, r.from) ??
         (voltageProblem ? `VBUS left the contract's range at ${seconds(voltageProblem.firstUs)}` : undefined) ??
         recentProblem(t);
       hardResetCount++;
       if (hardResets.length < LIST_LIMIT) hardResets.push(cause ? { t, cause } : { t });
       const who = r.from ? `The ${r.from} sent a Hard Reset` : 'A Hard Reset came';
       report('protocol.hard-reset', `${who} at ${seconds(t)}${cause ? `, after ${cause}` : '; no cause was found in the trace before it'}.`, { t });
+      recovery.onHardReset(t, r.from);
+    }
+    if (r.event === 'attach') recovery.onAttach(t);
+    if (r.event === 'detach' || r.event === 'attach') {
+      cable = undefined;
+      cableReported = false;
     }
     protocol.reset(t, 'all');
     policy.reset(t);
+    epr.reset(t);
+    collision.reset();
   }
 
   function onMeasurement(r: MeasurementRecord, t: number): void {
     measurements++;
     const { mv, ma } = r.vbus;
     timeline.measurement(t, mv, ma);
+    recovery.onVbus(t, mv);
     const active = policy.steadyContract();
     if (!active) return;
     const limits = vbusLimits(active);
@@ -262,6 +311,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       }
       lastT = t;
       policy.advance(t);
+      epr.advance(t, policy.steadyContract() !== undefined);
       if ('msg' in record) onMessage(record, t, line);
       else if ('event' in record) onEvent(record, t);
       else if ('vbus' in record) onMeasurement(record, t);
@@ -269,6 +319,7 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     },
     finish() {
       policy.advance(lastT);
+      epr.advance(lastT, policy.steadyContract() !== undefined);
       policy.finish(lastT);
       protocol.finish(lastT);
       crcErrors.flush();

@@ -3,29 +3,14 @@
  * raised errors. Each case names the section that makes the capture correct.
  */
 import { describe, expect, it } from 'vitest';
-import { acked, capture, chunkRequestHex, eprCapsChunks, eprModeWord, pdHex, pdoWord, type Exchange } from '../../tests/fixtures/traces/spec-build.ts';
+import { acked, capture, pdHex, pdoWord, type Exchange } from '../../tests/fixtures/traces/spec-build.ts';
+import { eprScene, fixedRdo, sprCaps, sprContract } from '../../tests/fixtures/traces/spec-scenes.ts';
 import { eprAvsApdo, fixedPdo, paddingPdo } from '../rules/pdo-builders.ts';
 import { checkCaps } from '../rules/index.ts';
 import { analyzeRecords } from './analyzer.ts';
 import type { TraceRecord } from './records.ts';
 
 const errors = (records: TraceRecord[]) => analyzeRecords(records).findings.filter((f) => f.severity === 'error');
-
-/** 5 V 3 A (EPR Mode Capable, §6.4.1.2.1), 9 V 3 A, 15 V 3 A, 20 V 5 A: a 100 W SPR source. */
-const sprOffers = [fixedPdo(5_000, 3_000, { eprModeCapable: true, unchunkedExtendedMessages: false }), fixedPdo(9_000, 3_000), fixedPdo(15_000, 3_000), fixedPdo(20_000, 5_000)];
-const sprCaps = (id: number) => pdHex('Source_Capabilities', { id, from: 'source', objects: sprOffers.map(pdoWord) });
-/** Fixed RDO (§6.4.2 Table 6.23): position, operating and max current in 10 mA units, EPR Mode Capable bit 22. */
-const fixedRdo = (position: number, ma: number, epr = false) => ((position << 28) | (epr ? 1 << 22 : 0) | ((ma / 10) << 10) | (ma / 10)) >>> 0;
-
-/** A whole SPR negotiation to 20 V 3 A, every message acknowledged (§8.3.2.2 Figure 8-x, from memory). */
-function sprContract(startUs = 100_000): Exchange[] {
-  return [
-    ...acked(sprCaps(0), 'source', 0).map((s, i) => (i === 0 ? { ...s, at: startUs } : s)),
-    ...acked(pdHex('Request', { id: 0, from: 'sink', objects: [fixedRdo(4, 3_000, true)] }), 'sink', 0, 3_000),
-    ...acked(pdHex('Accept', { id: 1, from: 'source' }), 'source', 1, 2_000),
-    ...acked(pdHex('PS_RDY', { id: 2, from: 'source' }), 'source', 2, 200_000),
-  ];
-}
 
 describe('false alarms removed (correct captures stay free of errors)', () => {
   // USB PD R3.2 V1.1 §6.7.2 (RetryCounter, nRetryCount = 2) and §6.8.1 / §8.3.3.4 (a transmission
@@ -81,11 +66,11 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
   // §6.6.4.1 / Time Values: in EPR mode tPSTransition is 830–1020 ms (issue 11), so PS_RDY 900 ms
   // after the Accept of an EPR_Request is on time.
   it('PS_RDY 900 ms after an EPR Accept is within EPR tPSTransition', () => {
-    const found = errors(capture(eprEntry(900_000)));
+    const found = errors(capture(eprScene({ psRdyUs: 900_000 })));
     expect(found).toEqual([]);
   });
   it('PS_RDY 1.1 s after an EPR Accept is still late', () => {
-    expect(errors(capture(eprEntry(1_100_000))).map((f) => f.rule)).toContain('timing.ps-transition');
+    expect(errors(capture(eprScene({ psRdyUs: 1_100_000 }))).map((f) => f.rule)).toContain('timing.ps-transition');
   });
 
   // §5.6.2 / §6.7.2: a receiver discards a message with a bad CRC and sends no GoodCRC; the sender
@@ -129,25 +114,3 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
     expect(findings.filter((f) => f.rule === 'caps.cable-current').map((f) => f.object)).toEqual([4]);
   });
 });
-
-/**
- * SPR contract, then EPR entry (§6.4.9 EPR_Mode, §8.3.3.26: Enter → Enter Acknowledged → Enter
- * Succeeded), EPR_Source_Capabilities in two chunks (§6.2.1.2.1), EPR_Request for 28 V 5 A with its
- * PDO copy (§6.4.2), Accept and PS_RDY `psRdyUs` after the Accept.
- */
-export function eprEntry(psRdyUs: number): Exchange[] {
-  const epr = [...sprOffers, paddingPdo(), paddingPdo(), paddingPdo(), fixedPdo(28_000, 5_000), eprAvsApdo(15_000, 28_000, 140)];
-  const [chunk0, chunk1] = eprCapsChunks(epr, 5);
-  return [
-    ...sprContract(),
-    ...acked(pdHex('EPR_Mode', { id: 1, from: 'sink', objects: [eprModeWord(1, 140)] }), 'sink', 1, 20_000),
-    ...acked(pdHex('EPR_Mode', { id: 3, from: 'source', objects: [eprModeWord(2)] }), 'source', 3, 2_000),
-    ...acked(pdHex('EPR_Mode', { id: 4, from: 'source', objects: [eprModeWord(3)] }), 'source', 4, 100_000),
-    ...acked(chunk0!, 'source', 5, 5_000),
-    ...acked(chunkRequestHex('EPR_Source_Capabilities', 1, 2, 36), 'sink', 2, 1_000),
-    ...acked(chunk1!, 'source', 6, 1_000),
-    ...acked(pdHex('EPR_Request', { id: 3, from: 'sink', objects: [fixedRdo(8, 5_000, true), pdoWord(epr[7]!)] }), 'sink', 3, 5_000),
-    ...acked(pdHex('Accept', { id: 7, from: 'source' }), 'source', 7, 2_000),
-    ...acked(pdHex('PS_RDY', { id: 0, from: 'source' }), 'source', 0, psRdyUs),
-  ];
-}

@@ -95,6 +95,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let accepted: Accepted | undefined;
   let other: Pending | undefined;
   let swapPsRdy = 0;
+  /** The source's Wait to the sink's Request: the sink may ask again only tSinkRequest later (§6.6.4.2). */
+  let waited: SeenMessage | undefined;
   let contract: ActiveContract | undefined;
   let transition = false;
   const revisions: { source?: SpecRevision; sink?: SpecRevision } = {};
@@ -163,10 +165,21 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const anyOpen = (): boolean => isOpen(capsWaiting) || isOpen(request) || isOpen(accepted) || isOpen(contract?.keepAlive);
 
   /** A response within tSenderResponse of the (acknowledged) message it answers. */
+  /**
+   * A response within tSenderResponse of the (acknowledged) message it answers (the asker's timer,
+   * ended by the response's EOP), and started within tReceiverResponse (the responder's own limit,
+   * from memory 15 ms; §6.6.2 and Time Values table) — later than that is a warning while the asker still waits.
+   */
   const checkResponse = (first: Pending, response: SeenMessage): void => {
-    const { tSenderResponse } = timers();
+    const { tSenderResponse, tReceiverResponse } = timers();
     const tookUs = response.endUs - ackEnd(first.m);
-    if (tookUs <= tSenderResponse.maxUs) return;
+    if (tookUs <= tSenderResponse.maxUs) {
+      const startedUs = response.t - ackEnd(first.m);
+      if (startedUs > tReceiverResponse.maxUs) {
+        report('timing.receiver-response', `The ${response.from} began its ${response.d.messageType} ${millis(startedUs)} after the ${first.m.from}'s ${first.m.d.messageType} at ${seconds(first.m.t)} ${first.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}; tReceiverResponse asks for at most ${millis(tReceiverResponse.maxUs)}.`, { ...at(response), ref: tReceiverResponse.ref });
+      }
+      return;
+    }
     const message = `The ${response.from} answered the ${first.m.d.messageType} at ${seconds(first.m.t)} with ${response.d.messageType} after ${millis(tookUs)}; tSenderResponse allows at most ${millis(tSenderResponse.maxUs)}.`;
     if (first.finding) first.finding.message = message;
     else report('timing.sender-response', message, { ...at(response), ref: tSenderResponse.ref });
@@ -187,6 +200,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       }
     }
     lastUnackedCaps = m;
+    waited = undefined;
     const key = objectsKey(m);
     caps = { m, pdos, key };
     capsWaiting = { m, reported: false };
@@ -194,6 +208,10 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     if (!capsChecked.has(key) && capsChecked.size < CHECKED_LIMIT) {
       capsChecked.add(key);
       for (const f of checkCaps(pdos).findings) events.finding(located(f, m));
+      const apdo = pdos.findIndex((p) => p.kind === 'pps' || p.kind === 'epr-avs' || p.kind === 'spr-avs');
+      if (apdo >= 0 && (m.d.revision === '2.0' || m.d.revision === '1.0')) {
+        report('caps.revision', `The source's Source_Capabilities at ${seconds(m.t)} say Specification Revision ${m.d.revision} but object ${apdo + 1} is a programmable (augmented) offer, which exists only from Revision 3.0.`, { ...at(m), object: apdo + 1 });
+      }
     }
   };
 
@@ -202,6 +220,14 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     const raw = objectAt(m.d.bytes, 1);
     if (raw === undefined) return;
     if (!caps && !epr) unexpected(m, 'before any Source_Capabilities');
+    if (waited && m.from === 'sink') {
+      const { tSinkRequest } = timers();
+      const afterUs = m.t - ackEnd(waited);
+      if (afterUs < tSinkRequest.minUs) {
+        report('timing.sink-request', `The sink asked again at ${seconds(m.t)}, ${millis(afterUs)} after the source's Wait at ${seconds(waited.t)}; tSinkRequest asks it to wait at least ${millis(tSinkRequest.minUs)}.`, { ...at(m), ref: tSinkRequest.ref });
+      }
+    }
+    waited = undefined;
     if (capsWaiting) checkResponse(capsWaiting, m);
     capsWaiting = undefined;
     lastUnackedCaps = undefined;
@@ -231,6 +257,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     const type = m.d.messageType;
     if (request && request.m.from !== m.from) {
       checkResponse(request, m);
+      if (type === 'Wait' && request.m.from === 'sink') waited = m;
       if (type === 'Accept') {
         accepted = { m, request, reported: false, epr: request.m.d.messageType === 'EPR_Request' || events.inEpr?.() === true };
         transition = true;
@@ -239,6 +266,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       return;
     }
     if (other && other.m.from !== m.from) {
+      checkResponse(other, m);
       if (type === 'Accept' && (other.m.d.messageType === 'PR_Swap' || other.m.d.messageType === 'FR_Swap')) {
         swapPsRdy = 2;
         transition = true;
@@ -359,6 +387,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       request = undefined;
       accepted = undefined;
       other = undefined;
+      waited = undefined;
       swapPsRdy = 0;
       contract = undefined;
       transition = false;

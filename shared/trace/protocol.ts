@@ -143,6 +143,15 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
         s.pending = m;
         return m.crcOk && !p.crcOk ? deliver(s, m) : 'retry';
       }
+      if (p && !s.reported && p.from === m.from && p.crcOk && m.crcOk && m.d.messageId === ((p.d.messageId + 1) & 7)) {
+        // Neither a GoodCRC nor tReceive's end came before it: the sender moved on instead of waiting to retry (§6.7.2, §6.6.1).
+        const { tReceive } = timersFor(p.d.revision);
+        const gapUs = m.t - p.endUs;
+        if (gapUs < tReceive.minUs) {
+          s.reported = true;
+          missing(s, `The ${m.from} sent ${m.d.messageType} with the next MessageID ${m.d.messageId} at ${seconds(m.t)}, ${millis(gapUs)} after its ${p.d.messageType} ended with no GoodCRC; it must wait tReceive (${millis(tReceive.minUs)}–${millis(tReceive.maxUs)}) for the GoodCRC and otherwise retry the ${p.d.messageType}.`, { t: m.t, line: m.line, ref: tReceive.ref });
+        }
+      }
       close(s, m.t);
       s.retries = 0;
       s.reported = false;

@@ -9,7 +9,7 @@ import { z } from 'zod';
 import type { Message, Sop } from '../pd/types.ts';
 
 export type TraceSide = 'source' | 'sink' | 'cable';
-export type TraceEventKind = 'attach' | 'detach' | 'hard_reset' | 'cable_reset';
+export type TraceEventKind = 'attach' | 'detach' | 'hard_reset' | 'cable_reset' | 'rp';
 
 export interface TraceHeader {
   trace: 1;
@@ -55,7 +55,7 @@ export interface NoteRecord {
 export type TraceRecord = MessageRecord | EventRecord | MeasurementRecord | NoteRecord;
 
 const SIDES: readonly string[] = ['source', 'sink', 'cable'];
-const EVENTS: readonly string[] = ['attach', 'detach', 'hard_reset', 'cable_reset'];
+const EVENTS: readonly string[] = ['attach', 'detach', 'hard_reset', 'cable_reset', 'rp'];
 const SOPS: readonly string[] = ['SOP', "SOP'", "SOP''", "SOP'_Debug", "SOP''_Debug"];
 const CCS: readonly string[] = ['CC1', 'CC2'];
 const RPS: readonly string[] = ['default', '1.5A', '3.0A'];
@@ -85,7 +85,7 @@ export const messageRecordSchema = z.looseObject({
 
 export const eventRecordSchema = z.looseObject({
   t: time,
-  event: z.enum(['attach', 'detach', 'hard_reset', 'cable_reset']),
+  event: z.enum(['attach', 'detach', 'hard_reset', 'cable_reset', 'rp']),
   from: side.optional(),
   cc: z.enum(['CC1', 'CC2']).optional(),
   rp: z.enum(['default', '1.5A', '3.0A']).optional(),
@@ -151,7 +151,7 @@ function checkMessage(v: Fields): string | undefined {
 }
 
 function checkEvent(v: Fields): string | undefined {
-  if (!oneOf(v.event, EVENTS)) return 'event: one of attach, detach, hard_reset, cable_reset';
+  if (!oneOf(v.event, EVENTS)) return 'event: one of attach, detach, hard_reset, cable_reset, rp';
   if (!oneOf(v.from, SIDES)) return 'from: one of source, sink, cable';
   if (!oneOf(v.cc, CCS)) return 'cc: CC1 or CC2';
   if (!oneOf(v.rp, RPS)) return 'rp: one of default, 1.5A, 3.0A';

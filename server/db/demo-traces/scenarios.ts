@@ -101,7 +101,8 @@ function ppsKeepAlive(): DemoTrace {
   s.resetIds();
   ramp(s, 21_130_000, 500_000, 9_000, 0);
   ramp(s, 22_400_000, 200_000, 0, 5_000);
-  const again = offerAndRequest(s, 23_000_000, 'K65', ppsRdo(5, 9_000, 2_000));
+  // First offers within tFirstSourceCap (250 ms) of VBUS reaching vSafe5V at 22.6 s (§7.1.5, Time Values table).
+  const again = offerAndRequest(s, 22_750_000, 'K65', ppsRdo(5, 9_000, 2_000));
   ramp(s, again + 30_000, 100_000, 5_000, 9_000);
   t = s.send(again + 150_000, 'source', 'PS_RDY');
   steady(s, jitter, t + 50_000, 26_000_000, 9_010, 1_950);
