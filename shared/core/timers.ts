@@ -35,18 +35,6 @@ export const timersPd3 = {
   tHardResetComplete: { minUs: 4_000, maxUs: 5_000, ref: `${PD3} (tHardResetComplete)` },
   tChunkSenderResponse: { minUs: 24_000, maxUs: 30_000, ref: `${PD3} (tChunkSenderResponse)` },
   tTransmit: { minUs: 0, maxUs: 195, ref: `${PD3} (tTransmit)` },
-  /** A port's answer to a message that needs one, measured at the responder (from memory: at most 15 ms). */
-  tReceiverResponse: { minUs: 0, maxUs: 15_000, ref: `${PD3} (tReceiverResponse, from memory)` },
-  /** PS_RDY after the Accept of a request in EPR mode (issue 11 gives 830–1020 ms; from memory otherwise). */
-  tPSTransitionEpr: { minUs: 830_000, maxUs: 1_020_000, ref: `${PD3} (tPSTransition, EPR mode)` },
-  /** The sink sends EPR_KeepAlive at least this often while in EPR mode (from memory). */
-  tSinkEPRKeepAlive: { minUs: 250_000, maxUs: 500_000, ref: `${PD3} (tSinkEPRKeepAlive, from memory)` },
-  /** Without a keep-alive for this long the source leaves EPR mode with a Hard Reset (§8.3.3.x; from memory). */
-  tSourceEPRKeepAlive: { minUs: 750_000, maxUs: 1_000_000, ref: `${PD3} (tSourceEPRKeepAlive, from memory)` },
-  /** From EPR_Mode (Enter) to EPR_Mode (Enter Succeeded) (from memory). */
-  tEnterEPR: { minUs: 450_000, maxUs: 550_000, ref: `${PD3} (tEnterEPR, from memory)` },
-  /** After the source sets Rp to SinkTxNG it waits this long before it starts an exchange (§5.7 collision avoidance; from memory). */
-  tSinkTx: { minUs: 16_000, maxUs: 20_000, ref: `${PD3} (tSinkTx, from memory)` },
   tCCDebounce: { minUs: 100_000, maxUs: 200_000, ref: 'USB Type-C R2.3 §4.11.2, tCCDebounce' },
   /** Idle time between packets on the line, minimum only (USB PD R3.2 V1.1 §5.8.5, from memory). */
   tInterFrameGap: { minUs: 25, maxUs: 25, ref: 'USB PD R3.2 V1.1 §5.8.5 tInterFrameGap (from memory)' },
