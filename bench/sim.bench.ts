@@ -50,7 +50,7 @@ for (let i = 0; i < 5; i++) {
   const start = performance.now();
   const result = simulate({ ...programmable, seed: i + 1 }, { samples: true, sampleEveryUs: 1_000 });
   timesMs.push(performance.now() - start);
-  samples = result.samples?.length ?? 0;
+  samples = result.samples?.count ?? 0;
   if (result.contract?.kind !== 'pps') throw new Error('the programmable contract was lost');
 }
 timesMs.sort((a, b) => a - b);

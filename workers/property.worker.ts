@@ -12,7 +12,7 @@ import * as fc from 'fast-check';
 import { exposeEngine } from './expose.ts';
 import type { Contract } from '../shared/core/contract.ts';
 import type { Finding } from '../shared/core/finding.ts';
-import { parseScenario, simulate } from '../shared/sim/index.ts';
+import { parseScenario, SAMPLE_FIELDS, simulate } from '../shared/sim/index.ts';
 import { runVector, type VectorResult } from '../shared/vectors/run.ts';
 import { describeZodError, vectorSchema } from '../shared/vectors/schema.ts';
 
@@ -101,7 +101,7 @@ function simulateCounterexample(scenario: unknown): CounterexampleRun | undefine
   return {
     contract: result.contract,
     findings: result.findings,
-    samples: (result.samples ?? []).flat(),
+    samples: result.samples ? Array.from(result.samples.data.subarray(0, result.samples.count * SAMPLE_FIELDS)) : [],
     messages,
     events,
     lanes: result.lanes.filter((lane): lane is CounterexampleRun['lanes'][number] => lane.side === 'source' || lane.side === 'sink'),

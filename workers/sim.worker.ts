@@ -18,8 +18,6 @@ export type SimRunOutput =
   | { ok: false; error: { code: string; message: string } }
   | ({ ok: true; samples: Int32Array; sampleCount: number } & Omit<SimulationResult, 'samples'>);
 
-const SAMPLE_FIELDS = 4;
-
 /** At most this many samples (4 × Int32 each) cross back: 2.4 M samples ≈ 38 MB. */
 const MAX_SAMPLES = 2_400_000;
 
@@ -42,17 +40,10 @@ function run(input: unknown, onProgress?: (fraction: number) => void, options: S
       onProgress?.(fraction);
     },
   });
-  const { samples: rows = [], ...rest } = result;
-  const samples = new Int32Array(rows.length * SAMPLE_FIELDS);
-  let offset = 0;
-  for (const row of rows) {
-    samples[offset] = row[0];
-    samples[offset + 1] = row[1];
-    samples[offset + 2] = row[2];
-    samples[offset + 3] = row[3];
-    offset += SAMPLE_FIELDS;
-  }
-  return transfer({ ok: true as const, ...rest, samples, sampleCount: rows.length }, [samples.buffer]);
+  // The simulator already packs the samples into one Int32Array: hand it over as it is.
+  const { samples: packed, ...rest } = result;
+  const samples = packed?.data ?? new Int32Array(0);
+  return transfer({ ok: true as const, ...rest, samples, sampleCount: packed?.count ?? 0 }, [samples.buffer]);
 }
 
 const api = { run };

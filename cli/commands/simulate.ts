@@ -9,7 +9,7 @@ import { readFile, writeFile } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import type { Message, Rdo, SourcePdo } from '../../shared/pd/types.ts';
 import { describePdo } from '../../shared/rules/index.ts';
-import { parseScenario, simulate, type SimulationResult } from '../../shared/sim/index.ts';
+import { parseScenario, sampleRows, simulate, type SimulationResult } from '../../shared/sim/index.ts';
 import type { TraceRecord } from '../../shared/trace/records.ts';
 import { CliError, EXIT_OK, formatTable, paint, printJson, type CliIo } from '../io.ts';
 import { describeFindings, parseOptions } from './caps.ts';
@@ -35,7 +35,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
 
   if (parsed.flags.has('--json')) {
     const { contract, contracts, events, findings, lanes, timers } = result;
-    printJson(io, { ok: true, contract, contracts, events, findings, ...(result.samples ? { samples: result.samples } : {}), lanes, timers });
+    printJson(io, { ok: true, contract, contracts, events, findings, ...(result.samples ? { samples: sampleRows(result.samples) } : {}), lanes, timers });
     return EXIT_OK;
   }
   io.stdout(timeline(io, result));
@@ -45,7 +45,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   );
   io.stdout(describeFindings(io, result.findings));
   if (tracePath !== undefined) io.stdout(`\nTrace written to ${tracePath} (${result.events.length} records).\n`);
-  if (result.samples) io.stdout(`${result.samples.length} samples taken (use --json to see them).\n`);
+  if (result.samples) io.stdout(`${result.samples.count} samples taken (use --json to see them).\n`);
   return EXIT_OK;
 }
 

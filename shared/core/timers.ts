@@ -36,6 +36,8 @@ export const timersPd3 = {
   tChunkSenderResponse: { minUs: 24_000, maxUs: 30_000, ref: `${PD3} (tChunkSenderResponse)` },
   tTransmit: { minUs: 0, maxUs: 195, ref: `${PD3} (tTransmit)` },
   tCCDebounce: { minUs: 100_000, maxUs: 200_000, ref: 'USB Type-C R2.3 §4.11.2, tCCDebounce' },
+  /** ErrorRecovery: both ports remove their terminations for at least tErrorRecovery, then attach again. */
+  tErrorRecovery: { minUs: 25_000, maxUs: 25_000, ref: 'USB Type-C R2.3 §4.11.2, tErrorRecovery (minimum)' },
   /** Idle time between packets on the line, minimum only (USB PD R3.2 V1.1 §5.8.5, from memory). */
   tInterFrameGap: { minUs: 25, maxUs: 25, ref: 'USB PD R3.2 V1.1 §5.8.5 tInterFrameGap (from memory)' },
 

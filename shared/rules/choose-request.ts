@@ -10,6 +10,10 @@
  * - pps: a PPS offer whose range holds the voltage (the first with enough current, else the one
  *   with the most); voltage rounded down to 20 mV, current down to 50 mA (the PPS RDO's steps,
  *   R3.1 V1.8 Table 6-25 — from memory); none holds it: vSafe5V with Capability Mismatch.
+ * - avs: an adjustable-voltage offer (SPR AVS 9–20 V, EPR AVS) whose range holds the voltage; voltage
+ *   rounded down to 100 mV, current to 50 mA (USB PD R3.2 V1.1 §6.4.2 AVS RDO: 25 mV units with the
+ *   two low bits zero — from memory); the current is capped at the offer (SPR AVS: its 15 V or 20 V
+ *   current; EPR AVS: PDP ÷ voltage) and the cable; none holds it: vSafe5V with Capability Mismatch.
  * - range: the lowest-voltage fixed or variable offer inside the range with enough power; none
  *   with enough: the strongest offer in the range with Capability Mismatch; none in the range:
  *   vSafe5V with Capability Mismatch.
@@ -112,6 +116,27 @@ export function chooseRequest(pdos: readonly SourcePdo[], policy: SinkPolicy, op
       }
       const operatingCurrentMa = down(Math.min(wantMa, currentOf(offer), 127 * 50), 50);
       chosen = [offer, { kind: 'rdo-pps', raw: '', ...flags(offer.position, operatingCurrentMa < wantMa), outputVoltageMv: voltageMv, operatingCurrentMa }];
+      break;
+    }
+    case 'avs': {
+      const voltageMv = down(policy.voltageMv, 100);
+      const wantMa = down(policy.currentMa, 50);
+      const holding = offers.filter((o) => {
+        if (o.pdo.kind === 'epr-avs') return o.pdo.minVoltageMv <= voltageMv && voltageMv <= o.pdo.maxVoltageMv;
+        if (o.pdo.kind === 'spr-avs') return voltageMv >= 9_000 && voltageMv <= (o.pdo.maxCurrent20vMa > 0 ? 20_000 : 15_000);
+        return false;
+      });
+      const currentOf = (o: Offer) => {
+        const offerMa = o.pdo.kind === 'epr-avs' ? Math.floor((o.pdo.pdpW * 1_000_000) / Math.max(voltageMv, 1)) : o.pdo.kind === 'spr-avs' ? (voltageMv <= 15_000 ? o.pdo.maxCurrent15vMa : o.pdo.maxCurrent20vMa) : 0;
+        return Math.min(offerMa, cableMa);
+      };
+      const offer = holding.find((o) => currentOf(o) >= wantMa) ?? [...holding].sort((a, b) => currentOf(b) - currentOf(a))[0];
+      if (!offer) {
+        chosen = fallbackRequest(wantMa);
+        break;
+      }
+      const operatingCurrentMa = down(Math.min(wantMa, currentOf(offer), 127 * 50), 50);
+      chosen = [offer, { kind: 'rdo-avs', raw: '', ...flags(offer.position, operatingCurrentMa < wantMa), outputVoltageMv: voltageMv, operatingCurrentMa }];
       break;
     }
     case 'range': {

@@ -29,6 +29,11 @@ export const ppsPolicySchema = z
   .object({ kind: z.literal('pps'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags })
   .strict();
 
+/** An adjustable-voltage offer (SPR AVS or EPR AVS): voltage in 100 mV steps, current in 50 mA steps (vector.md). */
+export const avsPolicySchema = z
+  .object({ kind: z.literal('avs'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags })
+  .strict();
+
 export const rangePolicySchema = z
   .object({
     kind: z.literal('range'),
@@ -40,7 +45,7 @@ export const rangePolicySchema = z
   .strict()
   .refine((p) => p.minVoltageMv <= p.maxVoltageMv, { message: 'minVoltageMv must not exceed maxVoltageMv', path: ['maxVoltageMv'] });
 
-export const sinkPolicySchema = z.discriminatedUnion('kind', [maxPowerPolicySchema, fixedPolicySchema, ppsPolicySchema, rangePolicySchema]);
+export const sinkPolicySchema = z.discriminatedUnion('kind', [maxPowerPolicySchema, fixedPolicySchema, ppsPolicySchema, avsPolicySchema, rangePolicySchema]);
 
 export type SinkPolicy = z.infer<typeof sinkPolicySchema>;
 export type SinkPolicyKind = SinkPolicy['kind'];

@@ -19,13 +19,13 @@ export function createFaultBook(faults: readonly Fault[]): FaultBook {
   return { faults, seen: faults.map(() => 0), silentSinceUs: { source: null, sink: null } };
 }
 
-/** Implicit selectors: `reject` counts the sink's Requests, `no-ps-rdy` the source's PS_RDY. */
+/** Implicit selectors: `reject` and `wait` count the sink's Requests (EPR_Request too), `no-ps-rdy` the source's PS_RDY. */
 function fromOf(fault: Fault): Side | undefined {
-  return fault.kind === 'reject' ? 'sink' : fault.kind === 'no-ps-rdy' ? 'source' : fault.from;
+  return fault.kind === 'reject' || fault.kind === 'wait' ? 'sink' : fault.kind === 'no-ps-rdy' ? 'source' : fault.from;
 }
 
 function typeOf(fault: Fault): string | undefined {
-  return fault.kind === 'reject' ? 'Request' : fault.kind === 'no-ps-rdy' ? 'PS_RDY' : fault.messageType;
+  return fault.kind === 'reject' || fault.kind === 'wait' ? 'Request' : fault.kind === 'no-ps-rdy' ? 'PS_RDY' : fault.messageType;
 }
 
 /**

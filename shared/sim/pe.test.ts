@@ -3,10 +3,11 @@ import { describe, expect, it } from 'vitest';
 import { decodeSourcePdo } from '../pd/index.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { initialSinkPe, sinkStep } from './sink-pe.ts';
-import { initialSourcePe, sourceStep } from './source-pe.ts';
+import { initialSourcePe, sourceStep, type SourceContext } from './source-pe.ts';
 
 const words = [0x0001_912c, 0x0002_d12c];
-const context = { words, pdos: words.map((w) => decodeSourcePdo(w) as SourcePdo) };
+const offers = { words, pdos: words.map((w) => decodeSourcePdo(w) as SourcePdo) };
+const context: SourceContext = { offers: () => offers, eprCapable: false, discoverCable: false, swapAnswer: 'reject', pdpW: () => ({ spr: 27, epr: 0 }), vbusMv: () => 5_000 };
 
 describe('sourceStep', () => {
   it('sends Source_Capabilities after tFirstSourceCap and waits tSenderResponse once acknowledged', () => {

@@ -12,6 +12,7 @@ import { analyzeRecords } from '../trace/index.ts';
 import type { TraceRecord } from '../trace/records.ts';
 import type { Timeline } from '../trace/timeline.ts';
 import type { PortViews } from './port-views.ts';
+import type { PackedSamples } from './sample-buffer.ts';
 import { resolveCaps } from './caps.ts';
 import { runScenario } from './runner.ts';
 import type { Scenario } from './scenario.ts';
@@ -33,6 +34,7 @@ export interface SimulateOptions {
   shouldStop?(): boolean;
 }
 
+/** One sample row as the CLI prints it: `[t µs, mV at the source, mA, mV at the sink]`. */
 export type Sample = [t: number, mv: number, ma: number, sinkMv: number];
 
 export interface SimulationResult {
@@ -46,7 +48,8 @@ export interface SimulationResult {
   findings: Finding[];
   /** The analyser's timeline of the simulated trace (absent with `analyze: false`). */
   timeline?: Timeline;
-  samples?: Sample[];
+  /** VBUS/IBUS samples, four integers a row in one Int32Array (sample-buffer.ts; `sampleRows` gives arrays). */
+  samples?: PackedSamples;
   lanes: LaneEntry[];
   timers: TimerSpan[];
   /** Simulated time reached, µs. */

@@ -2,84 +2,237 @@
  * The source's policy engine as a pure step, after USB PD R3.2 V1.1 §8.3.3.2 (Source Port state
  * diagrams): PE_SRC_Startup, _Send_Capabilities, _Discovery, _Negotiate_Capability,
  * _Transition_Supply, _Ready, _Capability_Response, _Wait_New_Capabilities, _Hard_Reset,
- * _Hard_Reset_Received, _Transition_to_default, _Soft_Reset, _Send_Soft_Reset, _Disabled.
+ * _Hard_Reset_Received, _Transition_to_default, _Soft_Reset, _Send_Soft_Reset, _Disabled; the
+ * source's cable discovery on SOP' (§8.3.3.24 Discover Identity, PE_SRC_VDM_Identity_Request);
+ * EPR mode entry and exit (§8.3.3.26.2 PE_SRC_Evaluate_EPR_Mode_Entry, _EPR_Mode_Discover_Cable,
+ * keep-alive); the answers of §8.3.3.4–.19 (Get_* requests, swaps) and the swap state machines
+ * (§8.3.3.18 DR_Swap, §8.3.3.19 PR_Swap, §8.3.3.20 VCONN_Swap) from the source's side.
  */
 import type { Contract } from '../core/contract.ts';
 import { countersFor } from '../core/timers.ts';
-import type { SourcePdo } from '../pd/types.ts';
 import { decodeRdo } from '../pd/rdo.ts';
+import type { SourcePdo } from '../pd/types.ts';
 import { checkRequest } from '../rules/check-request.ts';
 import { contractOf } from '../rules/contract-of.ts';
-import type { PeEffect, PeEvent } from './pe-types.ts';
-import type { Revision } from './wire.ts';
+import { cableAllowsEpr, readIdentity, vdmHeader, type EMarker } from './cable-identity.ts';
+import { ECDB, eprEnterFailed, eprModeAction, eprModeObject, eprModeOf, isEcdb, type PeEffect, type PeEvent } from './pe-types.ts';
+import { ppsStatusBytes, sourceCapsExtendedBytes, statusBytes } from './port-answers.ts';
+import type { ActionName } from './scenario.ts';
+import { wordsToBytes, type MessageType, type Revision } from './wire.ts';
 
-export interface SourceContext {
+export interface Offers {
   words: readonly number[];
   pdos: readonly SourcePdo[];
+}
+
+export type SwapAnswer = 'accept' | 'reject' | 'wait' | 'not_supported';
+
+export interface SourceContext {
+  /** The offers for what the source knows of the cable (null: no e-marker), SPR or EPR (positions 1–7 then 8…). */
+  offers(cable: EMarker | null, epr: boolean): Offers;
+  /** The source has EPR objects. */
+  eprCapable: boolean;
+  /** Some offer needs a 5 A cable or EPR: discover the cable before the first offers. */
+  discoverCable: boolean;
+  swapAnswer: SwapAnswer;
+  /** SPR and EPR PDP (W), for Source_Capabilities_Extended. */
+  pdpW(): { spr: number; epr: number };
+  /** VBUS now (mV), for PPS_Status. */
+  vbusMv(): number;
 }
 
 export interface SourcePe {
   /** The spec's state name ('idle' before attach). */
   state: string;
-  /** Transition_to_default progress: VBUS going off, waiting tSrcRecover, coming back on. */
+  /** Transition_to_default / power role swap progress. */
   phase: 'off' | 'recover' | 'on' | null;
   revision: Revision;
   capsCounter: number;
   hardResetCounter: number;
-  /** A PD connection exists: a Source_Capabilities was acknowledged since the last Hard Reset. */
+  /** A PD connection exists: a Source_Capabilities was acknowledged since attach (kept across Hard Resets). */
   pdConnected: boolean;
   contract: Contract | null;
-  accepted: { contract: Contract; voltageMv: number; limitMa: number | null } | null;
+  accepted: { contract: Contract; voltageMv: number; limitMa: number | null; floorMv?: number } | null;
+  eprMode: boolean;
+  /** What the source learned of the cable: undefined before it asked, null when nothing answered. */
+  cable: EMarker | null | undefined;
+  /** The last Request set EPR Mode Capable (§6.4.2). */
+  sinkEprCapable: boolean;
+  /** The offers last sent (a Request's object position refers to them). */
+  offered: Offers | null;
+  /** Actions waiting for PE_SRC_Ready. */
+  pending: readonly ActionName[];
 }
 
 export function initialSourcePe(revision: Revision): SourcePe {
-  return { state: 'idle', phase: null, revision, capsCounter: 0, hardResetCounter: 0, pdConnected: false, contract: null, accepted: null };
+  return {
+    state: 'idle', phase: null, revision, capsCounter: 0, hardResetCounter: 0, pdConnected: false, contract: null, accepted: null,
+    eprMode: false, cable: undefined, sinkEprCapable: false, offered: null, pending: [],
+  };
 }
 
 type Step = [SourcePe, PeEffect[]];
+const NONE: readonly ActionName[] = [];
+
+function send(effects: PeEffect[], type: MessageType, objects: readonly number[] = [], initiate = false): void {
+  effects.push(initiate ? { kind: 'send', type, objects, initiate: true } : { kind: 'send', type, objects });
+}
+function sendBytes(effects: PeEffect[], type: MessageType, bytes: readonly number[], initiate = false): void {
+  effects.push(initiate ? { kind: 'send', type, objects: [], bytes, initiate: true } : { kind: 'send', type, objects: [], bytes });
+}
 
 function sendCaps(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
-  effects.push({ kind: 'send', type: 'Source_Capabilities', objects: context.words });
-  return [{ ...pe, state: 'PE_SRC_Send_Capabilities', capsCounter: pe.capsCounter + 1 }, effects];
+  const offered = context.offers(pe.cable ?? null, pe.eprMode);
+  // In EPR mode the offers go as EPR_Source_Capabilities, an extended message (§6.5.15.1).
+  if (pe.eprMode) sendBytes(effects, 'EPR_Source_Capabilities', wordsToBytes(offered.words));
+  else send(effects, 'Source_Capabilities', offered.words);
+  return [{ ...pe, state: 'PE_SRC_Send_Capabilities', capsCounter: pe.capsCounter + 1, offered }, effects];
 }
+
+function startOrDiscover(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
+  // §8.3.3.24: as VCONN source the DFP may ask the cable plug before it offers more than 3 A.
+  if (context.discoverCable && pe.cable === undefined && pe.revision === '3.0') {
+    effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" });
+    return [{ ...pe, state: 'PE_SRC_VDM_Identity_Request' }, effects];
+  }
+  return sendCaps(pe, context, effects);
+}
+
+const stopAll: PeEffect[] = [
+  { kind: 'stop-timer', name: 'tSenderResponse' },
+  { kind: 'stop-timer', name: 'tPPSTimeout' },
+  { kind: 'stop-timer', name: 'tSourceEPRKeepAlive' },
+  { kind: 'stop-timer', name: 'tVDMSenderResponse' },
+];
 
 function hardReset(pe: SourcePe, effects: PeEffect[], why: string): Step {
-  effects.push(
-    { kind: 'note', text: `source: ${why} → Hard Reset` },
-    { kind: 'stop-timer', name: 'tSenderResponse' },
-    { kind: 'stop-timer', name: 'tPPSTimeout' },
-    { kind: 'hard-reset' },
-    { kind: 'contract', contract: null },
-    { kind: 'start-timer', name: 'tPSHardReset' },
-  );
-  return [{ ...pe, state: 'PE_SRC_Hard_Reset', phase: null, hardResetCounter: pe.hardResetCounter + 1, contract: null, accepted: null }, effects];
+  effects.push({ kind: 'note', text: `source: ${why} → Hard Reset` }, ...stopAll, { kind: 'hard-reset' }, { kind: 'contract', contract: null }, { kind: 'start-timer', name: 'tPSHardReset' });
+  return [{ ...pe, state: 'PE_SRC_Hard_Reset', phase: null, hardResetCounter: pe.hardResetCounter + 1, contract: null, accepted: null, eprMode: false, pending: NONE }, effects];
 }
 
-function softReset(pe: SourcePe, effects: PeEffect[]): Step {
-  effects.push({ kind: 'send', type: 'Soft_Reset', objects: [] });
+function softReset(pe: SourcePe, effects: PeEffect[], initiate = false): Step {
+  effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
+  send(effects, 'Soft_Reset', [], initiate);
   return [{ ...pe, state: 'PE_SRC_Send_Soft_Reset' }, effects];
 }
 
-function enterReady(pe: SourcePe, effects: PeEffect[]): Step {
+function enterReady(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
   if (pe.contract?.kind === 'pps') effects.push({ kind: 'start-timer', name: 'tPPSTimeout' });
-  return [{ ...pe, state: 'PE_SRC_Ready' }, effects];
+  // §8.3.3.26.3: in EPR mode the SourceEPRKeepAliveTimer runs while in PE_SRC_Ready.
+  if (pe.eprMode) effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
+  const ready: SourcePe = { ...pe, state: 'PE_SRC_Ready' };
+  const [next, ...rest] = pe.pending;
+  if (next !== undefined) return startAction({ ...ready, pending: rest }, next, context, effects);
+  return [ready, effects];
 }
 
 /** §8.3.3.2.5 PE_SRC_Negotiate_Capability: the Request must name an offer and stay within it. */
-function negotiate(pe: SourcePe, rdoRaw: number, reject: boolean, context: SourceContext, effects: PeEffect[]): Step {
+function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, context: SourceContext, effects: PeEffect[]): Step {
+  const rdoRaw = event.objects[0] ?? 0;
+  const offered = pe.offered ?? context.offers(pe.cable ?? null, pe.eprMode);
   const position = (rdoRaw >>> 28) & 0b1111;
-  const pdo = context.pdos[position - 1];
+  const pdo = offered.pdos[position - 1];
   const rdo = pdo ? decodeRdo(rdoRaw, pdo) : undefined;
-  const valid = pdo !== undefined && rdo !== undefined && !checkRequest(rdo, context.pdos).some((finding) => finding.severity === 'error');
-  if (!valid || reject || !pdo || !rdo) {
-    effects.push({ kind: 'send', type: 'Reject', objects: [] });
-    return [{ ...pe, state: 'PE_SRC_Capability_Response' }, effects];
+  // EPR_Request carries a copy of the PDO it names (§6.4.9); in EPR mode only EPR_Request is valid.
+  const copyOk = event.type !== 'EPR_Request' || event.objects[1] === offered.words[position - 1];
+  const modeOk = pe.eprMode === (event.type === 'EPR_Request');
+  const valid = pdo !== undefined && rdo !== undefined && copyOk && modeOk && !checkRequest(rdo, offered.pdos).some((finding) => finding.severity === 'error');
+  const next: SourcePe = { ...pe, sinkEprCapable: ((rdoRaw >>> 22) & 1) === 1 };
+  if (!valid || event.reject || !pdo || !rdo) {
+    send(effects, 'Reject');
+    return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
+  }
+  if (event.wait) {
+    send(effects, 'Wait');
+    return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
   }
   const contract = contractOf(rdo, pdo);
-  const programmable = rdo.kind === 'rdo-pps' || rdo.kind === 'rdo-avs';
-  const accepted = { contract, voltageMv: contract.voltageMv, limitMa: programmable ? contract.currentMa : null };
-  effects.push({ kind: 'send', type: 'Accept', objects: [] });
-  return [{ ...pe, state: 'PE_SRC_Transition_Accept', accepted }, effects];
+  // A PPS supply limits its current (§7.1.4.4); AVS does not (§7.1.4.5, from memory).
+  const limited = rdo.kind === 'rdo-pps';
+  const accepted = { contract, voltageMv: contract.voltageMv, limitMa: limited ? contract.currentMa : null, ...(limited && pdo.kind === 'pps' ? { floorMv: pdo.minVoltageMv } : {}) };
+  send(effects, 'Accept');
+  return [{ ...next, state: 'PE_SRC_Transition_Accept', accepted }, effects];
+}
+
+/** The answer to a swap request from the partner (§6.3.9–6.3.11): per `behaviour.swapAnswer`. */
+function answerSwap(pe: SourcePe, type: MessageType, context: SourceContext, effects: PeEffect[]): Step {
+  const answer = context.swapAnswer;
+  if (answer === 'not_supported') send(effects, pe.revision === '2.0' ? 'Reject' : 'Not_Supported');
+  else if (answer === 'reject') send(effects, 'Reject');
+  else if (answer === 'wait') send(effects, 'Wait');
+  else {
+    send(effects, 'Accept');
+    const state = type === 'PR_Swap' ? 'PE_PRS_SRC_SNK_Accept_Swap' : type === 'DR_Swap' ? 'PE_DRS_Accept_Swap' : 'PE_VCS_Accept_Swap';
+    return [{ ...pe, state }, effects];
+  }
+  return [pe, effects];
+}
+
+function startAction(pe: SourcePe, action: ActionName, context: SourceContext, effects: PeEffect[]): Step {
+  if (pe.state !== 'PE_SRC_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
+  const ask = (type: MessageType, state: string): Step => {
+    effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
+    send(effects, type, [], true);
+    return [{ ...pe, state }, effects];
+  };
+  switch (action) {
+    case 'get_source_cap':
+      return ask('Get_Source_Cap', 'PE_DR_SRC_Get_Source_Cap');
+    case 'get_sink_cap':
+      return ask('Get_Sink_Cap', 'PE_SRC_Get_Sink_Cap');
+    case 'get_source_cap_extended':
+      return ask('Get_Source_Cap_Extended', 'PE_SRC_Get_Source_Cap_Ext');
+    case 'get_status':
+      return ask('Get_Status', 'PE_SRC_Get_Sink_Status');
+    case 'get_pps_status':
+      return ask('Get_PPS_Status', 'PE_SRC_Get_PPS_Status');
+    case 'dr_swap':
+      return ask('DR_Swap', 'PE_DRS_Send_Swap');
+    case 'vconn_swap':
+      return ask('VCONN_Swap', 'PE_VCS_Send_Swap');
+    case 'pr_swap':
+      return ask('PR_Swap', 'PE_PRS_SRC_SNK_Send_Swap');
+    case 'soft_reset':
+      return softReset(pe, effects, true);
+    case 'hard_reset':
+      return hardReset(pe, effects, 'asked to (action)');
+    case 'epr_exit':
+      if (!pe.eprMode) return [pe, effects];
+      effects.push({ kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
+      send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.exit)], true);
+      return [{ ...pe, state: 'PE_SRC_Send_EPR_Mode_Exit' }, effects];
+  }
+}
+
+/** After a swap request of ours was answered (or not). */
+function swapAnswered(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+  if (event.kind === 'sent') {
+    effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
+    return [pe, effects];
+  }
+  const back = () => {
+    effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
+    return enterReady(pe, context, effects);
+  };
+  if (event.kind === 'timer' && event.name === 'tSenderResponse') return back();
+  if (event.kind === 'failed') return back();
+  if (event.kind !== 'message') return null;
+  if (event.type === 'Accept') {
+    effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
+    if (pe.state === 'PE_DRS_Send_Swap') {
+      effects.push({ kind: 'data-role-swap' });
+      return enterReady(pe, context, effects);
+    }
+    if (pe.state === 'PE_VCS_Send_Swap') {
+      // §8.3.3.20: the VCONN source hands over; the partner turns VCONN on and says PS_RDY.
+      effects.push({ kind: 'start-timer', name: 'tVCONNSourceTimeout' });
+      return [{ ...pe, state: 'PE_VCS_Wait_For_VCONN' }, effects];
+    }
+    effects.push({ kind: 'start-timer', name: 'tSrcTransition' });
+    return [{ ...pe, state: 'PE_PRS_SRC_SNK_Transition_to_off' }, effects];
+  }
+  if (event.type === 'Reject' || event.type === 'Wait' || event.type === 'Not_Supported') return back();
+  return null;
 }
 
 export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext): Step {
@@ -88,46 +241,55 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
 
   // Hard Reset signalling wins in every state (§8.3.3.2.9 PE_SRC_Hard_Reset_Received).
   if (event.kind === 'hard-reset-received') {
-    effects.push(
-      { kind: 'stop-timer', name: 'tSenderResponse' },
-      { kind: 'stop-timer', name: 'tPPSTimeout' },
-      { kind: 'stop-timer', name: 'tNoResponse' },
-      { kind: 'contract', contract: null },
-      { kind: 'start-timer', name: 'tPSHardReset' },
-    );
-    return [{ ...pe, state: 'PE_SRC_Hard_Reset_Received', phase: null, contract: null, accepted: null }, effects];
+    effects.push(...stopAll, { kind: 'stop-timer', name: 'tNoResponse' }, { kind: 'contract', contract: null }, { kind: 'start-timer', name: 'tPSHardReset' });
+    return [{ ...pe, state: 'PE_SRC_Hard_Reset_Received', phase: null, contract: null, accepted: null, eprMode: false, pending: NONE }, effects];
   }
+  if (event.kind === 'message' && event.sop === "SOP'") return cableAnswer(pe, event, context, effects);
   if (event.kind === 'message' && event.type === 'Soft_Reset' && pe.state !== 'idle' && pe.phase === null) {
-    effects.push({ kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'stop-timer', name: 'tPPSTimeout' }, { kind: 'send', type: 'Accept', objects: [] });
-    return [{ ...pe, state: 'PE_SRC_Soft_Reset' }, effects];
+    effects.push(...stopAll);
+    send(effects, 'Accept');
+    return [{ ...pe, state: 'PE_SRC_Soft_Reset', eprMode: false }, effects];
   }
+  // §8.3.3.26.3: any message from the sink restarts the SourceEPRKeepAliveTimer.
+  if (pe.eprMode && event.kind === 'message' && pe.state === 'PE_SRC_Ready') effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
+  if (event.kind === 'action') return startAction(pe, event.action, context, effects);
+  if (event.kind === 'overload' && pe.contract !== null) return hardReset(pe, effects, 'current limit would pull VBUS below the offer’s minimum voltage');
 
   switch (pe.state) {
     case 'idle':
     case 'PE_SRC_Startup':
       if (event.kind === 'start') {
-        effects.push({ kind: 'protocol-reset' }, { kind: 'start-timer', name: 'tFirstSourceCap' });
+        effects.push({ kind: 'protocol-reset' }, { kind: 'start-timer', name: pe.phase === 'on' ? 'tSwapSourceStart' : 'tFirstSourceCap' });
         if (pe.hardResetCounter > 0) effects.push({ kind: 'start-timer', name: 'tNoResponse' });
         return [{ ...pe, state: 'PE_SRC_Startup', capsCounter: 0, phase: null }, effects];
       }
-      if (event.kind === 'timer' && event.name === 'tFirstSourceCap') return sendCaps(pe, context, effects);
+      if (event.kind === 'timer' && (event.name === 'tFirstSourceCap' || event.name === 'tSwapSourceStart')) return startOrDiscover(pe, context, effects);
+      break;
+    case 'PE_SRC_VDM_Identity_Request':
+      if (event.kind === 'sent' && event.sop === "SOP'") {
+        effects.push({ kind: 'start-timer', name: 'tVDMSenderResponse' });
+        return [pe, effects];
+      }
+      if ((event.kind === 'failed' && event.sop === "SOP'") || (event.kind === 'timer' && event.name === 'tVDMSenderResponse')) {
+        effects.push({ kind: 'note', text: 'source: no answer from the cable on SOP\' → offers limited to 3 A' });
+        return sendCaps({ ...pe, cable: null }, context, effects);
+      }
       break;
     case 'PE_SRC_Send_Capabilities':
-      if (event.kind === 'sent' && event.type === 'Source_Capabilities') {
+      if (event.kind === 'sent' && (event.type === 'Source_Capabilities' || event.type === 'EPR_Source_Capabilities')) {
         effects.push({ kind: 'stop-timer', name: 'tNoResponse' }, { kind: 'start-timer', name: 'tSenderResponse' });
         return [{ ...pe, capsCounter: 0, hardResetCounter: 0, pdConnected: true }, effects];
       }
-      if (event.kind === 'failed' && event.type === 'Source_Capabilities') {
+      if (event.kind === 'failed' && (event.type === 'Source_Capabilities' || event.type === 'EPR_Source_Capabilities')) {
         if (pe.contract) return softReset(pe, effects);
         effects.push({ kind: 'start-timer', name: 'tTypeCSendSourceCap' });
         return [{ ...pe, state: 'PE_SRC_Discovery' }, effects];
       }
-      if (event.kind === 'message' && event.type === 'Request') {
+      if (event.kind === 'message' && (event.type === 'Request' || event.type === 'EPR_Request')) {
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return negotiate({ ...pe, revision: event.revision }, event.objects[0] ?? 0, event.reject === true, context, effects);
+        return negotiate({ ...pe, revision: event.revision }, event, context, effects);
       }
       if (event.kind === 'timer' && event.name === 'tSenderResponse') return hardReset(pe, effects, 'no Request within tSenderResponse');
-      if (event.kind === 'timer' && event.name === 'tNoResponse') break;
       break;
     case 'PE_SRC_Discovery':
       if (event.kind === 'timer' && event.name === 'tTypeCSendSourceCap') {
@@ -147,7 +309,8 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       break;
     case 'PE_SRC_Transition_Supply':
       if (event.kind === 'timer' && event.name === 'tSrcTransition' && pe.accepted) {
-        effects.push({ kind: 'supply', voltageMv: pe.accepted.voltageMv, limitMa: pe.accepted.limitMa });
+        const { voltageMv, limitMa, floorMv } = pe.accepted;
+        effects.push(floorMv === undefined ? { kind: 'supply', voltageMv, limitMa } : { kind: 'supply', voltageMv, limitMa, floorMv });
         return [pe, effects];
       }
       if (event.kind === 'supply-ready') {
@@ -155,33 +318,55 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
           effects.push({ kind: 'note', text: 'fault: source withholds PS_RDY' });
           return [pe, effects];
         }
-        effects.push({ kind: 'send', type: 'PS_RDY', objects: [] });
+        send(effects, 'PS_RDY');
         return [pe, effects];
       }
       if (event.kind === 'sent' && event.type === 'PS_RDY' && pe.accepted) {
         effects.push({ kind: 'contract', contract: pe.accepted.contract });
-        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, effects);
+        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, context, effects);
       }
       // A failure during a power transition is a Hard Reset, not a Soft_Reset (§6.8.1).
       if (event.kind === 'failed') return hardReset(pe, effects, 'PS_RDY not acknowledged');
       break;
     case 'PE_SRC_Capability_Response':
-      if (event.kind === 'sent' && event.type === 'Reject') {
-        if (pe.contract) return enterReady(pe, effects);
+      if (event.kind === 'sent' && (event.type === 'Reject' || event.type === 'Wait')) {
+        if (pe.contract) return enterReady(pe, context, effects);
         return [{ ...pe, state: 'PE_SRC_Wait_New_Capabilities' }, effects];
       }
       if (event.kind === 'failed') return softReset(pe, effects);
       break;
+    case 'PE_SRC_Wait_New_Capabilities':
+      if (event.kind === 'message' && (event.type === 'Request' || event.type === 'EPR_Request')) return negotiate(pe, event, context, effects);
+      break;
     case 'PE_SRC_Ready':
-      if (event.kind === 'message' && event.type === 'Request') {
-        effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
-        return negotiate(pe, event.objects[0] ?? 0, event.reject === true, context, effects);
+      return ready(pe, event, context, effects);
+    case 'PE_SRC_Evaluate_EPR_Mode_Entry':
+      if (event.kind === 'sent' && event.type === 'EPR_Mode') {
+        // §8.3.3.26.2.2 PE_SRC_EPR_Mode_Discover_Cable: ask the cable plug within tEPRSourceCableDiscovery.
+        effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" }, { kind: 'start-timer', name: 'tEPRSourceCableDiscovery' });
+        return [{ ...pe, state: 'PE_SRC_EPR_Mode_Discover_Cable' }, effects];
       }
-      if (event.kind === 'message' && event.type === 'Get_Source_Cap') {
-        effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
-        return sendCaps(pe, context, effects);
+      if (event.kind === 'failed') return softReset(pe, effects);
+      break;
+    case 'PE_SRC_EPR_Mode_Discover_Cable':
+      if (event.kind === 'sent' && event.sop === "SOP'") {
+        effects.push({ kind: 'start-timer', name: 'tVDMSenderResponse' });
+        return [pe, effects];
       }
-      if (event.kind === 'timer' && event.name === 'tPPSTimeout') return hardReset(pe, effects, 'no Request within tPPSTimeout');
+      if ((event.kind === 'failed' && event.sop === "SOP'") || (event.kind === 'timer' && (event.name === 'tVDMSenderResponse' || event.name === 'tEPRSourceCableDiscovery'))) {
+        return eprEntryResult({ ...pe, cable: null }, context, effects);
+      }
+      break;
+    case 'PE_SRC_EPR_Mode_Entry_Succeeded':
+      if (event.kind === 'sent' && event.type === 'EPR_Mode') return sendCaps({ ...pe, eprMode: true }, context, effects);
+      if (event.kind === 'failed') return hardReset(pe, effects, 'Enter_Succeeded not acknowledged');
+      break;
+    case 'PE_SRC_EPR_Mode_Entry_Failed':
+      if (event.kind === 'sent' || event.kind === 'failed') return enterReady(pe, context, effects);
+      break;
+    case 'PE_SRC_Send_EPR_Mode_Exit':
+      if (event.kind === 'sent' && event.type === 'EPR_Mode') return sendCaps({ ...pe, eprMode: false }, context, effects);
+      if (event.kind === 'failed') return softReset(pe, effects);
       break;
     case 'PE_SRC_Soft_Reset':
       if (event.kind === 'sent' && event.type === 'Accept') return sendCaps(pe, context, effects);
@@ -194,7 +379,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       }
       if (event.kind === 'message' && event.type === 'Accept') {
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return sendCaps(pe, context, effects);
+        return sendCaps({ ...pe, eprMode: false }, context, effects);
       }
       if (event.kind === 'failed') return hardReset(pe, effects, 'Soft_Reset not acknowledged');
       if (event.kind === 'timer' && event.name === 'tSenderResponse') return hardReset(pe, effects, 'no Accept of Soft_Reset');
@@ -204,7 +389,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       if (event.kind === 'timer' && event.name === 'tPSHardReset') {
         // §7.1.5: VBUS to vSafe0V within tSafe0V; power back after tSrcRecover, on within tSrcTurnOn.
         effects.push({ kind: 'protocol-reset' }, { kind: 'supply', voltageMv: 0, limitMa: null });
-        return [{ ...pe, state: 'PE_SRC_Transition_to_default', phase: 'off', pdConnected: false }, effects];
+        return [{ ...pe, state: 'PE_SRC_Transition_to_default', phase: 'off' }, effects];
       }
       break;
     case 'PE_SRC_Transition_to_default':
@@ -218,16 +403,198 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       }
       if (event.kind === 'supply-ready' && pe.phase === 'on') return sourceStep({ ...pe, state: 'PE_SRC_Startup', phase: null }, { kind: 'start' }, context);
       break;
-    default:
+    default: {
+      const swap = swapStep(pe, event, context, effects);
+      if (swap) return swap;
       break;
+    }
   }
-  // §8.3.3.2.4 NoResponseTimer: without a PD connection after nHardResetCount resets, give up.
-  if (event.kind === 'timer' && event.name === 'tNoResponse' && !pe.pdConnected) {
+  // §8.3.3.2.4 NoResponseTimer: after nHardResetCount Hard Resets give up — PE_SRC_Disabled when the
+  // partners were never PD connected, ErrorRecovery (USB Type-C R2.3 §4.5.2.2.2) when they were.
+  if (event.kind === 'timer' && event.name === 'tNoResponse') {
     if (pe.hardResetCounter > counters.nHardResetCount) {
+      if (pe.pdConnected) {
+        effects.push({ kind: 'note', text: 'source: NoResponseTimer expired after nHardResetCount Hard Resets of a PD connection → ErrorRecovery' }, { kind: 'error-recovery' });
+        return [{ ...pe, state: 'ErrorRecovery' }, effects];
+      }
       effects.push({ kind: 'note', text: 'source: NoResponseTimer expired after nHardResetCount Hard Resets → PE_SRC_Disabled' });
       return [{ ...pe, state: 'PE_SRC_Disabled' }, effects];
     }
     return hardReset(pe, effects, 'NoResponseTimer expired');
   }
   return [pe, effects];
+}
+
+function ready(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step {
+  if (event.kind === 'timer' && event.name === 'tPPSTimeout') return hardReset(pe, effects, 'no Request within tPPSTimeout');
+  if (event.kind === 'timer' && event.name === 'tSourceEPRKeepAlive') return hardReset(pe, effects, 'no message from the sink within tSourceEPRKeepAlive in EPR mode');
+  if (event.kind !== 'message') return [pe, effects];
+  switch (event.type) {
+    case 'Request':
+    case 'EPR_Request':
+      effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' }, { kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
+      return negotiate(pe, event, context, effects);
+    case 'Get_Source_Cap':
+      effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' }, { kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
+      return sendCaps(pe, context, effects);
+    case 'Extended_Control':
+      if (isEcdb(event, ECDB.EPR_KeepAlive) && pe.eprMode) {
+        sendBytes(effects, 'Extended_Control', [ECDB.EPR_KeepAlive_Ack, 0]);
+        return [pe, effects];
+      }
+      if (isEcdb(event, ECDB.EPR_Get_Source_Cap) && pe.eprMode) {
+        effects.push({ kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
+        return sendCaps(pe, context, effects);
+      }
+      send(effects, 'Not_Supported');
+      return [pe, effects];
+    case 'EPR_Mode': {
+      const { action } = eprModeOf(event.objects[0]);
+      if (action === eprModeAction.enter) return evaluateEprEntry(pe, context, effects);
+      if (action === eprModeAction.exit && pe.eprMode) {
+        // §6.4.10 / §8.3.3.26.4: the sink leaves EPR mode; the source offers SPR again.
+        effects.push({ kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
+        return sendCaps({ ...pe, eprMode: false }, context, effects);
+      }
+      return [pe, effects];
+    }
+    case 'Get_Sink_Cap':
+      // A source-only port does not have sink capabilities (§6.3.8): Not_Supported (R3), Reject (R2.0).
+      send(effects, pe.revision === '2.0' ? 'Reject' : 'Not_Supported');
+      return [pe, effects];
+    case 'Get_Source_Cap_Extended':
+      sendBytes(effects, 'Source_Capabilities_Extended', sourceCapsExtendedBytes(context.pdpW().spr, context.pdpW().epr));
+      return [pe, effects];
+    case 'Get_Status':
+      sendBytes(effects, 'Status', statusBytes());
+      return [pe, effects];
+    case 'Get_PPS_Status':
+      if (pe.contract?.kind === 'pps') sendBytes(effects, 'PPS_Status', ppsStatusBytes(pe.contract, context.vbusMv()));
+      else send(effects, 'Not_Supported');
+      return [pe, effects];
+    case 'PR_Swap':
+    case 'DR_Swap':
+    case 'VCONN_Swap':
+      return answerSwap(pe, event.type, context, effects);
+    case 'Accept':
+    case 'Reject':
+    case 'Wait':
+    case 'PS_RDY':
+    case 'Not_Supported':
+    case 'GoodCRC':
+      // Unexpected in Ready: a protocol error, answered with Soft_Reset (§6.8.1).
+      return softReset(pe, effects);
+    default:
+      // §6.3.16: a message the port does not support gets Not_Supported (R3), Reject (R2.0).
+      send(effects, pe.revision === '2.0' ? 'Reject' : 'Not_Supported');
+      return [pe, effects];
+  }
+}
+
+/** §8.3.3.26.2.1 PE_SRC_Evaluate_EPR_Mode_Entry: Enter_Acknowledged, or Enter_Failed with its reason. */
+function evaluateEprEntry(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
+  effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
+  const reason = !context.eprCapable ? eprEnterFailed.pdo : !pe.sinkEprCapable ? eprEnterFailed.rdo : null;
+  if (reason !== null) {
+    send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.enterFailed, reason)]);
+    return [{ ...pe, state: 'PE_SRC_EPR_Mode_Entry_Failed' }, effects];
+  }
+  send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.enterAcknowledged)]);
+  return [{ ...pe, state: 'PE_SRC_Evaluate_EPR_Mode_Entry' }, effects];
+}
+
+function eprEntryResult(pe: SourcePe, _context: SourceContext, effects: PeEffect[]): Step {
+  effects.push({ kind: 'stop-timer', name: 'tEPRSourceCableDiscovery' }, { kind: 'stop-timer', name: 'tVDMSenderResponse' });
+  if (cableAllowsEpr(pe.cable ?? null)) {
+    send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.enterSucceeded)]);
+    return [{ ...pe, state: 'PE_SRC_EPR_Mode_Entry_Succeeded' }, effects];
+  }
+  effects.push({ kind: 'note', text: 'source: the cable is not a 50 V, 5 A EPR cable → Enter_Failed' });
+  send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.enterFailed, eprEnterFailed.cable)]);
+  return [{ ...pe, state: 'PE_SRC_EPR_Mode_Entry_Failed' }, effects];
+}
+
+/** The cable plug's answer on SOP' (a Discover Identity ACK), wherever the source asked. */
+function cableAnswer(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, context: SourceContext, effects: PeEffect[]): Step {
+  if (event.type !== 'Vendor_Defined') return [pe, effects];
+  const cable = readIdentity(event.objects);
+  effects.push({ kind: 'stop-timer', name: 'tVDMSenderResponse' });
+  if (pe.state === 'PE_SRC_VDM_Identity_Request') return sendCaps({ ...pe, cable }, context, effects);
+  if (pe.state === 'PE_SRC_EPR_Mode_Discover_Cable') return eprEntryResult({ ...pe, cable }, context, effects);
+  return [{ ...pe, cable }, effects];
+}
+
+/** The swap state machines from the source's side (§8.3.3.18–20). */
+function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+  switch (pe.state) {
+    case 'PE_DRS_Send_Swap':
+    case 'PE_VCS_Send_Swap':
+    case 'PE_PRS_SRC_SNK_Send_Swap':
+    case 'PE_DR_SRC_Get_Source_Cap':
+    case 'PE_SRC_Get_Sink_Cap':
+    case 'PE_SRC_Get_Source_Cap_Ext':
+    case 'PE_SRC_Get_Sink_Status':
+    case 'PE_SRC_Get_PPS_Status': {
+      const asking = !pe.state.includes('Swap');
+      if (asking && event.kind === 'message' && event.type !== 'GoodCRC') {
+        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
+        return enterReady(pe, context, effects);
+      }
+      return swapAnswered(pe, event, context, effects);
+    }
+    case 'PE_DRS_Accept_Swap':
+      if (event.kind === 'sent' && event.type === 'Accept') {
+        effects.push({ kind: 'data-role-swap' });
+        return enterReady(pe, context, effects);
+      }
+      break;
+    case 'PE_VCS_Accept_Swap':
+      if (event.kind === 'sent' && event.type === 'Accept') {
+        // §8.3.3.20: the partner becomes VCONN source and says PS_RDY once VCONN is on.
+        effects.push({ kind: 'start-timer', name: 'tVCONNSourceTimeout' });
+        return [{ ...pe, state: 'PE_VCS_Wait_For_VCONN' }, effects];
+      }
+      break;
+    case 'PE_VCS_Wait_For_VCONN':
+      if (event.kind === 'message' && event.type === 'PS_RDY') {
+        effects.push({ kind: 'stop-timer', name: 'tVCONNSourceTimeout' }, { kind: 'vconn-swap' });
+        return enterReady(pe, context, effects);
+      }
+      if (event.kind === 'timer' && event.name === 'tVCONNSourceTimeout') return hardReset(pe, effects, 'no PS_RDY within tVCONNSourceTimeout after VCONN_Swap');
+      break;
+    case 'PE_PRS_SRC_SNK_Accept_Swap':
+      if (event.kind === 'sent' && event.type === 'Accept') {
+        effects.push({ kind: 'start-timer', name: 'tSrcTransition' });
+        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Transition_to_off' }, effects];
+      }
+      break;
+    case 'PE_PRS_SRC_SNK_Transition_to_off':
+      // §7.3.9: the initial source turns its supply off (vSafe0V within tSrcSwapStdby), then says PS_RDY.
+      if (event.kind === 'timer' && event.name === 'tSrcTransition') {
+        effects.push({ kind: 'contract', contract: null }, { kind: 'supply', voltageMv: 0, limitMa: null });
+        return [{ ...pe, contract: null, eprMode: false, phase: 'off' }, effects];
+      }
+      if (event.kind === 'supply-ready' && pe.phase === 'off') {
+        send(effects, 'PS_RDY');
+        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Source_off', phase: null }, effects];
+      }
+      break;
+    case 'PE_PRS_SRC_SNK_Source_off':
+      if (event.kind === 'sent' && event.type === 'PS_RDY') {
+        effects.push({ kind: 'start-timer', name: 'tPSSourceOn' });
+        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Wait_Source_on' }, effects];
+      }
+      break;
+    case 'PE_PRS_SRC_SNK_Wait_Source_on':
+      if (event.kind === 'message' && event.type === 'PS_RDY') {
+        effects.push({ kind: 'stop-timer', name: 'tPSSourceOn' }, { kind: 'become', role: 'sink' });
+        return [pe, effects];
+      }
+      if (event.kind === 'timer' && event.name === 'tPSSourceOn') {
+        effects.push({ kind: 'note', text: 'source: no PS_RDY from the new source within tPSSourceOn → ErrorRecovery' }, { kind: 'error-recovery' });
+        return [{ ...pe, state: 'ErrorRecovery' }, effects];
+      }
+      break;
+  }
+  return null;
 }

@@ -1,11 +1,14 @@
 /**
- * What the simulator puts on the CC wire: the 16-bit message header, wire-order hex, and how long a
- * packet occupies the line. Kept here (a dozen lines of bit packing) so the hot path builds a
- * header without allocating a decoded form; shared/pd decodes the result for people.
+ * What the simulator puts on the CC wire: the 16-bit message header, the extended header,
+ * wire-order hex, and how long a packet occupies the line. Kept here (bit packing) so the hot path
+ * builds a header without allocating a decoded form; shared/pd decodes the result for people.
  *
  * Header layout: USB PD R3.2 V1.1 §6.2.1.1, Table 6.1 "Message Header": b15 Extended, b14..12
- * Number of Data Objects, b11..9 MessageID, b8 Port Power Role (SOP: 1 = Source), b7..6
- * Specification Revision (00b 1.0, 01b 2.0, 10b 3.x), b5 Port Data Role (1 = DFP), b4..0 type.
+ * Number of Data Objects, b11..9 MessageID, b8 Port Power Role (SOP) or Cable Plug (SOP': 1 =
+ * from a cable plug), b7..6 Specification Revision (00b 1.0, 01b 2.0, 10b 3.x), b5 Port Data Role
+ * (SOP: 1 = DFP; reserved on SOP'), b4..0 type.
+ * Extended header: §6.2.1.2, Table 6.3: b15 Chunked, b14..11 Chunk Number, b10 Request Chunk,
+ * b8..0 Data Size (bytes of the whole block).
  */
 import type { Side } from './types.ts';
 
@@ -16,40 +19,131 @@ export const controlCodes = {
   Reject: 0x04,
   PS_RDY: 0x06,
   Get_Source_Cap: 0x07,
+  Get_Sink_Cap: 0x08,
+  DR_Swap: 0x09,
+  PR_Swap: 0x0a,
+  VCONN_Swap: 0x0b,
   Wait: 0x0c,
   Soft_Reset: 0x0d,
   Not_Supported: 0x10,
+  Get_Source_Cap_Extended: 0x11,
+  Get_Status: 0x12,
+  Get_PPS_Status: 0x14,
 } as const;
 
 /** Data message codes: USB PD R3.2 V1.1 §6.4, Table 6.6 "Data Message Types". */
 export const dataCodes = {
   Source_Capabilities: 0x01,
   Request: 0x02,
+  Sink_Capabilities: 0x04,
+  Alert: 0x06,
+  EPR_Request: 0x09,
+  EPR_Mode: 0x0a,
+  Vendor_Defined: 0x0f,
+} as const;
+
+/** Extended message codes: USB PD R3.2 V1.1 §6.5, Table 6.53 "Extended Message Types". */
+export const extendedCodes = {
+  Source_Capabilities_Extended: 0x01,
+  Status: 0x02,
+  PPS_Status: 0x0c,
+  Extended_Control: 0x10,
+  EPR_Source_Capabilities: 0x11,
+} as const;
+
+/** Extended_Control types (§6.5.14, Table 6.70 "Extended Control Data Block"): named like messages. */
+export const extendedControlCodes = {
+  EPR_Get_Source_Cap: 0x01,
+  EPR_Get_Sink_Cap: 0x02,
+  EPR_KeepAlive: 0x03,
+  EPR_KeepAlive_Ack: 0x04,
 } as const;
 
 export type ControlType = keyof typeof controlCodes;
 export type DataType = keyof typeof dataCodes;
-export type MessageType = ControlType | DataType;
+export type ExtendedType = keyof typeof extendedCodes;
+export type ExtendedControlType = keyof typeof extendedControlCodes;
+export type MessageType = ControlType | DataType | ExtendedType;
 
 export type Revision = '2.0' | '3.0';
+export type Sop = 'SOP' | "SOP'";
+/** Who transmits: one of the two ports or the cable plug (on SOP'). */
+export type Sender = Side | 'cable';
 
 export function isDataType(type: MessageType): type is DataType {
-  return type === 'Source_Capabilities' || type === 'Request';
+  return type in dataCodes;
+}
+export function isExtendedType(type: MessageType): type is ExtendedType {
+  return type in extendedCodes;
 }
 
-/** Packs a SOP message header (no extended messages in the simulator). */
-export function packHeader(type: MessageType, objectCount: number, messageId: number, from: Side, revision: Revision): number {
-  const code = isDataType(type) ? dataCodes[type] : controlCodes[type];
+function codeOf(type: MessageType): number {
+  return (controlCodes as Record<string, number>)[type] ?? (dataCodes as Record<string, number>)[type] ?? (extendedCodes as Record<string, number>)[type] ?? 0;
+}
+
+export interface HeaderBits {
+  /** SOP: the sender is the source (Port Power Role); SOP': the sender is the cable plug. */
+  roleBit: boolean;
+  /** SOP: the sender is the DFP (Port Data Role); always false on SOP'. */
+  dfp: boolean;
+}
+
+/** Packs a message header. */
+export function packHeader(type: MessageType, objectCount: number, messageId: number, bits: HeaderBits, revision: Revision): number {
   const revisionBits = revision === '2.0' ? 0b01 : 0b10;
-  const source = from === 'source';
   return (
+    (isExtendedType(type) ? 0x8000 : 0) |
     ((objectCount & 0b111) << 12) |
     ((messageId & 0b111) << 9) |
-    ((source ? 1 : 0) << 8) |
+    ((bits.roleBit ? 1 : 0) << 8) |
     (revisionBits << 6) |
-    ((source ? 1 : 0) << 5) |
-    (code & 0b1_1111)
+    ((bits.dfp ? 1 : 0) << 5) |
+    (codeOf(type) & 0b1_1111)
   );
+}
+
+/** The largest chunk of an extended message's data block: 26 bytes (MaxExtendedMsgChunkLen, §6.13). */
+export const MAX_CHUNK_BYTES = 26;
+
+export function packExtendedHeader(chunked: boolean, chunkNumber: number, requestChunk: boolean, dataSize: number): number {
+  return ((chunked ? 1 : 0) << 15) | ((chunkNumber & 0xf) << 11) | ((requestChunk ? 1 : 0) << 10) | (dataSize & 0x1ff);
+}
+
+export function unpackExtendedHeader(word0: number): { chunked: boolean; chunkNumber: number; requestChunk: boolean; dataSize: number } {
+  const header = word0 & 0xffff;
+  return { chunked: (header & 0x8000) !== 0, chunkNumber: (header >>> 11) & 0xf, requestChunk: (header & 0x400) !== 0, dataSize: header & 0x1ff };
+}
+
+/**
+ * The 32-bit objects of an extended message's body as they go on the wire: the extended header,
+ * then `bytes`, padded with zeros to a 4-byte boundary (§6.2.1.2.2 Padding).
+ */
+export function extendedObjects(extendedHeader: number, bytes: readonly number[]): number[] {
+  const all = [extendedHeader & 0xff, (extendedHeader >>> 8) & 0xff, ...bytes];
+  while (all.length % 4 !== 0) all.push(0);
+  const words: number[] = [];
+  for (let i = 0; i < all.length; i += 4) words.push((all[i]! | (all[i + 1]! << 8) | (all[i + 2]! << 16) | (all[i + 3]! << 24)) >>> 0);
+  return words;
+}
+
+/** The data bytes of an extended message body (after the 2-byte extended header), `count` of them. */
+export function extendedBytes(objects: readonly number[], count: number): number[] {
+  const bytes: number[] = [];
+  for (let i = 2; i < 2 + count; i++) bytes.push(((objects[i >>> 2] ?? 0) >>> ((i & 3) * 8)) & 0xff);
+  return bytes;
+}
+
+/** 32-bit words as little-endian bytes (a PDO list as an extended data block). */
+export function wordsToBytes(words: readonly number[]): number[] {
+  const bytes: number[] = [];
+  for (const word of words) bytes.push(word & 0xff, (word >>> 8) & 0xff, (word >>> 16) & 0xff, (word >>> 24) & 0xff);
+  return bytes;
+}
+
+export function bytesToWords(bytes: readonly number[]): number[] {
+  const words: number[] = [];
+  for (let i = 0; i + 3 < bytes.length; i += 4) words.push((bytes[i]! | (bytes[i + 1]! << 8) | (bytes[i + 2]! << 16) | (bytes[i + 3]! << 24)) >>> 0);
+  return words;
 }
 
 const HEX = Array.from({ length: 256 }, (_, byte) => byte.toString(16).padStart(2, '0'));

@@ -1,5 +1,5 @@
 /**
- * How the sink-policy forms (Offers page's contract, Bench) show vector.md's four policies: a
+ * How the sink-policy forms (Offers page's contract, Bench) show vector.md's sink policies: a
  * short label for the drop-down, a sentence of help under it, the numeric fields of each kind and
  * typical values when the kind changes. The policy's schema is the engine's `sinkPolicySchema`.
  */
@@ -14,6 +14,7 @@ export const policyKindOptions: readonly { value: PolicyKind; label: string }[] 
   { value: 'max-power', label: 'Most power' },
   { value: 'fixed', label: 'Fixed voltage' },
   { value: 'pps', label: 'Programmable (PPS)' },
+  { value: 'avs', label: 'Adjustable (AVS)' },
   { value: 'range', label: 'Voltage range' },
 ];
 
@@ -22,6 +23,7 @@ export const policyKindHelp: Record<PolicyKind, string> = {
   'max-power': 'The fixed, variable or battery offer with the most power within the cable’s rating; on a tie, the lower voltage.',
   fixed: 'The fixed offer at this voltage, at this current; offered with less, its full current with Capability Mismatch.',
   pps: 'A PPS offer whose range holds this voltage, at this current (rounded down to 20 mV and 50 mA).',
+  avs: 'An adjustable-voltage offer (SPR AVS or EPR AVS) whose range holds this voltage, at this current (rounded down to 100 mV and 50 mA).',
   range: 'The lowest-voltage fixed or variable offer inside the range that gives this power.',
 };
 
@@ -34,6 +36,10 @@ export const policyFields: Record<PolicyKind, readonly NumberFieldSpec<PolicyNum
   ],
   pps: [
     { name: 'voltageMv', label: 'Voltage (mV)', step: 20 },
+    { name: 'currentMa', label: 'Current (mA)', step: 50 },
+  ],
+  avs: [
+    { name: 'voltageMv', label: 'Voltage (mV)', step: 100 },
     { name: 'currentMa', label: 'Current (mA)', step: 50 },
   ],
   range: [
@@ -52,6 +58,8 @@ export function defaultPolicy(kind: PolicyKind): SinkPolicy {
       return { kind, voltageMv: 9_000, currentMa: 3_000 };
     case 'pps':
       return { kind, voltageMv: 8_400, currentMa: 2_500 };
+    case 'avs':
+      return { kind, voltageMv: 36_000, currentMa: 5_000 };
     case 'range':
       return { kind, minVoltageMv: 9_000, maxVoltageMv: 20_000, powerMw: 45_000 };
   }

@@ -18,6 +18,7 @@ export function policyOf(draft: PolicyDraft): Record<string, unknown> {
       return { kind: 'max-power' };
     case 'fixed':
     case 'pps':
+    case 'avs':
       return { kind: draft.kind, voltageMv: n(draft.voltageMv), currentMa: n(draft.currentMa) };
     case 'range':
       return { kind: 'range', minVoltageMv: n(draft.minVoltageMv), maxVoltageMv: n(draft.maxVoltageMv), powerMw: n(draft.powerMw) };
