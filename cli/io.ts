@@ -8,6 +8,8 @@ export interface CliIo {
   isTty: boolean;
   cwd: string;
   readStdin(): Promise<string>;
+  /** Resolves once stdout has taken what was written (so a long stream does not pile up in memory). */
+  drain?(): Promise<void>;
 }
 
 /** Bad input or usage: exit code 2, one line on stderr, and the JSON error on stdout under --json. */

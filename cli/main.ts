@@ -92,6 +92,7 @@ if (isEntry || process.env.PARLEY_CLI_ENTRY === '1') {
   });
   const io: CliIo = {
     stdout: (text) => process.stdout.write(text),
+    drain: () => (process.stdout.writableNeedDrain ? new Promise<void>((resolve) => process.stdout.once('drain', () => resolve())) : Promise.resolve()),
     stderr: (text) => process.stderr.write(text),
     isTty: Boolean(process.stdout.isTTY),
     cwd: process.cwd(),

@@ -9,7 +9,8 @@ import { exposeEngine } from './expose.ts';
 
 export type VcdEntry =
   | { kind: 'message'; t: number; sop: Sop; hex: string; crcOk: boolean; messageType: string; summary: string }
-  | { kind: 'hard_reset' | 'cable_reset'; t: number };
+  | { kind: 'hard_reset' | 'cable_reset'; t: number }
+  | { kind: 'unreadable'; t: number; reason: string };
 
 export type VcdOutcome = { ok: true; entries: VcdEntry[] } | { ok: false; error: EngineError };
 
@@ -17,6 +18,7 @@ function decodeVcdText(text: string): VcdOutcome {
   const result = decodeVcd(text);
   if (!result.ok) return { ok: false, error: result.error };
   const entries = result.events.map((event): VcdEntry => {
+    if (event.kind === 'unreadable') return { kind: 'unreadable', t: event.t, reason: event.reason };
     if (event.kind !== 'message') return { kind: event.kind, t: event.t };
     const decoded = decodeMessage(event.bytes, { sop: event.sop });
     const count = decoded.ok ? decoded.message.objects.length : 0;

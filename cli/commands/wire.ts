@@ -17,13 +17,16 @@ import {
   DEFAULT_GAP_US,
   createVcdDecoder,
   encodeWaveform,
+  maxTickUs,
+  parseTimescaleUs,
   type VcdTimescale,
   type WireEvent,
+  type WireMessageEvent,
   type WirePacket,
 } from '../../shared/wire/index.ts';
-import { CliError, EXIT_OK, formatTable, paint, printJson, type CliIo } from '../io.ts';
+import { CliError, EXIT_BAD_INPUT, EXIT_OK, formatTable, paint, printJson, type CliIo } from '../io.ts';
 
-const USAGE = 'usage: parley wire encode <hex>… --vcd <out.vcd> [--bitrate 300000] [--gap-us 500] [--json] | parley wire decode <in.vcd> [--signal NAME] [--json]';
+const USAGE = 'usage: parley wire encode <hex>… --vcd <out.vcd> [--bitrate 300000] [--gap-us 500] [--json] | parley wire decode <in.vcd> [--signal NAME] [--json | --jsonl]';
 const SOPS: readonly Sop[] = ['SOP', "SOP'", "SOP''", "SOP'_Debug", "SOP''_Debug"];
 const TIMESCALES: readonly VcdTimescale[] = ['1 ps', '10 ps', '100 ps', '1 ns', '10 ns', '100 ns', '1 us'];
 
@@ -41,6 +44,7 @@ function parse(args: string[]) {
         sop: { type: 'string' },
         signal: { type: 'string' },
         json: { type: 'boolean', default: false },
+        jsonl: { type: 'boolean', default: false },
       },
     });
   } catch (error) {
@@ -91,6 +95,11 @@ async function encode(positionals: string[], values: ReturnType<typeof parse>['v
   const gapUs = integerOption(values['gap-us'], '--gap-us', DEFAULT_GAP_US, 25, 10_000_000, 'µs of idle between packets');
   const timescale = values.timescale === undefined ? undefined : TIMESCALES.find((t) => t.replace(' ', '') === values.timescale!.replace(/\s/g, ''));
   if (values.timescale !== undefined && !timescale) throw new CliError('usage', `--timescale: one of ${TIMESCALES.join(', ')}`);
+  const tickUs = timescale ? parseTimescaleUs(timescale) : undefined;
+  if (tickUs !== undefined && tickUs !== null && tickUs > maxTickUs(bitrate)) {
+    const fits = TIMESCALES.filter((t) => (parseTimescaleUs(t) ?? Infinity) <= maxTickUs(bitrate));
+    throw new CliError('usage', `--timescale: ${timescale} is too coarse for ${bitrate} bit/s (a tick must be at most a quarter of a bit, ${(maxTickUs(bitrate) * 1000).toFixed(0)} ns); use ${fits[fits.length - 1]} or finer`);
+  }
 
   const packets = positionals.map((arg, i) => toPacket(arg, i, defaultSop));
   const { vcd, durationUs } = encodeWaveform(packets, { bitrate, gapUs, timescale });
@@ -119,65 +128,140 @@ interface DecodedEntry {
   error?: { code: string; message: string };
 }
 
-/** Runs the decoder over the file in chunks. */
-async function readEvents(path: string, signal: string | undefined): Promise<WireEvent[]> {
-  const decoder = createVcdDecoder({ signal });
-  const events: WireEvent[] = [];
-  const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 });
-  for await (const chunk of stream) {
-    events.push(...decoder.push(chunk as string));
-    if (decoder.failure()) {
-      stream.destroy();
-      break;
-    }
-  }
-  const end = decoder.end();
-  if (!end.ok) throw CliError.from(end.error);
-  return [...events, ...end.events];
-}
+type OtherEvent = { t: number; event: string; reason?: string; line?: number };
 
-function describe(events: WireEvent[]): { messages: DecodedEntry[]; events: { t: number; event: string }[] } {
-  const messages: DecodedEntry[] = [];
-  const resets: { t: number; event: string }[] = [];
+/**
+ * Turns wire events into output entries as they come. It keeps only what typing a Request needs
+ * (the objects of the last good Source_Capabilities on SOP), never the messages already written.
+ */
+function createDescriber() {
   let caps: Message['objects'] | undefined;
-  for (const e of events) {
-    if (e.kind !== 'message') {
-      resets.push({ t: e.t, event: e.kind });
-      continue;
-    }
+  return (e: WireMessageEvent): DecodedEntry => {
     const framed = new Uint8Array(e.bytes.length + 4);
     framed.set(e.bytes);
     new DataView(framed.buffer).setUint32(e.bytes.length, e.crc, true);
     const decoded = decodeMessage(framed, { sop: e.sop, crc: true, caps });
-    const hex = toHex(e.bytes);
-    const entry: DecodedEntry = { t: e.t, sop: e.sop, hex, crc: e.crc.toString(16).padStart(8, '0'), crcOk: e.crcOk, eop: e.eop, bitrateBps: e.bitrateBps, message: decoded.ok ? decoded.message : null };
+    const entry: DecodedEntry = { t: e.t, sop: e.sop, hex: toHex(e.bytes), crc: e.crc.toString(16).padStart(8, '0'), crcOk: e.crcOk, eop: e.eop, bitrateBps: e.bitrateBps, message: decoded.ok ? decoded.message : null };
     if (!decoded.ok) entry.error = { code: decoded.error.code, message: decoded.error.message };
     // A Request refers to the offers in force: the last good Source_Capabilities on SOP.
     if (decoded.ok && e.crcOk && e.sop === 'SOP' && decoded.message.header.messageType === 'Source_Capabilities') caps = decoded.message.objects;
-    messages.push(entry);
-  }
-  return { messages, events: resets };
+    return entry;
+  };
+}
+
+function otherEvent(e: Exclude<WireEvent, WireMessageEvent>): OtherEvent {
+  return e.kind === 'unreadable' ? { t: e.t, event: 'unreadable', reason: e.reason, line: e.line } : { t: e.t, event: e.kind };
+}
+
+/** Where decoded entries go: JSON written as they come, JSON Lines, or rows of the people's table. */
+interface EntryWriter {
+  message(entry: DecodedEntry): void;
+  event(event: OtherEvent): void;
+  /** The file was read to its end (`error` when the reading stopped part-way). */
+  end(error?: CliError): number;
+}
+
+/** `--json`: one document `{ messages, events, ok }`, its messages written as they are decoded. */
+function jsonWriter(io: CliIo): EntryWriter {
+  let opened = false;
+  const events: OtherEvent[] = [];
+  const indent = (text: string) => text.replace(/\n/g, '\n    ');
+  return {
+    message(entry) {
+      io.stdout(`${opened ? ',\n' : '{\n  "messages": [\n'}    ${indent(JSON.stringify(entry, null, 2))}`);
+      opened = true;
+    },
+    event: (event) => events.push(event),
+    end(error) {
+      // Nothing written yet: an error is reported the usual way.
+      if (error && !opened) throw error;
+      const eventsJson = JSON.stringify(events, null, 2).replace(/\n/g, '\n  ');
+      const tail = error ? `,\n  "ok": false,\n  "error": ${JSON.stringify({ code: error.code, message: error.message, ...error.where })}\n}\n` : ',\n  "ok": true\n}\n';
+      io.stdout(`${opened ? '\n  ],\n' : '{\n  "messages": [],\n'}  "events": ${eventsJson}${tail}`);
+      return error ? EXIT_BAD_INPUT : EXIT_OK;
+    },
+  };
+}
+
+/** `--jsonl`: one JSON object a line, in time order: `{"kind": "message", …}` or `{"kind": "event", …}`, then a last `{"kind": "end", …}`. */
+function jsonlWriter(io: CliIo): EntryWriter {
+  let messages = 0;
+  let events = 0;
+  return {
+    message(entry) {
+      messages++;
+      io.stdout(`${JSON.stringify({ kind: 'message', ...entry })}\n`);
+    },
+    event(event) {
+      events++;
+      io.stdout(`${JSON.stringify({ kind: 'event', ...event })}\n`);
+    },
+    end(error) {
+      if (error && messages + events === 0) throw error;
+      const last = error ? { kind: 'end', ok: false, messages, events, error: { code: error.code, message: error.message, ...error.where } } : { kind: 'end', ok: true, messages, events };
+      io.stdout(`${JSON.stringify(last)}\n`);
+      return error ? EXIT_BAD_INPUT : EXIT_OK;
+    },
+  };
+}
+
+/** The people's table: rows are short, so they are kept and printed in time order at the end. */
+function tableWriter(io: CliIo): EntryWriter {
+  const lines: { t: number; row: string[] }[] = [];
+  let messages = 0;
+  let resets = 0;
+  let unreadable = 0;
+  return {
+    message(m) {
+      messages++;
+      lines.push({ t: m.t, row: [String(m.t), m.sop, m.message?.header.messageType ?? `(${m.error?.code ?? 'undecodable'})`, m.crcOk ? 'ok' : paint(io, 'red', 'BAD'), m.hex] });
+    },
+    event(e) {
+      if (e.event === 'unreadable') unreadable++;
+      else resets++;
+      const what = e.event === 'hard_reset' ? 'Hard Reset' : e.event === 'cable_reset' ? 'Cable Reset' : `unreadable burst (VCD line ${e.line}): ${e.reason}`;
+      lines.push({ t: e.t, row: [String(e.t), '', paint(io, 'yellow', what), '', ''] });
+    },
+    end(error) {
+      if (error) throw error;
+      lines.sort((a, b) => a.t - b.t);
+      io.stdout(formatTable([['t (µs)', 'SOP*', 'message', 'CRC', 'hex'], ...lines.map((l) => l.row)]));
+      io.stdout(`${messages} message(s), ${resets} reset(s)${unreadable > 0 ? `, ${unreadable} unreadable burst(s)` : ''}\n`);
+      return EXIT_OK;
+    },
+  };
 }
 
 async function decode(positionals: string[], values: ReturnType<typeof parse>['values'], io: CliIo): Promise<number> {
   const [file, ...extra] = positionals;
   if (!file || extra.length > 0) throw new CliError('usage', `wire decode takes one VCD file; ${USAGE}`);
+  if (values.json && values.jsonl) throw new CliError('usage', `wire decode: give --json or --jsonl, not both; ${USAGE}`);
   const path = resolve(io.cwd, file);
   const info = await stat(path).catch(() => undefined);
   if (!info || !info.isFile()) throw new CliError('input.file', `no such file: ${file}`);
-  const { messages, events } = describe(await readEvents(path, values.signal));
-  if (values.json) {
-    printJson(io, { ok: true, messages, events });
-    return EXIT_OK;
+
+  const writer = values.jsonl ? jsonlWriter(io) : values.json ? jsonWriter(io) : tableWriter(io);
+  const describe = createDescriber();
+  const take = (events: WireEvent[]) => {
+    for (const e of events) {
+      if (e.kind === 'message') writer.message(describe(e));
+      else writer.event(otherEvent(e));
+    }
+  };
+  const decoder = createVcdDecoder({ signal: values.signal });
+  const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 });
+  for await (const chunk of stream) {
+    take(decoder.push(chunk as string));
+    if (decoder.failure()) {
+      stream.destroy();
+      break;
+    }
+    await io.drain?.();
   }
-  const rows = [['t (µs)', 'SOP*', 'message', 'CRC', 'hex']];
-  const lines = [
-    ...messages.map((m) => ({ t: m.t, row: [String(m.t), m.sop, m.message?.header.messageType ?? `(${m.error?.code ?? 'undecodable'})`, m.crcOk ? 'ok' : paint(io, 'red', 'BAD'), m.hex] })),
-    ...events.map((e) => ({ t: e.t, row: [String(e.t), '', paint(io, 'yellow', e.event === 'hard_reset' ? 'Hard Reset' : 'Cable Reset'), '', ''] })),
-  ].sort((a, b) => a.t - b.t);
-  io.stdout(formatTable([...rows, ...lines.map((l) => l.row)]));
-  io.stdout(`${messages.length} message(s), ${events.length} reset(s)\n`);
-  return EXIT_OK;
+  const end = decoder.end();
+  if (!end.ok) return writer.end(CliError.from(end.error));
+  take(end.events);
+  return writer.end();
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {

@@ -11,7 +11,11 @@ import type { TraceReader, TraceSink } from './sink.ts';
 export function createVcdReader(sink: TraceSink, options: { signal?: string } = {}): TraceReader {
   const decoder = createVcdDecoder(options);
   const emit = (events: WireEvent[]): void => {
-    for (const event of events) sink.push(recordOf(event));
+    for (const event of events) {
+      // A burst that held no packet is reported (trace.malformed-line, with its VCD line), never dropped.
+      if (event.kind === 'unreadable') sink.malformed(event.line, `a burst of ${event.edges} edges over ${event.durationUs} µs at t = ${event.t} µs held no readable packet: ${event.reason}`);
+      else sink.push(recordOf(event));
+    }
   };
   return {
     push: (chunk) => emit(decoder.push(chunk)),
@@ -24,7 +28,7 @@ export function createVcdReader(sink: TraceSink, options: { signal?: string } = 
   };
 }
 
-export function recordOf(event: WireEvent): TraceRecord {
+export function recordOf(event: Exclude<WireEvent, { kind: 'unreadable' }>): TraceRecord {
   const t = Math.max(0, Math.round(event.t));
   if (event.kind !== 'message') return { t, event: event.kind };
   const crc = (event.crc >>> 0).toString(16).padStart(8, '0');

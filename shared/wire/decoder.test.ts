@@ -65,7 +65,7 @@ describe('VCD decoder', () => {
         expect(result.ok).toBe(true);
         if (!result.ok) return;
         expect(summary(result.events)).toEqual(expected(packets));
-        for (const e of result.events) expect(Math.abs(e.bitrateBps - bitrate)).toBeLessThan(bitrate * 0.01);
+        for (const e of result.events) if (e.kind !== 'unreadable') expect(Math.abs(e.bitrateBps - bitrate)).toBeLessThan(bitrate * 0.01);
       }),
       { numRuns: 150 },
     );

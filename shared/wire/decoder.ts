@@ -24,8 +24,8 @@ export interface VcdDecoder {
 export function createVcdDecoder(options: VcdDecoderOptions = {}): VcdDecoder {
   let pending: WireEvent[] = [];
   let failure: Failure | null = null;
-  const bursts = createBurstSplitter(options, (edgesUs) => {
-    const event = decodeBurst(edgesUs);
+  const bursts = createBurstSplitter(options, (edgesUs, line) => {
+    const event = decodeBurst(edgesUs, line);
     if (event) pending.push(event);
   });
   const reader = createVcdReader({ signal: options.signal }, bursts.change);

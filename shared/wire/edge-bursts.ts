@@ -20,39 +20,42 @@ export interface BurstOptions {
 /** Bursts this long are cut (no packet has that many edges); bounds memory on a pathological file. */
 const MAX_BURST_EDGES = 50_000;
 
-export function createBurstSplitter(options: BurstOptions, onBurst: (edgesUs: number[]) => void) {
+/** `onBurst` gets the edges and the VCD line of the burst's first edge. */
+export function createBurstSplitter(options: BurstOptions, onBurst: (edgesUs: number[], line: number) => void) {
   const glitchUs = options.glitchUs ?? 0.1;
   const idleUs = options.idleUs ?? 10;
   let level: '0' | '1' | null = null;
   let edges: number[] = [];
+  let firstLine = 0;
 
   function flush(): void {
     if (edges.length > 0) {
       const done = edges;
       edges = [];
-      onBurst(done);
+      onBurst(done, firstLine);
     }
   }
 
-  function edge(tUs: number): void {
+  function edge(tUs: number, line: number): void {
     const lastUs = edges[edges.length - 1];
     if (lastUs !== undefined && tUs - lastUs < glitchUs) {
       edges.pop();
       return;
     }
     if (lastUs !== undefined && (tUs - lastUs > idleUs || edges.length >= MAX_BURST_EDGES)) flush();
+    if (edges.length === 0) firstLine = line;
     edges.push(tUs);
   }
 
   return {
-    change(tUs: number, value: VcdValue): void {
+    change(tUs: number, value: VcdValue, line = 0): void {
       if (value === 'x' || value === 'z') {
         flush();
         level = null;
       } else if (level === null) level = value;
       else if (value !== level) {
         level = value;
-        edge(tUs);
+        edge(tUs, line);
       }
     },
     end: flush,

@@ -8,7 +8,7 @@ export { DATA_SYMBOLS, K_CODES, decode4b5b, decodeSymbol, encode4b5b, type KCode
 export { ORDERED_SETS, orderedSetBits, recognizeOrderedSet, type OrderedSetMatch, type OrderedSetName } from './ordered-sets.ts';
 export { PREAMBLE_BITS, packetBits, preambleBits } from './packet-bits.ts';
 export { bmcDecode, bmcEncode } from './bmc.ts';
-export { DEFAULT_BITRATE_BPS, DEFAULT_GAP_US, encodeWaveform, type WaveformOptions } from './vcd-writer.ts';
+export { DEFAULT_BITRATE_BPS, DEFAULT_GAP_US, encodeWaveform, maxTickUs, type WaveformOptions } from './vcd-writer.ts';
 export { createVcdDecoder, decodeVcd, type VcdDecoder, type VcdDecoderOptions } from './decoder.ts';
 export { parseTimescaleUs, type VcdTimescale } from './vcd-timescale.ts';
-export type { ResetOrderedSet, WireEvent, WireMessageEvent, WirePacket, WireResetEvent } from './types.ts';
+export type { ResetOrderedSet, WireEvent, WireMessageEvent, WirePacket, WireResetEvent, WireUnreadableEvent } from './types.ts';

@@ -11,6 +11,8 @@ import type { WireEvent } from './types.ts';
 
 /** Fewer edges than this cannot hold a preamble and an ordered set. */
 const MIN_EDGES = 40;
+/** Bursts with fewer edges are taken for noise (a spike, ringing) and not reported. */
+const REPORTED_EDGES = 16;
 /** Bits before an ordered set that must alternate (the tail of the preamble) to accept it there. */
 const PREAMBLE_TAIL_BITS = 8;
 
@@ -29,14 +31,20 @@ function findOrderedSet(bits: readonly number[]): { offset: number; match: Order
   return null;
 }
 
-/** Decodes one burst; null when it holds no recognisable packet (noise, a lone glitch). */
-export function decodeBurst(edgesUs: readonly number[]): WireEvent | null {
-  if (edgesUs.length < MIN_EDGES) return null;
+function unreadable(edgesUs: readonly number[], line: number, reason: string): WireEvent | null {
+  if (edgesUs.length < REPORTED_EDGES) return null;
+  const firstUs = edgesUs[0]!;
+  return { t: Math.max(0, Math.round(firstUs)), kind: 'unreadable', edges: edgesUs.length, durationUs: Math.round(edgesUs[edgesUs.length - 1]! - firstUs), line, reason };
+}
+
+/** Decodes one burst; an `unreadable` event when it holds no packet, null for a spike of a few edges. */
+export function decodeBurst(edgesUs: readonly number[], line = 0): WireEvent | null {
+  if (edgesUs.length < MIN_EDGES) return unreadable(edgesUs, line, `${edgesUs.length} edges are too few for a preamble and an SOP*`);
   const roughUiUs = estimateUiUs(edgesUs);
-  if (!(roughUiUs > 0)) return null;
+  if (!(roughUiUs > 0)) return unreadable(edgesUs, line, 'no bit rate could be measured');
   const { bits, startsUs } = bmcDecode(edgesUs, roughUiUs);
   const found = findOrderedSet(bits);
-  if (!found) return null;
+  if (!found) return unreadable(edgesUs, line, `no SOP* after a preamble (about ${Math.round(1_000 / roughUiUs)} kbit/s; a capture sampled too coarsely for the bit rate reads like this)`);
   const { offset, match } = found;
 
   // Measured over the preamble's tail (its first edge may be lost, §5.8.1, or a glitch may precede
@@ -70,7 +78,7 @@ export function decodeBurst(edgesUs: readonly number[]): WireEvent | null {
   const framed = new Uint8Array(nibbles.length >> 1);
   for (let i = 0; i < framed.length; i++) framed[i] = nibbles[2 * i]! | (nibbles[2 * i + 1]! << 4);
   // A header (2 bytes) and a CRC (4 bytes) at the least.
-  if (framed.length < 6) return null;
+  if (framed.length < 6) return unreadable(edgesUs, line, `an ${match.name} with only ${framed.length} byte(s) after it`);
   const bytes = framed.slice(0, framed.length - 4);
   const crcBytes = framed.subarray(framed.length - 4);
   const crc = (crcBytes[0]! | (crcBytes[1]! << 8) | (crcBytes[2]! << 16) | (crcBytes[3]! << 24)) >>> 0;

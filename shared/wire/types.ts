@@ -32,4 +32,20 @@ export interface WireResetEvent {
   bitrateBps: number;
 }
 
-export type WireEvent = WireMessageEvent | WireResetEvent;
+/**
+ * A burst of edges in which no packet could be read (no SOP* after a preamble, or too few symbols):
+ * noise, a capture sampled too coarsely for the bit rate, or a damaged packet. Reported, never dropped.
+ */
+export interface WireUnreadableEvent {
+  t: number;
+  kind: 'unreadable';
+  /** Edges in the burst and its length. */
+  edges: number;
+  durationUs: number;
+  /** VCD line of the burst's first edge. */
+  line: number;
+  /** Why it could not be read, in words. */
+  reason: string;
+}
+
+export type WireEvent = WireMessageEvent | WireResetEvent | WireUnreadableEvent;

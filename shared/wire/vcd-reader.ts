@@ -20,7 +20,7 @@ const MAX_TOKEN_CHARS = 1 << 20;
 const SKIPPED_SECTIONS = new Set(['$date', '$version', '$comment']);
 const BODY_KEYWORDS = new Set(['$dumpvars', '$dumpall', '$dumpon', '$dumpoff', '$end']);
 
-export function createVcdReader(options: { signal?: string }, onChange: (tUs: number, value: VcdValue) => void): VcdReader {
+export function createVcdReader(options: { signal?: string }, onChange: (tUs: number, value: VcdValue, line: number) => void): VcdReader {
   let carry = '';
   let line = 1;
   let carryLine = 1;
@@ -67,10 +67,10 @@ export function createVcdReader(options: { signal?: string }, onChange: (tUs: nu
     }
   }
 
-  function change(value: string, id: string): void {
+  function change(value: string, id: string, at: number): void {
     if (id !== chosen) return;
     const v = value.toLowerCase();
-    onChange(tUs, v === '0' || v === '1' ? v : v === 'z' ? 'z' : 'x');
+    onChange(tUs, v === '0' || v === '1' ? v : v === 'z' ? 'z' : 'x', at);
   }
 
   function token(word: string, at: number): void {
@@ -84,7 +84,7 @@ export function createVcdReader(options: { signal?: string }, onChange: (tUs: nu
       return;
     }
     if (vectorValue !== null) {
-      change(vectorValue.slice(-1), word);
+      change(vectorValue.slice(-1), word, at);
       vectorValue = null;
       return;
     }
@@ -107,7 +107,7 @@ export function createVcdReader(options: { signal?: string }, onChange: (tUs: nu
         lastTicks = ticks;
         tUs = ticks * tickUs;
       }
-    } else if ('01xXzZ'.includes(first) && word.length > 1) change(first, word.slice(1));
+    } else if ('01xXzZ'.includes(first) && word.length > 1) change(first, word.slice(1), at);
     else if ('bBrR'.includes(first) && word.length > 1) vectorValue = first === 'r' || first === 'R' ? 'x' : word.slice(1);
     else if (SKIPPED_SECTIONS.has(word)) section = { keyword: word, line: at, words: [] };
     else if (!BODY_KEYWORDS.has(word)) error = fail('vcd.syntax', `unexpected "${word.slice(0, 40)}" in the value changes`, { line: at });

@@ -26,6 +26,16 @@ export const DEFAULT_BITRATE_BPS = 300_000;
 export const DEFAULT_GAP_US = 500;
 export const TAIL_IDLE_MIN_US = 2_000;
 
+/**
+ * The coarsest tick that keeps a BMC waveform readable at `bitrate`: a quarter UI, so that rounding
+ * an edge to its tick moves it at most an eighth of a UI, well inside the quarter-UI margin a
+ * receiver has between a half-bit and a whole-bit interval (USB PD R3.2 V1.1 §5.8.1 BMC; the margin
+ * is common practice for BMC receivers).
+ */
+export function maxTickUs(bitrate: number): number {
+  return 1_000_000 / bitrate / 4;
+}
+
 export function encodeWaveform(packets: WirePacket[], options: WaveformOptions = {}): { vcd: string; durationUs: number } {
   const bitrate = options.bitrate ?? DEFAULT_BITRATE_BPS;
   const gapUs = options.gapUs ?? DEFAULT_GAP_US;

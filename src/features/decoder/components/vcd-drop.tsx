@@ -72,7 +72,13 @@ export function VcdDrop({ onPick }: { onPick(entry: Extract<VcdEntry, { kind: 'm
               ) : (
                 <p className="px-3 py-1.5">
                   <span className="w-24 font-mono text-xs text-slate-500 tabular">{(entry.t / 1000).toFixed(3)} ms</span>{' '}
-                  <Badge tone="info">{entry.kind === 'hard_reset' ? 'Hard Reset' : 'Cable Reset'}</Badge>
+                  {entry.kind === 'unreadable' ? (
+                    <>
+                      <Badge tone="warning">Unreadable burst</Badge> <span className="text-xs text-slate-500">{entry.reason}</span>
+                    </>
+                  ) : (
+                    <Badge tone="info">{entry.kind === 'hard_reset' ? 'Hard Reset' : 'Cable Reset'}</Badge>
+                  )}
                 </p>
               )}
             </li>
