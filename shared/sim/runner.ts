@@ -362,9 +362,9 @@ class Run {
       case 'error-recovery':
         return this.schedule(nowUs, { kind: 'error-recovery' });
       case 'data-role-swap':
-        this.dfp.source = !this.dfp.source;
-        this.dfp.sink = !this.dfp.sink;
-        return this.note(`data roles swapped: the ${this.dfp.source ? 'source' : 'sink'} port is now the DFP`);
+        // Each port changes its own data role once the Accept has gone over (§6.3.9).
+        this.dfp[port] = !this.dfp[port];
+        return this.note(`${this.role[port]} port is now the ${this.dfp[port] ? 'DFP' : 'UFP'}`);
       case 'vconn-swap':
         return this.note(`VCONN swapped (the ${this.role[port]} port took part)`);
       case 'become':
@@ -426,7 +426,6 @@ class Run {
   // ---- power role swap and ErrorRecovery ----
   become(port: Side, role: Side): void {
     this.role[port] = role;
-    this.lane(port, role === 'source' ? 'PE_SRC_Startup' : 'PE_SNK_Startup');
     if (role === 'source') {
       this.pe[port] = { ...initialSourcePe(this.revisionOf(port)), phase: 'on' };
     } else {
