@@ -74,7 +74,7 @@ function expectWellFormed(name: string, argv: string[], r: { code: number | 'han
       expect(typeof doc.error.code, label).toBe('string');
       expect(typeof doc.error.message, label).toBe('string');
       // Anything but a CliError is a crash that main.ts caught.
-      expect(doc.error.code, `${label}: ${String(doc.error.message)}`).not.toBe('internal');
+      expect(doc.error.code, `${label}: ${String(doc.error.message)}`).not.toBe('cli.internal');
     } else {
       expect(r.stdout, `${label}: stdout on error`).toBe('');
     }

@@ -66,7 +66,7 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     const cliError =
       error instanceof CliError
         ? error
-        : new CliError('internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
+        : new CliError('cli.internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
     const { code, where } = cliError;
     const message = oneLine(cliError.message);
     io.stderr(`parley ${name}: ${message}\n`);

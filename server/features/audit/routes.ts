@@ -1,11 +1,6 @@
-import { z } from 'zod';
 import { AuditEvent } from '../../db/entities.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-
-export const pageQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
+import { pageQuery } from '../../http/schemas.ts';
 
 export const auditRoutes: RouteDef[] = [
   route({

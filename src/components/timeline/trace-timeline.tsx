@@ -1,11 +1,11 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { Button } from '../button.tsx';
 import { useIsDark } from '../../lib/theme.ts';
 import { cn } from '../../lib/cn.ts';
 import { FindingPins, type PinnedFinding } from './finding-pins.tsx';
 import { MessageLanes, type LaneMessage } from './message-lanes.tsx';
+import { TimelineToolbar } from './timeline-toolbar.tsx';
 import { formatTimeUs, segmentStyle, type TimeWindow } from './time-window.ts';
-import { windowAround, zoomWindow, type Measurement } from './trace-series.ts';
+import { windowAround, type Measurement } from './trace-series.ts';
 import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartBand } from './vbus-chart.tsx';
 
 export type TimelineSpan = { startUs: number; endUs?: number; label: string };
@@ -51,31 +51,10 @@ export function TraceTimeline({ measurements, messages, findings, contracts, ban
     [findings, selectedFinding],
   );
   const message = selectedMessage === undefined ? undefined : messages[selectedMessage];
-  const whole = window.startUs <= 0 && window.endUs >= end;
 
   return (
     <div ref={root} className={cn('flex flex-col gap-2', className)} data-testid="trace-timeline" data-window={`${window.startUs}-${window.endUs}`}>
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        <p className="font-mono text-xs text-slate-500 tabular dark:text-slate-400" aria-live="polite">
-          {formatTimeUs(window.startUs)} – {formatTimeUs(window.endUs)}
-          {whole ? ' (whole trace)' : ''}
-        </p>
-        <div className="flex flex-wrap items-center gap-2">
-          <label className="mr-2 flex items-center gap-1.5 text-xs text-slate-600 dark:text-slate-300">
-            <input type="checkbox" checked={foldGoodCrc} onChange={(event) => setFoldGoodCrc(event.target.checked)} className="accent-amber-500" />
-            Fold GoodCRC away
-          </label>
-          <Button size="sm" variant="secondary" onClick={() => setWindow(zoomWindow(window, 0.5, end))} aria-label="Zoom in">
-            Zoom in
-          </Button>
-          <Button size="sm" variant="secondary" onClick={() => setWindow(zoomWindow(window, 2, end))} disabled={whole} aria-label="Zoom out">
-            Zoom out
-          </Button>
-          <Button size="sm" variant="ghost" onClick={() => setWindow({ startUs: 0, endUs: end })} disabled={whole}>
-            Whole trace
-          </Button>
-        </div>
-      </div>
+      <TimelineToolbar window={window} endUs={end} onWindowChange={setWindow} foldGoodCrc={foldGoodCrc} onFoldGoodCrcChange={setFoldGoodCrc} subject="trace" />
       <VbusChart measurements={measurements} window={window} endUs={end} pins={pins} bands={bands} onWindowChange={setWindow} dark={dark} />
       <ContractLane contracts={contracts} window={window} endUs={end} />
       <MessageLanes

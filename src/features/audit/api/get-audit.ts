@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
+import { auditKeys } from '../../../lib/query-keys.ts';
 
 export type AuditEvent = {
   id: number | string;
@@ -14,7 +14,6 @@ export type AuditEvent = {
 export type AuditResponse = { items: AuditEvent[]; total: number };
 export type AuditParams = { page: number; pageSize: number };
 
-export const auditKeys = createQueryKeys('audit');
 
 /** One page of the audit log, newest first; `page` counts from 1. */
 export async function getAudit(params: AuditParams, signal?: AbortSignal): Promise<AuditResponse> {

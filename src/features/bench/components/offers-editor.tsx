@@ -5,7 +5,7 @@ import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
 import { offerFields, offerKindLabels, offerKindOptions, offerKinds, type OfferNumberKey } from '../../../lib/offers-form/offer-fields.ts';
-import { useSourceDevices } from '../api/get-source-devices.ts';
+import { useSourceDevices } from '../../../lib/api/get-devices.ts';
 import type { BenchFormValues } from '../lib/form-model.ts';
 import { numberField } from './form-fields.ts';
 

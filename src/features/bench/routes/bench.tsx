@@ -11,7 +11,7 @@ import { ProgressBar } from '../../../components/progress-bar.tsx';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { cn } from '../../../lib/cn.ts';
 import { useIsDark } from '../../../lib/theme.ts';
-import { useTrace } from '../api/get-trace.ts';
+import { useTrace } from '../../../lib/api/get-trace.ts';
 import { BenchTimeline } from '../components/bench-timeline.tsx';
 import { ExportPanel } from '../components/export-panel.tsx';
 import { MessagePanel } from '../components/message-panel.tsx';
@@ -27,7 +27,7 @@ import {
   type BenchFormValues,
 } from '../lib/form-model.ts';
 import { capturedMessagesOf, scenarioFromMessages } from '../lib/scenario-from-trace.ts';
-import { shareHash, sharedFromHash } from '../lib/share-url.ts';
+import { shareHash, sharedFromHash } from '../../../lib/share-url.ts';
 import type { RunMessage } from '../lib/timeline-data.ts';
 import { useSimulation } from '../lib/use-simulation.ts';
 

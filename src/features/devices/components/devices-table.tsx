@@ -3,7 +3,8 @@ import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx'
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { Hex, Mono, RatingText } from '../../../components/mono.tsx';
-import { useDevices, type Device } from '../api/get-devices.ts';
+import type { Device } from '../../../../shared/api/index.ts';
+import { useDevices } from '../../../lib/api/get-devices.ts';
 
 const col = dataColumnHelper<Device>();
 const columns = col.columns([

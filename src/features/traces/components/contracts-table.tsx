@@ -1,4 +1,4 @@
-import type { Analysis } from '../api/types.ts';
+import type { Analysis } from '../../../../shared/api/index.ts';
 import { contractLabel, formatPower, formatSeconds } from '../lib/format.ts';
 
 /** Each contract change at its PS_RDY, in order: what the sink got and for how long. */

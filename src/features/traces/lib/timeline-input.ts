@@ -8,7 +8,7 @@ import type { ChartBand } from '../../../components/timeline/vbus-chart.tsx';
 import type { TimelineSpan } from '../../../components/timeline/trace-timeline.tsx';
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
-import type { Analysis } from '../api/types.ts';
+import type { Analysis } from '../../../../shared/api/index.ts';
 import { contractLabel } from './format.ts';
 
 export type TimelineInput = {

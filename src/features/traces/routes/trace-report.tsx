@@ -6,7 +6,7 @@ import { paths } from '../../../config/paths.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { isRuleId, ruleCatalog } from '../../../../shared/rules/catalog.ts';
 import { useComments } from '../api/get-comments.ts';
-import { useTrace } from '../api/get-trace.ts';
+import { useTrace } from '../../../lib/api/get-trace.ts';
 import { contractLabel, formatBytes, formatPower, formatSeconds } from '../lib/format.ts';
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;

@@ -48,3 +48,8 @@ export function sharedFromHash(hash: string): SharedResult | null {
   const text = params.get(SHARE_PARAM);
   return text ? decodeShared(text) : null;
 }
+
+/** A link that opens the scenario on the Bench (the Runs page offers one beside a failing vector). */
+export function benchHref(scenario: unknown): string {
+  return `/bench${shareHash(scenario)}`;
+}

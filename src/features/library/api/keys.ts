@@ -1,3 +1,0 @@
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-
-export const vectorKeys = createQueryKeys('vectors');
