@@ -104,7 +104,7 @@ async function request<T>(method: string, path: string, options: RequestOptions 
 
   if (response.status === 204) return undefined as T;
   const text = await response.text();
-  let parsed: unknown = undefined;
+  let parsed: unknown;
   if (text) {
     try {
       parsed = JSON.parse(text);

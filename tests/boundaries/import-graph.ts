@@ -17,7 +17,7 @@ const IMPORT = /(?:^|[\s;])(?:import|export)\s[^'"]*?from\s*['"]([^'"]+)['"]|(?:
 export function sourceFiles(rootDir: string, roots: readonly string[]): string[] {
   const out: string[] = [];
   const walk = (dir: string) => {
-    let entries;
+    let entries: import('node:fs').Dirent[];
     try {
       entries = readdirSync(join(rootDir, dir), { withFileTypes: true });
     } catch {
