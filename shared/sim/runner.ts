@@ -134,7 +134,7 @@ class Run {
       startReceiveTimer: (layer, endUs) => this.startTimer(layer, this.portOfLayer(layer), 'tReceive', endUs),
     });
     this.vbus = new VbusPath(this.clock, schedule, this.records, scenario.source.behaviour.slewMvPerMs / 1_000, power.rpCurrentMa(scenario.source.behaviour.rp), scenario.cable.resistanceMohm, scenario.sink.load.currentMa);
-    this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.ceil(this.durationUs / options.sampleEveryUs) + 2)) : undefined;
+    this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.floor(this.durationUs / options.sampleEveryUs) + 1)) : undefined;
     // A 5 A cable without an explicit e-marker still answers as 5 A, 20 V, not EPR capable (vector.md).
     const { eMarker, currentRatingMa } = scenario.cable;
     this.marker = eMarker ?? (currentRatingMa >= 5_000 ? { currentMa: 5_000, maxVoltageMv: 20_000, eprCapable: false } : null);
