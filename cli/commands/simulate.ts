@@ -49,7 +49,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   return EXIT_OK;
 }
 
-async function readJson(file: string, io: CliIo): Promise<unknown> {
+export async function readJson(file: string, io: CliIo): Promise<unknown> {
   let text: string;
   try {
     text = file === '-' ? await io.readStdin() : await readFile(resolve(io.cwd, file), 'utf8');
