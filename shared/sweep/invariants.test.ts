@@ -5,7 +5,7 @@ import { fixedPdo } from '../rules/pdo-builders.ts';
 import { parseScenario, type Scenario } from '../sim/scenario.ts';
 import type { TraceRecord } from '../trace/records.ts';
 import { AGREEMENT_GRACE_US, explainedBy, hardResetLimit, judge, resetCounts, type RunUnderJudgement } from './invariants.ts';
-import type { PortViews } from './port-views.ts';
+import { portViews, type PortViews } from './port-views.ts';
 
 const c9: Contract = { kind: 'fixed', objectPosition: 2, voltageMv: 9_000, currentMa: 2_000, powerMw: 18_000 };
 const c20: Contract = { kind: 'fixed', objectPosition: 3, voltageMv: 20_000, currentMa: 2_000, powerMw: 40_000 };
@@ -18,13 +18,12 @@ function scenario(faults: Scenario['faults'] = []): Scenario {
 }
 
 function views(source: [number, Contract | null][], sink: [number, Contract | null][], finals = { source: 'PE_SRC_Ready', sink: 'PE_SNK_Ready' }): PortViews {
-  const view = (side: 'source' | 'sink', changes: [number, Contract | null][]) => ({
-    side,
-    contracts: [{ t: 0, contract: null }, ...changes.map(([t, contract]) => ({ t, contract }))],
-    finalState: finals[side],
-    states: [{ t: 0, state: finals[side] }],
-  });
-  return { source: view('source', source), sink: view('sink', sink) };
+  const changes = [
+    ...source.map(([tUs, contract]) => ({ tUs, side: 'source' as const, state: finals.source, contract, eprMode: false })),
+    ...sink.map(([tUs, contract]) => ({ tUs, side: 'sink' as const, state: finals.sink, contract, eprMode: false })),
+  ].sort((a, b) => a.tUs - b.tUs);
+  const final = (side: 'source' | 'sink') => ({ tUs: 5_000_000, side, state: finals[side], contract: null, eprMode: false });
+  return portViews({ ports: { changes, final: { source: final('source'), sink: final('sink') } } });
 }
 
 function run(partial: { views: PortViews; events?: TraceRecord[]; findings?: Finding[]; contracts?: (Contract & { t: number })[]; faults?: Scenario['faults']; endUs?: number }): RunUnderJudgement {

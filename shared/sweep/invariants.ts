@@ -9,6 +9,7 @@ import { countersFor, timersPd3 } from '../core/timers.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import type { Fault, Scenario } from '../sim/scenario.ts';
 import type { SimulationResult } from '../sim/simulate.ts';
+import { disagreements } from '../sim/port-views.ts';
 import { contractVbusLimits, voltageOutside } from '../trace/vbus.ts';
 import { messageTypeOfHex } from './messages.ts';
 import { stateAt, type PortView, type PortViews } from './port-views.ts';
@@ -36,11 +37,6 @@ export interface Invariant {
  */
 export const AGREEMENT_GRACE_US = timersPd3.tSenderResponse.minUs;
 
-function sameContract(a: Contract | null, b: Contract | null): boolean {
-  if (a === null || b === null) return a === b;
-  return a.kind === b.kind && a.objectPosition === b.objectPosition && a.voltageMv === b.voltageMv && a.currentMa === b.currentMa;
-}
-
 export function describeContract(c: Contract | null): string {
   if (c === null) return 'no contract';
   return `${c.kind} ${(c.voltageMv / 1_000).toFixed(2).replace(/\.?0+$/, '')} V ${(c.currentMa / 1_000).toFixed(2).replace(/\.?0+$/, '')} A (position ${c.objectPosition})`;
@@ -48,42 +44,16 @@ export function describeContract(c: Contract | null): string {
 
 const ms = (us: number) => `${(us / 1_000).toFixed(1)} ms`;
 
-/** Both ports' contracts over time as segments [startUs, endUs). */
-function segments(views: PortViews, endUs: number): { startUs: number; endUs: number; source: Contract | null; sink: Contract | null }[] {
-  const times = [...new Set([0, ...views.source.contracts.map((c) => c.t), ...views.sink.contracts.map((c) => c.t)])].filter((t) => t <= endUs).sort((a, b) => a - b);
-  let si = 0;
-  let ki = 0;
-  let source: Contract | null = null;
-  let sink: Contract | null = null;
-  const out: { startUs: number; endUs: number; source: Contract | null; sink: Contract | null }[] = [];
-  times.forEach((t, i) => {
-    while (si < views.source.contracts.length && views.source.contracts[si]!.t <= t) source = views.source.contracts[si++]!.contract;
-    while (ki < views.sink.contracts.length && views.sink.contracts[ki]!.t <= t) sink = views.sink.contracts[ki++]!.contract;
-    out.push({ startUs: t, endUs: times[i + 1] ?? endUs, source, sink });
-  });
-  return out;
-}
-
 const agreement: Invariant = {
   id: 'contract.agreement',
   title: 'Both ports agree on the contract',
   explanation: 'Whenever either policy engine claims an explicit contract, and at the end, the source and the sink hold the same one (a difference may last only while one exchange is in flight).',
   ref: 'USB PD R3.2 V1.1 §8.3.2 (an Explicit Contract is one agreement of both Port Partners; from memory)',
   check({ views, result }) {
-    let since: number | null = null;
-    for (const segment of segments(views, result.endUs)) {
-      const claimed = segment.source !== null || segment.sink !== null;
-      if (!claimed || sameContract(segment.source, segment.sink)) {
-        since = null;
-        continue;
-      }
-      since ??= segment.startUs;
-      const lastedUs = segment.endUs - since;
-      if (lastedUs > AGREEMENT_GRACE_US || (segment.endUs >= result.endUs && lastedUs >= AGREEMENT_GRACE_US)) {
-        return `from ${ms(since)} the source holds ${describeContract(segment.source)} while the sink holds ${describeContract(segment.sink)} (for ${ms(lastedUs)}${segment.endUs >= result.endUs ? ', until the end' : ''})`;
-      }
-    }
-    return null;
+    const first = disagreements(views.sim, result.endUs, AGREEMENT_GRACE_US)[0];
+    if (!first) return null;
+    const untilEnd = first.endUs >= result.endUs;
+    return `from ${ms(first.startUs)} the source holds ${describeContract(first.source)} while the sink holds ${describeContract(first.sink)} (for ${ms(first.endUs - first.startUs)}${untilEnd ? ', until the end' : ''})`;
   },
 };
 

@@ -34,7 +34,7 @@ export function scenarioFor(base: Scenario, placement: Pick<Placement, 'faults' 
 
 /** Judges one simulated scenario (also what a vector's `expect.invariants` runs). */
 export function judgeScenario(scenario: Scenario, result: SimulationResult, pdos: readonly SourcePdo[], invariantIds?: readonly string[]) {
-  const views = portViews(result, pdos);
+  const views = portViews(result);
   const run = { scenario, result, views, pdos };
   return { views, broken: judge(run, invariantIds), resets: resetCounts(run) };
 }

@@ -63,7 +63,11 @@ describe('a defect planted in the simulator', () => {
   const planted: Simulate = (s, options) => {
     const result = simulate(s, options);
     if (!s.faults.some((f) => f.kind === 'delay' && f.messageType === 'PS_RDY')) return result;
-    return { ...result, contract: null, contracts: [] };
+    const ports = {
+      changes: result.ports.changes.map((change) => (change.side === 'sink' ? { ...change, contract: null } : change)),
+      final: { ...result.ports.final, sink: { ...result.ports.final.sink, contract: null } },
+    };
+    return { ...result, contract: null, contracts: [], ports };
   };
 
   it('is reported as contract.agreement, shrunk, and saved as a vector that fails until it is fixed', () => {
