@@ -56,12 +56,12 @@ describe('the invariant library', () => {
     expect(ids(different)).toEqual(['contract.agreement']);
   });
 
-  it('vbus.matches-contract: 9 V ±5 % (vSrcNew, USB PD R3.2 §7.1; from memory) less the cable drop', () => {
+  it('contract.vbus: 9 V ±5 % (vSrcNew, USB PD R3.2 §7.1; from memory) less the cable drop', () => {
     const base = { views: views([[100, c9]], [[100, c9]]) };
     // 100 mΩ at 2 A drops 200 mV: 8.55 V at the source is the lowest in range.
     expect(ids(run({ ...base, events: [{ t: 200, vbus: { mv: 8_550, ma: 2_000 } }] }))).toEqual([]);
-    expect(ids(run({ ...base, events: [{ t: 200, vbus: { mv: 8_540, ma: 2_000 } }] }))).toEqual(['vbus.matches-contract']);
-    expect(ids(run({ ...base, events: [{ t: 200, vbus: { mv: 9_460, ma: 0 } }] }))).toEqual(['vbus.matches-contract']);
+    expect(ids(run({ ...base, events: [{ t: 200, vbus: { mv: 8_540, ma: 2_000 } }] }))).toEqual(['contract.vbus']);
+    expect(ids(run({ ...base, events: [{ t: 200, vbus: { mv: 9_460, ma: 0 } }] }))).toEqual(['contract.vbus']);
     // Before the contract the reading is not judged.
     expect(ids(run({ ...base, events: [{ t: 50, vbus: { mv: 5_000, ma: 100 } }] }))).toEqual([]);
   });

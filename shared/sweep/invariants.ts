@@ -58,7 +58,7 @@ const agreement: Invariant = {
 };
 
 const vbus: Invariant = {
-  id: 'vbus.matches-contract',
+  id: 'contract.vbus',
   title: 'VBUS at the sink matches the contract',
   explanation: "Once the sink has its PS_RDY, every VBUS reading until the next transition is within the contract's tolerance (fixed ±5 %, vSafe5V 4.75–5.5 V, programmable ±5 % of the request, variable and battery within the offer) less the cable's drop at the current drawn.",
   ref: 'USB PD R3.2 V1.1 §7.1 Source electrical parameters (vSafe5V, vSrcNew, vPpsNew; from memory)',
