@@ -57,7 +57,8 @@ export const engineDirections: Record<string, readonly string[]> = {
   rules: ['core', 'pd'],
   trace: ['core', 'pd', 'wire', 'rules'],
   sim: ['core', 'pd', 'rules', 'trace'],
-  vectors: ['core', 'pd', 'wire', 'rules', 'trace', 'sim'],
+  sweep: ['core', 'pd', 'rules', 'trace', 'sim'],
+  vectors: ['core', 'pd', 'wire', 'rules', 'trace', 'sim', 'sweep'],
   api: ['core', 'pd', 'rules', 'trace', 'sim', 'vectors'],
 };
 
