@@ -12,7 +12,7 @@ const outdir = process.argv[2] ?? 'build';
 
 await build({
   absWorkingDir: root,
-  entryPoints: { parley: 'cli/main.ts', 'property-worker': 'cli/commands/property-worker.mjs' },
+  entryPoints: { parley: 'cli/main.ts', 'property-worker': 'cli/commands/property-worker.mjs', 'sweep-worker': 'cli/commands/sweep-worker.mjs' },
   outdir,
   outExtension: { '.js': '.mjs' },
   bundle: true,
