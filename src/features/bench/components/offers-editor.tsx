@@ -39,7 +39,8 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
     <fieldset className="flex flex-col gap-3">
       <legend className="sr-only">{epr ? 'EPR offers' : 'Source offers'}</legend>
       {epr && fields.length === 0 && <p className="text-xs text-slate-500 dark:text-slate-400">No EPR offers: the source offers SPR only (up to 20 V).</p>}
-      <div className={epr ? 'hidden' : 'flex flex-wrap items-end gap-3'}>
+      {!epr && (
+        <div className="flex flex-wrap items-end gap-3">
         <Select
           label="Load offers from a demo device"
           className="min-w-64 flex-1"
@@ -56,8 +57,8 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
           hint={devices.isError ? 'The device list could not be loaded; enter the offers by hand.' : undefined}
         />
       </div>
-
-      <ol className="flex flex-col gap-2" aria-label="Offers in object-position order">
+      )}
+      <ol className="flex flex-col gap-2" aria-label={epr ? 'EPR offers from object position 8' : 'Offers in object-position order'}>
         {fields.map((field, index) => {
           const kind = field.kind;
           return (
@@ -121,7 +122,7 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
         <span className="text-xs text-slate-500 dark:text-slate-400">Add:</span>
         {(epr ? offerKinds.filter((kind) => kind === 'fixed' || kind === 'epr-avs') : offerKinds).map((kind) => (
           <Button key={kind} variant="secondary" size="sm" disabled={fields.length >= maxOffers} onClick={() => append(defaultOffer(kind))}>
-            + {offerKindLabels[kind]}
+            + {epr ? 'EPR ' : ''}{offerKindLabels[kind]}
           </Button>
         ))}
       </div>
