@@ -14,6 +14,7 @@ import type { Orm } from './db/orm.ts';
 import type { Mailer } from './mail/mailer.ts';
 import type { RouteDef } from './route-def.ts';
 import { errorMiddleware, notFound } from './errors.ts';
+import { sameOriginWrites } from './middleware/same-origin.ts';
 import { buildApiRouter, routeTable } from './routes.ts';
 import type { JobQueue } from './jobs/types.ts';
 import { createLocalJobQueue } from './jobs/local-queue.ts';
@@ -21,6 +22,7 @@ import { registerJobKinds } from './jobs/kinds.ts';
 import { createAnalysisPool, type AnalysisPool } from './analysis/pool.ts';
 import { createRunPool, type RunPool } from './runner/pool.ts';
 import { traceStore, type TraceStore } from './features/traces/store.ts';
+import { memoryRateLimitStore, type RateLimitStoreFactory } from './features/auth/rate-limit.ts';
 
 export interface AppOptions {
   orm: Orm;
@@ -37,6 +39,13 @@ export interface AppOptions {
   /** JSON bodies larger than this get 413. */
   jsonLimit?: string;
   rateLimits?: Partial<AppDeps['rateLimits']>;
+  /** Rate-limit counters shared across instances; default in memory. */
+  rateLimitStore?: RateLimitStoreFactory;
+  /**
+   * Express's `trust proxy` (the hops or addresses of reverse proxies in front). Unset: the client
+   * address is the socket's, and `X-Forwarded-For` is ignored, so no client can pick its own address.
+   */
+  trustProxy?: string | number | boolean;
   verifyBearer?: BearerVerifier;
   /** Defaults to the full route table; tests may pass their own. */
   routes?: readonly RouteDef[];
@@ -55,8 +64,12 @@ export interface AppOptions {
 }
 
 const fifteenMinutesMs = 15 * 60_000;
+/** Sign-in and reset limits per 15 minutes (common practice for interactive sign-in; an office behind one address still gets 100 failures). */
 const defaultLogin: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 10 };
-const defaultForgot: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 5 };
+const defaultLoginPerAddress: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 100 };
+const defaultLoginPerAccount: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 30 };
+const defaultForgot: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 3 };
+const defaultForgotPerAddress: RateLimitOptions = { windowMs: fifteenMinutesMs, limit: 20 };
 const defaultShare: RateLimitOptions = { windowMs: 60 * 60_000, limit: 30 };
 
 /** Only our own origin: no CDN, no wildcard. Monaco's workers and charts need blob: and data:. */
@@ -98,9 +111,13 @@ export function createApp(options: AppOptions): Express {
     logger,
     rateLimits: {
       login: options.rateLimits?.login ?? defaultLogin,
+      loginPerAddress: options.rateLimits?.loginPerAddress ?? defaultLoginPerAddress,
+      loginPerAccount: options.rateLimits?.loginPerAccount ?? defaultLoginPerAccount,
       forgot: options.rateLimits?.forgot ?? defaultForgot,
+      forgotPerAddress: options.rateLimits?.forgotPerAddress ?? defaultForgotPerAddress,
       share: options.rateLimits?.share ?? defaultShare,
     },
+    rateLimitStore: options.rateLimitStore ?? memoryRateLimitStore,
     verifyBearer: options.verifyBearer,
     dataDir,
     traceStore: options.traceStore ?? traceStore(dataDir),
@@ -112,7 +129,7 @@ export function createApp(options: AppOptions): Express {
 
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', options.trustProxy ?? false);
   app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: contentSecurityPolicy } }));
   app.use(compression());
   if (options.logRequests) {
@@ -129,6 +146,7 @@ export function createApp(options: AppOptions): Express {
   }
   app.use((_req, _res, next) => RequestContext.create(options.orm.em, next));
   app.use(cookieParser());
+  app.use('/api', sameOriginWrites(deps.publicUrl));
   app.use('/api', express.json({ limit: options.jsonLimit ?? '1mb' }));
 
   app.use(buildApiRouter(options.routes ?? routeTable, deps));

@@ -8,6 +8,7 @@ import type { JobQueue } from './jobs/types.ts';
 import type { AnalysisPool } from './analysis/pool.ts';
 import type { RunPool } from './runner/pool.ts';
 import type { TraceStore } from './features/traces/store.ts';
+import type { RateLimitStoreFactory } from './features/auth/rate-limit.ts';
 
 export interface Clock {
   now(): Date;
@@ -38,7 +39,21 @@ export interface AppDeps {
   /** Secure cookies and no development fallbacks. */
   production: boolean;
   logger: Logger;
-  rateLimits: { login: RateLimitOptions; forgot: RateLimitOptions; share: RateLimitOptions };
+  rateLimits: {
+    /** Failed sign-ins per client address and account. */
+    login: RateLimitOptions;
+    /** Failed sign-ins per client address, whatever the account. */
+    loginPerAddress: RateLimitOptions;
+    /** Failed sign-ins per account, whatever the address. */
+    loginPerAccount: RateLimitOptions;
+    /** Reset requests per account. */
+    forgot: RateLimitOptions;
+    /** Reset requests per client address. */
+    forgotPerAddress: RateLimitOptions;
+    share: RateLimitOptions;
+  };
+  /** Where rate-limit counters live; the default is this process's memory. */
+  rateLimitStore: RateLimitStoreFactory;
   verifyBearer?: BearerVerifier;
   /** Folder for stored files (`PARLEY_DATA`): uploaded traces live in `<dataDir>/traces`. */
   dataDir: string;

@@ -7,7 +7,7 @@ import pino from 'pino';
 import { loadEnv } from './config/env.ts';
 import { resolveSecret } from './config/secret.ts';
 import { openOrm, type Orm } from './db/orm.ts';
-import { seedDemo } from './db/seed.ts';
+import { accountsWithDemoPassword, seedDemo } from './db/seed.ts';
 import { createSmtpMailer } from './mail/mailer.ts';
 import { startMailFake } from './mail/fake-smtp.ts';
 import { createMailbox, type Mailbox } from './mail/mailbox.ts';
@@ -66,6 +66,16 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   if (options.demo ?? env.PARLEY_DEMO) {
     if (await seedDemo(orm.em.fork(), systemClock, { dataDir })) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
   }
+  if (production && !env.demoAskedFor) {
+    const exposed = await accountsWithDemoPassword(orm.em.fork());
+    if (exposed.length > 0) {
+      await orm.close();
+      throw new Error(
+        `Refusing to start in production: ${exposed.join(', ')} still sign${exposed.length === 1 ? 's' : ''} in with the published demo password. ` +
+          'Set new passwords or deactivate these accounts (or set PARLEY_DEMO=1 for a deliberate public demo).',
+      );
+    }
+  }
 
   const smtpUrl = options.smtpUrl ?? env.SMTP_URL;
   const fake = smtpUrl ? null : await startMailFake({ orm, clock: systemClock });
@@ -91,7 +101,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const runPool = createRunPool();
   const app = createApp({
     orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken,
-    jobs, analysisPool, runPool, traceStore: traceStore(dataDir),
+    jobs, analysisPool, runPool, traceStore: traceStore(dataDir), trustProxy: env.trustProxy,
   });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;

@@ -3,10 +3,14 @@
  * the request thread. Progress (bytes read of the total) goes to the main thread through the
  * MessagePort that came with the task, at most every `progressEveryMs`.
  */
+import { randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { stat } from 'node:fs/promises';
+import { rename, stat, writeFile } from 'node:fs/promises';
+import { dirname, join } from 'node:path';
 import type { MessagePort } from 'node:worker_threads';
 import { createReader, createTraceSession, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
+import { summaryOf, timelineChunks, withoutDecodedMessages, type AnalysisSummary, type ChunkKind } from '../../shared/trace/views.ts';
+import { deflateJson, storedFileBytes } from './deflated-json.ts';
 
 export interface AnalyzeFileTask {
   path: string;
@@ -19,6 +23,36 @@ export interface AnalyzeFileTask {
 export interface AnalysisProgress {
   bytesRead: number;
   totalBytes: number;
+}
+
+/** One finding or contract as a row: its place in the list, its time, and the item as JSON. */
+export interface StoredItem {
+  index: number;
+  t: number | null;
+  severity: string | null;
+  rule: string | null;
+  body: string;
+}
+
+export interface StoredChunk {
+  kind: ChunkKind;
+  level: number;
+  seq: number;
+  firstIndex: number;
+  startUs: number;
+  endUs: number;
+  count: number;
+  body: string;
+}
+
+/** What the request thread keeps of an analysis: small values and JSON text, never the object graph. */
+export interface StoredParts {
+  summary: AnalysisSummary;
+  findings: StoredItem[];
+  contracts: StoredItem[];
+  chunks: StoredChunk[];
+  /** Bytes of the stored analysis file. */
+  storedBytes: number;
 }
 
 export type AnalyzeFileResult =
@@ -55,6 +89,39 @@ export async function analyzeFile(task: AnalyzeFileTask): Promise<AnalyzeFileRes
     return { ok: false, error: line === undefined ? { code, message } : { code, message, line } };
   }
   return { ok: true, analysis: result.analysis, bytesRead: totalBytes };
+}
+
+export interface AnalyzeAndStoreTask extends AnalyzeFileTask {
+  /** Where to write the stored analysis (deflated-json.ts). */
+  storeTo: string;
+}
+
+export type AnalyzeAndStoreResult = { ok: true; stored: StoredParts; bytesRead: number } | Extract<AnalyzeFileResult, { ok: false }>;
+
+/** The pool's task for uploads: analyse, store, and hand back only the parts (never the object graph). */
+export async function analyzeAndStore(task: AnalyzeAndStoreTask): Promise<AnalyzeAndStoreResult> {
+  const result = await analyzeFile(task);
+  if (!result.ok) return result;
+  return { ok: true, stored: await storeAnalysis(result.analysis, task.storeTo), bytesRead: result.bytesRead };
+}
+
+/**
+ * Writes the analysis without the decoded messages, compressed (atomically: a temporary name in the
+ * same folder, then a rename), and cuts the parts the trace page reads into rows.
+ */
+export async function storeAnalysis(analysis: Analysis, path: string): Promise<StoredParts> {
+  const stored = withoutDecodedMessages(analysis);
+  const bytes = storedFileBytes(deflateJson(JSON.stringify(stored)));
+  const temporary = join(dirname(path), `.incoming-${randomBytes(8).toString('hex')}`);
+  await writeFile(temporary, bytes, { mode: 0o600 });
+  await rename(temporary, path);
+  return {
+    summary: summaryOf(stored),
+    findings: stored.findings.map((f, index) => ({ index, t: f.t ?? null, severity: f.severity, rule: f.rule, body: JSON.stringify(f) })),
+    contracts: stored.contracts.map((c, index) => ({ index, t: c.t, severity: null, rule: null, body: JSON.stringify(c) })),
+    chunks: timelineChunks(stored).map(({ items, ...chunk }) => ({ ...chunk, count: items.length, body: JSON.stringify(items) })),
+    storedBytes: bytes.length,
+  };
 }
 
 export interface ReadRecordsTask {

@@ -4,14 +4,16 @@
  * are unref'd and leave after `idleTimeoutMs`, and `close()` ends them at shutdown.
  */
 import { availableParallelism } from 'node:os';
-import { MessageChannel } from 'node:worker_threads';
+import { MessageChannel, type MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { AnalysisProgress, AnalyzeFileResult, AnalyzeFileTask, ReadRecordsResult, ReadRecordsTask } from './analyze-file.ts';
+import type { AnalysisProgress, AnalyzeAndStoreResult, AnalyzeAndStoreTask, AnalyzeFileResult, AnalyzeFileTask, ReadRecordsResult, ReadRecordsTask } from './analyze-file.ts';
 
-export type { AnalysisProgress, AnalyzeFileResult, ReadRecordsResult } from './analyze-file.ts';
+export type { AnalysisProgress, AnalyzeAndStoreResult, AnalyzeFileResult, ReadRecordsResult } from './analyze-file.ts';
 
 export interface AnalysisPool {
   analyze(path: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeFileResult>;
+  /** Analyses and writes the stored analysis to `storeTo` in the worker; answers its parts, never the object graph. */
+  analyzeAndStore(path: string, storeTo: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeAndStoreResult>;
   /** The records of a stored trace, read in a worker too (a vector export of a big file). */
   records(path: string, format: ReadRecordsTask['format'], limit: number): Promise<ReadRecordsResult>;
   close(): Promise<void>;
@@ -33,17 +35,13 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
     idleTimeout: options.idleTimeoutMs ?? 30_000,
   });
   return {
-    async analyze(path, { format, onProgress } = {}) {
-      const { port1, port2 } = new MessageChannel();
-      if (onProgress) port1.on('message', (progress: AnalysisProgress) => onProgress(progress));
-      try {
-        const task: AnalyzeFileTask = format ? { path, format, port: port2 } : { path, port: port2 };
-        return (await pool.run(task, { transferList: [port2] })) as AnalyzeFileResult;
-      } catch (cause) {
-        return { ok: false, error: { code: 'analysis.failed', message: `the analysis stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})` } };
-      } finally {
-        port1.close();
-      }
+    analyze(path, options = {}) {
+      return runWithProgress<AnalyzeFileResult>(options.onProgress, (port) => pool.run({ path, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyzeFileTask, { transferList: [port] }));
+    },
+    analyzeAndStore(path, storeTo, options = {}) {
+      return runWithProgress<AnalyzeAndStoreResult>(options.onProgress, (port) =>
+        pool.run({ path, storeTo, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyzeAndStoreTask, { transferList: [port], name: 'analyzeAndStore' }),
+      );
     },
     async records(path, format, limit) {
       try {
@@ -56,4 +54,17 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
       await pool.destroy();
     },
   };
+}
+
+/** Runs a task with a progress port; a crashed worker becomes an error value. */
+async function runWithProgress<R>(onProgress: ((progress: AnalysisProgress) => void) | undefined, run: (port: MessagePort) => Promise<unknown>): Promise<R | { ok: false; error: { code: string; message: string } }> {
+  const { port1, port2 } = new MessageChannel();
+  if (onProgress) port1.on('message', (progress: AnalysisProgress) => onProgress(progress));
+  try {
+    return (await run(port2)) as R;
+  } catch (cause) {
+    return { ok: false, error: { code: 'analysis.failed', message: `the analysis stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})` } };
+  } finally {
+    port1.close();
+  }
 }

@@ -4,7 +4,7 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { analyzeFile, readRecords } = await import('./analyze-file.ts');
+const { analyzeFile, analyzeAndStore, readRecords } = await import('./analyze-file.ts');
 
 export default analyzeFile;
-export { readRecords };
+export { analyzeAndStore, readRecords };

@@ -11,7 +11,10 @@ const envSchema = z
     HOST: z.string().min(1).optional(),
     PARLEY_DATA: z.string().min(1).default('./data'),
     PARLEY_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
-    PARLEY_DEMO: flag.default(true),
+    /** Demo organisation on an empty database; default on, except in production where it must be asked for. */
+    PARLEY_DEMO: flag.optional(),
+    /** Express `trust proxy`: the reverse proxies in front (a hop count, addresses or `loopback`); unset, X-Forwarded-For is ignored. */
+    PARLEY_TRUST_PROXY: z.string().min(1).optional(),
     SMTP_URL: z.url({ protocol: /^smtps?$/ }).optional(),
     MAIL_FROM: z.string().min(3).default('Parley <parley@localhost>'),
     NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -20,6 +23,10 @@ const envSchema = z
   })
   .transform((env) => ({
     ...env,
+    PARLEY_DEMO: env.PARLEY_DEMO ?? env.NODE_ENV !== 'production',
+    /** PARLEY_DEMO was set explicitly (a production demo deployment knows what it does). */
+    demoAskedFor: env.PARLEY_DEMO === true,
+    trustProxy: env.PARLEY_TRUST_PROXY === undefined ? false : /^\d+$/.test(env.PARLEY_TRUST_PROXY) ? Number(env.PARLEY_TRUST_PROXY) : env.PARLEY_TRUST_PROXY,
     PUBLIC_URL: (env.PUBLIC_URL ?? `http://localhost:${env.PORT}`).replace(/\/+$/, ''),
     /** Set when PUBLIC_URL was not given, so the real port can replace PORT 0 after listening. */
     publicUrlDefaulted: env.PUBLIC_URL === undefined,

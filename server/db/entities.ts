@@ -1,5 +1,5 @@
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
-import { Trace, TraceComment } from './trace-entities.ts';
+import { Trace, TraceChunk, TraceComment, TraceItem } from './trace-entities.ts';
 import { libraryEntities } from './library-entities.ts';
 
 /**
@@ -109,4 +109,4 @@ export const DeviceUnderTest = defineEntity({
 });
 export type IDeviceUnderTest = InferEntity<typeof DeviceUnderTest>;
 
-export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, ...libraryEntities];
+export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, TraceItem, TraceChunk, ...libraryEntities];

@@ -13,13 +13,13 @@ export const TeamVector = defineEntity({
     id: p.integer().primary(),
     /** The vector file's own id, e.g. `caps/power-rules/45w-without-9v`. */
     vectorId: p.string().unique(),
-    title: p.string(),
+    title: p.string().index(),
     kind: p.string().index(),
     /** The file's tags, space-separated with a space at each end, for `like '% tag %'`. */
     tags: p.text(),
     /** The current revision's file text (formatted, final newline). */
     text: p.text(),
-    revision: p.integer(),
+    revision: p.integer().index(),
     /** The device under test this vector belongs to (server metadata, not part of the file). */
     deviceId: p.integer().nullable().index(),
     authorId: p.integer().index(),
@@ -28,7 +28,7 @@ export const TeamVector = defineEntity({
     updatedById: p.integer(),
     updatedByName: p.string(),
     createdAt: p.datetime(),
-    updatedAt: p.datetime(),
+    updatedAt: p.datetime().index(),
   }),
 });
 export type ITeamVector = InferEntity<typeof TeamVector>;
@@ -92,6 +92,7 @@ export interface RunResultDetail {
 
 export const RunResult = defineEntity({
   name: 'RunResult',
+  indexes: [{ properties: ['vectorId', 'id'] }],
   properties: (p) => ({
     id: p.integer().primary(),
     runId: p.integer().index(),

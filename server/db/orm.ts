@@ -32,6 +32,8 @@ export async function openOrm(options: { dbName: string; debug?: boolean }): Pro
     allowGlobalContext: false,
     discovery: { warnWhenNoEntities: false },
     onQuery: refuseNul,
+    // The full-text index and its shadow tables are kept by hand-written migrations, not entities.
+    schemaGenerator: { skipTables: [/^team_vector_search/] },
   });
   await orm.getMigrator().up();
   return orm;

@@ -1,7 +1,7 @@
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { DeviceUnderTest, Organisation, User, type Role } from './entities.ts';
 import type { Clock } from '../context.ts';
-import { hashPassword } from '../features/auth/passwords.ts';
+import { checkPassword, hashPassword } from '../features/auth/passwords.ts';
 import { seedDemoTraces } from './demo-traces/seed-traces.ts';
 import { seedTeamLibrary } from '../features/vectors/seed.ts';
 
@@ -78,4 +78,12 @@ export async function seedDemo(em: EntityManager, clock: Clock, options: { dataD
   if (options.dataDir) await seedDemoTraces(em, clock, options.dataDir);
   if (options.dataDir) await seedTeamLibrary(em, clock);
   return true;
+}
+
+/** Active demo accounts that still take the published demo password (a production server refuses to start with any). */
+export async function accountsWithDemoPassword(em: EntityManager): Promise<string[]> {
+  const users = await em.find(User, { email: { $in: demoAccounts.map((a) => a.email) }, active: true });
+  const exposed: string[] = [];
+  for (const user of users) if (user.passwordHash && (await checkPassword(demoPassword, user.passwordHash))) exposed.push(user.email);
+  return exposed;
 }

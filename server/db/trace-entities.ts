@@ -1,10 +1,9 @@
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
-import type { Analysis } from '../../shared/trace/index.ts';
-
 /**
  * Uploaded traces and their comments (the Traces product). The file itself lives in
- * `PARLEY_DATA/traces/<sha256>`; a row holds its metadata, the analysis status and, once done,
- * the analysis (a lazy JSON column, so lists never load it) with counts for filtering.
+ * `PARLEY_DATA/traces/<sha256>` and its analysis, compressed, beside it (`<sha256>.analysis`);
+ * a row holds the metadata, the analysis status and counts for filtering. What the trace page
+ * reads is cut into rows of its own (TraceItem, TraceChunk), so no listed row carries an analysis.
  */
 
 export const traceStatuses = ['queued', 'analysing', 'done', 'failed'] as const;
@@ -37,7 +36,8 @@ export const Trace = defineEntity({
     infoCount: p.integer(),
     /** The rule ids found, space-separated with a space at each end, for `like '% rule %'` search. */
     rules: p.text(),
-    analysis: p.json<Analysis>().nullable().lazy(true, false),
+    /** Bytes of the stored (compressed) analysis file. */
+    analysisBytes: p.integer().nullable(),
     createdAt: p.datetime(),
     analysedAt: p.datetime().nullable(),
   }),
@@ -57,3 +57,42 @@ export const TraceComment = defineEntity({
   }),
 });
 export type ITraceComment = InferEntity<typeof TraceComment>;
+
+export const traceItemKinds = ['summary', 'finding', 'contract'] as const;
+
+/** The analysis summary (one row), each finding and each contract of a trace, as JSON text. */
+export const TraceItem = defineEntity({
+  name: 'TraceItem',
+  indexes: [{ properties: ['traceId', 'kind', 'index'] }, { properties: ['traceId', 'kind', 'severity', 'index'] }],
+  properties: (p) => ({
+    id: p.integer().primary(),
+    traceId: p.integer(),
+    kind: p.string().$type<(typeof traceItemKinds)[number]>(),
+    /** Place in its list (0-based). */
+    index: p.integer().fieldName('item_index'),
+    t: p.bigint('number').nullable(),
+    severity: p.string().nullable(),
+    rule: p.string().nullable(),
+    body: p.text(),
+  }),
+});
+export type ITraceItem = InferEntity<typeof TraceItem>;
+
+/** A run of timeline items (shared/trace/views.ts): messages, events, contract spans or VBUS readings at a level. */
+export const TraceChunk = defineEntity({
+  name: 'TraceChunk',
+  indexes: [{ properties: ['traceId', 'kind', 'level', 'startUs'] }],
+  properties: (p) => ({
+    id: p.integer().primary(),
+    traceId: p.integer(),
+    kind: p.string(),
+    level: p.integer(),
+    seq: p.integer(),
+    firstIndex: p.integer(),
+    startUs: p.bigint('number'),
+    endUs: p.bigint('number'),
+    count: p.integer(),
+    body: p.text(),
+  }),
+});
+export type ITraceChunk = InferEntity<typeof TraceChunk>;

@@ -5,10 +5,12 @@
 import type { AppDeps } from '../context.ts';
 import { traceAnalysisHandler, traceAnalysisJob } from '../features/traces/analyse.ts';
 import { vectorRunHandler, vectorRunJob } from '../features/runs/job.ts';
+import { vectorImportHandler, vectorImportJob } from '../features/vectors/import-job.ts';
 
 export type JobDeps = Pick<AppDeps, 'orm' | 'clock' | 'mailer' | 'publicUrl' | 'logger' | 'jobs' | 'traceStore' | 'analysisPool' | 'runPool'>;
 
 export function registerJobKinds(deps: JobDeps): void {
   deps.jobs.handle(traceAnalysisJob, traceAnalysisHandler({ fork: () => deps.orm.em.fork(), clock: deps.clock, store: deps.traceStore, pool: deps.analysisPool }));
   deps.jobs.handle(vectorRunJob, vectorRunHandler(deps));
+  deps.jobs.handle(vectorImportJob, vectorImportHandler({ fork: () => deps.orm.em.fork(), clock: deps.clock, logger: deps.logger }));
 }

@@ -1,8 +1,14 @@
 /** Stored traces, their analyses and the analysis progress stream (`/api/traces…`). */
-import type { Analysis } from '../trace/index.ts';
+import type { Finding } from '../core/finding.ts';
+import type { StoredAnalysis, AnalysisSummary, FindingPin, Page, TimelineWindow } from '../trace/views.ts';
 import type { DeviceRef } from './devices.ts';
 
-export type { Analysis };
+/**
+ * The analysis as the server stores and sends it: timeline messages carry their hex, never the
+ * decoded form (decode on demand, in a worker). The trace page reads the views below instead.
+ */
+export type Analysis = StoredAnalysis;
+export type { AnalysisSummary, FindingPin, Page, TimelineWindow };
 
 export const traceStatuses = ['queued', 'analysing', 'done', 'failed'] as const;
 export type TraceStatus = (typeof traceStatuses)[number];
@@ -48,6 +54,19 @@ export interface TraceDetail {
   progress?: TraceProgress | null;
   duplicate?: boolean;
 }
+
+/** `GET /api/traces/:id/summary`: the trace, its analysis without the lists (null until done), progress while it runs. */
+export interface TraceSummaryDetail {
+  trace: TraceItem;
+  analysis: AnalysisSummary | null;
+  progress: TraceProgress | null;
+}
+
+/** `GET /api/traces/:id/findings` and `/contracts`: pages in list order; `index` is the place in the whole list. */
+export type IndexedFinding = Finding & { index: number };
+export type IndexedContract = StoredAnalysis['contracts'][number] & { index: number };
+export type FindingPage = Page<IndexedFinding>;
+export type ContractPage = Page<IndexedContract>;
 
 export type TraceSort = 'createdAt' | '-createdAt' | 'title' | '-title' | 'sizeBytes' | '-sizeBytes' | 'errors' | '-errors';
 

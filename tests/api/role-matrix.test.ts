@@ -23,12 +23,13 @@ const concretePath = (path: string) => path.replace(/:([A-Za-z]+)/g, (_m, name: 
 const allowed = (def: RouteDef, role: Role | null) =>
   def.access === 'anyone' || (role !== null && (def.access === 'signed-in' || def.access.includes(role)));
 
-// Logout clears only the caller's cookie; the session itself stays valid, so later rows are unaffected.
+// Logout ends every session of the account on the server, so after its row each role signs in afresh.
 describe.each(routeTable.map((def) => [`${def.method.toUpperCase()} ${def.path}`, def] as const))('%s', (_name, def) => {
   it.each([...roles, null].map((role) => [role ?? 'anonymous', role] as const))('as %s', async (_label, role) => {
     let req = t.request()[def.method](concretePath(def.path));
     if (role) req = req.set('Cookie', cookies.get(role)!);
     const res = def.method === 'get' || def.method === 'delete' ? await req : await req.send({});
+    if (role && def.path === '/api/auth/logout') cookies.set(role, await t.cookieFor(role));
     if (allowed(def, role)) {
       expect([401, 403], JSON.stringify(res.body)).not.toContain(res.status);
     } else {

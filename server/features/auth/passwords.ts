@@ -1,16 +1,48 @@
+/**
+ * Password hashes. New hashes are scrypt (Node's crypto, RFC 7914) run on libuv's thread pool, so a
+ * flood of sign-ins never blocks the event loop; bcrypt hashes from older databases are still
+ * checked (bcryptjs yields between rounds) and replaced by scrypt at the next good sign-in.
+ */
+import { randomBytes, scrypt as scryptCallback, timingSafeEqual, type ScryptOptions } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { z } from 'zod';
 
-/** bcrypt cost 10 (2^10 rounds): the usual floor for interactive sign-in (common practice), ~80 ms in bcryptjs. */
-export const bcryptCost = 10;
+/**
+ * scrypt N = 2^15, r = 8, p = 1: the interactive-login parameters in common use (about 32 MiB and
+ * 50–100 ms per hash on a laptop core, common practice); the 32-byte key and 16-byte salt as well.
+ */
+const SCRYPT = { N: 2 ** 15, r: 8, p: 1, maxmem: 64 * 1024 * 1024 } as const;
+const KEY_BYTES = 32;
 
 export const passwordSchema = z
   .string()
   .min(10, 'must be at least 10 characters')
   .max(200, 'must be at most 200 characters');
 
-export const hashPassword = (password: string) => bcrypt.hash(password, bcryptCost);
-export const checkPassword = (password: string, hash: string) => bcrypt.compare(password, hash);
+function scrypt(password: string, salt: Buffer, options: ScryptOptions): Promise<Buffer> {
+  return new Promise((resolve, reject) => scryptCallback(password.normalize('NFKC'), salt, KEY_BYTES, options, (error, key) => (error ? reject(error) : resolve(key))));
+}
+
+/** `scrypt$<log2 N>$<r>$<p>$<salt base64url>$<key base64url>`. */
+export async function hashPassword(password: string): Promise<string> {
+  const salt = randomBytes(16);
+  const key = await scrypt(password, salt, SCRYPT);
+  return ['scrypt', Math.log2(SCRYPT.N), SCRYPT.r, SCRYPT.p, salt.toString('base64url'), key.toString('base64url')].join('$');
+}
+
+export async function checkPassword(password: string, hash: string): Promise<boolean> {
+  if (hash.startsWith('scrypt$')) {
+    const [, logN, r, p, salt, key] = hash.split('$');
+    const expected = Buffer.from(key ?? '', 'base64url');
+    if (expected.length !== KEY_BYTES) return false;
+    const actual = await scrypt(password, Buffer.from(salt ?? '', 'base64url'), { N: 2 ** Number(logN), r: Number(r), p: Number(p), maxmem: SCRYPT.maxmem });
+    return timingSafeEqual(actual, expected);
+  }
+  return bcrypt.compare(password, hash);
+}
+
+/** A hash from before scrypt: replace it once the password is known to be right. */
+export const needsRehash = (hash: string) => !hash.startsWith('scrypt$');
 
 /** A real hash to compare against when the account does not exist, so both paths take as long. */
-export const decoyHash = bcrypt.hashSync('decoy-password-never-valid', bcryptCost);
+export const decoyHash = 'scrypt$15$8$1$ZGVjb3ktc2FsdC1ub3QtdXNlZA$' + Buffer.alloc(KEY_BYTES, 1).toString('base64url');

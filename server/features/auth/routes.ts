@@ -6,11 +6,23 @@ import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { emailSchema } from '../../http/schemas.ts';
 import { resetMail } from '../../mail/templates.ts';
 import { recordAudit } from '../audit/record.ts';
-import { checkPassword, decoyHash, hashPassword, passwordSchema } from './passwords.ts';
+import { checkPassword, decoyHash, hashPassword, needsRehash, passwordSchema } from './passwords.ts';
 import { presentUser } from './present.ts';
-import { limitByAddressAndEmail } from './rate-limit.ts';
+import { forgotLimits, signInLimits } from './rate-limit.ts';
 import { endSession, startSession } from './session.ts';
-import { findLiveToken, issueToken, resetValidMinutes, retireTokens } from './tokens.ts';
+import { findLiveToken, issueToken, redeemToken, resetValidMinutes, retireTokens } from './tokens.ts';
+import { createAuditBudget } from '../audit/budget.ts';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
+import type { AppDeps } from '../../context.ts';
+
+/** Failed sign-ins written to the audit log a minute, at most (a flood from many addresses is summarised). */
+const failedSignInBudget = createAuditBudget(120);
+
+function recordFailedSignIn(em: EntityManager, deps: AppDeps, email: string, reason: string): void {
+  const { write, suppressed } = failedSignInBudget.take(deps.clock.now().getTime());
+  if (!write) return;
+  recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: email, details: suppressed > 0 ? { reason, notRecorded: suppressed } : { reason } });
+}
 
 const tokenParams = z.object({ token: z.string().min(10).max(200) });
 
@@ -19,23 +31,24 @@ export const authRoutes: RouteDef[] = [
     method: 'post',
     path: '/api/auth/login',
     access: 'anyone',
-    middleware: (deps) => [limitByAddressAndEmail(deps.rateLimits.login)],
+    middleware: signInLimits,
     body: z.object({ email: emailSchema, password: z.string().min(1, 'is required').max(200) }),
     async handler({ em, body, res, deps }) {
       const user = await em.findOne(User, { email: body.email });
       // Compare against a decoy when there is no such account, so timing does not tell.
       const matches = await checkPassword(body.password, user?.passwordHash ?? decoyHash);
       if (!user || !user.passwordHash || !matches) {
-        recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: body.email, details: { reason: user ? 'wrong_password' : 'unknown_email' } });
+        recordFailedSignIn(em, deps, body.email, user ? 'wrong_password' : 'unknown_email');
         await em.flush();
         throw unauthorized('The e-mail address or the password is wrong', 'auth.invalid-credentials');
       }
       if (!user.active) {
-        recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: body.email, details: { reason: 'deactivated' } });
+        recordFailedSignIn(em, deps, body.email, 'deactivated');
         await em.flush();
         throw unauthorized('This account is deactivated; ask an administrator to reactivate it', 'account.deactivated');
       }
       user.lastSignInAt = deps.clock.now();
+      if (needsRehash(user.passwordHash)) user.passwordHash = await hashPassword(body.password);
       recordAudit(em, deps.clock, { actor: user, action: 'auth.sign_in', target: user.email });
       await em.flush();
       startSession(res, user, deps);
@@ -48,6 +61,8 @@ export const authRoutes: RouteDef[] = [
     access: 'signed-in',
     async handler(ctx) {
       const user = currentUser(ctx);
+      // Server-side: every session cookie of this account signed before now stops working.
+      user.sessionVersion += 1;
       recordAudit(ctx.em, ctx.deps.clock, { actor: user, action: 'auth.sign_out', target: user.email });
       await ctx.em.flush();
       endSession(ctx.res, ctx.deps);
@@ -67,21 +82,25 @@ export const authRoutes: RouteDef[] = [
     method: 'post',
     path: '/api/auth/forgot',
     access: 'anyone',
-    middleware: (deps) => [limitByAddressAndEmail(deps.rateLimits.forgot)],
+    middleware: forgotLimits,
     body: z.object({ email: emailSchema }),
-    async handler({ em, body, res, deps }) {
-      const user = await em.findOne(User, { email: body.email });
-      if (user && user.active && !user.invitePending) {
+    async handler({ body, res, deps }) {
+      // The answer goes at once and is the same for every address; the lookup and the mail come after.
+      res.status(202).json({ ok: true });
+      const em = deps.orm.em.fork();
+      try {
+        const user = await em.findOne(User, { email: body.email });
+        if (!user || !user.active || user.invitePending) return undefined;
         await retireTokens(em, deps.clock, user.id, 'reset');
         const token = issueToken(em, deps.clock, { userId: user.id, kind: 'reset', validMs: resetValidMinutes * 60_000 });
         recordAudit(em, deps.clock, { actor: null, action: 'auth.reset_requested', target: user.email });
         await em.flush();
         const mail = resetMail({ to: user.email, name: user.name, link: `${deps.publicUrl}/reset/${token}`, validMinutes: resetValidMinutes });
-        // Sent after the reply, so the answer takes as long whether or not the account exists.
-        deps.mailer.send(mail).catch((err: unknown) => deps.logger.error({ err, to: user.email }, 'reset mail failed'));
+        await deps.mailer.send(mail);
+      } catch (err) {
+        deps.logger.error({ err }, 'reset request failed after the answer');
       }
-      res.status(202);
-      return { ok: true };
+      return undefined;
     },
   }),
   route({
@@ -90,7 +109,7 @@ export const authRoutes: RouteDef[] = [
     access: 'anyone',
     body: z.object({ token: z.string().min(10).max(200), password: passwordSchema }),
     async handler({ em, body, res, deps }) {
-      const token = await findLiveToken(em, deps.clock, body.token, 'reset');
+      const token = await redeemToken(em, deps.clock, body.token, 'reset');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
       if (!token || !user || !user.active) throw notFound('This reset link is invalid, used or expired; ask for a new one', 'token.invalid');
       user.passwordHash = await hashPassword(body.password);
@@ -122,7 +141,7 @@ export const authRoutes: RouteDef[] = [
     params: tokenParams,
     body: z.object({ password: passwordSchema, name: z.string().trim().min(1).max(120).optional() }),
     async handler({ em, params, body, res, deps }) {
-      const token = await findLiveToken(em, deps.clock, params.token, 'invite');
+      const token = await redeemToken(em, deps.clock, params.token, 'invite');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
       if (!token || !user) throw notFound('This invitation is invalid, used or expired', 'token.invalid');
       if (!user.invitePending) throw conflict('This invitation was already accepted; sign in instead', 'invite.used');

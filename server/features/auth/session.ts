@@ -38,7 +38,8 @@ export function readSession(req: Request, deps: AppDeps): { userId: number; vers
       algorithms: ['HS256'],
       clockTimestamp: Math.floor(deps.clock.now().getTime() / 1000),
     });
-    if (typeof claims !== 'object' || typeof claims.sub !== 'string' || typeof claims.v !== 'number') return null;
+    // A token without an expiry would be good forever: refused, even when correctly signed.
+    if (typeof claims !== 'object' || typeof claims.sub !== 'string' || typeof claims.v !== 'number' || typeof claims.exp !== 'number') return null;
     const userId = Number(claims.sub);
     return Number.isInteger(userId) ? { userId, version: claims.v } : null;
   } catch {

@@ -35,3 +35,16 @@ export async function retireTokens(em: EntityManager, clock: Clock, userId: numb
   const live = await em.find(UserToken, { userId, kind, usedAt: null });
   for (const t of live) t.usedAt = clock.now();
 }
+
+/**
+ * Redeems a single-use token: marks it used in one conditional update before anything else happens,
+ * so of several requests racing with the same link exactly one gets the token. Null when it was
+ * unknown, used or expired.
+ */
+export async function redeemToken(em: EntityManager, clock: Clock, token: string, kind: TokenKind): Promise<IUserToken | null> {
+  const now = clock.now();
+  const tokenHash = hashToken(token);
+  const taken = await em.nativeUpdate(UserToken, { tokenHash, kind, usedAt: null, expiresAt: { $gt: now } }, { usedAt: now });
+  if (taken !== 1) return null;
+  return em.findOne(UserToken, { tokenHash, kind });
+}

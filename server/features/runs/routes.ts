@@ -8,7 +8,7 @@ import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { tokenOf } from '../tokens/verify.ts';
-import { describeFilter, vectorFilterSchema, vectorWhere } from '../vectors/query.ts';
+import { describeFilter, matchingVectorIds, vectorFilterSchema } from '../vectors/query.ts';
 import { finishRun, runEvent, vectorRunJob } from './job.ts';
 import { streamJobEvents } from '../../jobs/sse.ts';
 import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
@@ -112,7 +112,7 @@ export const runsRoutes: RouteDef[] = [
     async handler(ctx) {
       const { em, body, res, deps } = ctx;
       const me = currentUser(ctx);
-      const where = body.all ? {} : body.ids ? { vectorId: { $in: body.ids } } : vectorWhere(body.filter ?? {});
+      const where = body.all ? {} : { vectorId: { $in: body.ids ?? (await matchingVectorIds(em, body.filter ?? {})) } };
       // Ids only: the job reads each batch's texts as it goes.
       const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' }, fields: ['vectorId'] });
       if (body.ids) {

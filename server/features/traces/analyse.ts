@@ -6,13 +6,16 @@
  * and a retried job (its first worker died) simply analyses again.
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
-import { Trace, type ITrace } from '../../db/trace-entities.ts';
+import { Trace, TraceChunk, TraceItem, type ITrace } from '../../db/trace-entities.ts';
 import type { Clock } from '../../context.ts';
 import type { AnalysisPool } from '../../analysis/pool.ts';
 import type { TraceFormat } from '../../../shared/trace/index.ts';
 import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import type { AnalysisEvent } from '../../../shared/api/index.ts';
 import type { TraceStore } from './store.ts';
+
+/** Rows per insert statement. */
+const INSERT_BATCH = 200;
 
 export const traceAnalysisJob = jobKind<{ traceId: number }, AnalysisEvent>('trace-analysis');
 
@@ -59,7 +62,7 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   }
   await em.nativeUpdate(Trace, { id }, { status: 'analysing' });
   job.publish({ type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });
-  const result = await pool.analyze(store.pathOf(sha256), {
+  const result = await pool.analyzeAndStore(store.pathOf(sha256), store.analysisPathOf(sha256), {
     format: row.format as TraceFormat,
     onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
   });
@@ -77,26 +80,38 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
     await em.nativeUpdate(Trace, { id }, { status: 'failed', errorCode: code, errorMessage: message, analysedAt: clock.now() });
     return job.publish({ type: 'failed', status: 'failed', error: { code, message } });
   }
-  const { analysis } = result;
-  const rules = [...new Set(analysis.findings.map((f) => f.rule))].sort();
-  const fresh = await em.findOneOrFail(Trace, { id }, { populate: ['analysis'] });
+  const { summary: analysis, findings, contracts, chunks, storedBytes } = result.stored;
+  const rules = [...new Set(findings.map((f) => f.rule ?? ''))].filter(Boolean).sort();
   const headerTitle = typeof analysis.header?.title === 'string' ? analysis.header.title.trim().slice(0, 200) : '';
-  em.assign(fresh, {
-    // A title left empty at upload becomes the header's title, else the file name (lists sort by it).
-    ...(fresh.title === '' ? { title: headerTitle || fresh.fileName } : {}),
-    status: 'done',
-    format: analysis.format ?? fresh.format,
-    summary: analysis.summary,
-    messages: analysis.messages,
-    errorCount: analysis.counts.error,
-    warningCount: analysis.counts.warning,
-    infoCount: analysis.counts.info,
-    rules: rules.length > 0 ? ` ${rules.join(' ')} ` : '',
-    analysis,
-    errorCode: null,
-    errorMessage: null,
-    analysedAt: clock.now(),
+  // The parts the trace page reads, written with the row's new state in one transaction.
+  await em.transactional(async (tx) => {
+    await tx.nativeDelete(TraceItem, { traceId: id });
+    await tx.nativeDelete(TraceChunk, { traceId: id });
+    const items = [
+      { traceId: id, kind: 'summary' as const, index: 0, t: null, severity: null, rule: null, body: JSON.stringify(analysis) },
+      ...findings.map((f) => ({ traceId: id, kind: 'finding' as const, index: f.index, t: f.t, severity: f.severity, rule: f.rule, body: f.body })),
+      ...contracts.map((c) => ({ traceId: id, kind: 'contract' as const, index: c.index, t: c.t, severity: null, rule: null, body: c.body })),
+    ];
+    for (let first = 0; first < items.length; first += INSERT_BATCH) await tx.insertMany(TraceItem, items.slice(first, first + INSERT_BATCH));
+    const rows = chunks.map((c) => ({ traceId: id, ...c }));
+    for (let first = 0; first < rows.length; first += INSERT_BATCH) await tx.insertMany(TraceChunk, rows.slice(first, first + INSERT_BATCH));
+    const fresh = await tx.findOneOrFail(Trace, { id });
+    tx.assign(fresh, {
+      // A title left empty at upload becomes the header's title, else the file name (lists sort by it).
+      ...(fresh.title === '' ? { title: headerTitle || fresh.fileName } : {}),
+      status: 'done',
+      format: analysis.format ?? fresh.format,
+      summary: analysis.summary,
+      messages: analysis.messages,
+      errorCount: analysis.counts.error,
+      warningCount: analysis.counts.warning,
+      infoCount: analysis.counts.info,
+      rules: rules.length > 0 ? ` ${rules.join(' ')} ` : '',
+      analysisBytes: storedBytes,
+      errorCode: null,
+      errorMessage: null,
+      analysedAt: clock.now(),
+    });
   });
-  await em.flush();
   job.publish({ type: 'done', status: 'done', summary: analysis.summary, counts: analysis.counts });
 }

@@ -20,7 +20,7 @@ export function createQueuedTrace(em: EntityManager, fields: NewTraceFields): IT
     warningCount: 0,
     infoCount: 0,
     rules: '',
-    analysis: null,
+    analysisBytes: null,
     analysedAt: null,
   });
 }

@@ -19,7 +19,7 @@ function contractLine(c: Analysis['contracts'][number]): string {
   return `${c.kind === 'fixed' ? '' : `${c.kind.toUpperCase()} `}${volts(c.voltageMv)} ${amps(c.currentMa)} (object ${c.objectPosition}) from ${seconds(c.t)}`;
 }
 
-export function buildReport(trace: PresentedTrace, analysis: Analysis, link: string) {
+export function buildReport(trace: PresentedTrace, analysis: Omit<Analysis, 'timeline'>, link: string) {
   return {
     report: 1,
     trace: {

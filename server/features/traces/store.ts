@@ -16,6 +16,8 @@ import { SNIFF_BYTES } from './sniff.ts';
 export interface TraceStore {
   dir: string;
   pathOf(sha256: string): string;
+  /** The stored analysis of that file (server/analysis/deflated-json.ts). */
+  analysisPathOf(sha256: string): string;
   has(sha256: string): boolean;
   /** Moves a received temporary file to its hash name; when that file exists already, drops the copy. */
   keep(tempPath: string, sha256: string): Promise<string>;
@@ -31,6 +33,7 @@ export function traceStore(dataDir: string): TraceStore {
   return {
     dir,
     pathOf,
+    analysisPathOf: (sha256) => `${pathOf(sha256)}.analysis`,
     has: (sha256) => existsSync(pathOf(sha256)),
     async keep(tempPath, sha256) {
       const target = pathOf(sha256);
@@ -40,6 +43,7 @@ export function traceStore(dataDir: string): TraceStore {
     },
     async remove(sha256) {
       await rm(pathOf(sha256), { force: true });
+      await rm(`${pathOf(sha256)}.analysis`, { force: true });
     },
   };
 }

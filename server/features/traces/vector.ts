@@ -17,7 +17,7 @@ export function vectorIdOf(trace: { id: number; title: string }): string {
   return `traces/${slug === '' ? 'trace' : slug}-${trace.id}`;
 }
 
-export function buildTraceVector(trace: PresentedTrace, analysis: Analysis, records: TraceRecord[]) {
+export function buildTraceVector(trace: PresentedTrace, analysis: Omit<Analysis, 'timeline'>, records: TraceRecord[]) {
   const include = [...new Set(analysis.findings.map((f) => f.rule))].sort();
   const refs = [...new Set(analysis.findings.filter((f) => f.severity !== 'info').map((f) => f.ref))];
   return {
@@ -36,6 +36,6 @@ export function buildTraceVector(trace: PresentedTrace, analysis: Analysis, reco
 }
 
 /** The file text, byte-stable (vector.md: key order, two-space indent, final newline). */
-export function traceVectorText(trace: PresentedTrace, analysis: Analysis, records: TraceRecord[]): string {
+export function traceVectorText(trace: PresentedTrace, analysis: Omit<Analysis, 'timeline'>, records: TraceRecord[]): string {
   return formatVector(buildTraceVector(trace, analysis, records));
 }

@@ -1,10 +1,13 @@
 /**
- * The library's filter (search words, tag, kind, device) as a MikroORM where clause, shared by
- * the list, the zip export and "Run filtered".
+ * The library's filter (search words, tag, kind, device) as SQL, shared by the list, the zip export
+ * and "Run filtered". Search words go through the full-text index (SQLite FTS5 `team_vector_search`,
+ * kept in step with `team_vector` by triggers; migration TeamVectorSearch): each word matches a
+ * token that starts with it, in the id, title, tags or file text. Everything else is an indexed
+ * column. The statements are plain SQL apart from `searchCondition`, the one place a PostgreSQL
+ * variant (`to_tsvector(...) @@ to_tsquery(...)` over a GIN index) sits beside the FTS5 one.
  */
 import { z } from 'zod';
-import type { FilterQuery } from '@mikro-orm/core';
-import type { ITeamVector } from '../../db/library-entities.ts';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { VECTOR_KINDS } from '../../../shared/vectors/index.ts';
 
 const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
@@ -19,23 +22,52 @@ export const vectorFilterFields = {
 export const vectorFilterSchema = z.object(vectorFilterFields).strict();
 export type VectorFilter = z.infer<typeof vectorFilterSchema>;
 
-/** SQLite's LIKE ignores ASCII case; a `%` or `_` typed in a search widens it, which is harmless. */
-function likeText(value: string): string {
-  return `%${value}%`;
+/** Words of a search, at most eight; each as an FTS5 string (quotes doubled) matching tokens that start with it. */
+export function ftsQuery(q: string): string | null {
+  const words = q
+    .split(/\s+/)
+    .map((w) => w.replace(/[\u0000-\u001f]/g, ''))
+    .filter((w) => /[\p{L}\p{N}]/u.test(w))
+    .slice(0, 8);
+  return words.length === 0 ? null : words.map((w) => `"${w.replace(/"/g, '""')}"*`).join(' AND ');
 }
 
-export function vectorWhere(filter: VectorFilter): FilterQuery<ITeamVector> {
-  const and: FilterQuery<ITeamVector>[] = [];
-  if (filter.q) {
-    for (const word of filter.q.split(/\s+/).filter((w) => w !== '').slice(0, 8)) {
-      const like = likeText(word);
-      and.push({ $or: [{ vectorId: { $like: like } }, { title: { $like: like } }, { tags: { $like: like } }, { text: { $like: like } }] });
-    }
+/** The dialect-specific part: rows whose search document matches. */
+function searchCondition(): string {
+  return 'v.id in (select rowid from team_vector_search where team_vector_search match ?)';
+}
+
+/** `where` text (with `v` as the team_vector alias) and its parameters. */
+export function vectorWhereSql(filter: VectorFilter): { sql: string; params: unknown[] } {
+  const parts: string[] = [];
+  const params: unknown[] = [];
+  const query = filter.q ? ftsQuery(filter.q) : null;
+  if (filter.q && query === null) parts.push('1 = 0');
+  if (query !== null) {
+    parts.push(searchCondition());
+    params.push(query);
   }
-  if (filter.tag) and.push({ tags: { $like: likeText(` ${filter.tag} `) } });
-  if (filter.kind) and.push({ kind: filter.kind });
-  if (filter.deviceId) and.push({ deviceId: filter.deviceId });
-  return and.length > 0 ? { $and: and } : {};
+  if (filter.tag) {
+    // The column holds the tags between spaces: an exact tag, not a part of one.
+    parts.push("v.tags like ? escape '\\'");
+    params.push(`% ${filter.tag.replace(/[\\%_]/g, (c) => `\\${c}`)} %`);
+  }
+  if (filter.kind) {
+    parts.push('v.kind = ?');
+    params.push(filter.kind);
+  }
+  if (filter.deviceId) {
+    parts.push('v.device_id = ?');
+    params.push(filter.deviceId);
+  }
+  return { sql: parts.length > 0 ? `where ${parts.join(' and ')}` : '', params };
+}
+
+/** Vector ids matching the filter, in id order. */
+export async function matchingVectorIds(em: EntityManager, filter: VectorFilter): Promise<string[]> {
+  const where = vectorWhereSql(filter);
+  const rows = await em.getConnection().execute<{ vector_id: string }[]>(`select v.vector_id from team_vector v ${where.sql} order by v.vector_id`, where.params);
+  return rows.map((r) => r.vector_id);
 }
 
 /** The filter in words, for a run's "what was run". */

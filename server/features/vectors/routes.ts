@@ -9,9 +9,15 @@ import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { deviceRefs, lastResults, presentListItem, presentRevision, presentVector } from './present.ts';
-import { vectorFilterFields, vectorWhere } from './query.ts';
+import { matchingVectorIds, vectorFilterFields, vectorWhereSql } from './query.ts';
+import { libraryChanged, libraryTagCounts } from './tag-counts.ts';
 import { checkDevice, checkVectorFile, createVector, findVector, reviseVector, type CheckedVector } from './store.ts';
-import { libraryZip, readLibraryZip } from './zip.ts';
+import { libraryZip } from './zip.ts';
+import { vectorImportJob } from './import-job.ts';
+import { streamJobEvents } from '../../jobs/sse.ts';
+import { randomBytes } from 'node:crypto';
+import { mkdir, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
 
 /** api.md: admin, engineer and qa write vectors; everyone signed in reads them. */
 const vectorWriters = roleGroups.editors;
@@ -21,7 +27,7 @@ const idParams = z.object({ id: z.string().regex(VECTOR_ID_PATTERN, 'must be a v
 const revisionParams = idParams.extend({ n: z.coerce.number({ error: 'must be a revision number' }).int().positive('must be a revision number') });
 
 const sortKeys = ['id', 'title', 'kind', 'updatedAt', 'revision'] as const;
-const sortColumn: Record<(typeof sortKeys)[number], keyof ITeamVector> = { id: 'vectorId', title: 'title', kind: 'kind', updatedAt: 'updatedAt', revision: 'revision' };
+const sortSql: Record<(typeof sortKeys)[number], string> = { id: 'v.vector_id', title: 'v.title', kind: 'v.kind', updatedAt: 'v.updated_at', revision: 'v.revision' };
 
 const listQuery = z.object({
   ...vectorFilterFields,
@@ -30,6 +36,10 @@ const listQuery = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 });
 const exportQuery = z.object(vectorFilterFields);
+const importQuery = z.object({
+  /** `false`: answer 202 at once and follow the import on its events stream. */
+  wait: z.enum(['true', 'false']).default('true'),
+});
 
 const message = z.string().trim().max(500, 'must be at most 500 characters');
 const deviceId = z.number().int().positive('must be a device id').nullable();
@@ -68,25 +78,26 @@ export const vectorsRoutes: RouteDef[] = [
     async handler({ em, query }) {
       const { sort, page, pageSize, ...filter } = query;
       const direction = sort.startsWith('-') ? 'desc' : 'asc';
-      const column = sortColumn[sort.replace(/^-/, '') as (typeof sortKeys)[number]];
-      const [rows, total] = await em.findAndCount(TeamVector, vectorWhere(filter), {
-        orderBy: [{ [column]: direction }, { vectorId: 'asc' }],
-        limit: pageSize,
-        offset: (page - 1) * pageSize,
-      });
+      const column = sortSql[sort.replace(/^-/, '') as (typeof sortKeys)[number]];
+      const where = vectorWhereSql(filter);
+      const sql = em.getConnection();
+      // One page of rows and the count, both through the indexes; never every row.
+      const [counted] = await sql.execute<{ total: number }[]>(`select count(*) as total from team_vector v ${where.sql}`, where.params);
+      const ids = await sql.execute<{ id: number }[]>(
+        `select v.id from team_vector v ${where.sql} order by ${column} ${direction}, v.vector_id asc limit ? offset ?`,
+        [...where.params, pageSize, (page - 1) * pageSize],
+      );
+      const found = await em.find(TeamVector, { id: { $in: ids.map((r) => Number(r.id)) } });
+      const byId = new Map(found.map((row) => [row.id, row]));
+      const rows = ids.flatMap((r) => byId.get(Number(r.id)) ?? []);
       const devices = await deviceRefs(em);
       const last = await lastResults(em, rows.map((r) => r.vectorId));
-      // Every tag in the library with its count, for the filter menu.
-      const tagCounts = new Map<string, number>();
-      for (const { tags } of await em.find(TeamVector, {}, { fields: ['tags'] })) {
-        for (const tag of tags.split(' ').filter((t) => t !== '')) tagCounts.set(tag, (tagCounts.get(tag) ?? 0) + 1);
-      }
       return {
         items: rows.map((row) => presentListItem(row, devices, last.get(row.vectorId))),
-        total,
+        total: Number(counted?.total ?? 0),
         page,
         pageSize,
-        tags: [...tagCounts].map(([tag, count]) => ({ tag, count })).sort((a, b) => (a.tag < b.tag ? -1 : 1)),
+        tags: await libraryTagCounts(em),
       };
     },
   }),
@@ -96,7 +107,7 @@ export const vectorsRoutes: RouteDef[] = [
     access: 'signed-in',
     query: exportQuery,
     async handler({ em, query, res }) {
-      const rows = await em.find(TeamVector, vectorWhere(query), { fields: ['vectorId', 'text'], orderBy: { vectorId: 'asc' } });
+      const rows = await em.find(TeamVector, { vectorId: { $in: await matchingVectorIds(em, query) } }, { fields: ['vectorId', 'text'], orderBy: { vectorId: 'asc' } });
       const zip = libraryZip(rows.map((r) => ({ vectorId: r.vectorId, text: r.text })));
       res.attachment('parley-vectors.zip');
       res.type('application/zip');
@@ -109,56 +120,41 @@ export const vectorsRoutes: RouteDef[] = [
     path: '/api/vectors/import',
     access: vectorWriters,
     middleware: importUpload,
+    query: importQuery,
     async handler(ctx) {
-      const { req, em, deps } = ctx;
+      const { req, res, query, deps } = ctx;
       const me = currentUser(ctx);
       const upload = req.file;
       if (!upload) throw badRequest('file: choose a zip of *.vector.json files (the multipart field "file")', 'vector.no-file');
-      const read = readLibraryZip(new Uint8Array(upload.buffer));
-      if (!read.ok) throw badRequest(read.message, 'vector.bad-zip');
-      const issues: ImportIssue[] = [];
-      const checked = new Map<string, { file: string; checked: CheckedVector }>();
-      for (const file of read.files) {
-        let json: unknown;
-        try {
-          json = JSON.parse(file.text);
-        } catch (error) {
-          issues.push({ file: file.name, message: `not valid JSON (${error instanceof Error ? error.message : String(error)})` });
-          continue;
-        }
-        try {
-          const one = checkVectorFile(json, file.name);
-          const earlier = checked.get(one.vector.id);
-          if (earlier) issues.push({ file: file.name, message: `id "${one.vector.id}" is also the id of ${earlier.file}` });
-          else checked.set(one.vector.id, { file: file.name, checked: one });
-        } catch (error) {
-          if (!(error instanceof HttpError)) throw error;
-          issues.push({ file: file.name, message: error.message });
-        }
+      // The zip waits in the data folder for the job (which may run in another process).
+      const folder = join(deps.dataDir, 'imports');
+      await mkdir(folder, { recursive: true, mode: 0o700 });
+      const key = randomBytes(12).toString('hex');
+      const zipPath = join(folder, `${key}.zip`);
+      await writeFile(zipPath, upload.buffer, { mode: 0o600 });
+      const job = await deps.jobs.enqueue(vectorImportJob, key, { zipPath, fileName: upload.originalname || 'a zip', user: { id: me.id, name: me.name, email: me.email } });
+      if (query.wait === 'false') {
+        res.status(202);
+        return { job: key, events: `/api/vectors/import/${key}/events` };
       }
-      if (issues.length > 0) {
-        const first = issues.slice(0, 3).map((i) => `${i.file}: ${i.message}`).join('; ');
-        throw badRequest(`Nothing was imported: ${issues.length} file(s) are not valid vectors. ${first}`, 'vector.import-invalid', issues);
-      }
-      const note = `Imported from ${(upload.originalname || 'a zip').replace(/[\u0000-\u001f]/g, '').slice(0, 120)}`;
-      let created = 0;
-      let updated = 0;
-      let unchanged = 0;
-      for (const { checked: one } of checked.values()) {
-        const row = await em.findOne(TeamVector, { vectorId: one.vector.id });
-        if (!row) {
-          await createVector(em, deps.clock, me, { checked: one, message: note });
-          created += 1;
-        } else if (row.text === one.text) {
-          unchanged += 1;
-        } else {
-          await reviseVector(em, deps.clock, me, row, { checked: one, message: note, baseRevision: row.revision });
-          updated += 1;
-        }
-      }
-      recordAudit(em, deps.clock, { actor: me, action: 'vector.imported', target: `vectors:${checked.size}`, details: { created, updated, unchanged } });
-      await em.flush();
-      return { created, updated, unchanged, total: checked.size };
+      const outcome = await job.finished;
+      if (outcome.type === 'failed') throw badRequest(outcome.error.message, outcome.error.code, outcome.error.details);
+      if (outcome.type !== 'done') throw new Error('the import ended without a result');
+      const { created, updated, unchanged, total } = outcome;
+      return { created, updated, unchanged, total };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/vectors/import/:key/events',
+    access: vectorWriters,
+    params: z.object({ key: z.string().regex(/^[0-9a-f]{24}$/, 'must be an import key') }),
+    async handler({ req, res, params, deps }) {
+      await streamJobEvents(req, res, deps.jobs, vectorImportJob, params.key, {
+        heartbeat: 'still importing',
+        snapshot: async () => deps.jobs.latest(vectorImportJob, params.key) ?? { type: 'failed', error: { code: 'vector.import-unknown', message: 'No import with that key is running or recently finished.' } },
+      });
+      return undefined;
     },
   }),
   route({
@@ -214,6 +210,7 @@ export const vectorsRoutes: RouteDef[] = [
       recordAudit(em, deps.clock, { actor: me, action: 'vector.deleted', target: `vector:${row.vectorId}`, details: { revisions: row.revision } });
       em.remove(row);
       await em.flush();
+      libraryChanged();
       return undefined;
     },
   }),

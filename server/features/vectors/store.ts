@@ -10,6 +10,7 @@ import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-e
 import type { Clock } from '../../context.ts';
 import { badRequest, conflict, fromZod, notFound } from '../../errors.ts';
 import { formatVector, vectorSchema, type Vector } from '../../../shared/vectors/index.ts';
+import { libraryChanged } from './tag-counts.ts';
 
 /** Top-level keys of a request body that belong to the server, not to the vector file. */
 const META_KEYS = storedVectorKeys;
@@ -82,6 +83,7 @@ export async function createVector(em: EntityManager, clock: Clock, user: Pick<I
   await em.flush();
   em.create(VectorRevision, { vectorRowId: row.id, revision: 1, text, message: input.message, authorId: user.id, authorName: user.name, createdAt: now });
   await em.flush();
+  libraryChanged();
   return row;
 }
 
@@ -126,6 +128,7 @@ export async function reviseVector(
     tx.create(VectorRevision, { vectorRowId: row.id, revision: next, text, message: input.message, authorId: user.id, authorName: user.name, createdAt: now });
     return true;
   });
+  libraryChanged();
   const fresh = await em.fork().findOneOrFail(TeamVector, { id: row.id });
   if (!changed) {
     throw conflict(

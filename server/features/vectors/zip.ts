@@ -4,7 +4,7 @@
  * library always gives the same zip bytes; `parley run vectors` runs the unzipped folder.
  */
 import { MAX_IMPORT_BYTES, MAX_IMPORT_FILES } from '../../../shared/api/index.ts';
-import { strFromU8, strToU8, unzipSync, zipSync, type Zippable } from 'fflate';
+import { strFromU8, strToU8, Unzip, UnzipInflate, UnzipPassThrough, zipSync, type Zippable } from 'fflate';
 
 export const ZIP_FOLDER = 'vectors';
 /** DOS time stamps start in 1980; a fixed one keeps exports byte-stable. */
@@ -20,29 +20,70 @@ export function libraryZip(files: readonly { vectorId: string; text: string }[])
 
 export type ZipRead = { ok: true; files: { name: string; text: string }[] } | { ok: false; message: string };
 
-/** The `*.vector.json` entries of an uploaded zip (other entries are ignored), with size guards. */
-export function readLibraryZip(bytes: Uint8Array): ZipRead {
-  let count = 0;
+/** Compressed bytes handed to the inflater at a time: with DEFLATE's ~1:1032 ceiling, at most ~4 MB comes out of one push. */
+const PUSH_BYTES = 4 * 1024;
+const tooMuch = `file: the zip holds more than ${MAX_IMPORT_FILES} vectors or ${MAX_IMPORT_BYTES / 1024 / 1024} MB of them`;
+
+/**
+ * The `*.vector.json` entries of an uploaded zip (other entries are ignored). Inflated as a stream
+ * with a running budget of the bytes that actually come out (an entry's declared size may lie), in
+ * small pushes that give the event loop back between them.
+ */
+export async function readLibraryZip(bytes: Uint8Array, yieldToLoop: () => Promise<void> = () => new Promise((r) => setImmediate(r))): Promise<ZipRead> {
+  const files: { name: string; text: string }[] = [];
   let total = 0;
-  let tooBig = false;
-  let unzipped: Record<string, Uint8Array>;
+  let count = 0;
+  let failure: string | undefined;
+  const unzip = new Unzip((file) => {
+    if (failure || !file.name.endsWith('.vector.json') || file.name.includes('__MACOSX/')) return;
+    count += 1;
+    if (count > MAX_IMPORT_FILES) {
+      failure = tooMuch;
+      return;
+    }
+    const parts: Uint8Array[] = [];
+    file.ondata = (error, chunk, final) => {
+      if (failure) return;
+      if (error) {
+        failure = `file: not a readable zip archive (${error.message})`;
+        return;
+      }
+      total += chunk.length;
+      if (total > MAX_IMPORT_BYTES) {
+        failure = tooMuch;
+        file.terminate();
+        return;
+      }
+      parts.push(chunk);
+      if (final) {
+        const whole = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+        let at = 0;
+        for (const p of parts) {
+          whole.set(p, at);
+          at += p.length;
+        }
+        files.push({ name: file.name, text: strFromU8(whole) });
+      }
+    };
+    try {
+      file.start();
+    } catch (error) {
+      failure = `file: ${file.name} uses a compression this server does not read (${error instanceof Error ? error.message : String(error)})`;
+    }
+  });
+  unzip.register(UnzipInflate);
+  unzip.register(UnzipPassThrough);
   try {
-    unzipped = unzipSync(bytes, {
-      filter: (file) => {
-        if (!file.name.endsWith('.vector.json') || file.name.includes('__MACOSX/')) return false;
-        count += 1;
-        total += file.originalSize;
-        if (count > MAX_IMPORT_FILES || total > MAX_IMPORT_BYTES) tooBig = true;
-        return !tooBig;
-      },
-    });
+    for (let at = 0; at < bytes.length && !failure; at += PUSH_BYTES) {
+      unzip.push(bytes.subarray(at, at + PUSH_BYTES), at + PUSH_BYTES >= bytes.length);
+      await yieldToLoop();
+    }
   } catch (error) {
-    return { ok: false, message: `file: not a readable zip archive (${error instanceof Error ? error.message : String(error)})` };
+    failure ??= `file: not a readable zip archive (${error instanceof Error ? error.message : String(error)})`;
   }
-  if (tooBig) return { ok: false, message: `file: the zip holds more than ${MAX_IMPORT_FILES} vectors or ${MAX_IMPORT_BYTES / 1024 / 1024} MB of them` };
-  const files = Object.entries(unzipped)
-    .map(([name, data]) => ({ name, text: strFromU8(data) }))
-    .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+  if (failure) return { ok: false, message: failure };
+  if (bytes.length < 22 || !(bytes[0] === 0x50 && bytes[1] === 0x4b)) return { ok: false, message: 'file: not a readable zip archive (no zip signature)' };
   if (files.length === 0) return { ok: false, message: 'file: the zip holds no *.vector.json files' };
+  files.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
   return { ok: true, files };
 }

@@ -55,4 +55,17 @@ describe('scenarioFromMessages', () => {
     expect(capturedMessagesOf({ analysis: { timeline: { messages, measurements: [{ t: 5, mv: 1 }] } } })?.endUs).toBe(5);
     expect(capturedMessagesOf({ nothing: true })).toBeNull();
   });
+
+  it('decodes stored messages (hex without a decoded form) on demand, typing Requests by the offers before them', () => {
+    const parsed = parseScenario({ ...defaultScenario, sink: { policy: { kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 } } });
+    if (!parsed.ok) throw new Error(parsed.error.message);
+    const stored = simulate(parsed.scenario).events.flatMap((record) =>
+      'msg' in record && record.message ? [{ t: record.t, from: record.from, hex: record.msg, messageType: record.message.header.messageType, crcOk: record.crcOk !== false }] : [],
+    );
+    const found = capturedMessagesOf({ trace: {}, analysis: { timeline: { messages: stored } } });
+    expect(found?.messages.map((m) => m.decoded.header.messageType)).toEqual(stored.filter((m) => m.messageType === 'Source_Capabilities' || m.messageType === 'Request').map((m) => m.messageType));
+    const derived = scenarioFromMessages(found?.messages ?? []);
+    if (!derived.ok) throw new Error(derived.message);
+    expect(derived.scenario.sink?.policy).toEqual({ kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 });
+  });
 });

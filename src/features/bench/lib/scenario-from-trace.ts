@@ -4,7 +4,8 @@
  * the requested current, a programmable one → `pps`, variable/battery → `range`), later changes of
  * the request become `sink.changes`, and the timing (offer interval, length) comes from the capture.
  */
-import type { Message, Rdo, SourcePdo } from '../../../../shared/pd/types.ts';
+import { decodeMessage, parseHex } from '../../../../shared/pd/index.ts';
+import type { Message, Rdo, SourcePdo, Sop } from '../../../../shared/pd/types.ts';
 import type { SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
 
@@ -89,19 +90,38 @@ const isObject = (value: unknown): value is Loose => typeof value === 'object' &
 
 /**
  * The timeline messages of a `GET /api/traces/:id` body: the analysis itself, or wrapped as
- * `{ analysis }` / `{ trace: { analysis } }`.
+ * `{ analysis }` / `{ trace: { analysis } }`. The server stores messages as hex without their
+ * decoded form, so the few a scenario needs (Source_Capabilities, and Requests typed by the offers
+ * before them) are decoded here, on demand.
  */
 export function capturedMessagesOf(body: unknown): { messages: CapturedMessage[]; endUs?: number } | null {
   const candidates: unknown[] = [body];
   if (isObject(body)) candidates.push(body.analysis, body.trace, isObject(body.trace) ? body.trace.analysis : undefined);
   for (const candidate of candidates) {
     if (!isObject(candidate) || !isObject(candidate.timeline) || !Array.isArray(candidate.timeline.messages)) continue;
-    const messages = (candidate.timeline.messages as unknown[]).filter(
-      (item): item is CapturedMessage => isObject(item) && typeof item.t === 'number' && isObject(item.decoded) && isObject(item.decoded.header),
-    );
+    const messages: CapturedMessage[] = [];
+    let offers: SourcePdo[] | undefined;
+    for (const item of candidate.timeline.messages as unknown[]) {
+      if (!isObject(item) || typeof item.t !== 'number') continue;
+      const decoded = isObject(item.decoded) && isObject(item.decoded.header) ? (item.decoded as unknown as Message) : decodeStored(item, offers);
+      if (!decoded) continue;
+      if (decoded.header.messageType === 'Source_Capabilities' && item.crcOk !== false) offers = decoded.objects as SourcePdo[];
+      messages.push({ t: item.t, decoded, ...(typeof item.from === 'string' ? { from: item.from } : {}), ...(typeof item.crcOk === 'boolean' ? { crcOk: item.crcOk } : {}) });
+    }
     const measurements = Array.isArray(candidate.timeline.measurements) ? (candidate.timeline.measurements as unknown[]) : [];
     const lastMeasurement = measurements[measurements.length - 1];
     return { messages, endUs: isObject(lastMeasurement) && typeof lastMeasurement.t === 'number' ? lastMeasurement.t : undefined };
   }
   return null;
+}
+
+const NEEDED = new Set(['Source_Capabilities', 'Request']);
+
+function decodeStored(item: Loose, offers: SourcePdo[] | undefined): Message | undefined {
+  if (typeof item.hex !== 'string' || typeof item.messageType !== 'string' || !NEEDED.has(item.messageType)) return undefined;
+  const bytes = parseHex(item.hex);
+  if (!bytes.ok) return undefined;
+  const sop = (typeof item.sop === 'string' ? item.sop : 'SOP') as Sop;
+  const decoded = decodeMessage(bytes.bytes, { sop, ...(item.messageType === 'Request' && offers ? { caps: offers } : {}) });
+  return decoded.ok ? decoded.message : undefined;
 }

@@ -11,9 +11,12 @@ import { paths } from '../../../config/paths.ts';
 import { useUser } from '../../../lib/auth.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { traceDownloads } from '../api/downloads.ts';
-import { useTrace } from '../../../lib/api/get-trace.ts';
 import { traceKeys } from '../../../lib/query-keys.ts';
-import type { Analysis, AnalysisEvent, TraceItem } from '../../../../shared/api/index.ts';
+import { useTraceContracts } from '../api/get-trace-contracts.ts';
+import { useTraceFindings } from '../api/get-trace-findings.ts';
+import { useTraceSummary } from '../api/get-trace-summary.ts';
+import { useTraceTimeline } from '../api/get-trace-timeline.ts';
+import type { AnalysisEvent, AnalysisSummary, TraceItem } from '../../../../shared/api/index.ts';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { CommentThread } from '../components/comment-thread.tsx';
 import { ContractsTable } from '../components/contracts-table.tsx';
@@ -27,9 +30,12 @@ import { mayWriteTraces } from '../lib/roles.ts';
 // recharts is large: the timeline arrives in its own chunk.
 const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
 
+const NO_FINDINGS: never[] = [];
+const NO_CONTRACTS: never[] = [];
+
 export function TraceRoute() {
   const { traceId = '' } = useParams();
-  const trace = useTrace(traceId);
+  const trace = useTraceSummary(traceId);
   // Arriving from a scrolled list, start at the top of the trace.
   useEffect(() => {
     window.scrollTo(0, 0);
@@ -61,18 +67,29 @@ function AnalysisProgress({ item }: { item: TraceItem }) {
   );
 }
 
-function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | null }) {
+/** Findings and contracts the page reads at once (the tables page them on the client). */
+const LIST_PAGE = { page: 1, pageSize: 500 };
+/** The whole-trace window: about this many VBUS readings, and at most this many messages, spans and pins. */
+const WHOLE_TRACE = { points: 2_000, limit: 5_000 };
+
+function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSummary | null }) {
   const user = useUser();
+  const done = item.status === 'done' && analysis !== null;
+  const findingsPage = useTraceFindings(item.id, LIST_PAGE, done);
+  const contractsPage = useTraceContracts(item.id, LIST_PAGE, done);
+  const timelineWindow = useTraceTimeline(item.id, WHOLE_TRACE, done);
+  const findings = findingsPage.data?.items;
+  const findingsOmitted = (analysis?.findingsOmitted ?? 0) + Math.max(0, (findingsPage.data?.total ?? 0) - (findings?.length ?? 0));
   const [params, setParams] = useSearchParams();
   const [shareOpen, setShareOpen] = useState(false);
   const selected = params.get('finding') === null ? undefined : Number(params.get('finding'));
   const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
   const canWrite = mayWriteTraces(user.role);
-  const input = useMemo(() => (analysis ? timelineInput(analysis) : null), [analysis]);
+  const input = useMemo(() => (analysis && timelineWindow.data ? timelineInput(analysis, timelineWindow.data) : null), [analysis, timelineWindow.data]);
 
   const show = useCallback(
     (index: number) => {
-      const t = analysis?.findings[index]?.t;
+      const t = findings?.[index]?.t;
       setParams((current) => {
         const next = new URLSearchParams(current);
         next.set('finding', String(index));
@@ -80,17 +97,17 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
       }, { replace: true });
       if (t !== undefined) setFocus({ tUs: t, key: Date.now() });
     },
-    [analysis, setParams],
+    [findings, setParams],
   );
 
   // A link with ?finding= opens the timeline at that finding, once, when the analysis arrives.
   const arrived = useRef(false);
   useEffect(() => {
-    if (arrived.current || !analysis) return;
+    if (arrived.current || !findings) return;
     arrived.current = true;
-    const t = selected === undefined ? undefined : analysis.findings[selected]?.t;
+    const t = selected === undefined ? undefined : findings[selected]?.t;
     if (t !== undefined) setFocus({ tUs: t, key: 0 });
-  }, [analysis, selected]);
+  }, [findings, selected]);
 
   const meta = [
     item.device?.name,
@@ -99,7 +116,6 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
     `uploaded by ${item.uploader.name} ${formatDateTime(item.createdAt)}`,
   ].filter(Boolean);
 
-  const done = item.status === 'done' && analysis !== null;
   const actions = (
     <div className="flex flex-wrap gap-2" data-testid="trace-actions">
       {canWrite && done && (
@@ -164,7 +180,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
                 <TraceTimeline
                   measurements={input.measurements}
                   messages={input.messages}
-                  findings={analysis.findings}
+                  findings={findings ?? NO_FINDINGS}
                   contracts={input.contracts}
                   bands={input.bands}
                   endUs={input.endUs}
@@ -180,15 +196,15 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
         {done && (
           <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
             <Card>
-              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findings.length}</Badge>} />
+              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findingsListed}</Badge>} />
               <CardBody>
-                <FindingsTable findings={analysis.findings} selectedIndex={selected} onShow={show} omitted={analysis.findingsOmitted} />
+                <FindingsTable findings={findings ?? NO_FINDINGS} selectedIndex={selected} onShow={show} omitted={findingsOmitted} />
               </CardBody>
             </Card>
             <Card>
               <CardHeader title="Contracts over time" />
               <CardBody>
-                <ContractsTable contracts={analysis.contracts} endUs={input?.endUs ?? 0} />
+                <ContractsTable contracts={contractsPage.data?.items ?? NO_CONTRACTS} endUs={analysis.endUs} />
               </CardBody>
             </Card>
           </div>

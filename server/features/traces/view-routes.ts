@@ -1,0 +1,104 @@
+/**
+ * Reading one trace. The trace page reads the summary, pages of findings and contracts and windows
+ * of the timeline, each costing what it shows; `GET /api/traces/:id` (api.md) still answers the
+ * whole stored analysis, sent as stored. GETs never start work (start-up resumes unfinished analyses).
+ */
+import { z } from 'zod';
+import type { Finding } from '../../../shared/core/finding.ts';
+import type { Analysis } from '../../../shared/trace/index.ts';
+import type { ITrace } from '../../db/trace-entities.ts';
+import { badRequest } from '../../errors.ts';
+import { route, type RouteDef } from '../../route-def.ts';
+import { deviceMap, findTrace, idParams } from './lookup.ts';
+import { presentTrace } from './present.ts';
+import { traceAnalysisJob } from './analyse.ts';
+import { sendWithStoredAnalysis } from './send-analysis.ts';
+import type { AppDeps } from '../../context.ts';
+import { analysisSummary, itemPage, timelineWindow } from './views.ts';
+
+const pageQuery = (maxPageSize: number, defaultPageSize: number) =>
+  z.object({
+    page: z.coerce.number().int().min(1).max(100_000).default(1),
+    pageSize: z.coerce.number().int().min(1).max(maxPageSize).default(defaultPageSize),
+  });
+
+const findingsQuery = pageQuery(500, 100).extend({ severity: z.enum(['error', 'warning', 'info']).optional() });
+const contractsQuery = pageQuery(500, 100);
+
+const microseconds = z.coerce.number().int().min(0).max(Number.MAX_SAFE_INTEGER);
+const windowQuery = z.object({
+  startUs: microseconds.optional(),
+  endUs: microseconds.optional(),
+  points: z.coerce.number().int().min(10).max(10_000).default(1_000),
+  limit: z.coerce.number().int().min(1).max(5_000).default(1_000),
+});
+
+function progressOf(deps: AppDeps, trace: ITrace) {
+  const progress = trace.status === 'queued' || trace.status === 'analysing' ? deps.jobs.latest(traceAnalysisJob, trace.id) : undefined;
+  return progress?.type === 'progress' ? { bytesRead: progress.bytesRead, totalBytes: progress.totalBytes } : null;
+}
+
+export const viewRoutes: RouteDef[] = [
+  route({
+    method: 'get',
+    path: '/api/traces/:id',
+    access: 'signed-in',
+    params: idParams,
+    async handler({ req, res, em, params, deps }) {
+      const trace = await findTrace(em, params.id);
+      const fields = { trace: presentTrace(trace, await deviceMap(em)), progress: progressOf(deps, trace) };
+      return sendWithStoredAnalysis(req, res, fields, trace.status === 'done' ? deps.traceStore.analysisPathOf(trace.sha256) : null);
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/summary',
+    access: 'signed-in',
+    params: idParams,
+    async handler({ em, params, deps }) {
+      const trace = await findTrace(em, params.id);
+      return {
+        trace: presentTrace(trace, await deviceMap(em)),
+        analysis: trace.status === 'done' ? await analysisSummary(em, trace.id) : null,
+        progress: progressOf(deps, trace),
+      };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/findings',
+    access: 'signed-in',
+    params: idParams,
+    query: findingsQuery,
+    async handler({ em, params, query }) {
+      await findTrace(em, params.id);
+      return itemPage<Finding>(em, params.id, 'finding', query);
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/contracts',
+    access: 'signed-in',
+    params: idParams,
+    query: contractsQuery,
+    async handler({ em, params, query }) {
+      await findTrace(em, params.id);
+      return itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query);
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/timeline',
+    access: 'signed-in',
+    params: idParams,
+    query: windowQuery,
+    async handler({ em, params, query }) {
+      const trace = await findTrace(em, params.id);
+      const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
+      const startUs = query.startUs ?? 0;
+      const endUs = query.endUs ?? summary?.endUs ?? 1;
+      if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
+      return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
+    },
+  }),
+];

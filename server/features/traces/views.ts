@@ -1,0 +1,149 @@
+/**
+ * The trace page's reads: the analysis summary, a page of findings or contracts, and one window of
+ * the timeline. Each reads only the rows it answers with (trace_item, trace_chunk) in plain SQL
+ * that SQLite and PostgreSQL both take; parsed chunks are kept in a small cache bounded by items.
+ */
+import type { EntityManager } from '@mikro-orm/better-sqlite';
+import type { Finding } from '../../../shared/core/finding.ts';
+import type { AnalysisSummary, FindingPin, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
+import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
+
+/** Parsed chunk items kept across requests (a chunk never changes once written; ids are not reused). */
+const CACHE_ITEMS = 200_000;
+const cache = new Map<number, unknown[]>();
+let cachedItems = 0;
+
+function parsedChunk(id: number, body: string): unknown[] {
+  const hit = cache.get(id);
+  if (hit) {
+    cache.delete(id);
+    cache.set(id, hit);
+    return hit;
+  }
+  const items = JSON.parse(body) as unknown[];
+  cache.set(id, items);
+  cachedItems += items.length;
+  for (const [oldest, value] of cache) {
+    if (cachedItems <= CACHE_ITEMS) break;
+    cache.delete(oldest);
+    cachedItems -= value.length;
+  }
+  return items;
+}
+
+type Sql = { execute<T>(sql: string, params: unknown[]): Promise<T> };
+const sqlOf = (em: EntityManager): Sql => em.getConnection() as unknown as Sql;
+
+export async function analysisSummary(em: EntityManager, traceId: number): Promise<AnalysisSummary | null> {
+  const rows = await sqlOf(em).execute<{ body: string }[]>("select body from trace_item where trace_id = ? and kind = 'summary'", [traceId]);
+  return rows[0] ? (JSON.parse(rows[0].body) as AnalysisSummary) : null;
+}
+
+export async function itemPage<T>(
+  em: EntityManager,
+  traceId: number,
+  kind: 'finding' | 'contract',
+  options: { page: number; pageSize: number; severity?: string | undefined },
+): Promise<Page<T & { index: number }>> {
+  const filter = options.severity === undefined ? '' : ' and severity = ?';
+  const params: unknown[] = options.severity === undefined ? [traceId, kind] : [traceId, kind, options.severity];
+  const sql = sqlOf(em);
+  const [counted] = await sql.execute<{ total: number }[]>(`select count(*) as total from trace_item where trace_id = ? and kind = ?${filter}`, params);
+  const rows = await sql.execute<{ item_index: number; body: string }[]>(
+    `select item_index, body from trace_item where trace_id = ? and kind = ?${filter} order by item_index limit ? offset ?`,
+    [...params, options.pageSize, (options.page - 1) * options.pageSize],
+  );
+  return {
+    items: rows.map((row) => ({ ...(JSON.parse(row.body) as T), index: Number(row.item_index) })),
+    total: Number(counted?.total ?? 0),
+    page: options.page,
+    pageSize: options.pageSize,
+  };
+}
+
+export type FindingPage = Page<Finding & { index: number }>;
+export type ContractPage = Page<Analysis['contracts'][number] & { index: number }>;
+
+export interface WindowQuery {
+  startUs: number;
+  endUs: number;
+  /** Most VBUS readings wanted (the level is the finest that stays near this). */
+  points: number;
+  /** Most messages, events, contract spans and finding pins each. */
+  limit: number;
+}
+
+interface ChunkRow {
+  id: number;
+  level: number;
+  first_index: number;
+  count: number;
+  body: string;
+}
+
+async function overlapping(em: EntityManager, traceId: number, kind: string, level: number, q: WindowQuery): Promise<ChunkRow[]> {
+  return sqlOf(em).execute<ChunkRow[]>(
+    'select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = ? and level = ? and end_us >= ? and start_us <= ? order by start_us',
+    [traceId, kind, level, q.startUs, q.endUs],
+  );
+}
+
+/** Items of the chunks that fall in the window, at most `limit`; the rest are counted (chunks past the limit are counted, not read). */
+function collect<T>(rows: ChunkRow[], inWindow: (item: T) => boolean, limit: number, withIndex: boolean): { items: T[]; omitted: number } {
+  const items: T[] = [];
+  let omitted = 0;
+  for (const row of rows) {
+    if (items.length >= limit) {
+      omitted += Number(row.count);
+      continue;
+    }
+    const parsed = parsedChunk(Number(row.id), row.body) as T[];
+    parsed.forEach((item, offset) => {
+      if (!inWindow(item)) return;
+      if (items.length >= limit) omitted++;
+      else items.push(withIndex ? ({ ...item, index: Number(row.first_index) + offset } as T) : item);
+    });
+  }
+  return { items, omitted };
+}
+
+export async function timelineWindow(em: EntityManager, traceId: number, q: WindowQuery): Promise<TimelineWindow> {
+  const sql = sqlOf(em);
+  // The finest level whose chunks in the window hold about `points` readings (partial chunks at the edges allowed for).
+  const levels = await sql.execute<{ level: number; total: number; chunks: number }[]>(
+    "select level, sum(count) as total, count(*) as chunks from trace_chunk where trace_id = ? and kind = 'measurement' and end_us >= ? and start_us <= ? group by level order by level",
+    [traceId, q.startUs, q.endUs],
+  );
+  const fitting = levels.find((l) => Number(l.total) <= q.points * 1.5 + 2 * 500) ?? levels[levels.length - 1];
+  const measurementLevel = fitting ? Number(fitting.level) : 0;
+  const inWindow = (t: number) => t >= q.startUs && t <= q.endUs;
+  const measurements = fitting
+    ? collect<TimelineMeasurement>(await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false).items
+    : [];
+  const messages = collect<StoredTimelineMessage & { index: number }>(
+    await overlapping(em, traceId, 'message', 0, q),
+    (m) => m.t + m.durationUs >= q.startUs && m.t <= q.endUs,
+    q.limit,
+    true,
+  );
+  const events = collect<TimelineEvent>(await overlapping(em, traceId, 'event', 0, q), (e) => inWindow(e.t), q.limit, false);
+  const contracts = collect<TimelineContract>(await overlapping(em, traceId, 'contract', 0, q), (c) => (c.endUs ?? Number.POSITIVE_INFINITY) >= q.startUs && c.startUs <= q.endUs, q.limit, false);
+  const [pinCount] = await sql.execute<{ total: number }[]>("select count(*) as total from trace_item where trace_id = ? and kind = 'finding' and t >= ? and t <= ?", [traceId, q.startUs, q.endUs]);
+  const pins = await sql.execute<{ item_index: number; t: number; severity: FindingPin['severity']; rule: string }[]>(
+    "select item_index, t, severity, rule from trace_item where trace_id = ? and kind = 'finding' and t >= ? and t <= ? order by item_index limit ?",
+    [traceId, q.startUs, q.endUs, q.limit],
+  );
+  return {
+    startUs: q.startUs,
+    endUs: q.endUs,
+    measurementLevel,
+    measurements,
+    messages: messages.items,
+    messagesOmitted: messages.omitted,
+    events: events.items,
+    eventsOmitted: events.omitted,
+    contracts: contracts.items,
+    findings: pins.map((p) => ({ index: Number(p.item_index), t: Number(p.t), severity: p.severity, rule: p.rule })),
+    findingsOmitted: Math.max(0, Number(pinCount?.total ?? 0) - pins.length),
+  };
+}

@@ -1,0 +1,128 @@
+/**
+ * The trace page's reads (issue: big inputs stay flat; house: stored analysis without the decoded
+ * messages). An 8 MB trace is stored once, compressed, without the decoded form of each message;
+ * the page reads the summary, pages of findings and windows of the timeline.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type supertest from 'supertest';
+import { createTestApp, type TestApp } from '../support/test-app.ts';
+import { writeSyntheticTrace } from '../support/synthetic-trace.ts';
+import { TraceChunk, TraceItem } from '../../server/db/trace-entities.ts';
+import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
+
+let t: TestApp;
+let dataDir: string;
+let support: ReturnType<typeof supertest.agent>;
+let bigId: number;
+let bigBytes: number;
+let demoId: number;
+
+beforeAll(async () => {
+  dataDir = mkdtempSync(join(tmpdir(), 'parley-trace-views-'));
+  t = await createTestApp({ dataDir });
+  support = await t.signInAs('support');
+  const path = join(dataDir, 'soak.jsonl');
+  bigBytes = writeSyntheticTrace(path, 8 * 1024 * 1024);
+  const big = await support.post('/api/traces').attach('file', readFileSync(path), 'soak.jsonl');
+  expect(big.status, JSON.stringify(big.body).slice(0, 300)).toBe(201);
+  bigId = big.body.trace.id;
+  const demo = await support.post('/api/traces').attach('file', readFileSync(join(demoTraceFolder, 'k65-pps-stops.trace.jsonl')), 'k65.jsonl');
+  expect(demo.status).toBe(201);
+  demoId = demo.body.trace.id;
+}, 120_000);
+
+afterAll(async () => {
+  await t.close();
+  rmSync(dataDir, { recursive: true, force: true });
+});
+
+describe('the stored analysis', () => {
+  it('of an 8 MB trace stays under 1.5× the file, with no decoded messages', async () => {
+    const res = await support.get(`/api/traces/${bigId}`);
+    expect(res.status).toBe(200);
+    const sha = res.body.trace.sha256 as string;
+    const fileBytes = statSync(join(dataDir, 'traces', `${sha}.analysis`)).size;
+    const em = t.orm.em.fork();
+    const rowBytes = [...(await em.find(TraceItem, { traceId: bigId })), ...(await em.find(TraceChunk, { traceId: bigId }))].reduce((sum, row) => sum + row.body.length, 0);
+    expect(bigBytes).toBeGreaterThan(8_000_000);
+    expect((fileBytes + rowBytes) / bigBytes).toBeLessThan(1.5);
+    const messages = res.body.analysis.timeline.messages as Record<string, unknown>[];
+    expect(messages.length).toBe(20_000);
+    expect(messages.every((m) => typeof m.hex === 'string' && !('decoded' in m))).toBe(true);
+  });
+
+  it('is sent compressed as stored, and plain to a client that does not take gzip', async () => {
+    const gz = await support.get(`/api/traces/${demoId}`).set('Accept-Encoding', 'gzip');
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    const plain = await support.get(`/api/traces/${demoId}`).set('Accept-Encoding', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(plain.body).toEqual(gz.body);
+    expect(gz.body.trace).toMatchObject({ id: demoId, status: 'done' });
+    expect(gz.body.analysis.findings.map((f: { rule: string }) => f.rule)).toContain('timing.pps-keepalive');
+    expect(gz.body.progress).toBeNull();
+  });
+});
+
+describe('the trace page reads', () => {
+  it('GET /summary: the analysis without its lists, with their lengths and the end of the trace', async () => {
+    const full = (await support.get(`/api/traces/${demoId}`)).body;
+    const res = await support.get(`/api/traces/${demoId}/summary`);
+    expect(res.status).toBe(200);
+    const a = res.body.analysis;
+    expect(a).not.toHaveProperty('findings');
+    expect(a).not.toHaveProperty('contracts');
+    expect(a.summary).toBe(full.analysis.summary);
+    expect(a.counts).toEqual(full.analysis.counts);
+    expect(a.findingsListed).toBe(full.analysis.findings.length);
+    expect(a.contractsListed).toBe(full.analysis.contracts.length);
+    expect(a.timeline.messages).toBe(full.analysis.timeline.messages.length);
+    const lastMessage = full.analysis.timeline.messages.at(-1);
+    expect(a.endUs).toBeGreaterThanOrEqual(lastMessage.t + lastMessage.durationUs);
+    expect(res.body.trace.id).toBe(demoId);
+  });
+
+  it('GET /findings and /contracts: pages in list order, filtered by severity in SQL', async () => {
+    const full = (await support.get(`/api/traces/${demoId}`)).body.analysis;
+    const page2 = await support.get(`/api/traces/${demoId}/findings?page=2&pageSize=2`);
+    expect(page2.body.total).toBe(full.findings.length);
+    expect(page2.body.items.map((f: { index: number }) => f.index)).toEqual([2, 3].filter((i) => i < full.findings.length));
+    expect(page2.body.items[0]).toEqual({ ...full.findings[2], index: 2 });
+    const errors = await support.get(`/api/traces/${demoId}/findings?severity=error&pageSize=500`);
+    expect(errors.body.total).toBe(full.findings.filter((f: { severity: string }) => f.severity === 'error').length);
+    expect(errors.body.items.every((f: { severity: string }) => f.severity === 'error')).toBe(true);
+    const contracts = await support.get(`/api/traces/${demoId}/contracts?pageSize=500`);
+    expect(contracts.body.items.map(({ index: _i, ...c }: { index: number }) => c)).toEqual(full.contracts);
+    expect((await support.get(`/api/traces/${demoId}/findings?pageSize=501`)).status).toBe(400);
+  });
+
+  it('GET /timeline: a whole-trace window is bounded; a narrow one has every reading and message in it', async () => {
+    const whole = await support.get(`/api/traces/${bigId}/timeline?points=1000&limit=500`);
+    expect(whole.status).toBe(200);
+    expect(whole.body.measurementLevel).toBeGreaterThan(0);
+    expect(whole.body.measurements.length).toBeLessThanOrEqual(2_500);
+    expect(whole.body.messages.length).toBe(500);
+    expect(whole.body.messagesOmitted).toBeGreaterThan(0);
+    expect(JSON.stringify(whole.body).length).toBeLessThan(400_000);
+
+    const full = (await support.get(`/api/traces/${bigId}`)).body.analysis.timeline;
+    const startUs = 100_000_000;
+    const endUs = 110_000_000;
+    const narrow = (await support.get(`/api/traces/${bigId}/timeline?startUs=${startUs}&endUs=${endUs}`)).body;
+    expect(narrow.measurementLevel).toBe(0);
+    expect(narrow.measurements).toEqual(full.measurements.filter((m: { t: number }) => m.t >= startUs && m.t <= endUs));
+    const expected = full.messages
+      .map((m: { t: number; durationUs: number }, index: number) => ({ ...m, index }))
+      .filter((m: { t: number; durationUs: number }) => m.t + m.durationUs >= startUs && m.t <= endUs);
+    expect(narrow.messages).toEqual(expected);
+    expect(narrow.messagesOmitted).toBe(0);
+    expect((await support.get(`/api/traces/${bigId}/timeline?startUs=5&endUs=4`)).status).toBe(400);
+  });
+
+  it('answers 404 for a trace that does not exist and 401 without a session', async () => {
+    expect((await support.get('/api/traces/999999/summary')).status).toBe(404);
+    expect((await t.request().get(`/api/traces/${demoId}/timeline`)).status).toBe(401);
+  });
+});
