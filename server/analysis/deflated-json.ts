@@ -9,7 +9,7 @@
  */
 import { createReadStream } from 'node:fs';
 import { open } from 'node:fs/promises';
-import { Readable } from 'node:stream';
+import type { Readable } from 'node:stream';
 import { constants, crc32, createInflateRaw, deflateRawSync, inflateRaw } from 'node:zlib';
 import { promisify } from 'node:util';
 
