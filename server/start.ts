@@ -1,10 +1,11 @@
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { join, resolve } from 'node:path';
 import pino from 'pino';
 import { loadEnv } from './config/env.ts';
+import { prepareDataFolder, restrictDataFiles } from './config/data-folder.ts';
 import { resolveSecret } from './config/secret.ts';
 import { openOrm, type Orm } from './db/orm.ts';
 import { accountsWithDemoPassword, seedDemo } from './db/seed.ts';
@@ -58,11 +59,13 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const env = loadEnv();
   const logger = pino({ level: options.log === false ? 'silent' : env.LOG_LEVEL });
   const dataDir = resolve(options.dataDir ?? env.PARLEY_DATA);
-  mkdirSync(dataDir, { recursive: true });
+  const { removed } = prepareDataFolder(dataDir);
+  if (removed.length > 0) logger.info(`removed ${removed.length} file(s) a stopped server left behind: ${removed.slice(0, 5).join(', ')}`);
   const production = env.NODE_ENV === 'production';
   const secret = resolveSecret({ envSecret: env.PARLEY_SECRET, dataDir, production });
 
   const orm = await openOrm({ dbName: join(dataDir, 'parley.sqlite') });
+  restrictDataFiles(dataDir);
   if (options.demo ?? env.PARLEY_DEMO) {
     if (await seedDemo(orm.em.fork(), systemClock, { dataDir })) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
   }
@@ -80,7 +83,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const smtpUrl = options.smtpUrl ?? env.SMTP_URL;
   const fake = smtpUrl ? null : await startMailFake({ orm, clock: systemClock });
   const mailer = createSmtpMailer({ url: smtpUrl ?? fake!.url, from: env.MAIL_FROM });
-  if (fake) logger.info(`SMTP_URL not set: mail goes to the built-in Outbox (${fake.url})`);
+  if (fake) logger.info(`SMTP_URL not set: mail goes to the built-in Outbox (a loopback SMTP fake with a per-start credential)`);
 
   const server = createServer();
   let port: number;

@@ -31,6 +31,21 @@ export function findNul(value: unknown, path: (string | number)[] = [], depth = 
   return null;
 }
 
+/** No request body of ours nests deeper; past it the canonical formatter and schemas would recurse that far. */
+export const MAX_BODY_DEPTH = 64;
+
+/** True when the value nests objects or arrays deeper than `limit` (iterative, so a hostile depth cannot overflow the stack). */
+export function nestsDeeperThan(value: unknown, limit: number): boolean {
+  const stack: { value: unknown; depth: number }[] = [{ value, depth: 0 }];
+  while (stack.length > 0) {
+    const { value: current, depth } = stack.pop()!;
+    if (typeof current !== 'object' || current === null) continue;
+    if (depth >= limit) return true;
+    for (const item of Array.isArray(current) ? current : Object.values(current)) stack.push({ value: item, depth: depth + 1 });
+  }
+  return false;
+}
+
 /**
  * Parses body, query and params with their zod schemas; the parsed values land in
  * `res.locals.valid` (Express 5's `req.query` is read-only). A failure is a 400 "field: message".
@@ -41,6 +56,10 @@ export function validate(schemas: Schemas): RequestHandler {
     for (const location of ['params', 'query', 'body'] as const) {
       const schema = schemas[location];
       if (!schema) continue;
+      if (location === 'body' && nestsDeeperThan(req.body, MAX_BODY_DEPTH)) {
+        next(badRequest(`body: nested deeper than ${MAX_BODY_DEPTH} levels`, 'input.invalid', [{ path: 'body', message: `nested deeper than ${MAX_BODY_DEPTH} levels` }]));
+        return;
+      }
       const nulAt = findNul(req[location]);
       if (nulAt) {
         const field = nulAt.length > 0 ? nulAt.join('.') : location;

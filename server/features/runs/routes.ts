@@ -91,7 +91,7 @@ async function runWithResults(em: EntityManager, run: ITestRun) {
 
 /** CI posts multipart (field `file` plus `project`, `build`), raw `application/xml`, or JSON. */
 function reportUpload(): RequestHandler[] {
-  const multipart = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_REPORT_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024 } }).single('file');
+  const multipart = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: MAX_REPORT_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024 } }).single('file');
   const xml = express.text({ type: ['application/xml', 'text/xml', 'application/junit+xml'], limit: MAX_REPORT_BYTES });
   return [xml, multipart];
 }

@@ -52,6 +52,8 @@ function uploadMiddleware(deps: AppDeps): RequestHandler[] {
   const store = deps.traceStore;
   const upload = multer({
     storage: hashingStorage(store),
+    // Browsers send file names as UTF-8; multer's default reads them as Latin-1.
+    defParamCharset: 'utf8',
     limits: { fileSize: MAX_TRACE_BYTES, files: 1, fields: 10, fieldSize: 8 * 1024, parts: 12 },
   }).single('file');
   const cleanup: RequestHandler = (req, res, next) => {

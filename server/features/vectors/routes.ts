@@ -61,7 +61,7 @@ async function findRevision(em: EntityManager, row: ITeamVector, n: number) {
 }
 
 function importUpload() {
-  return [multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_IMPORT_ZIP_BYTES, files: 1, fields: 5 } }).single('file')];
+  return [multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: MAX_IMPORT_ZIP_BYTES, files: 1, fields: 5 } }).single('file')];
 }
 
 interface ImportIssue {
