@@ -14,7 +14,7 @@ import { useIsDark } from '../../../lib/theme.ts';
 import { useTrace } from '../api/get-trace.ts';
 import { BenchTimeline } from '../components/bench-timeline.tsx';
 import { ExportPanel } from '../components/export-panel.tsx';
-import { MessagePanel } from '../components/message-panel.tsx';
+import { MessagePanel } from '../../../components/timeline/message-detail.tsx';
 import { ContractSummary, FindingsTable } from '../components/run-summary.tsx';
 import { ScenarioForm } from '../components/scenario-form.tsx';
 import { ScenarioJson } from '../components/scenario-json.tsx';

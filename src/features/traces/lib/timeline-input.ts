@@ -8,12 +8,14 @@ import type { ChartBand } from '../../../components/timeline/vbus-chart.tsx';
 import type { TimelineSpan } from '../../../components/timeline/trace-timeline.tsx';
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
+import type { BusEvent } from '../../../components/timeline/event-lane.tsx';
 import type { Analysis } from '../api/types.ts';
 import { contractLabel } from './format.ts';
 
 export type TimelineInput = {
   measurements: Measurement[];
   messages: LaneMessage[];
+  events: BusEvent[];
   contracts: TimelineSpan[];
   bands: ChartBand[];
   endUs: number;
@@ -34,7 +36,8 @@ export function timelineInput(analysis: Analysis): TimelineInput {
   const lastMessage = timeline.messages[timeline.messages.length - 1];
   const lastMeasurement = timeline.measurements[timeline.measurements.length - 1];
   const lastEvent = timeline.events[timeline.events.length - 1];
-  const lastFinding = Math.max(0, ...analysis.findings.map((f) => f.t ?? 0));
+  let lastFinding = 0;
+  for (const f of analysis.findings) lastFinding = Math.max(lastFinding, f.t ?? 0);
   const endUs = Math.max(1, lastMessage ? lastMessage.t + lastMessage.durationUs : 0, lastMeasurement?.t ?? 0, lastEvent?.t ?? 0, lastFinding);
   const contracts = timeline.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
   const bands = timeline.contracts.flatMap((c) => {
@@ -49,6 +52,7 @@ export function timelineInput(analysis: Analysis): TimelineInput {
   return {
     measurements: timeline.measurements,
     messages: timeline.messages,
+    events: timeline.events,
     contracts,
     bands,
     endUs,

@@ -21,11 +21,41 @@ import { FindingsTable } from '../components/findings-table.tsx';
 import { ShareDialog } from '../components/share-dialog.tsx';
 import { FindingCounts } from '../components/traces-table.tsx';
 import { timelineInput } from '../lib/timeline-input.ts';
+import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { formatBytes } from '../lib/format.ts';
 import { mayWriteTraces } from '../lib/roles.ts';
 
 // recharts is large: the timeline arrives in its own chunk.
 const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
+
+function windowFromParams(params: URLSearchParams): TimeWindow | null {
+  const from = Number(params.get('from'));
+  const to = Number(params.get('to'));
+  return params.has('from') && params.has('to') && Number.isFinite(from) && Number.isFinite(to) && to > from && from >= 0 ? { startUs: from, endUs: to } : null;
+}
+
+/** Writes the window into the URL a moment after it settles (a brush drag is many windows). */
+function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1]) {
+  const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  useEffect(() => () => clearTimeout(timer.current), []);
+  return useCallback(
+    (next: TimeWindow) => {
+      clearTimeout(timer.current);
+      timer.current = setTimeout(() => {
+        setParams(
+          (current) => {
+            const params = new URLSearchParams(current);
+            params.set('from', String(Math.round(next.startUs)));
+            params.set('to', String(Math.round(next.endUs)));
+            return params;
+          },
+          { replace: true, preventScrollReset: true },
+        );
+      }, 300);
+    },
+    [setParams],
+  );
+}
 
 export function TraceRoute() {
   const { traceId = '' } = useParams();
@@ -69,6 +99,9 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
   const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
   const canWrite = mayWriteTraces(user.role);
   const input = useMemo(() => (analysis ? timelineInput(analysis) : null), [analysis]);
+  // The zoom is in the URL (?from=&to=, µs), so a copied link opens the same moment.
+  const [initialWindow] = useState(() => windowFromParams(params));
+  const saveWindow = useDebouncedWindow(setParams);
 
   const show = useCallback(
     (index: number) => {
@@ -128,7 +161,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
 
   return (
     <>
-      <PageHeader eyebrow="Trace" title={item.title} description={meta.join(' · ')} actions={actions} />
+      <PageHeader eyebrow="Trace" title={item.title} documentTitle={`Trace ${item.id} — ${item.title}`} description={meta.join(' · ')} actions={actions} />
       <div className="space-y-6">
         {(item.status === 'queued' || item.status === 'analysing') && <AnalysisProgress item={item} />}
         {item.status === 'failed' && <ErrorMessage title="The analysis failed">{item.error?.message}</ErrorMessage>}
@@ -165,6 +198,9 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
                   measurements={input.measurements}
                   messages={input.messages}
                   findings={analysis.findings}
+                  events={input.events}
+                  initialWindow={initialWindow}
+                  onWindowChange={saveWindow}
                   contracts={input.contracts}
                   bands={input.bands}
                   endUs={input.endUs}
