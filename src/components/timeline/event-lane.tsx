@@ -7,6 +7,16 @@ import { EVENT_COLOURS, type ChartEvent } from './vbus-chart.tsx';
 /** A bus event as a trace or a run records it. */
 export type BusEvent = { t: number; event: string; from?: string; text?: string; rp?: string };
 
+/** The events and notes among trace records (a simulated run's or a capture's). */
+export function busEventsOf(records: readonly object[]): BusEvent[] {
+  const out: BusEvent[] = [];
+  for (const record of records as readonly { t: number; event?: string; from?: string; note?: string; rp?: string }[]) {
+    if (record.event) out.push({ t: record.t, event: record.event, ...(record.from ? { from: record.from } : {}), ...(record.rp ? { rp: record.rp } : {}) });
+    else if (record.note !== undefined) out.push({ t: record.t, event: 'note', text: record.note });
+  }
+  return out;
+}
+
 const EVENT_LABELS: Record<string, string> = {
   hard_reset: 'Hard Reset',
   cable_reset: 'Cable Reset',
@@ -18,8 +28,9 @@ const EVENT_LABELS: Record<string, string> = {
 export function chartEventsOf(events: readonly BusEvent[]): ChartEvent[] {
   return events
     .map((e): ChartEvent => {
+      // The simulator notes each injected fault as "fault: …".
+      if (e.event === 'note' && e.text?.startsWith('fault: ')) return { tUs: e.t, label: `Fault: ${e.text.slice(7)}`, tone: 'fault' };
       if (e.event === 'note') return { tUs: e.t, label: e.text ? `Note: ${e.text}` : 'Note', tone: 'note' };
-      if (e.event === 'fault') return { tUs: e.t, label: e.text ? `Fault: ${e.text}` : 'Fault injected', tone: 'fault' };
       const base = EVENT_LABELS[e.event] ?? e.event;
       const label = `${base}${e.from ? ` (${e.from})` : ''}${e.rp ? `, Rp ${e.rp}` : ''}`;
       return { tUs: e.t, label, tone: e.event === 'hard_reset' || e.event === 'cable_reset' ? 'reset' : 'attach' };

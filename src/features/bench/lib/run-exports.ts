@@ -49,14 +49,14 @@ export function vectorIdOf(name: string): string {
   return `negotiation/bench/${slug || 'scenario'}`;
 }
 
-export function vectorFromRun(scenario: ScenarioInput, outcome: RunOutcome, meta: { id: string; title: string }): string {
+export function vectorFromRun(scenario: ScenarioInput, outcome: RunOutcome, meta: { id: string; title: string; tags?: readonly string[] }): string {
   const errors = [...new Set(outcome.findings.filter((finding) => finding.severity === 'error').map((finding) => finding.rule))];
   const first = outcome.contracts[0];
   const vector = {
     vector: 1,
     id: meta.id,
     title: meta.title,
-    tags: ['bench'],
+    tags: [...new Set(['bench', ...(meta.tags ?? [])])],
     ref: 'from memory: recorded from a Parley Bench run; check each expectation against the USB PD specification before relying on it',
     kind: 'negotiation',
     input: { scenario },

@@ -1,3 +1,1 @@
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-
-export const vectorKeys = createQueryKeys('vectors');
+export { vectorKeys } from '../../../lib/api/create-vector.ts';

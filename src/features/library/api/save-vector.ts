@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
+import { createVector } from '../../../lib/api/create-vector.ts';
 import { vectorKeys } from './keys.ts';
 import { vectorPath, type StoredVector } from './types.ts';
 
@@ -13,7 +14,7 @@ export type SaveVectorInput = {
 
 export function saveVector(input: SaveVectorInput): Promise<StoredVector> {
   const body = { ...input.file, deviceId: input.deviceId, message: input.message };
-  if (input.revision === undefined) return api.post<StoredVector>('/vectors', body);
+  if (input.revision === undefined) return createVector(input.file, input) as Promise<StoredVector>;
   return api.put<StoredVector>(vectorPath(String(input.file.id)), { ...body, revision: input.revision });
 }
 

@@ -115,6 +115,7 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
       <PageHeader
         eyebrow="Library"
         title={isNew ? 'New vector' : id}
+        documentTitle={isNew ? 'New vector' : `Vector ${id}${typeof stored?.title === 'string' ? ` — ${stored.title}` : ''}`}
         description={
           stored && !isNew ? (
             <>
