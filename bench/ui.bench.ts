@@ -101,7 +101,7 @@ function steadyTrace(path: string, bytes: number): void {
   };
   while (size < bytes) {
     const end = negotiation(w, t, fixed, ids);
-    for (let r = t + 50_000; r < t + 2_000_000; r += 10_000) w.line(`{"t":${r},"vbus":{"mv":${9_000 + ((r / 10_000) % 7) - 3},"ma":${1_950 + ((r / 10_000) % 11)}}}`);
+    for (let r = t + 50_000; r < t + 2_000_000; r += 10_000) w.line(`{"t":${r},"vbus":{"mv":${9_000 + (Math.floor(r / 10_000) % 7) - 3},"ma":${1_950 + (Math.floor(r / 10_000) % 11)}}}`);
     t = Math.max(end, t + 2_000_000);
   }
   w.close();
@@ -195,7 +195,11 @@ async function main(): Promise<void> {
       if (!response.ok()) throw new Error(`upload of ${file.name}: ${response.status()} ${await response.text()}`);
       const id = ((await response.json()) as { trace: { id: number } }).trace.id;
       for (;;) {
-        const detail = (await (await page.request.get(`${server.url}/api/traces/${id}`)).json()) as { trace: { status: string; counts: Record<string, number>; messages: number } };
+        // A busy server may drop a poll; the next one asks again.
+        const detail = (await page.request
+          .get(`${server.url}/api/traces/${id}`, { timeout: 60_000 })
+          .then((r) => r.json())
+          .catch(() => ({ trace: { status: 'unknown' } }))) as { trace: { status: string } };
         if (detail.trace.status === 'done') break;
         if (detail.trace.status === 'failed') throw new Error(`analysis of ${file.name} failed`);
         await new Promise((resolve) => setTimeout(resolve, 500));

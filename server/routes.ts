@@ -12,6 +12,7 @@ import { outboxRoutes } from './features/outbox/routes.ts';
 import { auditRoutes } from './features/audit/routes.ts';
 import { devicesRoutes } from './features/devices/routes.ts';
 import { tracesRoutes } from './features/traces/routes.ts';
+import { shareLinkRoutes } from './features/traces/share-links.ts';
 import { vectorsRoutes } from './features/vectors/routes.ts';
 import { runsRoutes } from './features/runs/routes.ts';
 import { tokensRoutes } from './features/tokens/routes.ts';
@@ -25,6 +26,7 @@ export const routeTable: RouteDef[] = [
   ...auditRoutes,
   ...devicesRoutes,
   ...tracesRoutes,
+  ...shareLinkRoutes,
   ...vectorsRoutes,
   ...runsRoutes,
   ...tokensRoutes,

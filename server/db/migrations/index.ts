@@ -1,10 +1,12 @@
 import { Migration20250601000000Initial } from './Migration20250601000000Initial.ts';
 import { Migration20261201183000Traces } from './Migration20261201183000Traces.ts';
 import { Migration20261201200000Library } from './Migration20261201200000Library.ts';
+import { Migration20261204170000ReportShareLinks } from './Migration20261204170000ReportShareLinks.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
   { name: 'Migration20250601000000Initial', class: Migration20250601000000Initial },
   { name: 'Migration20261201183000Traces', class: Migration20261201183000Traces },
   { name: 'Migration20261201200000Library', class: Migration20261201200000Library },
+  { name: 'Migration20261204170000ReportShareLinks', class: Migration20261204170000ReportShareLinks },
 ];

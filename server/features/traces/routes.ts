@@ -19,6 +19,7 @@ import { streamJobEvents } from '../../jobs/sse.ts';
 import { createQueuedTrace } from './new-trace.ts';
 import { presentComment, presentTrace, type DeviceRef } from './present.ts';
 import { buildReport, diagnosisMail } from './report.ts';
+import { createShareLink, shareLinkDays, shareUrl } from './share-links.ts';
 import { sniffTrace } from './sniff.ts';
 import { hashingStorage, type ReceivedTrace } from './store.ts';
 import { traceVectorText, vectorIdOf } from './vector.ts';
@@ -64,6 +65,8 @@ const commentBody = z.object({ text: z.string().trim().min(1, 'write a comment f
 const shareBody = z.object({
   to: z.email('must be an e-mail address').max(254),
   message: text(2000).optional(),
+  /** Days a read-only report link in the mail stays valid (share-links.ts); none without it. */
+  linkDays: shareLinkDays.optional(),
 });
 
 const sortColumn: Record<(typeof sortKeys)[number], keyof ITrace> = { createdAt: 'createdAt', title: 'title', sizeBytes: 'sizeBytes', errors: 'errorCount' };
@@ -362,7 +365,9 @@ export const tracesRoutes: RouteDef[] = [
       const trace = await findTrace(em, params.id, true);
       const analysis = analysedOrConflict(trace);
       const report = buildReport(presentTrace(trace, await deviceMap(em)), analysis, `${deps.publicUrl}/traces/${trace.id}`);
-      const mail = diagnosisMail({ to: body.to, senderName: me.name, note: body.message, report });
+      const link = body.linkDays === undefined ? null : await createShareLink(em, deps, me, trace, body.linkDays);
+      const shared = link ? { url: shareUrl(deps, link), expiresAt: link.expiresAt } : undefined;
+      const mail = diagnosisMail({ to: body.to, senderName: me.name, note: body.message, report, ...(shared ? { shared } : {}) });
       try {
         await deps.mailer.send(mail);
       } catch (error) {
@@ -371,7 +376,7 @@ export const tracesRoutes: RouteDef[] = [
       }
       recordAudit(em, deps.clock, { actor: me, action: 'trace.shared', target: `trace:${trace.id}`, details: { to: body.to } });
       await em.flush();
-      return { sent: true, to: body.to, subject: mail.subject };
+      return { sent: true, to: body.to, subject: mail.subject, ...(shared ? { link: shared.url } : {}) };
     },
   }),
   route({
