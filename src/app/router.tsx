@@ -4,6 +4,15 @@ import { paths } from '../config/paths.ts';
 import { redirectIfSignedIn, requireRole, requireSession } from './guards.ts';
 import { RouteError } from './routes/route-error.tsx';
 
+/** Shown while a route's code and first data arrive (the router's hydrate fallback). */
+function PageLoading() {
+  return (
+    <p className="p-8 text-xs text-slate-500" role="status">
+      Loading…
+    </p>
+  );
+}
+
 /**
  * Every page is a lazy route, so each arrives in its own chunk.
  * To add a page: a route module under src/features/<name>/routes/, one entry below, one line in nav.ts.
@@ -16,6 +25,7 @@ export function createAppRouter(queryClient: QueryClient) {
       loader: requireSession(queryClient),
       lazy: async () => ({ Component: (await import('./routes/app-layout.tsx')).AppLayout }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
       children: [
         {
           // Errors inside a page keep the shell (top bar and nav) around the message.
@@ -113,11 +123,20 @@ export function createAppRouter(queryClient: QueryClient) {
       loader: requireSession(queryClient),
       lazy: async () => ({ Component: (await import('../features/traces/routes/trace-report.tsx')).TraceReportRoute }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
+    },
+    {
+      // A report opened by its read-only link: no session, no shell.
+      path: paths.traces.shared.path,
+      lazy: async () => ({ Component: (await import('../features/traces/routes/shared-report.tsx')).SharedReportRoute }),
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
     },
     {
       id: 'public',
       lazy: async () => ({ Component: (await import('./routes/auth-layout.tsx')).AuthLayout }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
       children: [
         {
           path: paths.auth.signIn.path,
@@ -144,4 +163,4 @@ export function createAppRouter(queryClient: QueryClient) {
 export type AppRouter = ReturnType<typeof createAppRouter>;
 
 /** Routes a signed-out visitor may see; a 401 there is not a reason to redirect. */
-export const publicPathPrefixes = ['/sign-in', '/forgot-password', '/reset/', '/invite/'] as const;
+export const publicPathPrefixes = ['/sign-in', '/forgot-password', '/reset/', '/invite/', '/shared/'] as const;

@@ -68,6 +68,10 @@ export const paths = {
       getHref: (traceId: string | number, finding?: number) =>
         `/traces/${encodeURIComponent(String(traceId))}${finding === undefined ? '' : `?finding=${finding}`}`,
     },
+    shared: {
+      path: '/shared/reports/:token',
+      getHref: (token: string) => `/shared/reports/${encodeURIComponent(token)}`,
+    },
     report: {
       path: '/traces/:traceId/report',
       getHref: (traceId: string | number) => `/traces/${encodeURIComponent(String(traceId))}/report`,
