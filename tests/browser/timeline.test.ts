@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.ts';
+import { launchBrowser, requireChromium, screenshot, signIn, useBrowserSuite, watchPage } from './support.ts';
 
 const hasChromium = requireChromium();
 
@@ -102,4 +102,53 @@ describe.skipIf(!hasChromium)('the trace timeline', () => {
     await screenshot(page, 'timeline-message-list');
     watch.assertClean();
   }, 90_000);
+
+  it('opens a report by its read-only link in a fresh browser without signing in', async () => {
+    const { page, watch } = await suite.newPage({ width: 1440, height: 900 });
+    await openPpsTrace(page, suite.url);
+    await page.getByRole('button', { name: 'Share diagnosis' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Share diagnosis' });
+    await dialog.getByLabel('Valid for').selectOption('7');
+    await dialog.getByRole('button', { name: 'Make a link' }).click();
+    const field = dialog.getByRole('list', { name: 'Active report links' }).getByRole('textbox').first();
+    await field.waitFor();
+    const link = await field.inputValue();
+    expect(link).toMatch(/\/shared\/reports\/\d+\.\d+\.[A-Za-z0-9_-]+$/);
+    await screenshot(page, 'share-link-dialog');
+    watch.assertClean();
+
+    // A customer's browser: a fresh profile, no cookies, no account.
+    const fresh = await launchBrowser();
+    try {
+      const customer = await fresh.context.newPage();
+      await customer.setViewportSize({ width: 1200, height: 900 });
+      const customerWatch = watchPage(customer);
+      await customer.goto(link);
+      await customer.getByTestId('trace-report').waitFor();
+      expect(new URL(customer.url()).pathname).toMatch(/^\/shared\/reports\//);
+      expect(await customer.title()).toBe('Report — K65 drops a programmable contract · Parley');
+      expect(await customer.getByTestId('report-summary').textContent()).toMatch(/Hard Reset at 21\.1 s/);
+      const report = customer.getByTestId('trace-report');
+      expect(await report.textContent()).toContain('protocol.hard-reset');
+      expect(await report.textContent()).not.toContain('Comments');
+      await customer.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
+      expect(await customer.getByRole('table', { name: /^Messages around protocol.hard-reset at 21.1 s/ }).count()).toBe(1);
+      await screenshot(customer, 'shared-report');
+      await customer.emulateMedia({ media: 'print' });
+      await screenshot(customer, 'shared-report-print');
+      customerWatch.assertClean();
+
+      // Withdrawn, the same link says so.
+      await dialog.getByRole('button', { name: /^Withdraw the link until/ }).first().click();
+      await expect.poll(() => dialog.getByRole('list', { name: 'Active report links' }).count()).toBe(0);
+      const again = await fresh.context.newPage();
+      const againWatch = watchPage(again);
+      await again.goto(link);
+      await again.getByRole('heading', { name: 'This report is not available' }).waitFor();
+      expect(await again.getByRole('alert').textContent()).toContain('expired or been withdrawn');
+      againWatch.assertClean({ allow: [/status of 404/] });
+    } finally {
+      await fresh.close();
+    }
+  }, 120_000);
 });

@@ -104,7 +104,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await dialog.getByLabel('E-mail address').fill('firmware@kestrel.example');
     await dialog.getByLabel('Note (optional)').fill('Request comes 38 ms after the offer; please check the sink timer.');
     await dialog.getByRole('button', { name: 'Send' }).click();
-    await expect.poll(() => dialog.getByRole('status').textContent()).toBe('Sent to firmware@kestrel.example.');
+    await expect.poll(() => dialog.getByRole('status').textContent()).toBe('Sent to firmware@kestrel.example. The mail carries a read-only report link.');
     await screenshot(page, 'trace-shared');
     await dialog.getByRole('button', { name: 'Close' }).click();
 

@@ -172,6 +172,8 @@ export const vectorsRoutes: RouteDef[] = [
       const checked = checkVectorFile(body);
       await checkDevice(em, body.deviceId);
       const row = await createVector(em, deps.clock, me, { checked, deviceId: body.deviceId ?? null, message: body.message || 'Created' });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.created', target: `vector:${row.vectorId}`, details: { revision: row.revision } });
+      await em.flush();
       res.status(201);
       return presentVector(row, await deviceRefs(em));
     },
@@ -198,6 +200,8 @@ export const vectorsRoutes: RouteDef[] = [
       const checked = checkVectorFile(body);
       await checkDevice(em, body.deviceId);
       const saved = await reviseVector(em, deps.clock, me, row, { checked, deviceId: body.deviceId, message: body.message || `Revision ${body.revision + 1}`, baseRevision: body.revision });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.updated', target: `vector:${saved.vectorId}`, details: { revision: saved.revision } });
+      await em.flush();
       return presentVector(saved, await deviceRefs(em));
     },
   }),
@@ -271,6 +275,8 @@ export const vectorsRoutes: RouteDef[] = [
       const old = await findRevision(em, row, body.revision);
       const checked = checkVectorFile(JSON.parse(old.text), `revision ${body.revision}`);
       const saved = await reviseVector(em, deps.clock, me, row, { checked, message: body.message || `Restored revision ${body.revision}`, baseRevision: row.revision });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.restored', target: `vector:${saved.vectorId}`, details: { from: body.revision, revision: saved.revision } });
+      await em.flush();
       return presentVector(saved, await deviceRefs(em));
     },
   }),
