@@ -13,6 +13,7 @@ import { auditRoutes } from './features/audit/routes.ts';
 import { devicesRoutes } from './features/devices/routes.ts';
 import { tracesRoutes } from './features/traces/routes.ts';
 import { shareLinkRoutes } from './features/traces/share-links.ts';
+import { importMappingRoutes } from './features/import-mappings/routes.ts';
 import { vectorsRoutes } from './features/vectors/routes.ts';
 import { runsRoutes } from './features/runs/routes.ts';
 import { tokensRoutes } from './features/tokens/routes.ts';
@@ -27,6 +28,7 @@ export const routeTable: RouteDef[] = [
   ...devicesRoutes,
   ...tracesRoutes,
   ...shareLinkRoutes,
+  ...importMappingRoutes,
   ...vectorsRoutes,
   ...runsRoutes,
   ...tokensRoutes,

@@ -74,7 +74,15 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
   }, [messages, window.startUs, window.endUs, foldGoodCrc]);
   const [lane, widthPx] = useElementWidth<HTMLDivElement>();
   // Messages closer than a few pixels fold into a burst (drawn once, with its count).
-  const clusters = useMemo(() => (widthPx > 0 ? clusterInWindow(messages, visible, (m) => m.t, window, widthPx, BURST_GAP_PX) : []), [messages, visible, window, widthPx]);
+  // GoodCRCs fold among themselves (drawn first, under the messages they answer), so a message is
+  // never folded into a burst with its own acknowledgement.
+  const clusters = useMemo(() => {
+    if (widthPx <= 0) return [];
+    const isGoodCrc = (index: number) => messages[index]!.messageType === 'GoodCRC';
+    const acks = clusterInWindow(messages, visible.filter(isGoodCrc), (m) => m.t, window, widthPx, BURST_GAP_PX);
+    const others = clusterInWindow(messages, visible.filter((index) => !isGoodCrc(index)), (m) => m.t, window, widthPx, BURST_GAP_PX);
+    return [...acks, ...others];
+  }, [messages, visible, window, widthPx]);
   const bursts = useMemo(() => {
     const map = new Map<number, Cluster>();
     for (const c of clusters) if (c.count > 1) map.set(c.first, c);
@@ -86,7 +94,8 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
   const labels = useMemo(() => {
     const placed = new Map<number, { row: number; leftSide: boolean }>();
     const freeFromPx = [-Infinity, -Infinity, -Infinity];
-    for (const cluster of clusters) {
+    const byTime = [...clusters].sort((a, b) => a.startUs - b.startUs || Number(messages[a.first]!.messageType !== 'GoodCRC') - Number(messages[b.first]!.messageType !== 'GoodCRC'));
+    for (const cluster of byTime) {
       const m = messages[cluster.first]!;
       const text = cluster.count > 1 ? `${m.messageType} +${cluster.count - 1}` : m.messageType;
       const width = labelWidthPx(text);
