@@ -195,5 +195,5 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     await other.close();
     otherWatch.assertClean();
     watch.assertClean();
-  });
+  }, 90_000);
 });
