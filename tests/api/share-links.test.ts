@@ -51,6 +51,7 @@ describe('report share links', () => {
     expect(opened.body.report.findings.map((f: { rule: string }) => f.rule)).toContain('protocol.hard-reset');
     // Nothing internal: no link into the product, no file hash, no uploader's notes beyond the report's own.
     expect(opened.body.report.trace.link).toBeNull();
+    expect(opened.body.report.trace.device).toBeNull();
     expect(opened.body.report.trace.sha256).toBeUndefined();
     expect(opened.body.timeline.messages.length).toBeGreaterThan(10);
     expect(opened.body.timeline.messages[0]).not.toHaveProperty('decoded');

@@ -145,7 +145,7 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     await expect.poll(() => page.getByRole('tabpanel').textContent()).toContain('timing.sender-response');
     expect(await page.getByRole('tabpanel').textContent()).toContain('Request comes 38 ms after the offer');
     await screenshot(page, 'traces-outbox');
-  }, 120_000);
+  }, 240_000);
 
   it('brings the upload panel into view from the page header, with the file chooser focused', async () => {
     const { page: current, watch } = await suite.newPage({ width: 1280, height: 800 });

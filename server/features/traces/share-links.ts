@@ -7,7 +7,7 @@
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
-import type { IUser } from '../../db/entities.ts';
+import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, type ITrace } from '../../db/trace-entities.ts';
 import type { AppDeps } from '../../context.ts';
 import { conflict, forbidden, notFound } from '../../errors.ts';
@@ -85,9 +85,10 @@ async function linkOfToken(em: EntityManager, deps: AppDeps, token: string): Pro
 }
 
 /** What the shared report shows: the report (no uploader comments), the timeline for its chart and message list. */
-function sharedReport(trace: ITrace, link: IReportShareLink) {
+async function sharedReport(em: EntityManager, trace: ITrace, link: IReportShareLink) {
   const analysis = trace.analysis!;
-  const presented = presentTrace(trace, new Map());
+  const device = trace.deviceId ? await em.findOne(DeviceUnderTest, { id: trace.deviceId }, { fields: ['id', 'name'] }) : null;
+  const presented = presentTrace(trace, new Map(device ? [[device.id, { id: device.id, name: device.name }]] : []));
   const report = buildReport(presented, analysis, '');
   const { timeline } = analysis;
   return {
@@ -159,7 +160,7 @@ export const shareLinkRoutes: RouteDef[] = [
       const trace = await analysedTrace(em, link.traceId);
       res.setHeader('Cache-Control', 'private, no-store');
       res.setHeader('X-Robots-Tag', 'noindex');
-      return sharedReport(trace, link);
+      return sharedReport(em, trace, link);
     },
   }),
 ];
