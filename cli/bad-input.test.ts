@@ -33,6 +33,10 @@ beforeAll(() => {
   const long = JSON.parse(readFileSync(join(repoRoot, 'vectors/caps/structure/order-fixed.vector.json'), 'utf8')) as { id: string };
   writeFileSync(f('vectors/long-id.vector.json'), JSON.stringify({ ...long, id: `caps/${'a'.repeat(60)}` }));
   writeFileSync(f('empty.txt'), '');
+  // A 9 V negotiation (Kestrel Devices K27), one with an unknown key, and one too short to attach.
+  writeFileSync(f('scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }, durationMs: 2_000 }));
+  writeFileSync(f('bad-scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c'] } }, gremlins: 3 }));
+  writeFileSync(f('short-scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c'] } }, durationMs: 1 }));
   writeFileSync(f('random.bin'), randomBytes(64 * 1024));
   writeFileSync(f('long-line.txt'), 'a'.repeat(5 * 1024 * 1024));
   // 0xc3 0x28 and a lone 0xff: not UTF-8.
@@ -74,7 +78,7 @@ function expectWellFormed(name: string, argv: string[], r: { code: number | 'han
       expect(typeof doc.error.code, label).toBe('string');
       expect(typeof doc.error.message, label).toBe('string');
       // Anything but a CliError is a crash that main.ts caught.
-      expect(doc.error.code, `${label}: ${String(doc.error.message)}`).not.toBe('internal');
+      expect(doc.error.code, `${label}: ${String(doc.error.message)}`).not.toBe('cli.internal');
     } else {
       expect(r.stdout, `${label}: stdout on error`).toBe('');
     }
@@ -170,6 +174,35 @@ const specific: Record<string, Case[]> = {
     { argv: ['empty.txt', '--sample-every-us', 'x'] },
     { argv: ['empty.txt', '--trace'] },
     { argv: ['a', 'b'] },
+  ],
+  sweep: [
+    { argv: ['-'] },
+    { argv: ['a', 'b'] },
+    { argv: ['scenario.json', '--faults'] },
+    { argv: ['scenario.json', '--faults', ''] },
+    { argv: ['scenario.json', '--faults', 'drop,explode'] },
+    { argv: ['scenario.json', '--faults', ','.repeat(5_000)] },
+    { argv: ['scenario.json', '--timers', 'sometimes'] },
+    { argv: ['scenario.json', '--max', '0'] },
+    { argv: ['scenario.json', '--max', '-5'] },
+    { argv: ['scenario.json', '--max', '1e400'] },
+    { argv: ['scenario.json', '--max', '99999999999999999999'] },
+    { argv: ['scenario.json', '--max'] },
+    { argv: ['scenario.json', '--seed', 'x'] },
+    { argv: ['scenario.json', '--shard', '0/2'] },
+    { argv: ['scenario.json', '--shard', '3/2'] },
+    { argv: ['scenario.json', '--shard', '1/0'] },
+    { argv: ['scenario.json', '--shard', 'half'] },
+    { argv: ['scenario.json', '--shard', '1/2/3'] },
+    { argv: ['scenario.json', '--shard'] },
+    { argv: ['scenario.json', '--workers', '0'] },
+    { argv: ['scenario.json', '--workers', '100000'] },
+    { argv: ['scenario.json', '--junit'] },
+    { argv: ['scenario.json', '--junit', 'folder', '--max', '2'] },
+    { argv: ['scenario.json', '--out', 'empty.txt', '--faults', 'drop', '--max', '2'], allowed: [0, 2] },
+    { argv: ['bad-scenario.json'] },
+    { argv: ['short-scenario.json'] },
+    { argv: ['scenario.json', '--max', '3'], allowed: [0] },
   ],
   analyze: [
     { argv: ['empty.txt', '--format', 'nonsense'] },

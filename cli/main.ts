@@ -17,6 +17,7 @@ export const commands: Record<string, { summary: string; load: () => Promise<Com
   request: { summary: 'the Request a sink policy sends: request --caps <hex> --sink <json|file> [--cable 3000|5000]', load: () => import('./commands/request.ts') },
   simulate: { summary: 'run a negotiation scenario: simulate <scenario.json|-> [--trace <out.trace.jsonl>] [--samples] [--json]', load: () => import('./commands/simulate.ts') },
   analyze: { summary: 'decode and check a trace: analyze <file> [--format auto|jsonl|text|vcd] [--fail-on error|warning] [--json]', load: () => import('./commands/analyze.ts') },
+  sweep: { summary: 'fault campaign over a scenario: sweep <scenario.json|-> [--faults drop,corrupt,delay] [--pairs] [--timers edges] [--max N] [--shard i/n] [--junit <file>] [--out <dir>]', load: () => import('./commands/sweep.ts') },
   run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
   schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
 };
@@ -66,7 +67,7 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     const cliError =
       error instanceof CliError
         ? error
-        : new CliError('internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
+        : new CliError('cli.internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
     const { code, where } = cliError;
     const message = oneLine(cliError.message);
     io.stderr(`parley ${name}: ${message}\n`);

@@ -133,7 +133,7 @@ export function createApp(options: AppOptions): Express {
 
   app.use(buildApiRouter(options.routes ?? routeTable, deps));
   app.use('/api', (req) => {
-    throw notFound(`No API route ${req.method} ${req.originalUrl.split('?')[0]}`, 'no_route');
+    throw notFound(`No API route ${req.method} ${req.originalUrl.split('?')[0]}`, 'route.not-found');
   });
 
   const distDir = options.distDir;

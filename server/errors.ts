@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { Logger } from 'pino';
+import type { ApiErrorBody, ApiErrorCode } from '../shared/api/index.ts';
 
 /**
  * An error meant for the caller: an HTTP status, a stable machine code and one plain sentence.
@@ -12,7 +13,7 @@ export class HttpError extends Error {
 
   constructor(
     readonly status: number,
-    readonly code: string,
+    readonly code: ApiErrorCode,
     message: string,
     readonly details?: unknown,
   ) {
@@ -21,18 +22,16 @@ export class HttpError extends Error {
   }
 }
 
-export interface ErrorBody {
-  error: { code: string; message: string; details?: unknown };
-}
+export type ErrorBody = ApiErrorBody;
 
-export const badRequest = (message: string, code = 'bad_request', details?: unknown) => new HttpError(400, code, message, details);
-export const unauthorized = (message = 'Sign in to continue', code = 'unauthorized') => new HttpError(401, code, message);
-export const forbidden = (message = 'Your role does not allow this', code = 'forbidden') => new HttpError(403, code, message);
-export const notFound = (message = 'Not found', code = 'not_found') => new HttpError(404, code, message);
-export const conflict = (message: string, code = 'conflict', details?: unknown) => new HttpError(409, code, message, details);
-export const tooLarge = (message = 'The request is too large', code = 'too_large') => new HttpError(413, code, message);
-export const rateLimited = (message = 'Too many attempts; try again later', code = 'rate_limited') => new HttpError(429, code, message);
-export const badGateway = (message: string, code = 'upstream_failed') => new HttpError(502, code, message);
+export const badRequest = (message: string, code: ApiErrorCode = 'request.invalid', details?: unknown) => new HttpError(400, code, message, details);
+export const unauthorized = (message = 'Sign in to continue', code: ApiErrorCode = 'auth.required') => new HttpError(401, code, message);
+export const forbidden = (message = 'Your role does not allow this', code: ApiErrorCode = 'role.forbidden') => new HttpError(403, code, message);
+export const notFound = (message = 'Not found', code: ApiErrorCode = 'resource.not-found') => new HttpError(404, code, message);
+export const conflict = (message: string, code: ApiErrorCode = 'resource.conflict', details?: unknown) => new HttpError(409, code, message, details);
+export const tooLarge = (message = 'The request is too large', code: ApiErrorCode = 'request.too-large') => new HttpError(413, code, message);
+export const rateLimited = (message = 'Too many attempts; try again later', code: ApiErrorCode = 'request.rate-limited') => new HttpError(429, code, message);
+export const badGateway = (message: string, code: ApiErrorCode = 'upstream.failed') => new HttpError(502, code, message);
 
 /** "field: message" for each issue; the location (body, query, params) stands in for an empty path. */
 export function zodMessage(error: ZodError, location = 'body'): string {
@@ -43,7 +42,7 @@ export function zodMessage(error: ZodError, location = 'body'): string {
 
 export function fromZod(error: ZodError, location = 'body'): HttpError {
   const details = error.issues.map((issue) => ({ path: issue.path.join('.') || location, message: issue.message }));
-  return badRequest(zodMessage(error, location), 'invalid_input', details);
+  return badRequest(zodMessage(error, location), 'input.invalid', details);
 }
 
 interface StatusLike {
@@ -64,21 +63,21 @@ const multipartParseErrors = /^(Multipart: Boundary not found|Malformed content 
 /** Maps errors thrown by body-parser, multer and friends, which carry a status or a code but no message for people. */
 function fromLibrary(err: StatusLike): HttpError | null {
   if (err instanceof Error && err.constructor === Error && multipartParseErrors.test(err.message)) {
-    return badRequest('body: the multipart form is malformed or cut off; send it again with its boundary and every part complete', 'invalid_upload');
+    return badRequest('body: the multipart form is malformed or cut off; send it again with its boundary and every part complete', 'upload.invalid');
   }
-  if (err.type === 'entity.parse.failed') return badRequest('body: malformed JSON', 'malformed_json');
+  if (err.type === 'entity.parse.failed') return badRequest('body: malformed JSON', 'input.malformed-json');
   if (err.type === 'entity.too.large') return tooLarge('body: the request body is larger than the server accepts');
   if (err.type === 'encoding.unsupported' || err.type === 'charset.unsupported') {
-    return new HttpError(415, 'unsupported_encoding', 'body: unsupported content encoding or charset');
+    return new HttpError(415, 'request.unsupported-encoding', 'body: unsupported content encoding or charset');
   }
   if (err.name === 'MulterError') {
     const field = typeof err.field === 'string' ? err.field : 'file';
     if (err.code === 'LIMIT_FILE_SIZE') return tooLarge(`${field}: the file is larger than the server accepts`);
-    return badRequest(`${field}: the upload was not accepted (${String(err.code)})`, 'invalid_upload');
+    return badRequest(`${field}: the upload was not accepted (${String(err.code)})`, 'upload.invalid');
   }
   const status = typeof err.status === 'number' ? err.status : typeof err.statusCode === 'number' ? err.statusCode : 0;
   if (status === 404) return notFound();
-  if (status >= 400 && status < 500) return new HttpError(status, 'bad_request', 'The request could not be understood');
+  if (status >= 400 && status < 500) return new HttpError(status, 'request.invalid', 'The request could not be understood');
   return null;
 }
 
@@ -87,7 +86,7 @@ function copiedHttpError(err: object): HttpError | null {
   const copy = err as { forCaller?: unknown; status?: unknown; code?: unknown; message?: unknown; details?: unknown };
   if (copy.forCaller !== true || typeof copy.status !== 'number' || copy.status < 400 || copy.status >= 500) return null;
   if (typeof copy.code !== 'string' || typeof copy.message !== 'string') return null;
-  return new HttpError(copy.status, copy.code, copy.message, copy.details);
+  return new HttpError(copy.status, copy.code as ApiErrorCode, copy.message, copy.details);
 }
 
 export function toHttpError(err: unknown): HttpError | null {
@@ -109,7 +108,7 @@ export function errorMiddleware(logger: Logger): ErrorRequestHandler {
       return;
     }
     const known = toHttpError(err);
-    const httpError = known ?? new HttpError(500, 'internal', 'Something went wrong on the server; the error was logged');
+    const httpError = known ?? new HttpError(500, 'server.internal', 'Something went wrong on the server; the error was logged');
     if (!known) logger.error({ err }, 'unhandled error');
     const body: ErrorBody = { error: { code: httpError.code, message: httpError.message } };
     if (httpError.details !== undefined) body.error.details = httpError.details;

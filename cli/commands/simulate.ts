@@ -49,7 +49,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   return EXIT_OK;
 }
 
-async function readJson(file: string, io: CliIo): Promise<unknown> {
+export async function readJson(file: string, io: CliIo): Promise<unknown> {
   let text: string;
   try {
     text = file === '-' ? await io.readStdin() : await readFile(resolve(io.cwd, file), 'utf8');
@@ -118,6 +118,8 @@ function timeline(io: CliIo, result: SimulationResult): string {
 
 function direction(record: TraceRecord): string {
   const from = 'msg' in record || 'event' in record ? record.from : undefined;
+  // SOP' messages go between a port and the cable plug.
+  if ('msg' in record && record.sop === "SOP'") return from === 'cable' ? 'CBL→SRC' : 'SRC→CBL';
   return from === 'source' ? 'SRC→SNK' : from === 'sink' ? 'SNK→SRC' : '';
 }
 
@@ -128,6 +130,8 @@ function describeRecord(io: CliIo, record: TraceRecord): string {
   }
   if ('event' in record) {
     if (record.event === 'attach') return `attach ${record.cc ?? ''}, Rp ${record.rp ?? 'default'}`;
+    // Collision avoidance: Rp 1.5 A is SinkTxNG, 3.0 A SinkTxOK (USB PD R3.2 V1.1 §5.7).
+    if (record.event === 'rp') return `Rp ${record.rp ?? 'default'} (${record.rp === '1.5A' ? 'SinkTxNG' : record.rp === '3.0A' ? 'SinkTxOK' : 'default'})`;
     return paint(io, 'yellow', record.event === 'hard_reset' ? 'Hard Reset' : record.event);
   }
   if ('vbus' in record) return paint(io, 'dim', `VBUS ${volts(record.vbus.mv)}${record.vbus.ma === undefined ? '' : `, ${record.vbus.ma} mA`}`);

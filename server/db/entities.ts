@@ -9,8 +9,9 @@ import { ImportMapping } from '../features/import-mappings/entity.ts';
  * A new entity goes into `entities` below and gets a migration in ./migrations (see DEVELOPERS.md).
  */
 
-export const roles = ['admin', 'engineer', 'qa', 'support', 'viewer'] as const;
-export type Role = (typeof roles)[number];
+import { deviceRoles, type Role } from '../../shared/api/index.ts';
+
+export { deviceRoles, roles, type Role } from '../../shared/api/index.ts';
 
 export const Organisation = defineEntity({
   name: 'Organisation',
@@ -90,7 +91,6 @@ export const AuditEvent = defineEntity({
 });
 export type IAuditEvent = InferEntity<typeof AuditEvent>;
 
-export const deviceRoles = ['source', 'sink'] as const;
 
 export const DeviceUnderTest = defineEntity({
   name: 'DeviceUnderTest',

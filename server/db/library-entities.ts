@@ -1,3 +1,4 @@
+import type { Mismatch } from '../../shared/api/index.ts';
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
 
 /**
@@ -85,7 +86,7 @@ export type ITestRun = InferEntity<typeof TestRun>;
 export interface RunResultDetail {
   expected?: unknown;
   actual?: unknown;
-  mismatches?: unknown;
+  mismatches?: Mismatch[];
   counterexampleVector?: unknown;
 }
 

@@ -13,7 +13,7 @@ export type Orm = MikroORM;
  */
 function refuseNul(sql: string, params: readonly unknown[]): string {
   if (params.some((p) => typeof p === 'string' && p.includes('\u0000'))) {
-    throw badRequest('body: text must not contain NUL characters (\\u0000)', 'invalid_input');
+    throw badRequest('body: text must not contain NUL characters (\\u0000)', 'input.invalid');
   }
   return sql;
 }

@@ -14,9 +14,9 @@ import { readSession } from '../features/auth/session.ts';
 async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise<IUser | null> {
   const bearer = /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '');
   if (bearer) {
-    if (!deps.verifyBearer) throw unauthorized('This server does not accept API tokens; sign in instead', 'bearer_not_accepted');
+    if (!deps.verifyBearer) throw unauthorized('This server does not accept API tokens; sign in instead', 'token.not-accepted');
     const user = await deps.verifyBearer(bearer[1]!, em, req);
-    if (!user || !user.active) throw unauthorized('The API token is not valid', 'invalid_token');
+    if (!user || !user.active) throw unauthorized('The API token is not valid', 'token.invalid');
     return user;
   }
   const session = readSession(req, deps);

@@ -44,7 +44,7 @@ export function validate(schemas: Schemas): RequestHandler {
       const nulAt = findNul(req[location]);
       if (nulAt) {
         const field = nulAt.length > 0 ? nulAt.join('.') : location;
-        next(badRequest(`${field}: must not contain NUL characters (\\u0000)`, 'invalid_input', [{ path: field, message: 'must not contain NUL characters' }]));
+        next(badRequest(`${field}: must not contain NUL characters (\\u0000)`, 'input.invalid', [{ path: field, message: 'must not contain NUL characters' }]));
         return;
       }
       const result = schema.safeParse(req[location]);

@@ -57,7 +57,7 @@ export type PeEffect =
   | { kind: 'sink-mode'; mode: SinkMode }
   /** USB Type-C R2.3 §4.5.2.2.2 ErrorRecovery: both ports detach and attach again. */
   | { kind: 'error-recovery' }
-  /** The data roles swapped (DR_Swap accepted). */
+  /** This port's data role changed (DR_Swap accepted). */
   | { kind: 'data-role-swap' }
   /** The VCONN source changed (VCONN_Swap done). */
   | { kind: 'vconn-swap' }

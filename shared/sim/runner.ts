@@ -134,7 +134,7 @@ class Run {
       startReceiveTimer: (layer, endUs) => this.startTimer(layer, this.portOfLayer(layer), 'tReceive', endUs),
     });
     this.vbus = new VbusPath(this.clock, schedule, this.records, scenario.source.behaviour.slewMvPerMs / 1_000, power.rpCurrentMa(scenario.source.behaviour.rp), scenario.cable.resistanceMohm, scenario.sink.load.currentMa);
-    this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.ceil(this.durationUs / options.sampleEveryUs) + 2)) : undefined;
+    this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.floor(this.durationUs / options.sampleEveryUs) + 1)) : undefined;
     // A 5 A cable without an explicit e-marker still answers as 5 A, 20 V, not EPR capable (vector.md).
     const { eMarker, currentRatingMa } = scenario.cable;
     this.marker = eMarker ?? (currentRatingMa >= 5_000 ? { currentMa: 5_000, maxVoltageMv: 20_000, eprCapable: false } : null);
@@ -362,9 +362,9 @@ class Run {
       case 'error-recovery':
         return this.schedule(nowUs, { kind: 'error-recovery' });
       case 'data-role-swap':
-        this.dfp.source = !this.dfp.source;
-        this.dfp.sink = !this.dfp.sink;
-        return this.note(`data roles swapped: the ${this.dfp.source ? 'source' : 'sink'} port is now the DFP`);
+        // Each port changes its own data role once the Accept has gone over (§6.3.9).
+        this.dfp[port] = !this.dfp[port];
+        return this.note(`${this.role[port]} port is now the ${this.dfp[port] ? 'DFP' : 'UFP'}`);
       case 'vconn-swap':
         return this.note(`VCONN swapped (the ${this.role[port]} port took part)`);
       case 'become':
@@ -426,7 +426,6 @@ class Run {
   // ---- power role swap and ErrorRecovery ----
   become(port: Side, role: Side): void {
     this.role[port] = role;
-    this.lane(port, role === 'source' ? 'PE_SRC_Startup' : 'PE_SNK_Startup');
     if (role === 'source') {
       this.pe[port] = { ...initialSourcePe(this.revisionOf(port)), phase: 'on' };
     } else {

@@ -11,32 +11,56 @@ export interface PackedSamples {
   count: number;
 }
 
-export interface SampleBuffer {
-  push(tUs: number, mv: number, ma: number, sinkMv: number): void;
-  /** The rows so far, trimmed to their count (the buffer is not used afterwards). */
-  finish(): PackedSamples;
+/** A growable row buffer (a class: one shape, so the hot loops stay monomorphic). */
+export class SampleBuffer {
+  private data: Int32Array;
+  private length = 0;
+
+  constructor(expectedRows = 1_024) {
+    this.data = new Int32Array(Math.max(16, expectedRows) * SAMPLE_FIELDS);
+  }
+
+  private room(fields: number): void {
+    if (this.length + fields <= this.data.length) return;
+    const grown = new Int32Array(Math.max(this.data.length * 2, this.length + fields));
+    grown.set(this.data);
+    this.data = grown;
+  }
+
+  push(tUs: number, mv: number, ma: number, sinkMv: number): void {
+    this.room(SAMPLE_FIELDS);
+    const o = this.length;
+    const data = this.data;
+    data[o] = tUs;
+    data[o + 1] = mv;
+    data[o + 2] = ma;
+    data[o + 3] = sinkMv;
+    this.length = o + SAMPLE_FIELDS;
+  }
+
+  /** `count` rows from `tUs` every `everyUs` with the same values (VBUS flat between events). */
+  repeat(tUs: number, everyUs: number, count: number, mv: number, ma: number, sinkMv: number): void {
+    this.room(count * SAMPLE_FIELDS);
+    const data = this.data;
+    let o = this.length;
+    for (let i = 0, t = tUs; i < count; i++, t += everyUs, o += SAMPLE_FIELDS) {
+      data[o] = t;
+      data[o + 1] = mv;
+      data[o + 2] = ma;
+      data[o + 3] = sinkMv;
+    }
+    this.length = o;
+  }
+
+  /** The rows so far (a view, not a copy: the worker transfers the underlying buffer as it is). */
+  finish(): PackedSamples {
+    const data = this.length === this.data.length ? this.data : this.data.subarray(0, this.length);
+    return { data, count: this.length / SAMPLE_FIELDS };
+  }
 }
 
 export function createSampleBuffer(expectedRows = 1_024): SampleBuffer {
-  let data = new Int32Array(Math.max(16, expectedRows) * SAMPLE_FIELDS);
-  let length = 0;
-  return {
-    push(tUs, mv, ma, sinkMv) {
-      if (length + SAMPLE_FIELDS > data.length) {
-        const grown = new Int32Array(data.length * 2);
-        grown.set(data);
-        data = grown;
-      }
-      data[length] = tUs;
-      data[length + 1] = mv;
-      data[length + 2] = ma;
-      data[length + 3] = sinkMv;
-      length += SAMPLE_FIELDS;
-    },
-    finish() {
-      return { data: length === data.length ? data : data.slice(0, length), count: length / SAMPLE_FIELDS };
-    },
-  };
+  return new SampleBuffer(expectedRows);
 }
 
 /** The rows as arrays (the CLI's JSON `samples: [[t, mv, ma, sinkMv], …]`). */

@@ -46,6 +46,6 @@ describe('scenarioSchema', () => {
 
   it('has a JSON Schema for `parley schema scenario`', () => {
     const schema = z.toJSONSchema(scenarioSchema, { io: 'input', unrepresentable: 'any' }) as { properties?: Record<string, unknown> };
-    expect(Object.keys(schema.properties ?? {})).toEqual(['source', 'sink', 'cable', 'actions', 'faults', 'durationMs', 'seed']);
+    expect(Object.keys(schema.properties ?? {})).toEqual(['source', 'sink', 'cable', 'actions', 'faults', 'durationMs', 'seed', 'timers']);
   });
 });

@@ -6,8 +6,11 @@
  */
 import { z } from 'zod';
 import { fail, type Result } from '../core/result.ts';
+import { timersPd3, type TimerName } from '../core/timers.ts';
 import { sinkPolicySchema } from '../rules/sink-policy.ts';
 import { resolveCaps } from './caps.ts';
+
+const TIMER_NAMES = Object.keys(timersPd3) as [TimerName, ...TimerName[]];
 
 const revision = z.enum(['2.0', '3.0']);
 const ms = z.number().int().nonnegative();
@@ -125,6 +128,11 @@ export const scenarioSchema = z
     faults: z.array(faultSchema).default([]),
     durationMs: z.number().int().min(1).max(600_000).default(5_000),
     seed: z.number().int().default(1),
+    /**
+     * Extension: timers held at one end of their range instead of drawn with the seed (a fault
+     * sweep's timer edges), e.g. `{"tPSTransition": "max"}`. Names are those of the timer table.
+     */
+    timers: z.partialRecord(z.enum(TIMER_NAMES), z.enum(['min', 'max'])).optional(),
   })
   .strict()
   .superRefine((scenario, context) => {

@@ -11,6 +11,7 @@ import { countersFor } from '../core/timers.ts';
 import { decodeSourcePdo } from '../pd/source-pdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { chooseRequest } from '../rules/choose-request.ts';
+import { SPR_MAX_VOLTAGE_MV } from '../rules/pdo-facts.ts';
 import type { SinkPolicy } from '../rules/sink-policy.ts';
 import { ECDB, eprModeAction, eprModeObject, eprModeOf, isEcdb, minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
 import { statusBytes } from './port-answers.ts';
@@ -107,8 +108,13 @@ function toDefault(pe: SinkPe, effects: PeEffect[]): Step {
 }
 
 function policyFor(pe: SinkPe, context: SinkContext): SinkPolicy {
-  // An EPR capable sink says so in every RDO (§6.4.2 EPR Mode Capable).
-  return context.eprPdpW ? { ...pe.policy, eprModeCapable: true } : pe.policy;
+  if (!context.eprPdpW) return pe.policy;
+  // An EPR capable sink says so in every RDO (§6.4.2 EPR Mode Capable). Before EPR mode, a policy that
+  // names an EPR voltage takes the most SPR power meanwhile (common practice), so a sink that cannot
+  // enter EPR mode still gets what SPR gives.
+  const eprVoltage = (pe.policy.kind === 'fixed' || pe.policy.kind === 'avs') && pe.policy.voltageMv > SPR_MAX_VOLTAGE_MV;
+  if (eprVoltage && !pe.eprMode) return { kind: 'max-power', eprModeCapable: true };
+  return { ...pe.policy, eprModeCapable: true };
 }
 
 /** §8.3.3.3.4–5 Evaluate_Capability and Select_Capability: the sink policy picks a Request. */

@@ -571,8 +571,8 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
     case 'PE_PRS_SRC_SNK_Transition_to_off':
       // §7.3.9: the initial source turns its supply off (vSafe0V within tSrcSwapStdby), then says PS_RDY.
       if (event.kind === 'timer' && event.name === 'tSrcTransition') {
-        effects.push({ kind: 'contract', contract: null }, { kind: 'supply', voltageMv: 0, limitMa: null });
-        return [{ ...pe, contract: null, eprMode: false, phase: 'off' }, effects];
+        effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' }, { kind: 'supply', voltageMv: 0, limitMa: null });
+        return [{ ...pe, phase: 'off' }, effects];
       }
       if (event.kind === 'supply-ready' && pe.phase === 'off') {
         send(effects, 'PS_RDY');
@@ -580,9 +580,10 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
       }
       break;
     case 'PE_PRS_SRC_SNK_Source_off':
+      // The contract ends with this PS_RDY: the sink drops it when the message arrives.
       if (event.kind === 'sent' && event.type === 'PS_RDY') {
-        effects.push({ kind: 'start-timer', name: 'tPSSourceOn' });
-        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Wait_Source_on' }, effects];
+        effects.push({ kind: 'contract', contract: null }, { kind: 'start-timer', name: 'tPSSourceOn' });
+        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Wait_Source_on', contract: null, eprMode: false }, effects];
       }
       break;
     case 'PE_PRS_SRC_SNK_Wait_Source_on':

@@ -1,6 +1,7 @@
 /**
  * How long each timer runs in one simulated run: a draw from the timer table's range
- * (shared/core/timers.ts) with the run's seeded generator, unless the scenario fixes it.
+ * (shared/core/timers.ts) with the run's seeded generator, unless the scenario fixes it or holds
+ * it at one end of that range (`scenario.timers`, a fault sweep's timer edges).
  */
 import { timersFor, type TimerName } from '../core/timers.ts';
 import type { Random } from './random.ts';
@@ -10,28 +11,38 @@ import type { Revision } from './wire.ts';
 
 export type SimTimerName = TimerName;
 
-export function timerDurationUs(name: SimTimerName, side: Side, revision: Revision, scenario: Scenario, random: Random): number {
+/** The range a timer is drawn from, µs (the table's, narrowed where the simulator needs it). */
+function drawRangeUs(name: SimTimerName, revision: Revision): [number, number] {
   const range = timersFor(revision)[name];
-  const source = scenario.source.behaviour;
   switch (name) {
     case 'tTypeCSendSourceCap':
       // 10 ms under the maximum: the timer starts after the failed transmission and its retries
       // (about 5 ms), and Source_Capabilities start to start must stay within 100–200 ms.
-      return source.capsIntervalMs !== undefined ? source.capsIntervalMs * 1_000 : random.between(range.minUs, range.maxUs - 10_000);
-    case 'tFirstSourceCap':
-      return source.firstCapsDelayMs !== undefined ? source.firstCapsDelayMs * 1_000 : random.between(range.minUs, range.maxUs);
-    case 'tSrcTransition':
-      return source.transitionDelayMs !== undefined ? source.transitionDelayMs * 1_000 : random.between(range.minUs, range.maxUs);
-    case 'tPPSRequest': {
-      const fixedMs = scenario.sink.behaviour.ppsRequestIntervalMs;
+      return [range.minUs, range.maxUs - 10_000];
+    case 'tPPSRequest':
       // Keep-alive well inside tPPSRequest: 5–9 s (common practice).
-      return fixedMs !== undefined ? fixedMs * 1_000 : random.between(range.maxUs - 5_000_000, range.maxUs - 1_000_000);
-    }
+      return [range.maxUs - 5_000_000, range.maxUs - 1_000_000];
     case 'tSinkRequest':
-      return range.minUs;
+      return [range.minUs, range.minUs];
     default:
-      return random.between(range.minUs, range.maxUs);
+      return [range.minUs, range.maxUs];
   }
+}
+
+export function timerDurationUs(name: SimTimerName, side: Side, revision: Revision, scenario: Scenario, random: Random): number {
+  const source = scenario.source.behaviour;
+  const fixedMs =
+    name === 'tTypeCSendSourceCap' ? source.capsIntervalMs
+    : name === 'tFirstSourceCap' ? source.firstCapsDelayMs
+    : name === 'tSrcTransition' ? source.transitionDelayMs
+    : name === 'tPPSRequest' ? scenario.sink.behaviour.ppsRequestIntervalMs
+    : undefined;
+  if (fixedMs !== undefined) return fixedMs * 1_000;
+  const [minUs, maxUs] = drawRangeUs(name, revision);
+  const edge = scenario.timers?.[name];
+  if (edge !== undefined) return edge === 'min' ? minUs : maxUs;
+  // tSinkRequest has one value and draws nothing, so the seed's sequence stays as it was.
+  return name === 'tSinkRequest' ? minUs : random.between(minUs, maxUs);
 }
 
 /**

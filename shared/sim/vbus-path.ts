@@ -104,11 +104,23 @@ export class VbusPath {
 
   /** Samples `[t, mv, ma, sinkMv]` for every sample time before `tUs` (the power path is piecewise linear). */
   sampleUntil(buffer: SampleBuffer, everyUs: number, tUs: number, durationUs: number): void {
-    while (this.nextSampleUs < tUs && this.nextSampleUs <= durationUs) {
-      const mv = power.vbusAtUs(this.ramp, this.nextSampleUs);
+    const lastUs = Math.min(tUs - 1, durationUs);
+    const rampEndUs = power.rampEndUs(this.ramp);
+    while (this.nextSampleUs <= lastUs) {
+      const t = this.nextSampleUs;
+      if (t >= rampEndUs) {
+        // Nothing changes before the next event once the ramp is over: one computation for the stretch.
+        const mv = this.ramp.toMv;
+        const ma = this.ibusAt(mv);
+        const count = Math.floor((lastUs - t) / everyUs) + 1;
+        buffer.repeat(t, everyUs, count, mv, ma, power.sinkSideMv(mv, ma, this.cableMohm));
+        this.nextSampleUs = t + count * everyUs;
+        return;
+      }
+      const mv = power.vbusAtUs(this.ramp, t);
       const ma = this.ibusAt(mv);
-      buffer.push(this.nextSampleUs, mv, ma, power.sinkSideMv(mv, ma, this.cableMohm));
-      this.nextSampleUs += everyUs;
+      buffer.push(t, mv, ma, power.sinkSideMv(mv, ma, this.cableMohm));
+      this.nextSampleUs = t + everyUs;
     }
   }
 }

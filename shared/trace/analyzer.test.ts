@@ -146,12 +146,12 @@ describe('analysis', () => {
   it('heads the analysis with a summary sentence', () => {
     const result = analyzeTrace(readFileSync(join(FIXTURES, 'timing-pps-keepalive.trace.jsonl'), 'utf8'));
     expect(result.ok && result.analysis.summary).toBe(
-      'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s after the sink stopped re-requesting its programmable contract; 1 error.',
+      'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s; 1 error; likely cause of the Hard Reset: the sink stopped re-requesting its programmable contract, which points at the device (sink).',
     );
   });
   it('names the earliest error in the summary when no Hard Reset explains it', () => {
     const result = analyzeTrace(readFileSync(join(FIXTURES, 'vbus-out-of-range.trace.jsonl'), 'utf8'));
-    expect(result.ok && result.analysis.summary).toBe("Contract 9 V 2 A at 0.361 s; 1 error, the first: VBUS outside the contract's tolerance at 0.5 s.");
+    expect(result.ok && result.analysis.summary).toBe("Contract 9 V 2 A at 0.361 s; 1 error; likely cause: VBUS outside the contract's tolerance at 0.5 s, which points at the adapter (source).");
   });
   it('builds a timeline with wire durations and acknowledgements', () => {
     const { timeline } = analyzeRecords(negotiation().records);

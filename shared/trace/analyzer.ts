@@ -24,7 +24,8 @@ import { createProtocolTracker } from './protocol.ts';
 import type { EventRecord, MeasurementRecord, MessageRecord, TraceHeader, TraceRecord, TraceSide } from './records.ts';
 import type { FindingExtra, SeenMessage } from './seen.ts';
 import type { TraceSink } from './sink.ts';
-import { summarize } from './summary.ts';
+import { sideOfClause, sideOfFinding } from './blame.ts';
+import { summarize, type SummaryInput } from './summary.ts';
 import { createTimeline, type Timeline } from './timeline.ts';
 import { vbusLimits, voltageOutside } from './vbus.ts';
 
@@ -335,7 +336,9 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
         hardResets,
         summary: summarize({
           records, messages, measurements, contracts, contractCount, sourceCapabilities, hardResets, hardResetCount, counts, goodCrcSeen: protocol.goodCrcSeen(),
-          firstError: firstErrorOf(store.list()),
+          ...policy.requestCounts(),
+          ...(hardResets[0]?.cause !== undefined ? { hardResetSide: sideOfClause(hardResets[0].cause) } : {}),
+          ...firstProblemOf(store.list()),
         }),
         timeline: timeline.timeline,
       };
@@ -346,13 +349,17 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
   };
 }
 
-/** The earliest error finding, by the catalog's title, for the summary sentence. */
-function firstErrorOf(findings: readonly Finding[]): { title: string; t?: number } | undefined {
+/** The earliest error (else warning), by the catalog's title and the side it points at, for the summary sentence. */
+function firstProblemOf(findings: readonly Finding[]): { firstProblem?: SummaryInput['firstProblem'] } {
   let first: Finding | undefined;
-  for (const f of findings) if (f.severity === 'error' && (first === undefined || (f.t ?? Infinity) < (first.t ?? Infinity))) first = f;
-  if (!first) return undefined;
+  for (const severity of ['error', 'warning'] as const) {
+    for (const f of findings) if (f.severity === severity && (first === undefined || (f.t ?? Infinity) < (first.t ?? Infinity))) first = f;
+    if (first) break;
+  }
+  if (!first) return {};
   const title = isRuleId(first.rule) ? ruleCatalog[first.rule].title : first.rule;
-  return first.t === undefined ? { title } : { title, t: first.t };
+  const side = sideOfFinding(first);
+  return { firstProblem: { title, ...(first.t !== undefined ? { t: first.t } : {}), ...(side ? { side } : {}) } };
 }
 
 /** Analyses records already in memory (vectors, the simulator's output, tests). */

@@ -114,3 +114,20 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
     expect(findings.filter((f) => f.rule === 'caps.cable-current').map((f) => f.object)).toEqual([4]);
   });
 });
+
+describe('the summary sentence reads one way', () => {
+  // §8.3.3.3 PE_SNK_Transition_Sink: the sink's PSTransitionTimer runs out without PS_RDY → Hard Reset.
+  it('an accepted Request with no PS_RDY is not "no Request was accepted"', () => {
+    const records = capture([
+      ...acked(sprCaps(0), 'source', 0),
+      ...acked(pdHex('Request', { id: 0, from: 'sink', objects: [fixedRdo(2, 2_000)] }), 'sink', 0, 3_000),
+      ...acked(pdHex('Accept', { id: 1, from: 'source' }), 'source', 1, 2_000),
+      { t: 700_000, event: 'hard_reset', from: 'sink' },
+    ]);
+    const { summary } = analyzeRecords(records);
+    expect(summary).not.toMatch(/no Request was accepted/);
+    expect(summary).toBe(
+      'No contract: the source accepted a Request but never completed it with PS_RDY; Hard Reset at 0.7 s; 1 error; likely cause of the Hard Reset: the source accepted the Request at 0.005 s but sent no PS_RDY within tPSTransition, which points at the adapter (source).',
+    );
+  });
+});

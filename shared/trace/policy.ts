@@ -85,6 +85,8 @@ export interface PolicyTracker {
   /** The offers in force (for decoding Requests) and a key that names them. */
   offers(): SourcePdo[] | undefined;
   offersKey(): string;
+  /** Requests the source received and those it accepted, over the whole trace (for the summary). */
+  requestCounts(): { requests: number; requestsAccepted: number };
 }
 
 export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
@@ -95,6 +97,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let accepted: Accepted | undefined;
   let other: Pending | undefined;
   let swapPsRdy = 0;
+  let requestsSeen = 0;
+  let requestsAccepted = 0;
   /** The source's Wait to the sink's Request: the sink may ask again only tSinkRequest later (§6.6.4.2). */
   let waited: SeenMessage | undefined;
   let contract: ActiveContract | undefined;
@@ -247,6 +251,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (caps && !epr) for (const f of checkRequest(rdo, caps.pdos, { t: m.t })) events.finding(located(f, m));
     }
     request = { m, rdo, pdo, reported: false };
+    requestsSeen++;
     if (contract) {
       contract.lastRequestUs = m.t;
       contract.keepAlive = { reported: false };
@@ -259,6 +264,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       checkResponse(request, m);
       if (type === 'Wait' && request.m.from === 'sink') waited = m;
       if (type === 'Accept') {
+        requestsAccepted++;
         accepted = { m, request, reported: false, epr: request.m.d.messageType === 'EPR_Request' || events.inEpr?.() === true };
         transition = true;
       }
@@ -395,6 +401,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     steadyContract: () => (transition ? undefined : contract),
     offers: () => caps?.pdos,
     offersKey: () => caps?.key ?? '',
+    requestCounts: () => ({ requests: requestsSeen, requestsAccepted }),
   };
 }
 

@@ -44,6 +44,134 @@ export function createTextReader(sink: TraceSink): TraceReader {
 
 /** A record, `undefined` for a blank or comment line, or the reason the line cannot be read. */
 export function readTextLine(line: string): TraceRecord | string | undefined {
+  return readCommonLine(line) ?? readAnyLine(line);
+}
+
+const SPACE = 32;
+const TAB = 9;
+const DOT = 46;
+const isDigit = (c: number): boolean => c >= 48 && c <= 57;
+const isSpace = (c: number): boolean => c === SPACE || c === TAB || c === 13;
+/** Lower-case hex digit of a character code, or '' when it is none. */
+const HEX_OF: string[] = [];
+for (let c = 0; c < 128; c++) {
+  const ch = String.fromCharCode(c).toLowerCase();
+  HEX_OF.push(/^[0-9a-f]$/.test(ch) ? ch : '');
+}
+const hexOf = (c: number): string => (c < 128 ? HEX_OF[c]! : '');
+
+/**
+ * The shapes nearly every line of a long log has — `<time> SRC|SNK|CBL <two-digit bytes…>` and
+ * `<time> VBUS <n>mV [<n>mA]` — read with one pass over the characters and no regular expression
+ * or token array (issue 17: text logs at most 2× their read-and-split floor). Anything else (a
+ * comment, words, an SOP* token, an event, a malformed line) is left to `readAnyLine`, so both paths
+ * give the same result for every line (text-reader.test.ts checks it on generated lines).
+ */
+function readCommonLine(line: string): TraceRecord | undefined {
+  const n = line.length;
+  let i = 0;
+  while (i < n && isSpace(line.charCodeAt(i))) i++;
+  // Time: digits with at most one dot, then an optional unit; kept as integer and fraction digits.
+  const timeStart = i;
+  let whole = 0;
+  let fraction = 0;
+  let fractionDigits = 0;
+  let digits = 0;
+  let dots = 0;
+  for (; i < n; i++) {
+    const c = line.charCodeAt(i);
+    if (isDigit(c)) {
+      digits++;
+      if (dots === 0) whole = whole * 10 + (c - 48);
+      else {
+        fraction = fraction * 10 + (c - 48);
+        fractionDigits++;
+      }
+    } else if (c === DOT && dots === 0) dots++;
+    else break;
+  }
+  if (digits === 0 || digits > 15) return undefined;
+  const numberEnd = i;
+  let unit = 1_000_000;
+  let unitDigits = 6;
+  const u = line.charCodeAt(i) | 32;
+  if (u === 115 /* s */) i++;
+  else if (u === 109 /* m */ && (line.charCodeAt(i + 1) | 32) === 115) {
+    unit = 1_000;
+    unitDigits = 3;
+    i += 2;
+  } else if (u === 117 /* u */ && (line.charCodeAt(i + 1) | 32) === 115) {
+    unit = 1;
+    unitDigits = 0;
+    i += 2;
+  }
+  if (i >= n || !isSpace(line.charCodeAt(i))) return undefined;
+  // Whole microseconds are exact in integers; finer fractions round as Number() would.
+  const t = fractionDigits <= unitDigits ? whole * unit + fraction * 10 ** (unitDigits - fractionDigits) : Math.round(Number(line.slice(timeStart, numberEnd)) * unit);
+  while (i < n && isSpace(line.charCodeAt(i))) i++;
+  const whoStart = i;
+  while (i < n && !isSpace(line.charCodeAt(i))) i++;
+  const who = WHO[line.slice(whoStart, i).toLowerCase()];
+  if (who === undefined) return undefined;
+  if (who === 'vbus') return readCommonMeasurement(line, i, t);
+  const pairs: string[] = [];
+  while (i < n) {
+    while (i < n && isSpace(line.charCodeAt(i))) i++;
+    if (i >= n) break;
+    const hi = hexOf(line.charCodeAt(i));
+    const lo = hexOf(line.charCodeAt(i + 1));
+    if (hi === '' || lo === '' || (i + 2 < n && !isSpace(line.charCodeAt(i + 2)))) return undefined;
+    pairs.push(hi + lo);
+    i += 2;
+  }
+  return pairs.length === 0 ? undefined : { t, msg: pairs.join(''), from: who };
+}
+
+/** `<n>mV [<n>mA]` (units in any case, V/A with decimals) from `i`; undefined for anything else. */
+function readCommonMeasurement(line: string, from: number, t: number): TraceRecord | undefined {
+  const n = line.length;
+  let i = from;
+  let mv: number | undefined;
+  let ma: number | undefined;
+  while (i < n) {
+    while (i < n && isSpace(line.charCodeAt(i))) i++;
+    if (i >= n) break;
+    const start = i;
+    let digits = 0;
+    let dots = 0;
+    let whole = 0;
+    for (; i < n; i++) {
+      const c = line.charCodeAt(i);
+      if (isDigit(c)) {
+        digits++;
+        whole = whole * 10 + (c - 48);
+      } else if (c === DOT && dots === 0 && digits > 0) dots++;
+      else break;
+    }
+    if (digits === 0 || digits > 15 || line.charCodeAt(i - 1) === DOT) return undefined;
+    const value = dots === 0 ? whole : Number(line.slice(start, i));
+    const a = line.charCodeAt(i) | 32;
+    const b = line.charCodeAt(i + 1) | 32;
+    let kind: 'mv' | 'v' | 'ma' | 'a';
+    if (a === 109 /* m */ && (b === 118 || b === 97)) {
+      kind = b === 118 ? 'mv' : 'ma';
+      i += 2;
+    } else if (a === 118 || a === 97) {
+      kind = a === 118 ? 'v' : 'a';
+      i += 1;
+    } else return undefined;
+    if (i < n && !isSpace(line.charCodeAt(i))) return undefined;
+    if (kind === 'mv') mv = Math.round(value);
+    else if (kind === 'v') mv = Math.round(value * 1_000);
+    else if (kind === 'ma') ma = Math.round(value);
+    else ma = Math.round(value * 1_000);
+  }
+  if (mv === undefined) return undefined;
+  return ma === undefined ? { t, vbus: { mv } } : { t, vbus: { mv, ma } };
+}
+
+/** Any line of the format, by tokens and regular expressions: the reference reading. */
+export function readAnyLine(line: string): TraceRecord | string | undefined {
   const hash = line.indexOf('#');
   const text = (hash === -1 ? line : line.slice(0, hash)).trim();
   if (text === '') return undefined;

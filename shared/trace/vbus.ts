@@ -10,6 +10,8 @@
  * - Current: no more than the operating current of the Request (PPS: plus the 150 mA current-limit
  *   tolerance).
  */
+import type { Contract } from '../core/contract.ts';
+import type { SourcePdo } from '../pd/types.ts';
 import type { ActiveContract } from './policy.ts';
 
 export interface VbusLimits {
@@ -34,8 +36,11 @@ export function vbusLimits(active: ActiveContract): VbusLimits {
 }
 
 function limitsOf(active: ActiveContract): VbusLimits {
-  const c = active.contract;
-  const pdo = active.pdo;
+  return contractVbusLimits(active.contract, active.pdo);
+}
+
+/** The limits of a contract made with an offer (also used by the fault sweep's VBUS invariant). */
+export function contractVbusLimits(c: Contract, pdo: SourcePdo): VbusLimits {
   let range: [number, number];
   if (c.kind === 'fixed') range = c.voltageMv === 5_000 ? [4_750, 5_500] : within5Percent(c.voltageMv);
   else if ((c.kind === 'variable' || c.kind === 'battery') && (pdo.kind === 'variable' || pdo.kind === 'battery')) range = [pdo.minVoltageMv, pdo.maxVoltageMv];

@@ -8,6 +8,7 @@ export {
   negotiationVectorSchema,
   traceVectorSchema,
   propertyVectorSchema,
+  sweepVectorSchema,
   findingsExpectSchema,
   VECTOR_ID_PATTERN,
   VECTOR_KINDS,

@@ -13,7 +13,9 @@
  *   names; Hard_Reset / Cable_Reset events count as names too), `findings`, `contractWithinMs`
  *   (the time of the first contract, the sink's PS_RDY, in ms from the start);
  * - trace: `{ messages, contracts, findings }` of the analysis;
- * - property: `{ holds }`.
+ * - property: `{ holds }`;
+ * - negotiation `invariants`: the named fault-sweep invariants hold for the run (./run-sweep.ts);
+ * - sweep: `{ holds, minRuns }` of a whole fault campaign.
  */
 import type { Finding } from '../core/finding.ts';
 import type { EngineError } from '../core/result.ts';
@@ -21,6 +23,7 @@ import type { Message, SourcePdo } from '../pd/types.ts';
 import { engine as defaultEngine, type EngineFacade } from './engine-facade.ts';
 import { describeMismatches, matchFindings, matchPartial, matchSequence, matchWithin, type Mismatch } from './match.ts';
 import { checkProperty as checkPropertyInline, type PropertyOutcome } from './property.ts';
+import { invariantMismatches, runSweepVector } from './run-sweep.ts';
 import { describeZodError, vectorSchema, type Vector } from './schema.ts';
 
 export interface VectorResult {
@@ -216,6 +219,7 @@ function runNegotiation(vector: Extract<Vector, { kind: 'negotiation' }>, engine
   if (expect.sequence !== undefined) mismatches.push(...matchSequence(expect.sequence, names));
   if (expect.findings !== undefined) mismatches.push(...matchFindings(expect.findings, result.findings));
   if (expect.contractWithinMs !== undefined) mismatches.push(...matchWithin(expect.contractWithinMs, result.contract === null ? null : contractAtMs));
+  if (expect.invariants !== undefined) mismatches.push(...invariantMismatches(vector.input.scenario, result, expect.invariants));
   return { actual, mismatches };
 }
 
@@ -286,6 +290,7 @@ export async function runVector(vector: Vector, options: RunOptions = {}): Promi
       case 'negotiation': outcome = runNegotiation(vector, engine); break;
       case 'trace': outcome = await runTrace(vector, engine, options); break;
       case 'property': outcome = await runPropertyVector(vector, engine, options); break;
+      case 'sweep': outcome = runSweepVector(vector, engine); break;
     }
   } catch (error) {
     const text = error instanceof Error ? error.message : String(error);

@@ -6,6 +6,8 @@
 import { z } from 'zod';
 import { sinkPolicySchema } from '../rules/sink-policy.ts';
 import { scenarioSchema } from '../sim/scenario.ts';
+import { INVARIANT_IDS } from '../sweep/invariants.ts';
+import { SWEEP_FAULT_KINDS } from '../sweep/placements.ts';
 import { traceHeaderSchema, traceRecordSchema } from '../trace/records.ts';
 
 /** Lower-case words of `a-z`, `0-9`, `.`, `_`, `-`, joined by `/`: `caps/power-rules/45w-without-9v`. */
@@ -115,6 +117,33 @@ export const negotiationVectorSchema = z
         sequence: z.array(z.string().min(1)).optional().describe('Message types that must appear in this order; others may come between.'),
         findings: findingsExpectSchema.optional(),
         contractWithinMs: z.number().int().min(0).optional(),
+        invariants: z
+          .array(z.enum(INVARIANT_IDS as [string, ...string[]]))
+          .optional()
+          .describe('Fault-sweep invariants that must hold for this run (e.g. "contract.agreement"); docs/vector.md lists them.'),
+      })
+      .strict(),
+  })
+  .strict();
+
+export const sweepVectorSchema = z
+  .object({
+    ...base,
+    kind: z.literal('sweep'),
+    input: z
+      .object({
+        scenario: scenarioSchema,
+        faults: z.array(z.enum(SWEEP_FAULT_KINDS)).min(1).optional().describe('Fault kinds placed on every message (default drop, corrupt, delay).'),
+        pairs: z.boolean().optional().describe('Also every pair of placements.'),
+        timers: z.enum(['edges', 'jitter']).optional().describe('edges: also each timer at its minimum and maximum.'),
+        max: z.number().int().min(1).max(1_000_000).optional().describe('At most this many runs, sampled with the seed.'),
+        seed: z.number().int().optional(),
+      })
+      .strict(),
+    expect: z
+      .object({
+        holds: z.boolean().describe('Every run holds every invariant.'),
+        minRuns: z.number().int().min(0).optional().describe('The campaign has at least this many runs.'),
       })
       .strict(),
   })
@@ -161,12 +190,13 @@ export const vectorSchema = z.discriminatedUnion('kind', [
   negotiationVectorSchema,
   traceVectorSchema,
   propertyVectorSchema,
+  sweepVectorSchema,
 ]);
 
 export type Vector = z.infer<typeof vectorSchema>;
 export type VectorInput = z.input<typeof vectorSchema>;
 export type VectorKind = Vector['kind'];
-export const VECTOR_KINDS: readonly VectorKind[] = ['decode', 'encode', 'caps', 'request', 'negotiation', 'trace', 'property'];
+export const VECTOR_KINDS: readonly VectorKind[] = ['decode', 'encode', 'caps', 'request', 'negotiation', 'trace', 'property', 'sweep'];
 
 const jsonSchemaOptions = { target: 'draft-2020-12', io: 'input', unrepresentable: 'any' } as const;
 

@@ -1,5 +1,5 @@
 import { paths } from '../config/paths.ts';
-import { everyRole, type Role } from '../lib/roles.ts';
+import { everyRole, roleGroups, type Role } from '../lib/roles.ts';
 
 /** The groups of the sidebar, in the order they appear; Home stands above them without a heading. */
 export type NavSection = 'home' | 'analyse' | 'simulate' | 'test' | 'admin';
@@ -32,11 +32,11 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Bench', to: paths.bench.path, roles: everyRole, section: 'simulate', summary: 'Simulate a source and a sink negotiating, inject faults, and watch every message, timer and volt.' },
   { label: 'Library', to: paths.library.index.path, roles: everyRole, section: 'test', summary: 'The team\'s test vectors with their history: edit, compare revisions, run them, import and export.' },
   { label: 'Runs', to: paths.runs.index.path, roles: everyRole, section: 'test', summary: 'Every run of the library, from here or from CI per firmware build, with what failed and why.' },
-  { label: 'Properties', to: paths.properties.path, roles: ['admin', 'engineer', 'qa'], section: 'test', summary: 'Write a property over the engine, let it hunt for a counterexample and keep it as a vector.' },
-  { label: 'Users', to: paths.admin.users.path, roles: ['admin'], section: 'admin', summary: 'Invite people, change roles, deactivate accounts.' },
-  { label: 'Outbox', to: paths.admin.outbox.path, roles: ['admin'], section: 'admin', summary: 'Read every e-mail Parley has sent.' },
-  { label: 'Audit log', to: paths.admin.audit.path, roles: ['admin'], section: 'admin', summary: 'Who did what, and when.' },
-  { label: 'API tokens', to: paths.admin.tokens.path, roles: ['admin'], section: 'admin', summary: 'Tokens that let CI post test results for a project.' },
+  { label: 'Properties', to: paths.properties.path, roles: roleGroups.editors, section: 'test', summary: 'Write a property over the engine, let it hunt for a counterexample and keep it as a vector.' },
+  { label: 'Users', to: paths.admin.users.path, roles: roleGroups.admins, section: 'admin', summary: 'Invite people, change roles, deactivate accounts.' },
+  { label: 'Outbox', to: paths.admin.outbox.path, roles: roleGroups.admins, section: 'admin', summary: 'Read every e-mail Parley has sent.' },
+  { label: 'Audit log', to: paths.admin.audit.path, roles: roleGroups.admins, section: 'admin', summary: 'Who did what, and when.' },
+  { label: 'API tokens', to: paths.admin.tokens.path, roles: roleGroups.admins, section: 'admin', summary: 'Tokens that let CI post test results for a project.' },
 ];
 
 export function navFor(role: Role): NavEntry[] {

@@ -3,6 +3,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { paths } from '../config/paths.ts';
 import { redirectIfSignedIn, requireRole, requireSession } from './guards.ts';
 import { RouteError } from './routes/route-error.tsx';
+import { roleGroups } from '../lib/roles.ts';
 
 /** Shown while a route's code and first data arrive (the router's hydrate fallback). */
 function PageLoading() {
@@ -65,7 +66,7 @@ export function createAppRouter(queryClient: QueryClient) {
             },
             {
               path: paths.properties.path,
-              loader: requireRole(queryClient, ['admin', 'engineer', 'qa']),
+              loader: requireRole(queryClient, roleGroups.editors),
               lazy: async () => ({ Component: (await import('../features/properties/routes/properties.tsx')).PropertiesRoute }),
             },
             {
@@ -74,7 +75,7 @@ export function createAppRouter(queryClient: QueryClient) {
             },
             {
               path: paths.library.create.path,
-              loader: requireRole(queryClient, ['admin', 'engineer', 'qa']),
+              loader: requireRole(queryClient, roleGroups.editors),
               lazy: async () => ({ Component: (await import('../features/library/routes/vector.tsx')).NewVectorRoute }),
             },
             {
@@ -91,22 +92,22 @@ export function createAppRouter(queryClient: QueryClient) {
             },
             {
               path: paths.admin.tokens.path,
-              loader: requireRole(queryClient, ['admin']),
+              loader: requireRole(queryClient, roleGroups.admins),
               lazy: async () => ({ Component: (await import('../features/tokens/routes/tokens.tsx')).TokensRoute }),
             },
             {
               path: paths.admin.users.path,
-              loader: requireRole(queryClient, ['admin']),
+              loader: requireRole(queryClient, roleGroups.admins),
               lazy: async () => ({ Component: (await import('../features/users/routes/users.tsx')).UsersRoute }),
             },
             {
               path: paths.admin.outbox.path,
-              loader: requireRole(queryClient, ['admin']),
+              loader: requireRole(queryClient, roleGroups.admins),
               lazy: async () => ({ Component: (await import('../features/outbox/routes/outbox.tsx')).OutboxRoute }),
             },
             {
               path: paths.admin.audit.path,
-              loader: requireRole(queryClient, ['admin']),
+              loader: requireRole(queryClient, roleGroups.admins),
               lazy: async () => ({ Component: (await import('../features/audit/routes/audit.tsx')).AuditRoute }),
             },
             {

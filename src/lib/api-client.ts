@@ -3,12 +3,14 @@
  * error body `{ error: { code, message, details? } }` into an ApiError.
  */
 
+import type { ApiErrorCode, ClientErrorCode } from '../../shared/api/index.ts';
+
 export class ApiError extends Error {
   readonly status: number;
-  readonly code: string;
+  readonly code: ApiErrorCode | ClientErrorCode;
   readonly details: unknown;
 
-  constructor(status: number, code: string, message: string, details?: unknown) {
+  constructor(status: number, code: ApiErrorCode | ClientErrorCode, message: string, details?: unknown) {
     super(message);
     this.name = 'ApiError';
     this.status = status;
@@ -49,20 +51,21 @@ function buildUrl(path: string, query?: Record<string, QueryValue>): string {
   return text ? `${url}?${text}` : url;
 }
 
-function errorFromBody(status: number, body: unknown, statusText: string): ApiError {
+/** The ApiError of a failed answer: the server's `{ error }` body, else a sentence for the status. */
+export function errorFromBody(status: number, body: unknown, statusText: string): ApiError {
   if (typeof body === 'object' && body !== null && 'error' in body) {
     const error = (body as { error: unknown }).error;
     if (typeof error === 'object' && error !== null) {
       const { code, message, details } = error as { code?: unknown; message?: unknown; details?: unknown };
       return new ApiError(
         status,
-        typeof code === 'string' ? code : `http_${status}`,
+        typeof code === 'string' ? (code as ApiErrorCode) : 'http.failed',
         typeof message === 'string' ? message : statusText || `Request failed (${status})`,
         details,
       );
     }
   }
-  return new ApiError(status, `http_${status}`, statusMessage(status, statusText));
+  return new ApiError(status, 'http.failed', statusMessage(status, statusText));
 }
 
 function statusMessage(status: number, statusText: string): string {
@@ -96,12 +99,12 @@ async function request<T>(method: string, path: string, options: RequestOptions 
     });
   } catch (cause) {
     if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
-    throw new ApiError(0, 'network', 'Cannot reach the Parley server. Check your connection and try again.');
+    throw new ApiError(0, 'network.unreachable', 'Cannot reach the Parley server. Check your connection and try again.');
   }
 
   if (response.status === 204) return undefined as T;
   const text = await response.text();
-  let parsed: unknown = undefined;
+  let parsed: unknown;
   if (text) {
     try {
       parsed = JSON.parse(text);

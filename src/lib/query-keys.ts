@@ -12,3 +12,16 @@ export function createQueryKeys<const TName extends string>(name: TName) {
     detail: (id: string | number) => [...all, 'detail', String(id)] as const,
   };
 }
+
+/**
+ * Every resource's keys, made here once: two features that read one endpoint share its cache,
+ * and a mutation in one feature refreshes what another shows.
+ */
+export const auditKeys = createQueryKeys('audit');
+export const deviceKeys = createQueryKeys('devices');
+export const outboxKeys = createQueryKeys('outbox');
+export const runKeys = createQueryKeys('runs');
+export const tokenKeys = createQueryKeys('tokens');
+export const traceKeys = createQueryKeys('traces');
+export const userKeys = createQueryKeys('users');
+export const vectorKeys = createQueryKeys('vectors');

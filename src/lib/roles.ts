@@ -1,6 +1,7 @@
-/** Roles as the server defines them (docs/api.md). */
-export const roles = ['admin', 'engineer', 'qa', 'support', 'viewer'] as const;
-export type Role = (typeof roles)[number];
+/** Labels of the roles; the roles and their groups are the API's (shared/api/roles.ts). */
+import { roles, type Role } from '../../shared/api/index.ts';
+
+export { isRole, roleGroups, roles, type Role } from '../../shared/api/index.ts';
 
 export const roleLabels: Record<Role, string> = {
   admin: 'Admin',
@@ -11,7 +12,3 @@ export const roleLabels: Record<Role, string> = {
 };
 
 export const everyRole: readonly Role[] = roles;
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (roles as readonly string[]).includes(value);
-}

@@ -17,13 +17,13 @@ describe('error replies', () => {
     const res = await t.request().post('/api/auth/login').set('Content-Type', 'application/json').send('{"email":');
     expect(res.status).toBe(400);
     expect(res.headers['content-type']).toMatch(/application\/json/);
-    expect(res.body.error).toEqual({ code: 'malformed_json', message: 'body: malformed JSON' });
+    expect(res.body.error).toEqual({ code: 'input.malformed-json', message: 'body: malformed JSON' });
   });
 
   it('answers wrong types with 400 and "field: message"', async () => {
     const res = await t.request().post('/api/auth/login').send({ email: 42, password: 'x' });
     expect(res.status).toBe(400);
-    expect(res.body.error.code).toBe('invalid_input');
+    expect(res.body.error.code).toBe('input.invalid');
     expect(res.body.error.message).toMatch(/^email: /);
     expect(res.body.error.details).toEqual([{ path: 'email', message: expect.any(String) }]);
   });
@@ -44,13 +44,13 @@ describe('error replies', () => {
   it('answers an unknown API route with 404 JSON', async () => {
     const res = await t.request().get('/api/no/such/thing?x=1');
     expect(res.status).toBe(404);
-    expect(res.body.error).toEqual({ code: 'no_route', message: 'No API route GET /api/no/such/thing' });
+    expect(res.body.error).toEqual({ code: 'route.not-found', message: 'No API route GET /api/no/such/thing' });
   });
 
   it('answers an oversized body with 413 JSON', async () => {
     const res = await t.request().post('/api/auth/login').send({ email: 'a@b.example', password: 'x'.repeat(1_100_000) });
     expect(res.status).toBe(413);
-    expect(res.body.error.code).toBe('too_large');
+    expect(res.body.error.code).toBe('request.too-large');
     expectErrorShape(res.body);
   });
 
@@ -59,7 +59,7 @@ describe('error replies', () => {
     for (let i = 0; i < 3; i += 1) expect((await attempt('viewer@kestrel.example')).status).toBe(401);
     const limited = await attempt('viewer@kestrel.example');
     expect(limited.status).toBe(429);
-    expect(limited.body.error.code).toBe('rate_limited');
+    expect(limited.body.error.code).toBe('request.rate-limited');
     expect(limited.headers['ratelimit-policy']).toBeDefined();
     // Another account from the same address is not locked out.
     expect((await attempt('qa@kestrel.example')).status).toBe(401);
@@ -72,7 +72,7 @@ describe('error replies', () => {
     const res = await broken.request().get('/api/boom');
     await broken.close();
     expect(res.status).toBe(500);
-    expect(res.body.error.code).toBe('internal');
+    expect(res.body.error.code).toBe('server.internal');
     expect(res.text).not.toContain('secret detail');
   });
 });

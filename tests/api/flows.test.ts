@@ -56,7 +56,7 @@ describe('invitation', () => {
     const admin = await t.signInAs('admin');
     const res = await admin.post('/api/users/invite').send({ email: 'qa@kestrel.example', name: 'Q', role: 'qa' });
     expect(res.status).toBe(409);
-    expect(res.body.error.code).toBe('user_exists');
+    expect(res.body.error.code).toBe('user.exists');
   });
 });
 
@@ -91,7 +91,7 @@ describe('password reset', () => {
     clock.advance(61 * 60_000);
     const res = await t.request().post('/api/auth/reset').send({ token, password: 'a-new-password-2' });
     expect(res.status).toBe(404);
-    expect(res.body.error.code).toBe('invalid_token');
+    expect(res.body.error.code).toBe('token.invalid');
   });
 });
 
@@ -112,7 +112,7 @@ describe('sessions', () => {
   it('refuses a bearer token while no verifier is installed', async () => {
     const res = await t.request().get('/api/me').set('Authorization', 'Bearer abc');
     expect(res.status).toBe(401);
-    expect(res.body.error.code).toBe('bearer_not_accepted');
+    expect(res.body.error.code).toBe('token.not-accepted');
   });
 });
 
@@ -129,7 +129,7 @@ describe('user administration', () => {
     expect((await engineer.get('/api/me')).status).toBe(401);
     const login = await t.request().post('/api/auth/login').send({ email: 'engineer@kestrel.example', password: 'parley-demo' });
     expect(login.status).toBe(401);
-    expect(login.body.error.code).toBe('account_deactivated');
+    expect(login.body.error.code).toBe('account.deactivated');
 
     expect((await admin.patch(`/api/users/${id}`).send({ active: true })).status).toBe(200);
     expect((await t.request().post('/api/auth/login').send({ email: 'engineer@kestrel.example', password: 'parley-demo' })).status).toBe(200);

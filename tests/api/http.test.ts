@@ -71,7 +71,7 @@ describe('serving the built client', () => {
     expect(asset.status).toBe(404);
     const api = await t.request().get('/api/vectors-not-yet');
     expect(api.status).toBe(404);
-    expect(api.body.error.code).toBe('no_route');
+    expect(api.body.error.code).toBe('route.not-found');
   });
 
   it('serves the API alone when dist/ is missing', async () => {

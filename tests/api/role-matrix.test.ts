@@ -33,7 +33,7 @@ describe.each(routeTable.map((def) => [`${def.method.toUpperCase()} ${def.path}`
       expect([401, 403], JSON.stringify(res.body)).not.toContain(res.status);
     } else {
       expect(res.status).toBe(role === null ? 401 : 403);
-      expect(res.body.error.code).toBe(role === null ? 'unauthorized' : 'forbidden');
+      expect(res.body.error.code).toBe(role === null ? 'auth.required' : 'role.forbidden');
     }
   });
 });

@@ -136,7 +136,7 @@ describe('POST /api/traces', () => {
     const big = Buffer.alloc(50 * 1024 * 1024 + 10, 0x20);
     const res = await support.post('/api/traces').attach('file', big, 'huge.txt');
     expect(res.status).toBe(413);
-    expect(res.body.error).toMatchObject({ code: 'too_large', message: 'file: the file is larger than the server accepts' });
+    expect(res.body.error).toMatchObject({ code: 'request.too-large', message: 'file: the file is larger than the server accepts' });
     expect(storedFiles().filter((f) => f.startsWith('.incoming-'))).toEqual([]);
   });
 

@@ -13,7 +13,7 @@ import { traceStore } from '../../features/traces/store.ts';
 import { sniffTrace, SNIFF_BYTES } from '../../features/traces/sniff.ts';
 import { traceAnalysisHandler } from '../../features/traces/analyse.ts';
 import { createAnalysisPool } from '../../analysis/pool.ts';
-import type { ProgressEvent } from '../../features/traces/progress.ts';
+import type { AnalysisEvent } from '../../../shared/api/index.ts';
 import { createQueuedTrace } from '../../features/traces/new-trace.ts';
 import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 
@@ -53,7 +53,7 @@ export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: s
   try {
     const analyse = traceAnalysisHandler({ fork: () => em.fork(), clock, store, pool });
     for (const row of rows) {
-      let final: ProgressEvent | undefined;
+      let final: AnalysisEvent | undefined;
       await analyse({ traceId: row.id }, { key: String(row.id), publish: (event) => (final = event), signal: new AbortController().signal });
       if (final?.type !== 'done') throw new Error(`demo trace ${row.fileName}: ${final?.type === 'failed' ? final.error.message : 'not analysed'}`);
     }

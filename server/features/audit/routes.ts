@@ -1,11 +1,7 @@
 import { z } from 'zod';
 import { AuditEvent } from '../../db/entities.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-
-export const pageQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
-});
+import { pageQuery } from '../../http/schemas.ts';
 
 /** Filters of the audit log: an action or an action family ("vector." for all vector changes), who, and what. */
 const auditQuery = pageQuery.extend({

@@ -3,6 +3,7 @@ import { User } from '../../db/entities.ts';
 import { findOrganisation } from '../../db/organisation.ts';
 import { conflict, notFound, unauthorized } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
+import { emailSchema } from '../../http/schemas.ts';
 import { resetMail } from '../../mail/templates.ts';
 import { recordAudit } from '../audit/record.ts';
 import { checkPassword, decoyHash, hashPassword, passwordSchema } from './passwords.ts';
@@ -10,12 +11,6 @@ import { presentUser } from './present.ts';
 import { limitByAddressAndEmail } from './rate-limit.ts';
 import { endSession, startSession } from './session.ts';
 import { findLiveToken, issueToken, resetValidMinutes, retireTokens } from './tokens.ts';
-
-export const emailSchema = z
-  .string()
-  .trim()
-  .toLowerCase()
-  .pipe(z.email('must be an e-mail address').max(254));
 
 const tokenParams = z.object({ token: z.string().min(10).max(200) });
 
@@ -33,12 +28,12 @@ export const authRoutes: RouteDef[] = [
       if (!user || !user.passwordHash || !matches) {
         recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: body.email, details: { reason: user ? 'wrong_password' : 'unknown_email' } });
         await em.flush();
-        throw unauthorized('The e-mail address or the password is wrong', 'invalid_credentials');
+        throw unauthorized('The e-mail address or the password is wrong', 'auth.invalid-credentials');
       }
       if (!user.active) {
         recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: body.email, details: { reason: 'deactivated' } });
         await em.flush();
-        throw unauthorized('This account is deactivated; ask an administrator to reactivate it', 'account_deactivated');
+        throw unauthorized('This account is deactivated; ask an administrator to reactivate it', 'account.deactivated');
       }
       user.lastSignInAt = deps.clock.now();
       recordAudit(em, deps.clock, { actor: user, action: 'auth.sign_in', target: user.email });
@@ -108,7 +103,7 @@ export const authRoutes: RouteDef[] = [
     async handler({ em, body, res, deps }) {
       const token = await findLiveToken(em, deps.clock, body.token, 'reset');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
-      if (!token || !user || !user.active) throw notFound('This reset link is invalid, used or expired; ask for a new one', 'invalid_token');
+      if (!token || !user || !user.active) throw notFound('This reset link is invalid, used or expired; ask for a new one', 'token.invalid');
       user.passwordHash = await hashPassword(body.password);
       user.sessionVersion += 1;
       user.lastSignInAt = deps.clock.now();
@@ -127,7 +122,7 @@ export const authRoutes: RouteDef[] = [
     async handler({ em, params, deps }) {
       const token = await findLiveToken(em, deps.clock, params.token, 'invite');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
-      if (!token || !user || !user.invitePending) throw notFound('This invitation is invalid, used or expired', 'invalid_token');
+      if (!token || !user || !user.invitePending) throw notFound('This invitation is invalid, used or expired', 'token.invalid');
       return { email: user.email, name: user.name, role: user.role };
     },
   }),
@@ -140,9 +135,9 @@ export const authRoutes: RouteDef[] = [
     async handler({ em, params, body, res, deps }) {
       const token = await findLiveToken(em, deps.clock, params.token, 'invite');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
-      if (!token || !user) throw notFound('This invitation is invalid, used or expired', 'invalid_token');
-      if (!user.invitePending) throw conflict('This invitation was already accepted; sign in instead', 'invite_used');
-      if (!user.active) throw unauthorized('This account is deactivated; ask an administrator to reactivate it', 'account_deactivated');
+      if (!token || !user) throw notFound('This invitation is invalid, used or expired', 'token.invalid');
+      if (!user.invitePending) throw conflict('This invitation was already accepted; sign in instead', 'invite.used');
+      if (!user.active) throw unauthorized('This account is deactivated; ask an administrator to reactivate it', 'account.deactivated');
       user.passwordHash = await hashPassword(body.password);
       user.invitePending = false;
       if (body.name) user.name = body.name;

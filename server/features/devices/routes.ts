@@ -1,8 +1,9 @@
 import { z } from 'zod';
-import { DeviceUnderTest, deviceRoles, type IDeviceUnderTest } from '../../db/entities.ts';
+import { deviceRoles, roleGroups, type Device } from '../../../shared/api/index.ts';
+import { DeviceUnderTest, type IDeviceUnderTest } from '../../db/entities.ts';
 import { notFound } from '../../errors.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-import { idParams } from '../outbox/routes.ts';
+import { idParams } from '../../http/schemas.ts';
 
 /** One 32-bit PDO word: 8 hex digits, optional 0x; stored lower-case without the prefix. */
 const pdoHex = z
@@ -34,7 +35,7 @@ const createSchema = z.object({
 
 const patchSchema = z.object(deviceFields).partial().refine((b) => Object.keys(b).length > 0, 'give at least one field');
 
-const present = (d: IDeviceUnderTest) => ({
+const present = (d: IDeviceUnderTest): Device => ({
   id: d.id,
   name: d.name,
   maker: d.maker,
@@ -46,7 +47,7 @@ const present = (d: IDeviceUnderTest) => ({
   notes: d.notes,
 });
 
-const editors = ['admin', 'engineer', 'qa'] as const;
+const editors = roleGroups.editors;
 
 export const devicesRoutes: RouteDef[] = [
   route({

@@ -1,10 +1,7 @@
-import { z } from 'zod';
 import { OutboxMessage } from '../../db/entities.ts';
 import { notFound } from '../../errors.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-import { pageQuery } from '../audit/routes.ts';
-
-export const idParams = z.object({ id: z.coerce.number().int().positive() });
+import { idParams, pageQuery } from '../../http/schemas.ts';
 
 export const outboxRoutes: RouteDef[] = [
   route({

@@ -15,7 +15,7 @@ import { builtInVectorsDir } from '../vectors/seed.ts';
 import type { VectorResult } from '../../../shared/vectors/index.ts';
 import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import { mailAuthors, markNewFailures } from './notify.ts';
-import type { RunEvent } from './progress.ts';
+import type { RunEvent } from '../../../shared/api/index.ts';
 
 export const vectorRunJob = jobKind<{ runId: number; vectorIds: string[] }, RunEvent>('vector-run');
 

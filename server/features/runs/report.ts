@@ -5,6 +5,7 @@
  */
 import { XMLParser } from 'fast-xml-parser';
 import { z } from 'zod';
+import { MAX_REPORT_CASES } from '../../../shared/api/index.ts';
 
 export interface ReportedResult {
   id: string;
@@ -15,7 +16,6 @@ export interface ReportedResult {
 
 export type ReportRead = { ok: true; format: 'junit' | 'json'; results: ReportedResult[] } | { ok: false; message: string };
 
-export const MAX_REPORT_CASES = 20_000;
 
 const jsonReport = z.object({
   ok: z.boolean().optional(),

@@ -1,6 +1,7 @@
 import express, { type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
+import { MAX_REPORT_BYTES, roleGroups, type Run, type RunResult as PresentedResult } from '../../../shared/api/index.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
 import { badRequest, notFound } from '../../errors.ts';
@@ -14,8 +15,7 @@ import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
 import { readJsonReport, readReportText, type ReportRead } from './report.ts';
 
 /** api.md: engineers and QA run vectors (CI posts with a token, which acts with the qa role). */
-export const runStarters = ['admin', 'engineer', 'qa'] as const;
-export const MAX_REPORT_BYTES = 20 * 1024 * 1024;
+const runStarters = roleGroups.editors;
 
 const runIdParams = z.object({ id: z.coerce.number().int().positive() });
 
@@ -41,11 +41,11 @@ const listQuery = z.object({
 
 const ciFields = z.object({ project: projectName.optional(), build: buildName.optional() });
 
-export function presentRun(run: ITestRun) {
+export function presentRun(run: ITestRun): Run {
   return {
     id: run.id,
     project: run.project,
-    build: run.build,
+    build: run.build ?? null,
     source: run.source,
     status: run.status,
     selection: run.selection,
@@ -55,21 +55,21 @@ export function presentRun(run: ITestRun) {
     failed: run.failed,
     newFailures: run.newFailures,
     startedBy: run.startedByName,
-    error: run.errorMessage,
+    error: run.errorMessage ?? null,
     createdAt: run.createdAt.toISOString(),
     finishedAt: run.finishedAt?.toISOString() ?? null,
   };
 }
 
-function presentResult(result: IRunResult) {
+function presentResult(result: IRunResult): Omit<PresentedResult, 'inLibrary'> {
   return {
     id: result.id,
     vectorId: result.vectorId,
-    title: result.title,
-    kind: result.kind,
-    revision: result.vectorRevision,
+    title: result.title ?? null,
+    kind: result.kind ?? null,
+    revision: result.vectorRevision ?? null,
     ok: result.ok,
-    message: result.message,
+    message: result.message ?? null,
     durationMs: result.durationMs,
     newFailure: result.newFailure,
     ...(result.ok ? {} : { expected: result.detail?.expected, actual: result.detail?.actual, mismatches: result.detail?.mismatches, counterexampleVector: result.detail?.counterexampleVector }),
@@ -117,7 +117,7 @@ export const runsRoutes: RouteDef[] = [
       const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' }, fields: ['vectorId'] });
       if (body.ids) {
         const missing = body.ids.filter((id) => !rows.some((r) => r.vectorId === id));
-        if (missing.length > 0) throw badRequest(`ids: not in the library: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ` and ${missing.length - 5} more` : ''}`, 'invalid_input');
+        if (missing.length > 0) throw badRequest(`ids: not in the library: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ` and ${missing.length - 5} more` : ''}`, 'input.invalid');
       }
       if (rows.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
       const selection = body.all ? 'all' : body.ids ? (body.ids.length === 1 ? body.ids[0]! : `${body.ids.length} selected`) : describeFilter(body.filter ?? {});
@@ -166,15 +166,15 @@ export const runsRoutes: RouteDef[] = [
       });
       if (!fields.success) {
         const issue = fields.error.issues[0]!;
-        throw badRequest(`${issue.path.join('.')}: ${issue.message}`, 'invalid_input');
+        throw badRequest(`${issue.path.join('.')}: ${issue.message}`, 'input.invalid');
       }
       const { build } = fields.data;
       let project = fields.data.project;
       if (token) {
-        if (project !== undefined && project !== token.project) throw badRequest(`project: this token posts to "${token.project}", not "${project}"`, 'invalid_input');
+        if (project !== undefined && project !== token.project) throw badRequest(`project: this token posts to "${token.project}", not "${project}"`, 'input.invalid');
         project = token.project;
       }
-      if (project === undefined) throw badRequest('project: say which project these results belong to', 'invalid_input');
+      if (project === undefined) throw badRequest('project: say which project these results belong to', 'input.invalid');
       const report = readPosted(req);
       if (!report.ok) throw badRequest(report.message, 'run.bad-report');
 

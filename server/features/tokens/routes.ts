@@ -3,7 +3,7 @@ import { ApiToken, type IApiToken } from '../../db/library-entities.ts';
 import { notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
-import { idParams } from '../outbox/routes.ts';
+import { idParams } from '../../http/schemas.ts';
 import { projectName } from '../runs/project.ts';
 import { hashToken, newToken } from './verify.ts';
 

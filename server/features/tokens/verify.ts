@@ -56,7 +56,7 @@ export const verifyApiToken: BearerVerifier = async (token: string, em: EntityMa
   const row = await em.findOne(ApiToken, { tokenHash: hashToken(token), revokedAt: null });
   if (!row) return null;
   if (req.method !== TOKEN_ROUTE.method || pathOf(req) !== TOKEN_ROUTE.path) {
-    throw forbidden('An API token may only post test results (POST /api/runs); sign in for everything else', 'token_scope');
+    throw forbidden('An API token may only post test results (POST /api/runs); sign in for everything else', 'token.out-of-scope');
   }
   await em.nativeUpdate(ApiToken, { id: row.id }, { lastUsedAt: new Date() });
   tokensOfRequests.set(req, row);

@@ -11,13 +11,13 @@ import type { Clock } from '../../context.ts';
 import type { AnalysisPool } from '../../analysis/pool.ts';
 import type { TraceFormat } from '../../../shared/trace/index.ts';
 import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
-import type { ProgressEvent } from './progress.ts';
+import type { AnalysisEvent } from '../../../shared/api/index.ts';
 import type { TraceStore } from './store.ts';
 
-export const traceAnalysisJob = jobKind<{ traceId: number }, ProgressEvent>('trace-analysis');
+export const traceAnalysisJob = jobKind<{ traceId: number }, AnalysisEvent>('trace-analysis');
 
 /** The final event of a trace's analysis as its row tells it, or its progress while it is not over. */
-export function traceEvent(trace: ITrace | null): ProgressEvent {
+export function traceEvent(trace: ITrace | null): AnalysisEvent {
   if (!trace) return { type: 'failed', status: 'failed', error: { code: 'trace.not-a-trace', message: 'This is not a trace: nothing in the file could be read.' } };
   if (trace.status === 'done') return { type: 'done', status: 'done', summary: trace.summary ?? '', counts: { error: trace.errorCount, warning: trace.warningCount, info: trace.infoCount } };
   if (trace.status === 'failed') return { type: 'failed', status: 'failed', error: { code: trace.errorCode ?? 'analysis.failed', message: trace.errorMessage ?? 'The analysis failed.' } };
@@ -32,7 +32,7 @@ export interface AnalysisJobDeps {
   pool: AnalysisPool;
 }
 
-export function traceAnalysisHandler(deps: AnalysisJobDeps): JobHandler<{ traceId: number }, ProgressEvent> {
+export function traceAnalysisHandler(deps: AnalysisJobDeps): JobHandler<{ traceId: number }, AnalysisEvent> {
   return async ({ traceId }, job) => {
     try {
       await analyse(deps, traceId, job);
@@ -45,7 +45,7 @@ export function traceAnalysisHandler(deps: AnalysisJobDeps): JobHandler<{ traceI
   };
 }
 
-async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number, job: JobContext<ProgressEvent>): Promise<void> {
+async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number, job: JobContext<AnalysisEvent>): Promise<void> {
   const em = fork();
   const row = await em.findOne(Trace, { id });
   // Deleted, or finished by an earlier attempt: nothing to do but tell the subscribers.

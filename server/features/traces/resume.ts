@@ -7,7 +7,7 @@ import type { Orm } from '../../db/orm.ts';
 import { Trace } from '../../db/trace-entities.ts';
 import type { JobQueue } from '../../jobs/types.ts';
 import { traceAnalysisJob } from './analyse.ts';
-import type { ProgressEvent } from './progress.ts';
+import type { AnalysisEvent } from '../../../shared/api/index.ts';
 
 export interface ResumeInput {
   orm: Orm;
@@ -17,7 +17,7 @@ export interface ResumeInput {
 }
 
 /** Queues the analysis of every unfinished trace; resolves with the ids queued and, later, their final events. */
-export async function resumeUnfinishedTraces({ orm, jobs, onError }: ResumeInput): Promise<{ ids: number[]; done: Promise<ProgressEvent[]> }> {
+export async function resumeUnfinishedTraces({ orm, jobs, onError }: ResumeInput): Promise<{ ids: number[]; done: Promise<AnalysisEvent[]> }> {
   const rows = await orm.em.fork().find(Trace, { status: { $in: ['queued', 'analysing'] } }, { orderBy: { id: 'asc' }, fields: ['id'] });
   const finals = await Promise.all(rows.map((row) => jobs.enqueue(traceAnalysisJob, row.id, { traceId: row.id })));
   const done = Promise.all(

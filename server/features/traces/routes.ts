@@ -7,11 +7,13 @@ import { rateLimit } from 'express-rate-limit';
 import { raw, UniqueConstraintViolationException } from '@mikro-orm/core';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
+import { MAX_TRACE_BYTES, roleGroups, type AnalysisEvent } from '../../../shared/api/index.ts';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, TraceComment, type ITrace } from '../../db/trace-entities.ts';
 import type { AppDeps } from '../../context.ts';
 import { badGateway, badRequest, conflict, forbidden, notFound, rateLimited } from '../../errors.ts';
 import { currentUser, route, type RouteContext, type RouteDef } from '../../route-def.ts';
+import { idParams } from '../../http/schemas.ts';
 import { recordAudit } from '../audit/record.ts';
 import type { Analysis, TraceFormat } from '../../../shared/trace/index.ts';
 import { traceAnalysisJob, traceEvent } from './analyse.ts';
@@ -25,12 +27,10 @@ import { hashingStorage, type ReceivedTrace } from './store.ts';
 import { traceVectorText, vectorIdOf } from './vector.ts';
 
 /** api.md: admin, engineer, qa and support work with traces; viewers read them. */
-export const traceWriters = ['admin', 'engineer', 'qa', 'support'] as const;
-export const MAX_TRACE_BYTES = 50 * 1024 * 1024;
+const traceWriters = roleGroups.traceWriters;
 /** Most records a `trace` vector file may hold. */
 const VECTOR_RECORD_LIMIT = 100_000;
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
 
@@ -151,7 +151,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   const sniffed = sniffTrace(file.head, file.size <= file.head.length);
   if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
   if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
-    throw badRequest('deviceId: no device under test has that id', 'invalid_input');
+    throw badRequest('deviceId: no device under test has that id', 'input.invalid');
   }
   const devices = await deviceMap(em);
   const duplicateOf = async () => {
@@ -197,7 +197,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
     return { trace: presentTrace(trace, devices), analysis: null };
   }
   const outcome = await job.finished;
-  if (outcome.type === 'failed' && outcome.error.code === 'trace.not-a-trace') throw badRequest(outcome.error.message, outcome.error.code);
+  if (outcome.type === 'failed' && outcome.error.code === 'trace.not-a-trace') throw badRequest(outcome.error.message, 'trace.not-a-trace');
   const fresh = await findTrace(em.fork(), trace.id, true);
   res.status(201);
   return { trace: presentTrace(fresh, devices), analysis: fresh.analysis ?? null };
@@ -400,7 +400,10 @@ export const tracesRoutes: RouteDef[] = [
       const trace = await findTrace(em, params.id, true);
       const analysis = analysedOrConflict(trace);
       const read = await deps.analysisPool.records(deps.traceStore.pathOf(trace.sha256), trace.format as TraceFormat, VECTOR_RECORD_LIMIT);
-      if (!read.ok) throw badRequest(`The trace cannot be kept as a vector: ${read.error.message}`, read.error.code);
+      if (!read.ok) {
+        const code = read.error.code === 'trace.too-many-records' ? 'trace.too-many-records' : 'trace.unreadable';
+        throw badRequest(`The trace cannot be kept as a vector: ${read.error.message}`, code, { engineCode: read.error.code });
+      }
       const presented = presentTrace(trace, await deviceMap(em));
       res.attachment(`${vectorIdOf(presented).split('/').pop()}.vector.json`);
       res.type('application/json; charset=utf-8');

@@ -5,10 +5,10 @@ import { badGateway, badRequest, conflict, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { inviteMail } from '../../mail/templates.ts';
 import { recordAudit } from '../audit/record.ts';
-import { emailSchema } from '../auth/routes.ts';
+import { emailSchema } from '../../http/schemas.ts';
 import { presentUserAdmin } from '../auth/present.ts';
 import { inviteValidDays, issueToken, retireTokens } from '../auth/tokens.ts';
-import { idParams } from '../outbox/routes.ts';
+import { idParams } from '../../http/schemas.ts';
 
 const nameSchema = z.string().trim().min(1, 'is required').max(120);
 
@@ -32,7 +32,7 @@ export const usersRoutes: RouteDef[] = [
       const admin = currentUser(ctx);
       const organisation = await findOrganisation(em);
       let user = await em.findOne(User, { email: body.email });
-      if (user && !user.invitePending) throw conflict(`email: ${body.email} already has an account`, 'user_exists');
+      if (user && !user.invitePending) throw conflict(`email: ${body.email} already has an account`, 'user.exists');
       if (user) {
         // Inviting a pending address again replaces its earlier link.
         user.name = body.name;
@@ -68,7 +68,7 @@ export const usersRoutes: RouteDef[] = [
         await deps.mailer.send(mail);
       } catch (err) {
         deps.logger.error({ err, to: user.email }, 'invite mail failed');
-        throw badGateway('The invitation was saved but the mail could not be sent; invite again to retry', 'mail_failed');
+        throw badGateway('The invitation was saved but the mail could not be sent; invite again to retry', 'mail.not-sent');
       }
       res.status(201);
       return { user: presentUserAdmin(user) };
@@ -88,8 +88,8 @@ export const usersRoutes: RouteDef[] = [
       const user = await em.findOne(User, { id: params.id });
       if (!user) throw notFound('No such user');
       const self = user.id === admin.id;
-      if (self && body.active === false) throw badRequest('active: you cannot deactivate your own account', 'self_change');
-      if (self && body.role !== undefined && body.role !== user.role) throw badRequest('role: you cannot change your own role', 'self_change');
+      if (self && body.active === false) throw badRequest('active: you cannot deactivate your own account', 'user.self-change');
+      if (self && body.role !== undefined && body.role !== user.role) throw badRequest('role: you cannot change your own role', 'user.self-change');
       if (body.role !== undefined && body.role !== user.role) {
         recordAudit(em, deps.clock, { actor: admin, action: 'user.role_changed', target: user.email, details: { from: user.role, to: body.role } });
         user.role = body.role;

@@ -1,13 +1,10 @@
 /** JSON shapes of the vectors API: a list row, and a full vector (its file keys plus server fields). */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
+import type { DeviceRef, LastResult, RevisionSummary, Revision, StoredVector, VectorListItem, VectorMeta } from '../../../shared/api/index.ts';
 import { DeviceUnderTest } from '../../db/entities.ts';
 import { RunResult, type ITeamVector, type IVectorRevision } from '../../db/library-entities.ts';
 import { tagsOf } from './store.ts';
 
-export interface DeviceRef {
-  id: number;
-  name: string;
-}
 
 export async function deviceRefs(em: EntityManager): Promise<Map<number, DeviceRef>> {
   const devices = await em.find(DeviceUnderTest, {}, { fields: ['id', 'name'] });
@@ -18,7 +15,7 @@ function fileOf(row: ITeamVector): Record<string, unknown> {
   return JSON.parse(row.text) as Record<string, unknown>;
 }
 
-function metaOf(row: ITeamVector, devices: Map<number, DeviceRef>) {
+function metaOf(row: ITeamVector, devices: Map<number, DeviceRef>): VectorMeta {
   return {
     device: row.deviceId == null ? null : (devices.get(row.deviceId) ?? null),
     author: { id: row.authorId, name: row.authorName },
@@ -32,16 +29,11 @@ function metaOf(row: ITeamVector, devices: Map<number, DeviceRef>) {
  * The vector as its file says, plus `revision`, `deviceId` and `meta`: a client can send the
  * same object back with PUT (the server strips those three before validating the file).
  */
-export function presentVector(row: ITeamVector, devices: Map<number, DeviceRef>) {
-  return { ...fileOf(row), revision: row.revision, deviceId: row.deviceId ?? null, meta: metaOf(row, devices) };
+export function presentVector(row: ITeamVector, devices: Map<number, DeviceRef>): StoredVector {
+  return {
+    id: row.vectorId, ...fileOf(row), revision: row.revision, deviceId: row.deviceId ?? null, meta: metaOf(row, devices) };
 }
 
-export interface LastResult {
-  runId: number;
-  ok: boolean;
-  message: string | null;
-  at: string;
-}
 
 /** The newest stored result of each vector id. */
 export async function lastResults(em: EntityManager, vectorIds: readonly string[]): Promise<Map<string, LastResult>> {
@@ -54,7 +46,7 @@ export async function lastResults(em: EntityManager, vectorIds: readonly string[
   return new Map(results.map((r) => [r.vectorId, { runId: r.runId, ok: r.ok, message: r.message ?? null, at: r.createdAt.toISOString() }]));
 }
 
-export function presentListItem(row: ITeamVector, devices: Map<number, DeviceRef>, last: LastResult | undefined) {
+export function presentListItem(row: ITeamVector, devices: Map<number, DeviceRef>, last: LastResult | undefined): VectorListItem {
   const file = fileOf(row);
   return {
     id: row.vectorId,
@@ -69,7 +61,7 @@ export function presentListItem(row: ITeamVector, devices: Map<number, DeviceRef
   };
 }
 
-export function presentRevision(revision: Pick<IVectorRevision, 'revision' | 'message' | 'authorId' | 'authorName' | 'createdAt'> & { text?: string }, withText: boolean) {
-  const base = { revision: revision.revision, message: revision.message, author: { id: revision.authorId, name: revision.authorName }, createdAt: revision.createdAt.toISOString() };
+export function presentRevision(revision: Pick<IVectorRevision, 'revision' | 'message' | 'authorId' | 'authorName' | 'createdAt'> & { text?: string }, withText: boolean): RevisionSummary | Revision {
+  const base: RevisionSummary = { revision: revision.revision, message: revision.message, author: { id: revision.authorId, name: revision.authorName }, createdAt: revision.createdAt.toISOString() };
   return withText && revision.text !== undefined ? { ...base, text: revision.text, vector: JSON.parse(revision.text) as Record<string, unknown> } : base;
 }

@@ -1,5 +1,6 @@
 import multer from 'multer';
 import { z } from 'zod';
+import { MAX_IMPORT_ZIP_BYTES, roleGroups } from '../../../shared/api/index.ts';
 import { createTwoFilesPatch, diffLines } from 'diff';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-entities.ts';
@@ -13,9 +14,8 @@ import { checkDevice, checkVectorFile, createVector, findVector, reviseVector, t
 import { libraryZip, readLibraryZip } from './zip.ts';
 
 /** api.md: admin, engineer and qa write vectors; everyone signed in reads them. */
-export const vectorWriters = ['admin', 'engineer', 'qa'] as const;
-export const vectorDeleters = ['admin', 'qa'] as const;
-export const MAX_IMPORT_ZIP_BYTES = 10 * 1024 * 1024;
+const vectorWriters = roleGroups.editors;
+const vectorDeleters = roleGroups.vectorDeleters;
 
 const idParams = z.object({ id: z.string().regex(VECTOR_ID_PATTERN, 'must be a vector id such as caps/power-rules/45w-without-9v (URL-encode "/" as %2F)') });
 const revisionParams = idParams.extend({ n: z.coerce.number({ error: 'must be a revision number' }).int().positive('must be a revision number') });

@@ -4,6 +4,7 @@
  * each other (the second gets 409 with the stored version to merge against).
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
+import { storedVectorKeys } from '../../../shared/api/index.ts';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-entities.ts';
 import type { Clock } from '../../context.ts';
@@ -11,7 +12,7 @@ import { badRequest, conflict, fromZod, notFound } from '../../errors.ts';
 import { formatVector, vectorSchema, type Vector } from '../../../shared/vectors/index.ts';
 
 /** Top-level keys of a request body that belong to the server, not to the vector file. */
-export const META_KEYS = ['revision', 'message', 'deviceId', 'meta'] as const;
+const META_KEYS = storedVectorKeys;
 
 export interface CheckedVector {
   /** The file as the caller wrote it (defaults not filled in): what gets formatted and stored. */
@@ -22,7 +23,7 @@ export interface CheckedVector {
 
 /** Splits server fields off a body and validates the rest as a vector file ("field: message" on failure). */
 export function checkVectorFile(raw: unknown, location = 'body'): CheckedVector {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw badRequest(`${location}: must be a vector file (a JSON object)`, 'invalid_input');
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw badRequest(`${location}: must be a vector file (a JSON object)`, 'input.invalid');
   const file: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(raw)) if (!(META_KEYS as readonly string[]).includes(key)) file[key] = value;
   const parsed = vectorSchema.safeParse(file);
@@ -41,7 +42,7 @@ export function tagsOf(column: string): string[] {
 
 export async function checkDevice(em: EntityManager, deviceId: number | null | undefined): Promise<void> {
   if (deviceId === null || deviceId === undefined) return;
-  if (!(await em.findOne(DeviceUnderTest, { id: deviceId }))) throw badRequest('deviceId: no device under test has that id', 'invalid_input');
+  if (!(await em.findOne(DeviceUnderTest, { id: deviceId }))) throw badRequest('deviceId: no device under test has that id', 'input.invalid');
 }
 
 export async function findVector(em: EntityManager, vectorId: string): Promise<ITeamVector> {
@@ -110,7 +111,7 @@ export async function reviseVector(
 ): Promise<ITeamVector> {
   const { vector, text } = input.checked;
   if (vector.id !== row.vectorId) {
-    throw badRequest(`id: a saved vector keeps its id ("${row.vectorId}"); to rename, create a new vector and delete this one`, 'invalid_input');
+    throw badRequest(`id: a saved vector keeps its id ("${row.vectorId}"); to rename, create a new vector and delete this one`, 'input.invalid');
   }
   const next = input.baseRevision + 1;
   const now = clock.now();

@@ -3,13 +3,12 @@
  * folders), each exactly as stored. Entries are sorted and carry a fixed time, so the same
  * library always gives the same zip bytes; `parley run vectors` runs the unzipped folder.
  */
+import { MAX_IMPORT_BYTES, MAX_IMPORT_FILES } from '../../../shared/api/index.ts';
 import { strFromU8, strToU8, unzipSync, zipSync, type Zippable } from 'fflate';
 
 export const ZIP_FOLDER = 'vectors';
 /** DOS time stamps start in 1980; a fixed one keeps exports byte-stable. */
 const FIXED_MTIME = new Date('2000-01-01T00:00:00Z');
-export const MAX_IMPORT_FILES = 5_000;
-export const MAX_IMPORT_BYTES = 20 * 1024 * 1024;
 
 export function libraryZip(files: readonly { vectorId: string; text: string }[]): Uint8Array {
   const entries: Zippable = {};

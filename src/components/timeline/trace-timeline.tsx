@@ -1,5 +1,4 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { Button } from '../button.tsx';
 import { useIsDark } from '../../lib/theme.ts';
 import { cn } from '../../lib/cn.ts';
 import { visibleSpans } from './clusters.ts';
@@ -11,7 +10,8 @@ import { MessageLanes, type LaneMessage } from './message-lanes.tsx';
 import { MessageList } from './message-list.tsx';
 import { formatTimeUs, segmentStyle, type TimeWindow } from './time-window.ts';
 import { TimelineLegend } from './timeline-legend.tsx';
-import { windowAround, zoomWindow, type Measurement } from './trace-series.ts';
+import { TimelineToolbar } from './timeline-toolbar.tsx';
+import { windowAround, type Measurement } from './trace-series.ts';
 import { useElementWidth } from './use-element-width.ts';
 import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartBand } from './vbus-chart.tsx';
 
@@ -102,27 +102,7 @@ export function TraceTimeline({ measurements, messages, findings, events = NO_EV
 
   return (
     <div ref={root} className={cn('@container flex scroll-mt-4 flex-col gap-2', className)} data-testid="trace-timeline" data-window={`${window.startUs}-${window.endUs}`}>
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        <p className="font-mono text-xs text-slate-500 tabular dark:text-slate-400" aria-live="polite">
-          {formatTimeUs(window.startUs)} – {formatTimeUs(window.endUs)}
-          {whole ? ' (whole trace)' : ''}
-        </p>
-        <div className="flex flex-wrap items-center gap-2">
-          <label className="mr-2 flex items-center gap-1.5 text-xs text-slate-600 dark:text-slate-300">
-            <input type="checkbox" checked={foldGoodCrc} onChange={(event) => setFoldGoodCrc(event.target.checked)} className="accent-amber-500" />
-            Fold GoodCRC away
-          </label>
-          <Button size="sm" variant="secondary" onClick={() => setWindow(zoomWindow(window, 0.5, end))} aria-label="Zoom in">
-            Zoom in
-          </Button>
-          <Button size="sm" variant="secondary" onClick={() => setWindow(zoomWindow(window, 2, end))} disabled={whole} aria-label="Zoom out">
-            Zoom out
-          </Button>
-          <Button size="sm" variant="ghost" onClick={() => setWindow({ startUs: 0, endUs: end })} disabled={whole}>
-            Whole trace
-          </Button>
-        </div>
-      </div>
+      <TimelineToolbar window={window} endUs={end} onWindowChange={setWindow} foldGoodCrc={foldGoodCrc} onFoldGoodCrcChange={setFoldGoodCrc} subject="trace" />
       <div className="grid items-start gap-4 @6xl:grid-cols-[minmax(0,1fr)_34rem]">
         <div className="flex min-w-0 flex-col gap-2">
           <VbusChart measurements={measurements} window={window} endUs={end} pins={pins} events={chartEvents} bands={bands} onWindowChange={setWindow} dark={dark} />

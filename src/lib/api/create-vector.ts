@@ -3,9 +3,7 @@
  * editor and by the Bench's "Save to Library" (features do not import each other, so it lives here).
  */
 import { api } from '../api-client.ts';
-import { createQueryKeys } from '../query-keys.ts';
-
-export const vectorKeys = createQueryKeys('vectors');
+export { vectorKeys } from '../query-keys.ts';
 
 /** A stored vector as the API presents it: the vector file's fields plus its storage details. */
 export type CreatedVector = Record<string, unknown> & { id: string; revision: number };

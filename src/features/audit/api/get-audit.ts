@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
+import { auditKeys } from '../../../lib/query-keys.ts';
 
 export type AuditEvent = {
   id: number | string;
@@ -15,7 +15,6 @@ export type AuditResponse = { items: AuditEvent[]; total: number };
 /** `action` is one code or a family ending in "." ("vector." = every vector change); `actor` and `target` match any part. */
 export type AuditParams = { page: number; pageSize: number; action?: string; actor?: string; target?: string };
 
-export const auditKeys = createQueryKeys('audit');
 
 /** One page of the audit log, newest first; `page` counts from 1. */
 export async function getAudit(params: AuditParams, signal?: AbortSignal): Promise<AuditResponse> {

@@ -7,8 +7,8 @@ import { FindingPins } from '../../../components/timeline/finding-pins.tsx';
 import { MessageLanes } from '../../../components/timeline/message-lanes.tsx';
 import { StateLanes } from '../../../components/timeline/state-lanes.tsx';
 import { TimerSpans } from '../../../components/timeline/timer-spans.tsx';
-import { formatTimeUs, type TimeWindow } from '../../../components/timeline/time-window.ts';
-import { zoomWindow } from '../../../components/timeline/trace-series.ts';
+import type { TimeWindow } from '../../../components/timeline/time-window.ts';
+import { TimelineToolbar } from '../../../components/timeline/timeline-toolbar.tsx';
 import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartPin } from '../../../components/timeline/vbus-chart.tsx';
 import { chartMeasurements, laneMessagesOf, type RunMessage } from '../lib/timeline-data.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
@@ -39,7 +39,6 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
   );
   const events = useMemo(() => chartEventsOf(busEventsOf(run.events)), [run]);
   const end = Math.max(1, run.endUs);
-  const whole = window.startUs <= 0 && window.endUs >= end;
   const firstContractUs = run.contracts[0]?.t;
   const firstMessageUs = lanes[0]?.t ?? 0;
   // Chart, then messages and findings, then states and timers: one part a task, none of them long.
@@ -47,40 +46,21 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
 
   return (
     <div className="flex min-h-[32rem] flex-col gap-2 [contain:layout_style]" data-testid="bench-timeline">
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        <p className="font-mono text-xs text-slate-500 tabular dark:text-slate-400" aria-live="polite" data-testid="timeline-window">
-          {formatTimeUs(window.startUs)} – {formatTimeUs(window.endUs)}
-          {whole ? ' (whole run)' : ''}
-        </p>
-        <div className="flex flex-wrap items-center gap-2">
-          <label className="mr-2 flex items-center gap-1.5 text-xs text-slate-600 dark:text-slate-300">
-            <input type="checkbox" checked={foldGoodCrc} onChange={(event) => setFoldGoodCrc(event.target.checked)} className="accent-amber-500" />
-            Fold GoodCRC away
-          </label>
-          {firstContractUs !== undefined && (
-            <Button
-              size="sm"
-              variant="secondary"
-              onClick={() => {
-                // From the first offer to the PS_RDY that made the contract, with a little room either side.
-                const marginUs = Math.max(1_000, Math.round((firstContractUs - firstMessageUs) * 0.05));
-                onWindowChange({ startUs: Math.max(0, firstMessageUs - marginUs), endUs: Math.min(end, firstContractUs + 2 * marginUs) });
-              }}
-            >
-              First contract
-            </Button>
-          )}
-          <Button size="sm" variant="secondary" onClick={() => onWindowChange(zoomWindow(window, 0.5, end))}>
-            Zoom in
+      <TimelineToolbar window={window} endUs={end} onWindowChange={onWindowChange} foldGoodCrc={foldGoodCrc} onFoldGoodCrcChange={setFoldGoodCrc} subject="run">
+        {firstContractUs !== undefined && (
+          <Button
+            size="sm"
+            variant="secondary"
+            onClick={() => {
+              // From the first offer to the PS_RDY that made the contract, with a little room either side.
+              const marginUs = Math.max(1_000, Math.round((firstContractUs - firstMessageUs) * 0.05));
+              onWindowChange({ startUs: Math.max(0, firstMessageUs - marginUs), endUs: Math.min(end, firstContractUs + 2 * marginUs) });
+            }}
+          >
+            First contract
           </Button>
-          <Button size="sm" variant="secondary" onClick={() => onWindowChange(zoomWindow(window, 2, end))} disabled={whole}>
-            Zoom out
-          </Button>
-          <Button size="sm" variant="ghost" onClick={() => onWindowChange({ startUs: 0, endUs: end })} disabled={whole}>
-            Whole run
-          </Button>
-        </div>
-      </div>
+        )}
+      </TimelineToolbar>
       {parts >= 2 && (
         <VbusChart
           measurements={measurements.source}

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { EVENT_COLOURS, PIN_COLOURS } from '../../../components/timeline/vbus-chart.tsx';
 import { EXPORT_HEADER_PX, svgMarkup, pngOfSvg, type LegendEntry } from '../lib/chart-image.ts';
-import { downloadBlob, downloadText } from '../lib/download.ts';
+import { downloadBlob, downloadText } from '../../../lib/download.ts';
 import { traceJsonl, vectorFromRun, vectorIdOf } from '../lib/run-exports.ts';
 import { samplesCsv } from '../lib/samples.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';

@@ -11,11 +11,16 @@ const KINDS: { value: Fault['kind']; label: string }[] = [
   { value: 'corrupt', label: 'corrupt — bad CRC, no GoodCRC' },
   { value: 'delay', label: 'delay — sent late' },
   { value: 'reject', label: 'reject — source answers Reject' },
+  { value: 'wait', label: 'wait — source answers Wait' },
   { value: 'no-ps-rdy', label: 'no-ps-rdy — source never sends PS_RDY' },
   { value: 'silent', label: 'silent — that side stops talking' },
 ];
 
-const MESSAGE_TYPES = ['GoodCRC', 'Source_Capabilities', 'Request', 'Accept', 'Reject', 'Wait', 'PS_RDY', 'Soft_Reset', 'Get_Source_Cap'];
+const MESSAGE_TYPES = [
+  'GoodCRC', 'Source_Capabilities', 'Request', 'Accept', 'Reject', 'Wait', 'PS_RDY', 'Soft_Reset', 'Get_Source_Cap', 'Get_Sink_Cap', 'Sink_Capabilities',
+  'EPR_Mode', 'EPR_Source_Capabilities', 'EPR_Request', 'EPR_KeepAlive', 'EPR_KeepAlive_Ack', 'EPR_Get_Source_Cap', 'Vendor_Defined',
+  'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'Get_Status', 'Status', 'Get_PPS_Status', 'PPS_Status', 'Get_Source_Cap_Extended', 'Source_Capabilities_Extended',
+];
 
 /** The faults to inject, each selected by side, message type and nth, or by time. */
 export function FaultsEditor() {

@@ -6,6 +6,7 @@ import { Select } from '../../../components/select.tsx';
 import { timersPd3 } from '../../../../shared/core/timers.ts';
 import { defaultPolicy } from '../../../lib/offers-form/policy-fields.ts';
 import type { BenchFormValues } from '../lib/form-model.ts';
+import { ActionsEditor } from './actions-editor.tsx';
 import { FaultsEditor } from './faults-editor.tsx';
 import { numberField, optionalNumberField } from './form-fields.ts';
 import { OffersEditor } from './offers-editor.tsx';
@@ -62,7 +63,14 @@ function PolicyChanges() {
   );
 }
 
-/** The scenario as a form: source, sink, cable, faults, run length. */
+const E_MARKERS = [
+  { value: 'none', label: 'None (answers nothing on SOP′)' },
+  { value: '3a-20v', label: '3 A, 20 V' },
+  { value: '5a-20v', label: '5 A, 20 V' },
+  { value: '5a-50v-epr', label: '5 A, 50 V, EPR capable' },
+];
+
+/** The scenario as a form: source, sink, cable, actions, faults, run length. */
 export function ScenarioForm() {
   const { register, control } = useFormContext<BenchFormValues>();
   const { errors } = useFormState({ control });
@@ -85,8 +93,28 @@ export function ScenarioForm() {
         </div>
       </Section>
 
+      <Section
+        title="EPR offers"
+        description="Offered from object position 8 in EPR mode (above 20 V, up to 48 V), once the sink enters EPR mode over an EPR cable. Real EPR adapters deliver up to 48 V at 5 A: follow the specification, a certified lab and local codes before touching hardware."
+      >
+        <OffersEditor name="eprOffers" />
+      </Section>
+
       <Section title="Sink" description="How the sink chooses its Request, and when it changes its mind.">
-        <Select label="Sink specification revision" options={REVISIONS} className="max-w-56" {...register('sinkSpecRevision')} />
+        <div className="grid grid-cols-2 gap-3">
+          <Select label="Sink specification revision" options={REVISIONS} {...register('sinkSpecRevision')} />
+          <Input
+            label="EPR operational PDP (W)"
+            type="number"
+            min={1}
+            max={240}
+            mono
+            placeholder="Not EPR capable"
+            hint="Set: the sink enters EPR mode when the source and the cable allow it."
+            error={errors.sinkEprPdpW?.message}
+            {...register('sinkEprPdpW', optionalNumberField)}
+          />
+        </div>
         <PolicyFields name="policy" label="Sink policy" />
         <PolicyChanges />
       </Section>
@@ -102,7 +130,18 @@ export function ScenarioForm() {
             {...register('cableCurrentMa', numberField)}
           />
           <Input label="Resistance, VBUS and return (mΩ)" type="number" min={0} mono error={errors.cableResistanceMohm?.message} {...register('cableResistanceMohm', numberField)} />
+          <Select
+            label="E-marker (Discover Identity on SOP′)"
+            options={E_MARKERS}
+            hint="The source offers more than 3 A only over a cable that says 5 A, and enters EPR only over a 50 V EPR cable."
+            error={errors.eMarker?.message}
+            {...register('eMarker')}
+          />
         </div>
+      </Section>
+
+      <Section title="Actions" description="Messages a port starts at a time; the partner answers as the specification says.">
+        <ActionsEditor />
       </Section>
 
       <Section title="Faults" description="Select a message by side, type and nth (1 = the first; empty = every one), or by time.">

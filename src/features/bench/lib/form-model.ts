@@ -8,7 +8,22 @@ import { z } from 'zod';
 import { buildOffers, offerInputOf, offerListSchema, type OfferInput } from '../../../../shared/rules/offer-input.ts';
 import { sinkPolicySchema } from '../../../../shared/rules/sink-policy.ts';
 import { resolveCaps } from '../../../../shared/sim/caps.ts';
-import { faultSchema, scenarioSchema, type Scenario, type ScenarioInput } from '../../../../shared/sim/scenario.ts';
+import { actionSchema, faultSchema, scenarioSchema, type Scenario, type ScenarioInput } from '../../../../shared/sim/scenario.ts';
+
+/** The cable's e-marker as one choice (vector.md `cable.eMarker`): none, or a Passive Cable VDO. */
+export const eMarkerChoices = {
+  none: null,
+  '3a-20v': { currentMa: 3_000, maxVoltageMv: 20_000, eprCapable: false },
+  '5a-20v': { currentMa: 5_000, maxVoltageMv: 20_000, eprCapable: false },
+  '5a-50v-epr': { currentMa: 5_000, maxVoltageMv: 50_000, eprCapable: true },
+} as const;
+export type EMarkerChoice = keyof typeof eMarkerChoices;
+
+function eMarkerChoiceOf(marker: { currentMa: number; maxVoltageMv: number; eprCapable: boolean } | undefined): EMarkerChoice {
+  if (!marker) return 'none';
+  if (marker.eprCapable && marker.currentMa === 5_000 && marker.maxVoltageMv === 50_000) return '5a-50v-epr';
+  return marker.currentMa === 5_000 ? '5a-20v' : '3a-20v';
+}
 
 const revisionSchema = z.enum(['2.0', '3.0']);
 const msSchema = z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(0, 'must be at least 0 ms');
@@ -16,6 +31,12 @@ const msSchema = z.number({ error: 'enter a number' }).int('must be a whole numb
 export const benchFormSchema = z
   .object({
     offers: offerListSchema.max(7, 'a Source_Capabilities message carries at most 7 offers'),
+    /** EPR offers from object position 8 (empty: an SPR-only source). */
+    eprOffers: z.array(offerListSchema.element).max(4, 'at most 4 EPR offers (positions 8–11)'),
+    /** Empty: the sink is not EPR capable. */
+    sinkEprPdpW: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 W').max(240, 'must be at most 240 W').optional(),
+    eMarker: z.enum(['none', '3a-20v', '5a-20v', '5a-50v-epr']),
+    actions: z.array(actionSchema),
     sourceSpecRevision: revisionSchema,
     /** Empty: the simulator's jitter within tTypeCSendSourceCap. */
     capsIntervalMs: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 ms').max(10_000, 'must be at most 10 000 ms').optional(),
@@ -49,18 +70,23 @@ function compact<T extends object>(value: T): T {
 export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = defaultScenario): { ok: true; scenario: ScenarioInput } | { ok: false; message: string } {
   const built = buildOffers(values.offers);
   if (!built.ok) return { ok: false, message: built.error.message };
+  const builtEpr = values.eprOffers.length > 0 ? buildOffers(values.eprOffers) : null;
+  if (builtEpr && !builtEpr.ok) return { ok: false, message: `EPR offers: ${builtEpr.error.message}` };
   const behaviour = compact({ ...base.source.behaviour, capsIntervalMs: values.capsIntervalMs });
+  const eMarker = eMarkerChoices[values.eMarker];
   const source = compact({
     ...base.source,
     caps: { pdos: built.pdos.map((pdo) => pdo.raw) },
+    eprCaps: builtEpr?.ok ? { pdos: builtEpr.pdos.map((pdo) => pdo.raw) } : undefined,
     specRevision: values.sourceSpecRevision,
     behaviour: Object.keys(behaviour).length > 0 ? behaviour : undefined,
   });
   const scenario: ScenarioInput = {
     ...base,
     source,
-    sink: { ...base.sink, specRevision: values.sinkSpecRevision, policy: values.policy, changes: values.changes },
-    cable: { ...base.cable, currentRatingMa: values.cableCurrentMa, resistanceMohm: values.cableResistanceMohm },
+    sink: compact({ ...base.sink, specRevision: values.sinkSpecRevision, policy: values.policy, changes: values.changes, epr: values.sinkEprPdpW === undefined ? undefined : { pdpW: values.sinkEprPdpW } }),
+    cable: compact({ ...base.cable, currentRatingMa: values.cableCurrentMa, resistanceMohm: values.cableResistanceMohm, eMarker: eMarker ? { ...eMarker } : undefined }),
+    actions: values.actions,
     faults: values.faults.map((fault) => compact(fault)),
     durationMs: values.durationMs,
     seed: values.seed,
@@ -80,10 +106,20 @@ export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFor
     offers.push(offerInputOf(pdo));
   }
   const cableCurrentMa = scenario.cable.currentRatingMa > 3_000 ? 5_000 : 3_000;
+  const eprOffers: OfferInput[] = [];
+  if (scenario.source.eprCaps) {
+    const epr = resolveCaps(scenario.source.eprCaps);
+    if (!epr.ok) return { ok: false, message: `source.eprCaps: ${epr.error.message}` };
+    eprOffers.push(...epr.pdos.map(offerInputOf));
+  }
   return {
     ok: true,
     values: {
       offers,
+      eprOffers,
+      sinkEprPdpW: scenario.sink.epr?.pdpW,
+      eMarker: eMarkerChoiceOf(scenario.cable.eMarker),
+      actions: scenario.actions,
       sourceSpecRevision: scenario.source.specRevision,
       capsIntervalMs: scenario.source.behaviour.capsIntervalMs,
       sinkSpecRevision: scenario.sink.specRevision,
@@ -113,9 +149,10 @@ export const benchFormResolverSchema = benchFormSchema.superRefine((values, cont
 /** Where a scenario issue shows in the form. */
 function formPathOf(path: readonly PropertyKey[]): (string | number)[] {
   const [head, next, ...rest] = path.map((part) => (typeof part === 'symbol' ? String(part) : part));
-  if (head === 'source') return next === 'caps' ? ['offers'] : next === 'behaviour' ? ['capsIntervalMs'] : ['sourceSpecRevision'];
-  if (head === 'sink') return next === 'policy' ? ['policy', ...rest] : next === 'changes' ? ['changes', ...rest] : ['sinkSpecRevision'];
-  if (head === 'cable') return next === 'resistanceMohm' ? ['cableResistanceMohm'] : ['cableCurrentMa'];
+  if (head === 'source') return next === 'caps' ? ['offers'] : next === 'eprCaps' ? ['eprOffers'] : next === 'behaviour' ? ['capsIntervalMs'] : ['sourceSpecRevision'];
+  if (head === 'sink') return next === 'policy' ? ['policy', ...rest] : next === 'changes' ? ['changes', ...rest] : next === 'epr' ? ['sinkEprPdpW'] : ['sinkSpecRevision'];
+  if (head === 'cable') return next === 'resistanceMohm' ? ['cableResistanceMohm'] : next === 'eMarker' ? ['eMarker'] : ['cableCurrentMa'];
+  if (head === 'actions') return ['actions', ...(next === undefined ? [] : [next]), ...rest];
   if (head === 'faults') return ['faults', ...(next === undefined ? [] : [next]), ...rest];
   return head === undefined ? ['offers'] : [head];
 }

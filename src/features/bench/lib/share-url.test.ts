@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { unzlibSync } from 'fflate';
-import { decodeShared, encodeShared, shareHash, sharedFromHash } from './share-url.ts';
+import { benchHref, decodeShared, encodeShared, shareHash, sharedFromHash } from '../../../lib/share-url.ts';
 import { defaultScenario } from './form-model.ts';
 
 describe('share-url', () => {
@@ -27,5 +27,14 @@ describe('share-url', () => {
     expect(decodeShared('not!valid')).toEqual({ ok: false, message: expect.stringContaining('damaged') });
     expect(sharedFromHash('#other=1')).toBeNull();
     expect(sharedFromHash('')).toBeNull();
+  });
+});
+
+describe('benchHref', () => {
+  it('gives a /bench link whose hash the Bench decodes to the same scenario', () => {
+    const scenario = { source: { caps: { pdos: ['0x0001912c'] } }, sink: { policy: { kind: 'max-power' } }, durationMs: 2_000, seed: 7 };
+    const href = benchHref(scenario);
+    expect(href.startsWith('/bench#scenario=')).toBe(true);
+    expect(sharedFromHash(href.slice('/bench'.length))).toEqual({ ok: true, value: scenario });
   });
 });

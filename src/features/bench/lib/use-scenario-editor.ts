@@ -9,7 +9,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
 import { benchFormResolverSchema, defaultScenario, formOfScenario, parseScenarioText, scenarioOfForm, type BenchFormValues } from './form-model.ts';
-import { sharedFromHash } from './share-url.ts';
+import { sharedFromHash } from '../../../lib/share-url.ts';
 
 /** The JSON view's text: two-space indent, keys in the order people read a scenario (source first). */
 export const scenarioText = (scenario: ScenarioInput) => `${JSON.stringify(scenario, null, 2)}\n`;

@@ -4,7 +4,7 @@
  */
 import { useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router';
-import { useTrace } from '../api/get-trace.ts';
+import { useTrace } from '../../../lib/api/get-trace.ts';
 import { capturedMessagesOf, scenarioFromMessages } from './scenario-from-trace.ts';
 import { loadScenario, type Loaded } from './use-scenario-editor.ts';
 

@@ -12,7 +12,7 @@ import { FindingsTable } from '../components/run-summary.tsx';
 import { SafetyNote } from '../components/safety-note.tsx';
 import { SaveToLibrary } from '../components/save-to-library.tsx';
 import { ScenarioPanel } from '../components/scenario-panel.tsx';
-import { shareHash } from '../lib/share-url.ts';
+import { shareHash } from '../../../lib/share-url.ts';
 import type { RunMessage } from '../lib/timeline-data.ts';
 import { useScenarioEditor } from '../lib/use-scenario-editor.ts';
 import { useSimulation } from '../lib/use-simulation.ts';

@@ -3,7 +3,8 @@ import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx'
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { Hex, Mono, RatingText } from '../../../components/mono.tsx';
-import { useDevices, type Device } from '../api/get-devices.ts';
+import type { Device } from '../../../../shared/api/index.ts';
+import { useDevices } from '../../../lib/api/get-devices.ts';
 import { decodeSinkPdo, decodeSourcePdo, summarizeObject } from '../../../../shared/pd/index.ts';
 import type { SourcePdo } from '../../../../shared/pd/types.ts';
 import { describePdo } from '../../../../shared/rules/index.ts';

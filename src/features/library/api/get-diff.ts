@@ -1,7 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
-import { vectorPath, type VectorDiff } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { VectorDiff } from '../../../../shared/api/index.ts';
+import { vectorPath } from './types.ts';
 
 export function getDiff(id: string, from: number, to: number, signal?: AbortSignal): Promise<VectorDiff> {
   return api.get<VectorDiff>(`${vectorPath(id)}/diff`, { query: { from, to }, signal });

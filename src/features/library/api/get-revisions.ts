@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
-import { vectorPath, type RevisionSummary } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { RevisionSummary } from '../../../../shared/api/index.ts';
+import { vectorPath } from './types.ts';
 
 export type RevisionsResponse = { items: RevisionSummary[]; total: number; latest: number };
 

@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
-import { vectorPath, type StoredVector } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { StoredVector } from '../../../../shared/api/index.ts';
+import { vectorPath } from './types.ts';
 
 export function getVector(id: string, signal?: AbortSignal): Promise<StoredVector> {
   return api.get<StoredVector>(vectorPath(id), { signal });

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
-import type { VectorFilter, VectorListItem } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { VectorFilter, VectorListItem } from '../../../../shared/api/index.ts';
 
 export type VectorsParams = VectorFilter & { sort: string; page: number; pageSize: number };
 export type VectorsResponse = { items: VectorListItem[]; total: number; tags: { tag: string; count: number }[] };

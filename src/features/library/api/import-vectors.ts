@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
 
 export type ImportResult = { created: number; updated: number; unchanged: number; total: number };
 

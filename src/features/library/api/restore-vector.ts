@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { vectorKeys } from './keys.ts';
-import { vectorPath, type StoredVector } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { StoredVector } from '../../../../shared/api/index.ts';
+import { vectorPath } from './types.ts';
 
 export function restoreVector(input: { id: string; revision: number }): Promise<StoredVector> {
   return api.post<StoredVector>(`${vectorPath(input.id)}/restore`, { revision: input.revision });

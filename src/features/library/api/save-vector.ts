@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createVector } from '../../../lib/api/create-vector.ts';
-import { vectorKeys } from './keys.ts';
-import { vectorPath, type StoredVector } from './types.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
+import type { StoredVector } from '../../../../shared/api/index.ts';
+import { vectorPath } from './types.ts';
 
 export type SaveVectorInput = {
   file: Record<string, unknown>;
@@ -14,7 +14,7 @@ export type SaveVectorInput = {
 
 export function saveVector(input: SaveVectorInput): Promise<StoredVector> {
   const body = { ...input.file, deviceId: input.deviceId, message: input.message };
-  if (input.revision === undefined) return createVector(input.file, input) as Promise<StoredVector>;
+  if (input.revision === undefined) return api.post<StoredVector>('/vectors', body);
   return api.put<StoredVector>(vectorPath(String(input.file.id)), { ...body, revision: input.revision });
 }
 

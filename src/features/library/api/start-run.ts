@@ -1,7 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import type { Run, RunResult } from '../../../lib/run-types.ts';
-import type { VectorFilter } from './types.ts';
+import type { Run, RunResult } from '../../../../shared/api/index.ts';
+import type { VectorFilter } from '../../../../shared/api/index.ts';
 
 /** What the Library needs of a run; the full shape is in src/lib/run-types.ts. */
 export type RunSummary = Omit<Run, 'startedBy' | 'error'>;

@@ -9,7 +9,7 @@ import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { CodeEditor } from '../../../components/code-editor.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import type { StaleDetails } from '../api/types.ts';
+import type { StaleDetails } from '../../../../shared/api/index.ts';
 import { DiffLines } from './diff-lines.tsx';
 
 export type MergeChoice = { text: string; baseRevision: number };

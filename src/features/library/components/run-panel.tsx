@@ -3,7 +3,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { ButtonLink } from '../../../components/button.tsx';
 import { ProgressBar } from '../../../components/progress-bar.tsx';
 import { paths } from '../../../config/paths.ts';
-import { vectorKeys } from '../api/keys.ts';
+import { vectorKeys } from '../../../lib/query-keys.ts';
 import { useRunEvents } from '../api/use-run-events.ts';
 
 /** A run's progress, fed by its server-sent events: done of total, the last result, the outcome. */

@@ -1,6 +1,6 @@
 import { Select } from '../../../components/select.tsx';
 import { getIn, templateFor, vectorKinds, type Path, type VectorKindName, type VectorObject } from '../lib/vector-model.ts';
-import type { Device } from '../api/get-devices.ts';
+import type { Device } from '../../../../shared/api/index.ts';
 import { ListInput, TextInput } from './form-controls.tsx';
 import { KindFields } from './kind-fields.tsx';
 

@@ -1,3 +1,4 @@
+import { roleGroups, type Role } from '../../../lib/roles.ts';
 import { createContext, useContext, useEffect, useRef, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router';
 import type { SortingState } from '@tanstack/react-table';
@@ -12,17 +13,17 @@ import { Select } from '../../../components/select.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useUser } from '../../../lib/auth.ts';
 import { formatDateTime } from '../../../lib/format.ts';
-import { useDevices } from '../api/get-devices.ts';
+import { useDevices } from '../../../lib/api/get-devices.ts';
 import { exportHref, useVectors } from '../api/get-vectors.ts';
 import { useImportVectors } from '../api/import-vectors.ts';
 import { useStartRun, type StartRunInput } from '../api/start-run.ts';
-import type { VectorFilter, VectorListItem } from '../api/types.ts';
+import type { VectorFilter, VectorListItem } from '../../../../shared/api/index.ts';
 import { RunPanel } from '../components/run-panel.tsx';
 import { vectorKinds } from '../lib/vector-model.ts';
 
 const pageSize = 25;
 const noVectors: VectorListItem[] = [];
-const writers = ['admin', 'engineer', 'qa'];
+const writers: readonly Role[] = roleGroups.editors;
 
 /** The page's selection, read by the checkbox cells (columns stay at module scope). */
 const SelectionContext = createContext<{ selected: ReadonlySet<string>; toggle(id: string): void }>({ selected: new Set(), toggle() {} });

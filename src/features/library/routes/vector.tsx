@@ -1,3 +1,4 @@
+import { roleGroups, type Role } from '../../../lib/roles.ts';
 import { useMemo, useState } from 'react';
 import { useNavigate, useParams } from 'react-router';
 import { Button, ButtonLink } from '../../../components/button.tsx';
@@ -12,18 +13,19 @@ import { useUser } from '../../../lib/auth.ts';
 import { cn } from '../../../lib/cn.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { vectorJsonSchema } from '../../../../shared/vectors/schema.ts';
-import { useDevices } from '../api/get-devices.ts';
+import { useDevices } from '../../../lib/api/get-devices.ts';
 import { useVector } from '../api/get-vector.ts';
 import { useSaveVector } from '../api/save-vector.ts';
 import { useRunOne } from '../api/start-run.ts';
-import { fileOf, type StaleDetails, type StoredVector } from '../api/types.ts';
+import type { StaleDetails, StoredVector } from '../../../../shared/api/index.ts';
+import { fileOf } from '../api/types.ts';
 import { HistoryPanel } from '../components/history-panel.tsx';
 import { MergeView } from '../components/merge-view.tsx';
 import { RunResultView } from '../components/run-result-view.tsx';
 import { VectorForm } from '../components/vector-form.tsx';
 import { parseText, setIn, templateFor, toText } from '../lib/vector-model.ts';
 
-const writers = ['admin', 'engineer', 'qa'];
+const writers: readonly Role[] = roleGroups.editors;
 
 export function NewVectorRoute() {
   return <VectorEditor vectorId={null} />;

@@ -4,11 +4,12 @@ import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { Select } from '../../../components/select.tsx';
 import { Textarea } from '../../../components/textarea.tsx';
-import { useSourceDevices, type SourceDevice } from '../api/get-source-devices.ts';
+import type { Device } from '../../../../shared/api/index.ts';
+import { useSourceDevices } from '../../../lib/api/get-devices.ts';
 
 export type SourceLoaderProps = {
   onHex(hex: string): void;
-  onDevice(device: SourceDevice): void;
+  onDevice(device: Device): void;
   /** A reading error to show under the hex field. */
   hexError?: string;
 };
@@ -16,7 +17,7 @@ export type SourceLoaderProps = {
 /** Fill the form from a pasted Source_Capabilities message or a demo device. */
 export function SourceLoader({ onHex, onDevice, hexError }: SourceLoaderProps) {
   const devices = useSourceDevices();
-  const sources = (devices.data?.items ?? []).filter((d) => d.role === 'source' && d.pdos.length > 0);
+  const sources = (devices.data ?? []).filter((d) => d.pdos.length > 0);
   const [deviceId, setDeviceId] = useState('');
   const [hex, setHex] = useState('');
   const chosen = sources.find((d) => String(d.id) === deviceId);

@@ -7,7 +7,7 @@ import { PageHeader } from '../../../components/page-header.tsx';
 import { isCancelled } from '../../../lib/engine-worker.ts';
 import type { OffersAnalysis } from '../../../../shared/rules/analyse-offers.ts';
 import { sinkPolicySchema } from '../../../../shared/rules/sink-policy.ts';
-import type { SourceDevice } from '../api/get-source-devices.ts';
+import type { Device } from '../../../../shared/api/index.ts';
 import { ContractPanel, initialPolicy, policyOf, type PolicyDraft } from '../components/contract-panel.tsx';
 import { FindingsPanel } from '../components/findings-panel.tsx';
 import { OffersForm } from '../components/offers-form.tsx';
@@ -66,7 +66,7 @@ export function OffersRoute() {
 
   const load = (offers: OffersFormValues['offers'], extra: Partial<OffersFormValues>) => form.reset({ ...initialFormValues, offers, pdpW: '', label: '', ...extra });
 
-  const onDevice = (device: SourceDevice) => {
+  const onDevice = (device: Device) => {
     if (!worker) return;
     void readInWorker(worker, { pdos: device.pdos }).then((read) => {
       if (read.ok) load(read.offers, { pdpW: String(device.pdpW), label: device.ratingLabel, epr: read.epr });

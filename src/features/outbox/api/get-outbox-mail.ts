@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { outboxKeys } from './get-outbox.ts';
+import { outboxKeys } from '../../../lib/query-keys.ts';
 
 export type OutboxMail = {
   id: number | string;

@@ -1,12 +1,11 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
+import { outboxKeys } from '../../../lib/query-keys.ts';
 
 export type OutboxItem = { id: number | string; to: string; subject: string; sentAt: string };
 export type OutboxResponse = { items: OutboxItem[]; total: number };
 export type OutboxParams = { page: number; pageSize: number };
 
-export const outboxKeys = createQueryKeys('outbox');
 
 /** Stored mails, newest first; `page` counts from 1. */
 export async function getOutbox(params: OutboxParams, signal?: AbortSignal): Promise<OutboxResponse> {

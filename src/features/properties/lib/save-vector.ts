@@ -4,6 +4,7 @@
  * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
  */
 import { api, isApiError } from '../../../lib/api-client.ts';
+import { downloadText } from '../../../lib/download.ts';
 import { formatVector } from '../../../../shared/vectors/format.ts';
 
 export type SaveOutcome =
@@ -18,16 +19,7 @@ export function vectorFileName(id: string): string {
 
 export function downloadVector(vector: Record<string, unknown>): string {
   const fileName = vectorFileName(typeof vector.id === 'string' ? vector.id : 'vector');
-  const url = URL.createObjectURL(new Blob([formatVector(vector)], { type: 'application/json;charset=utf-8' }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = fileName;
-  link.rel = 'noopener';
-  document.body.append(link);
-  link.click();
-  link.remove();
-  // Give the browser a moment to start the download before the URL goes.
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  downloadText(fileName, formatVector(vector), 'application/json');
   return fileName;
 }
 
@@ -38,7 +30,7 @@ export async function saveVector(vector: Record<string, unknown>): Promise<SaveO
     const id = stored?.id ?? stored?.vector?.id ?? String(vector.id);
     return { kind: 'library', id, revision: stored?.revision };
   } catch (error) {
-    // 404 `no_route`: this server has no vector library; anything else (409, 400, 403) is the user's to see.
+    // 404 `route.not-found`: this server has no vector library; anything else (409, 400, 403) is the user's to see.
     if (isApiError(error) && error.status === 404) {
       return { kind: 'downloaded', fileName: downloadVector(vector), reason: 'This server has no team vector library yet' };
     }

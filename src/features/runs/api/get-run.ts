@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { runKeys } from './keys.ts';
-import type { Run, RunResult } from './types.ts';
+import { runKeys } from '../../../lib/query-keys.ts';
+import type { Run, RunResult } from '../../../../shared/api/index.ts';
 
 export type RunResponse = { run: Run; results: RunResult[] };
 

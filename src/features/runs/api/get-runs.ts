@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { runKeys } from './keys.ts';
-import type { Run } from './types.ts';
+import { runKeys } from '../../../lib/query-keys.ts';
+import type { Run } from '../../../../shared/api/index.ts';
 
 export type RunsParams = { project?: string; source?: string; page: number; pageSize: number };
 export type RunsResponse = { items: Run[]; total: number; projects: string[] };

@@ -1,8 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-
-const revisionKeys = createQueryKeys('run-vector-revisions');
+import { vectorKeys } from '../../../lib/query-keys.ts';
 
 export type VectorRevision = { revision: number; vector: Record<string, unknown> };
 
@@ -14,7 +12,7 @@ export function getVectorRevision(id: string, revision: number | null, signal?: 
 }
 
 export function vectorRevisionQueryOptions(id: string, revision: number | null) {
-  return queryOptions({ queryKey: revisionKeys.detail(`${id}@${revision ?? 'latest'}`), queryFn: ({ signal }) => getVectorRevision(id, revision, signal), staleTime: Infinity });
+  return queryOptions({ queryKey: [...vectorKeys.detail(id), 'revisions', revision ?? 'latest'], queryFn: ({ signal }) => getVectorRevision(id, revision, signal), staleTime: Infinity });
 }
 
 export function useVectorRevision(id: string, revision: number | null, enabled: boolean) {

@@ -5,8 +5,8 @@ import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { ExpectedActual, JsonBlock, ResultSummary } from '../../../components/expected-actual.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useVectorRevision } from '../api/get-vector-revision.ts';
-import type { RunResult } from '../api/types.ts';
-import { benchHref } from '../lib/bench-link.ts';
+import type { RunResult } from '../../../../shared/api/index.ts';
+import { benchHref } from '../../../lib/share-url.ts';
 
 /** One result in full: why it failed, expected against actual, and where to go next. */
 export function FailureDetail({ result }: { result: RunResult | null }) {

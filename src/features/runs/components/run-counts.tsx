@@ -1,5 +1,5 @@
 import { Badge } from '../../../components/badge.tsx';
-import type { Run } from '../api/types.ts';
+import type { Run } from '../../../../shared/api/index.ts';
 
 export function RunCounts({ run }: { run: Run }) {
   if (run.status === 'running') return <Badge tone="accent">running {run.done}/{run.total}</Badge>;

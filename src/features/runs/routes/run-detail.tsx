@@ -9,7 +9,7 @@ import { PageHeader } from '../../../components/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useRun } from '../api/get-run.ts';
-import type { RunResult } from '../api/types.ts';
+import type { RunResult } from '../../../../shared/api/index.ts';
 import { FailureDetail } from '../components/failure-detail.tsx';
 import { RunCounts } from '../components/run-counts.tsx';
 

@@ -8,7 +8,7 @@ import { Select } from '../../../components/select.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { useRuns } from '../api/get-runs.ts';
-import type { Run } from '../api/types.ts';
+import type { Run } from '../../../../shared/api/index.ts';
 import { RunCounts } from '../components/run-counts.tsx';
 
 const pageSize = 25;

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { tokenKeys, type ApiToken } from './tokens.ts';
+import type { ApiToken } from '../../../../shared/api/index.ts';
+import { tokenKeys } from '../../../lib/query-keys.ts';
 
 export function createToken(input: { project: string; name: string }): Promise<{ token: string; item: ApiToken }> {
   return api.post<{ token: string; item: ApiToken }>('/tokens', input);

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { tokenKeys, type ApiToken } from './tokens.ts';
+import type { ApiToken } from '../../../../shared/api/index.ts';
+import { tokenKeys } from '../../../lib/query-keys.ts';
 
 export function getTokens(signal?: AbortSignal): Promise<{ items: ApiToken[]; total: number }> {
   return api.get<{ items: ApiToken[]; total: number }>('/tokens', { signal });

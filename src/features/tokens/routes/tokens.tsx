@@ -11,7 +11,7 @@ import { formatDateTime } from '../../../lib/format.ts';
 import { useCreateToken } from '../api/create-token.ts';
 import { useTokens } from '../api/get-tokens.ts';
 import { useRevokeToken } from '../api/revoke-token.ts';
-import type { ApiToken } from '../api/tokens.ts';
+import type { ApiToken } from '../../../../shared/api/index.ts';
 
 const noTokens: ApiToken[] = [];
 

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { traceKeys } from './get-traces.ts';
+import { traceKeys } from '../../../lib/query-keys.ts';
 
 export type TraceComment = { id: number; author: { id: number; name: string; role: string }; body: string; createdAt: string };
 

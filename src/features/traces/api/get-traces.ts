@@ -1,9 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-import type { TraceItem } from './types.ts';
+import { traceKeys } from '../../../lib/query-keys.ts';
+import type { TraceItem } from '../../../../shared/api/index.ts';
 
-export const traceKeys = createQueryKeys('traces');
 
 export type TraceSort = 'createdAt' | '-createdAt' | 'title' | '-title' | 'sizeBytes' | '-sizeBytes' | 'errors' | '-errors';
 export type TraceListParams = {

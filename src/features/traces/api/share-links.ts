@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { traceKeys } from './get-traces.ts';
+import { traceKeys } from '../../../lib/query-keys.ts';
 
 /** A read-only report link as the server presents it (server/features/traces/share-links.ts). */
 export type ShareLink = {

@@ -1,20 +1,19 @@
-import { ApiError } from '../../../lib/api-client.ts';
-import type { TraceDetail } from './types.ts';
+import { ApiError, errorFromBody } from '../../../lib/api-client.ts';
+import { MAX_TRACE_BYTES, type TraceDetail } from '../../../../shared/api/index.ts';
 
-/** The server's limit (server/features/traces/routes.ts). */
-export const MAX_TRACE_BYTES = 50 * 1024 * 1024;
+const MAX_TRACE_MB = MAX_TRACE_BYTES / 1024 / 1024;
 
 export type UploadInput = { file: File; title?: string; deviceId?: string; customerRef?: string; notes?: string };
 
 function errorOf(status: number, text: string): ApiError {
+  let body: unknown;
   try {
-    const body = JSON.parse(text) as { error?: { code?: string; message?: string; details?: unknown } };
-    if (body.error?.message) return new ApiError(status, body.error.code ?? `http_${status}`, body.error.message, body.error.details);
+    body = JSON.parse(text);
   } catch {
-    // Not JSON: a proxy's page; fall through to the generic sentence.
+    // Not JSON: a proxy's page; the status speaks instead.
   }
-  if (status === 413) return new ApiError(413, 'too_large', 'The file is larger than the server accepts (50 MB).');
-  return new ApiError(status, `http_${status}`, `The upload failed (${status}).`);
+  if (status === 413 && !body) return new ApiError(413, 'request.too-large', `The file is larger than the server accepts (${MAX_TRACE_MB} MB).`);
+  return errorFromBody(status, body, `The upload failed (${status}).`);
 }
 
 /**
@@ -25,7 +24,7 @@ function errorOf(status: number, text: string): ApiError {
 export function uploadTrace(input: UploadInput, options: { onProgress?(fraction: number): void; signal?: AbortSignal } = {}): Promise<TraceDetail> {
   if (input.file.size > MAX_TRACE_BYTES) {
     const mb = (input.file.size / 1024 / 1024).toFixed(1);
-    return Promise.reject(new ApiError(413, 'too_large', `The file is ${mb} MB; Parley accepts traces up to 50 MB. Cut the capture to the part around the problem.`));
+    return Promise.reject(new ApiError(413, 'request.too-large', `The file is ${mb} MB; Parley accepts traces up to ${MAX_TRACE_MB} MB. Cut the capture to the part around the problem.`));
   }
   const form = new FormData();
   if (input.title) form.set('title', input.title);
@@ -46,7 +45,7 @@ export function uploadTrace(input: UploadInput, options: { onProgress?(fraction:
         resolve(JSON.parse(xhr.responseText) as TraceDetail);
       } else reject(errorOf(xhr.status, xhr.responseText));
     };
-    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload did not reach the server. Check your connection and try again.'));
+    xhr.onerror = () => reject(new ApiError(0, 'network.unreachable', 'The upload did not reach the server. Check your connection and try again.'));
     xhr.onabort = () => reject(new DOMException('Upload cancelled', 'AbortError'));
     options.signal?.addEventListener('abort', () => xhr.abort(), { once: true });
     xhr.send(form);

@@ -1,4 +1,4 @@
-import type { AnalysisEvent } from './types.ts';
+import type { AnalysisEvent } from '../../../../shared/api/index.ts';
 
 /**
  * Follows a trace's analysis over server-sent events until it is done or failed; returns a stop

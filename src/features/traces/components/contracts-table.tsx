@@ -1,6 +1,6 @@
 import { useMemo, useState } from 'react';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
-import type { Analysis } from '../api/types.ts';
+import type { Analysis } from '../../../../shared/api/index.ts';
 import { contractLabel, formatPower, formatSeconds } from '../lib/format.ts';
 
 type ContractRow = Analysis['contracts'][number] & { index: number; untilUs: number };

@@ -2,7 +2,7 @@ import { Badge } from '../../../components/badge.tsx';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import type { TraceItem } from '../api/types.ts';
+import type { TraceItem } from '../../../../shared/api/index.ts';
 import { formatBytes } from '../lib/format.ts';
 
 const col = dataColumnHelper<TraceItem>();

@@ -1,3 +1,4 @@
+import { MAX_TRACE_BYTES } from '../../../../shared/api/index.ts';
 import { useEffect, useId, useImperativeHandle, useRef, useState, type DragEvent, type Ref } from 'react';
 import { Link } from 'react-router';
 import { useQueryClient } from '@tanstack/react-query';
@@ -11,10 +12,10 @@ import { Textarea } from '../../../components/textarea.tsx';
 import { paths } from '../../../config/paths.ts';
 import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
-import { useDevices } from '../../devices/api/get-devices.ts';
-import { getTrace } from '../api/get-trace.ts';
-import { traceKeys } from '../api/get-traces.ts';
-import type { TraceDetail } from '../api/types.ts';
+import { useDevices } from '../../../lib/api/get-devices.ts';
+import { getTrace } from '../../../lib/api/get-trace.ts';
+import { traceKeys } from '../../../lib/query-keys.ts';
+import type { TraceDetail } from '../../../../shared/api/index.ts';
 import { uploadTrace } from '../api/upload-trace.ts';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { formatBytes } from '../lib/format.ts';
@@ -33,7 +34,7 @@ type Phase =
 /** Why an upload failed, in words for the person who chose the file. */
 function describeError(error: unknown): { title: string; message: string } {
   if (isApiError(error)) {
-    if (error.code === 'too_large' || error.status === 413) return { title: 'The file is too large', message: error.message };
+    if (error.code === 'request.too-large' || error.status === 413) return { title: 'The file is too large', message: error.message };
     if (error.code === 'trace.not-a-trace') return { title: 'This file is not a trace', message: error.message };
     return { title: 'The upload failed', message: error.message };
   }
@@ -146,7 +147,7 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
 
   return (
     <Card aria-label="Upload a trace" ref={panel} className="scroll-mt-24">
-      <CardHeader title="Upload a trace" description="JSON Lines, a plain-text console log or a VCD capture of the CC wire; up to 50 MB." />
+      <CardHeader title="Upload a trace" description={`JSON Lines, a plain-text console log or a VCD capture of the CC wire; up to ${MAX_TRACE_BYTES / 1024 / 1024} MB.`} />
       <CardBody className="space-y-4">
         <label
           htmlFor={inputId}

@@ -1,8 +1,6 @@
-import type { Role } from '../../../lib/roles.ts';
+import { roleGroups, type Role } from '../../../lib/roles.ts';
 
-/** The roles the API lets upload, comment on and share traces (server/features/traces/routes.ts). */
-export const traceWriterRoles: readonly Role[] = ['admin', 'engineer', 'qa', 'support'];
-
+/** Whether the role may upload, comment on and share traces (the server's `traceWriters`). */
 export function mayWriteTraces(role: Role): boolean {
-  return traceWriterRoles.includes(role);
+  return (roleGroups.traceWriters as readonly Role[]).includes(role);
 }

@@ -9,7 +9,7 @@ import type { TimelineSpan } from '../../../components/timeline/trace-timeline.t
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
 import type { BusEvent } from '../../../components/timeline/event-lane.tsx';
-import type { Analysis } from '../api/types.ts';
+import type { Analysis } from '../../../../shared/api/index.ts';
 import { contractLabel } from './format.ts';
 
 export type TimelineInput = {

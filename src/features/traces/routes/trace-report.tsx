@@ -3,7 +3,7 @@ import './trace-report.css';
 import { DocumentTitle } from '../../../components/page-header.tsx';
 import { errorText } from '../../../components/error-message.tsx';
 import { formatDateTime } from '../../../lib/format.ts';
-import { useTrace } from '../api/get-trace.ts';
+import { useTrace } from '../../../lib/api/get-trace.ts';
 import { ReportView } from '../components/report-view.tsx';
 import { formatBytes } from '../lib/format.ts';
 

@@ -1,22 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-import type { Role } from '../../../lib/roles.ts';
-
-export type AdminUser = {
-  id: number | string;
-  email: string;
-  name: string;
-  role: Role;
-  active: boolean;
-  invitePending: boolean;
-  createdAt: string;
-  lastSignInAt: string | null;
-};
-
-export type UsersResponse = { items: AdminUser[]; total: number };
-
-export const userKeys = createQueryKeys('users');
+import type { UsersResponse } from '../../../../shared/api/index.ts';
+import { userKeys } from '../../../lib/query-keys.ts';
 
 export async function getUsers(signal?: AbortSignal): Promise<UsersResponse> {
   return api.get<UsersResponse>('/users', { signal });

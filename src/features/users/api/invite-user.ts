@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import type { Role } from '../../../lib/roles.ts';
-import { userKeys, type AdminUser } from './get-users.ts';
+import type { AdminUser } from '../../../../shared/api/index.ts';
+import { userKeys } from '../../../lib/query-keys.ts';
 
 export type InviteUserInput = { email: string; name: string; role: Role };
 

@@ -40,12 +40,12 @@ export function InviteForm() {
         for (const key of ['email', 'name', 'role'] as const) {
           if (fields[key]) setError(key, { message: fields[key] });
         }
-        if (isApiError(error) && error.code === 'user_exists') setError('email', { message: error.message.replace(/^email:\s*/, '') });
+        if (isApiError(error) && error.code === 'user.exists') setError('email', { message: error.message.replace(/^email:\s*/, '') });
       },
     });
   });
 
-  const handledInline = isApiError(invite.error) && (invite.error.code === 'user_exists' || Object.keys(fieldErrorsOf(invite.error)).length > 0);
+  const handledInline = isApiError(invite.error) && (invite.error.code === 'user.exists' || Object.keys(fieldErrorsOf(invite.error)).length > 0);
 
   return (
     <Card aria-labelledby="invite-heading">

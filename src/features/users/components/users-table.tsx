@@ -8,7 +8,7 @@ import { useUser } from '../../../lib/auth.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { isRole } from '../../../lib/roles.ts';
 import { useUpdateUser } from '../api/update-user.ts';
-import type { AdminUser } from '../api/get-users.ts';
+import type { AdminUser } from '../../../../shared/api/index.ts';
 import { roleOptions } from './role-options.ts';
 
 function isSelf(me: { email: string }, user: AdminUser): boolean {

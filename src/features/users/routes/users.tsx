@@ -1,6 +1,7 @@
 import { ErrorMessage } from '../../../components/error-message.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
-import { useUsers, type AdminUser } from '../api/get-users.ts';
+import type { AdminUser } from '../../../../shared/api/index.ts';
+import { useUsers } from '../api/get-users.ts';
 import { InviteForm } from '../components/invite-form.tsx';
 import { UsersTable } from '../components/users-table.tsx';
 

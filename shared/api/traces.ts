@@ -1,0 +1,79 @@
+/** Stored traces, their analyses and the analysis progress stream (`/api/traces…`). */
+import type { Analysis } from '../trace/index.ts';
+import type { DeviceRef } from './devices.ts';
+
+export type { Analysis };
+
+export const traceStatuses = ['queued', 'analysing', 'done', 'failed'] as const;
+export type TraceStatus = (typeof traceStatuses)[number];
+export type SeverityCounts = { error: number; warning: number; info: number };
+
+/** An engine or analysis failure kept with the trace; `code` is the engine's (`trace.*`, `analysis.failed`). */
+export interface TraceError {
+  code: string;
+  message: string;
+}
+
+/** A stored trace, as lists and the trace page show it. */
+export interface TraceItem {
+  id: number;
+  title: string;
+  fileName: string;
+  sizeBytes: number;
+  format: string;
+  sha256: string;
+  status: TraceStatus;
+  uploader: { id: number; name: string };
+  device: DeviceRef | null;
+  customerRef: string;
+  notes: string;
+  summary: string | null;
+  messages: number;
+  counts: SeverityCounts;
+  rules: string[];
+  error: TraceError | null;
+  createdAt: string;
+  analysedAt: string | null;
+}
+
+export interface TraceProgress {
+  bytesRead: number;
+  totalBytes: number;
+}
+
+/** `GET /api/traces/:id` and `POST /api/traces`: the trace and its analysis (null until done). */
+export interface TraceDetail {
+  trace: TraceItem;
+  analysis: Analysis | null;
+  progress?: TraceProgress | null;
+  duplicate?: boolean;
+}
+
+export type TraceSort = 'createdAt' | '-createdAt' | 'title' | '-title' | 'sizeBytes' | '-sizeBytes' | 'errors' | '-errors';
+
+export interface TraceListResponse {
+  items: TraceItem[];
+  total: number;
+  page: number;
+  pageSize: number;
+  uploaders: { id: number; name: string }[];
+}
+
+export interface TraceComment {
+  id: number;
+  author: { id: number; name: string; role: string };
+  body: string;
+  createdAt: string;
+}
+
+/** Server-sent analysis progress (`GET /api/traces/:id/events`): the event name is `type`. */
+export type AnalysisEvent =
+  | ({ type: 'progress'; status: 'queued' | 'analysing' } & TraceProgress)
+  | { type: 'done'; status: 'done'; summary: string; counts: SeverityCounts }
+  | { type: 'failed'; status: 'failed'; error: TraceError };
+
+export interface ShareTraceResponse {
+  sent: true;
+  to: string;
+  subject: string;
+}

@@ -1,1 +1,0 @@
-export { vectorKeys } from '../../../lib/api/create-vector.ts';

@@ -1,3 +1,0 @@
-import { createQueryKeys } from '../../../lib/query-keys.ts';
-
-export const runKeys = createQueryKeys('runs');
