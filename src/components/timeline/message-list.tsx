@@ -131,6 +131,7 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
               key={index}
               id={optionId(index)}
               role="option"
+              tabIndex={-1}
               aria-selected={selected}
               aria-label={`${m.messageType} #${m.messageId} from the ${m.from} at ${formatTimeUs(m.t)}`}
               onClick={() => onSelect(index)}
