@@ -75,8 +75,9 @@ async function linkOfToken(em: EntityManager, deps: AppDeps, token: string): Pro
   const [idText, expiresText, given] = token.split('.');
   const id = Number(idText);
   const expiresSec = Number(expiresText);
+  if (!Number.isSafeInteger(id) || !Number.isSafeInteger(expiresSec) || !given) throw gone();
   const link = await em.findOne(ReportShareLink, { id });
-  if (!link || !given) throw gone();
+  if (!link) throw gone();
   const expected = Buffer.from(signature(deps.secret, link.id, link.traceId, expiresSec));
   const actual = Buffer.from(given);
   if (expected.length !== actual.length || !timingSafeEqual(expected, actual)) throw gone();
@@ -127,6 +128,7 @@ export const shareLinkRoutes: RouteDef[] = [
     access: sharers,
     params: traceParams,
     async handler({ em, params, deps }) {
+      if (!(await em.findOne(Trace, { id: params.id }, { fields: ['id'] }))) throw notFound('No such trace', 'trace.not-found');
       const links = await em.find(ReportShareLink, { traceId: params.id }, { orderBy: { id: 'desc' } });
       return { items: links.map((link) => presentLink(deps, link)) };
     },
