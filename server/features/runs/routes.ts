@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { MAX_REPORT_BYTES, roleGroups, type Run, type RunResult as PresentedResult } from '../../../shared/api/index.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
@@ -112,7 +113,7 @@ export const runsRoutes: RouteDef[] = [
     async handler(ctx) {
       const { em, body, res, deps } = ctx;
       const me = currentUser(ctx);
-      const where = body.all ? {} : body.ids ? { vectorId: { $in: body.ids } } : vectorWhere(body.filter ?? {});
+      const where = body.all ? {} : body.ids ? { vectorId: { $in: body.ids } } : vectorWhere(body.filter ?? {}, likeOperator(em));
       // Ids only: the job reads each batch's texts as it goes.
       const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' }, fields: ['vectorId'] });
       if (body.ids) {
