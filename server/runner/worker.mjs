@@ -4,9 +4,10 @@
 import { setPriority } from 'node:os';
 import { register } from 'tsx/esm/api';
 
-// On Linux this lowers only this thread: when the cores are busy, the request thread goes first.
+// On Linux this lowers only this thread (nice 5, not more: a busy machine must not starve a run):
+// when the cores are busy, the request thread goes first.
 try {
-  setPriority(10);
+  setPriority(5);
 } catch {
   // Not permitted here: the thread keeps the process's priority.
 }

@@ -1,0 +1,24 @@
+/**
+ * `parley worker`: works on the shared job queue of a team deployment (DATABASE_URL) without
+ * serving HTTP, until SIGINT or SIGTERM, which hand its running jobs back to the queue.
+ */
+import { CliError, type CliIo } from '../io.ts';
+
+export async function run(args: string[], io: CliIo): Promise<number> {
+  if (args.some((a) => a !== '--json')) throw new CliError('usage', `worker takes no arguments (got ${args.join(' ')}); it reads DATABASE_URL and the other server settings from the environment`);
+  const { startWorker } = await import('../../server/worker.ts');
+  let worker;
+  try {
+    worker = await startWorker();
+  } catch (error) {
+    throw new CliError('worker.config', error instanceof Error ? error.message : String(error));
+  }
+  await new Promise<void>((resolveStop) => {
+    const stop = () => resolveStop();
+    process.once('SIGINT', stop);
+    process.once('SIGTERM', stop);
+  });
+  await worker.close();
+  io.stderr('parley worker stopped\n');
+  return 0;
+}
