@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { zodMessage } from '../errors.ts';
+import { zodMessage } from '../../shared/core/zod-message.ts';
 
 const flag = z
   .enum(['0', '1', 'true', 'false', 'on', 'off', 'yes', 'no'])
@@ -43,6 +43,6 @@ export type Env = z.infer<typeof envSchema>;
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const cleaned = Object.fromEntries(Object.entries(source).filter(([, value]) => value !== undefined && value !== ''));
   const parsed = envSchema.safeParse(cleaned);
-  if (!parsed.success) throw new Error(`Invalid environment: ${zodMessage(parsed.error, 'env')}`);
+  if (!parsed.success) throw new Error(`Invalid environment: ${zodMessage(parsed.error, { where: 'env' })}`);
   return parsed.data;
 }

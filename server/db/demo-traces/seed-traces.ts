@@ -33,7 +33,7 @@ export async function seedDemoTraces(em: EntityManager, clock: Clock, store: Tra
   const rows = manifest.map((entry, index) => {
     const { bytes, sha256 } = files[index]!;
     const sniffed = sniffTrace(bytes.subarray(0, SNIFF_BYTES), bytes.length <= SNIFF_BYTES);
-    if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.message}`);
+    if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.error.message}`);
     return createQueuedTrace(em, {
       title: entry.title,
       fileName: entry.fileName,

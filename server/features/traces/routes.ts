@@ -148,7 +148,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   const { res, body, query, em, deps } = ctx;
   const me = currentUser(ctx);
   const sniffed = sniffTrace(file.head, file.size <= file.head.length);
-  if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
+  if (!sniffed.ok) throw badRequest(sniffed.error.message, 'trace.not-a-trace');
   if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
     throw badRequest('deviceId: no device under test has that id', 'input.invalid');
   }

@@ -116,7 +116,7 @@ export const vectorsRoutes: RouteDef[] = [
       const upload = req.file;
       if (!upload) throw badRequest('file: choose a zip of *.vector.json files (the multipart field "file")', 'vector.no-file');
       const read = readLibraryZip(new Uint8Array(upload.buffer));
-      if (!read.ok) throw badRequest(read.message, 'vector.bad-zip');
+      if (!read.ok) throw badRequest(read.error.message, 'vector.bad-zip');
       const issues: ImportIssue[] = [];
       const checked = new Map<string, { file: string; checked: CheckedVector }>();
       for (const file of read.files) {

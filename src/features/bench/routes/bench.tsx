@@ -30,6 +30,7 @@ import { capturedMessagesOf, scenarioFromMessages } from '../lib/scenario-from-t
 import { shareHash, sharedFromHash } from '../../../lib/share-url.ts';
 import type { RunMessage } from '../lib/timeline-data.ts';
 import { useSimulation } from '../lib/use-simulation.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 /** The JSON view's text: two-space indent, keys in the order people read a scenario (source first). */
 const scenarioText = (scenario: ScenarioInput) => `${JSON.stringify(scenario, null, 2)}\n`;
@@ -37,7 +38,7 @@ const scenarioText = (scenario: ScenarioInput) => `${JSON.stringify(scenario, nu
 type Loaded = { input: ScenarioInput; values: BenchFormValues };
 
 /** Scenario JSON text as the form's values, or the reason it cannot be shown ("field: message"). */
-function loadText(text: string): { ok: true; loaded: Loaded } | { ok: false; message: string } {
+function loadText(text: string): Result<{ loaded: Loaded }> {
   const parsed = parseScenarioText(text);
   if (!parsed.ok) return parsed;
   const form = formOfScenario(parsed.scenario);
@@ -49,12 +50,12 @@ const load = (input: unknown) => loadText(JSON.stringify(input ?? null));
 
 function initialScenario(): { loaded: Loaded; notice: string | null } {
   const fallback = load(defaultScenario);
-  if (!fallback.ok) throw new Error(fallback.message);
+  if (!fallback.ok) throw new Error(fallback.error.message);
   const shared = sharedFromHash(window.location.hash);
   if (!shared) return { loaded: fallback.loaded, notice: null };
-  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.message };
+  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message };
   const result = load(shared.value);
-  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.message}` };
+  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
 }
 
 function SafetyNote() {
@@ -132,7 +133,7 @@ export function BenchRoute() {
       setJsonText(text);
       const result = loadText(text);
       if (!result.ok) {
-        setJsonError(result.message);
+        setJsonError(result.error.message);
         return;
       }
       setJsonError(null);
@@ -150,10 +151,10 @@ export function BenchRoute() {
     if (!fromTrace || !trace.data || appliedTrace.current === fromTrace) return;
     appliedTrace.current = fromTrace;
     const captured = capturedMessagesOf(trace.data);
-    const derived = captured ? scenarioFromMessages(captured.messages, { endUs: captured.endUs }) : { ok: false as const, message: 'The trace has no timeline to read.' };
+    const derived = captured ? scenarioFromMessages(captured.messages, { endUs: captured.endUs }) : fail('trace.no-timeline', 'The trace has no timeline to read.');
     const loaded = derived.ok ? load(derived.scenario) : derived;
     if (!loaded.ok) {
-      setNotice(`Trace ${fromTrace} could not be opened as a scenario: ${loaded.message}`);
+      setNotice(`Trace ${fromTrace} could not be opened as a scenario: ${loaded.error.message}`);
       return;
     }
     apply(loaded.loaded);
