@@ -20,6 +20,7 @@ export const commands: Record<string, { summary: string; load: () => Promise<Com
   sweep: { summary: 'fault campaign over a scenario: sweep <scenario.json|-> [--faults drop,corrupt,delay] [--pairs] [--timers edges] [--max N] [--shard i/n] [--junit <file>] [--out <dir>]', load: () => import('./commands/sweep.ts') },
   run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
   schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
+  worker: { summary: 'work on the shared job queue of a team deployment (DATABASE_URL), serving no HTTP', load: () => import('./commands/worker.ts') },
 };
 
 export function version(): string {

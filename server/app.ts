@@ -20,7 +20,8 @@ import { createLocalJobQueue } from './jobs/local-queue.ts';
 import { registerJobKinds } from './jobs/kinds.ts';
 import { createAnalysisPool, type AnalysisPool } from './analysis/pool.ts';
 import { createRunPool, type RunPool } from './runner/pool.ts';
-import { traceStore, type TraceStore } from './features/traces/store.ts';
+import type { TraceStore } from './storage/types.ts';
+import { createLocalTraceStore } from './storage/local-store.ts';
 
 export interface AppOptions {
   orm: Orm;
@@ -103,7 +104,7 @@ export function createApp(options: AppOptions): Express {
     },
     verifyBearer: options.verifyBearer,
     dataDir,
-    traceStore: options.traceStore ?? traceStore(dataDir),
+    traceStore: options.traceStore ?? createLocalTraceStore(dataDir),
     jobs: options.jobs ?? createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') }),
     analysisPool: options.analysisPool ?? createAnalysisPool(),
     runPool: options.runPool ?? createRunPool(),

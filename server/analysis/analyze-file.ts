@@ -7,6 +7,7 @@ import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import type { MessagePort } from 'node:worker_threads';
 import { createReader, createTraceSession, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
+import type { Result } from '../../shared/core/result.ts';
 
 export interface AnalyzeFileTask {
   path: string;
@@ -21,9 +22,7 @@ export interface AnalysisProgress {
   totalBytes: number;
 }
 
-export type AnalyzeFileResult =
-  | { ok: true; analysis: Analysis; bytesRead: number }
-  | { ok: false; error: { code: string; message: string; line?: number } };
+export type AnalyzeFileResult = Result<{ analysis: Analysis; bytesRead: number }>;
 
 const CHUNK_BYTES = 256 * 1024;
 
@@ -64,7 +63,7 @@ export interface ReadRecordsTask {
   limit: number;
 }
 
-export type ReadRecordsResult = { ok: true; records: TraceRecord[] } | { ok: false; error: { code: string; message: string } };
+export type ReadRecordsResult = Result<{ records: TraceRecord[] }>;
 
 /** Trace record fields of trace.md; anything else a file carries is left out. */
 const RECORD_KEYS = ['t', 'msg', 'from', 'sop', 'crc', 'crcOk', 'event', 'cc', 'rp', 'vbus', 'note'] as const;

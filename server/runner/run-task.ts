@@ -14,6 +14,11 @@ export interface RunVectorTask {
   vectorId: string;
   /** Folder of the built-in library, for trace vectors that name a file. */
   vectorsRoot: string;
+  /**
+   * The vector's kind as the library stored it, which spares the request thread parsing the text
+   * to route it; a worker still refuses property code whatever this says.
+   */
+  kind?: string | null;
 }
 
 export function libraryFileReader(vectorsRoot: string, vectorId: string): (path: string) => Promise<string> {

@@ -1,5 +1,5 @@
 /**
- * The message codec: public entry (/work/notes/interfaces.md, "shared/pd").
+ * The message codec: public entry (README.md beside it).
  * Result-returning functions take user input and never throw; the building blocks are pure and
  * fast, and their writers throw RangeError on a field out of range.
  */

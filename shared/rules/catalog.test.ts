@@ -5,11 +5,14 @@ import { DECODE_RULES } from '../pd/index.ts';
 import { isRuleId, makeFinding, ruleCatalog, ruleGroup, ruleIds } from './catalog.ts';
 
 const SHARED = join(import.meta.dirname, '..');
-/** The engine's own sources (tests excluded: they name made-up ids on purpose). */
+/**
+ * The engine's own sources (tests excluded: they name made-up ids on purpose). `shared/api` is the
+ * HTTP contract, not the engine: its error codes answer requests and never become findings.
+ */
 function engineSources(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
     const path = join(dir, e.name);
-    if (e.isDirectory()) return engineSources(path);
+    if (e.isDirectory()) return path === join(SHARED, 'api') ? [] : engineSources(path);
     return e.name.endsWith('.ts') && !e.name.endsWith('.test.ts') ? [path] : [];
   });
 }

@@ -9,6 +9,7 @@ import { fail, type Result } from '../core/result.ts';
 import { timersPd3, type TimerName } from '../core/timers.ts';
 import { sinkPolicySchema } from '../rules/sink-policy.ts';
 import { resolveCaps } from './caps.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 const TIMER_NAMES = Object.keys(timersPd3) as [TimerName, ...TimerName[]];
 
@@ -167,7 +168,5 @@ export type Fault = z.output<typeof faultSchema>;
 export function parseScenario(input: unknown): Result<{ scenario: Scenario }> {
   const parsed = scenarioSchema.safeParse(input);
   if (parsed.success) return { ok: true, scenario: parsed.data };
-  const issue = parsed.error.issues[0];
-  const field = issue && issue.path.length > 0 ? issue.path.join('.') : 'scenario';
-  return fail('scenario.invalid', `${field}: ${issue?.message ?? 'invalid scenario'}`);
+  return fail('scenario.invalid', zodMessage(parsed.error, { where: 'scenario', limit: 1 }));
 }

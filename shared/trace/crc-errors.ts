@@ -23,7 +23,12 @@ export function createCrcErrors(report: Report): CrcErrors {
     const what = `The ${m.d.messageType} from the ${m.from} at ${seconds(m.t)} arrived with a wrong CRC, so the receiver had to discard it`;
     if (!recoveredBy) report('decode.crc', `${what}.`, { t: m.t, line: m.line });
     else {
-      const how = recoveredBy.d.messageType === 'GoodCRC' ? `the ${recoveredBy.from} acknowledged it at ${seconds(recoveredBy.t)}, so nothing was lost` : `the retry at ${seconds(recoveredBy.t)} delivered it`;
+      const how =
+        recoveredBy.d.messageType === 'GoodCRC'
+          ? `the ${recoveredBy.from} acknowledged it at ${seconds(recoveredBy.t)}, so nothing was lost`
+          : recoveredBy.from === m.from
+            ? `the retry at ${seconds(recoveredBy.t)} delivered it`
+            : `the ${recoveredBy.from} retried its message at ${seconds(recoveredBy.t)}, so nothing was lost`;
       report('decode.crc', `${what}; ${how}.`, { t: m.t, line: m.line, lowerTo: 'warning' });
     }
   };
@@ -40,7 +45,9 @@ export function createCrcErrors(report: Report): CrcErrors {
         const sameMessage = m.d.messageId === first.d.messageId && (m.d.messageType === first.d.messageType || m.d.messageType === 'GoodCRC');
         const retry = m.from === first.from && sameMessage && m.d.messageType !== 'GoodCRC';
         const acknowledged = m.from !== first.from && m.d.messageType === 'GoodCRC' && sameMessage && m.crcOk;
-        if (m.crcOk && (retry || acknowledged)) {
+        // A corrupted GoodCRC: the sender, missing it, retries the message it acknowledged (same MessageID).
+        const resent = first.d.messageType === 'GoodCRC' && m.from !== first.from && m.d.messageType !== 'GoodCRC' && m.d.messageId === first.d.messageId;
+        if (m.crcOk && (retry || acknowledged || resent)) {
           settle(m.sop, m);
           return;
         }

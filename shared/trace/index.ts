@@ -1,4 +1,4 @@
-/** Public entry of the trace engine (/work/notes/interfaces.md, "shared/trace"). */
+/** Public entry of the trace engine (README.md beside it). */
 export {
   traceRecordSchema,
   traceHeaderSchema,

@@ -6,15 +6,20 @@
  * i.e. at its EOP — so both ends are message ends, never preamble starts. Without a captured GoodCRC
  * the acknowledged message's own end is used. Limits come from shared/core/timers.ts by the
  * revision in operation (the lower of the two ports' Specification Revision fields, §6.2.1.1.5).
+ * Split along its seams: the offers in force and their checks (offers.ts), the revision in
+ * operation (revision.ts), EPR mode (epr.ts); this module keeps the request → answer → PS_RDY →
+ * contract sequence and its timers.
  */
 import type { Contract } from '../core/contract.ts';
 import type { Finding } from '../core/finding.ts';
-import { timersFor, type TimerRangeUs, type TimerTable } from '../core/timers.ts';
+import type { TimerRangeUs, TimerTable } from '../core/timers.ts';
 import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
-import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
-import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
+import type { Rdo, SourcePdo } from '../pd/types.ts';
+import { checkRequest, contractOf } from '../rules/index.ts';
 import { endedDuring, expire, isOpen, movedOn, pastDeadline, resetDuring, type Awaited, type Watch } from './awaited.ts';
 import { objectAt } from './decode-cache.ts';
+import { createOffersTracker } from './offers.ts';
+import { createRevisionInOperation } from './revision.ts';
 import { contractText, millis, seconds } from './format.ts';
 import type { TraceSide } from './records.ts';
 import type { Report, SeenMessage } from './seen.ts';
@@ -90,9 +95,9 @@ export interface PolicyTracker {
 }
 
 export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
-  let caps: { m: SeenMessage; pdos: SourcePdo[]; key: string } | undefined;
+  const offers = createOffersTracker(report, (f) => events.finding(f));
+  const revision = createRevisionInOperation();
   let capsWaiting: Pending | undefined;
-  let lastUnackedCaps: SeenMessage | undefined;
   let request: PendingRequest | undefined;
   let accepted: Accepted | undefined;
   let other: Pending | undefined;
@@ -103,16 +108,9 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let waited: SeenMessage | undefined;
   let contract: ActiveContract | undefined;
   let transition = false;
-  const revisions: { source?: SpecRevision; sink?: SpecRevision } = {};
-  const capsChecked = new Set<string>();
   const rdos = new Map<string, Rdo>();
 
-  const timers = (): TimerTable => {
-    const a = revisions.source;
-    const b = revisions.sink;
-    const lowest = a === '2.0' || a === '1.0' || b === '2.0' || b === '1.0' ? '2.0' : '3.0';
-    return timersFor(lowest);
-  };
+  const timers = (): TimerTable => revision.timers();
   const ackEnd = (m: SeenMessage): number => m.ackEndUs ?? m.endUs;
   const at = (m: SeenMessage): { t: number; line: number | undefined } => ({ t: m.t, line: m.line });
   const unexpected = (m: SeenMessage, why: string): void => {
@@ -190,39 +188,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   };
 
   const onCaps = (m: SeenMessage): void => {
-    const pdos = m.d.message.objects.filter((o): o is SourcePdo => SOURCE_PDO_KINDS.includes(o.kind));
-    if (pdos.length !== m.d.message.objects.length) return;
-    const { tTypeCSendSourceCap } = timers();
-    if (lastUnackedCaps && lastUnackedCaps.ackEndUs === undefined && !contract) {
-      const gapUs = m.t - lastUnackedCaps.t;
-      if (gapUs < tTypeCSendSourceCap.minUs || gapUs > tTypeCSendSourceCap.maxUs) {
-        report(
-          'timing.caps-interval',
-          `The source repeated Source_Capabilities ${millis(gapUs)} after the unanswered one at ${seconds(lastUnackedCaps.t)}; tTypeCSendSourceCap is ${millis(tTypeCSendSourceCap.minUs)} to ${millis(tTypeCSendSourceCap.maxUs)}.`,
-          { ...at(m), ref: tTypeCSendSourceCap.ref },
-        );
-      }
-    }
-    lastUnackedCaps = m;
+    if (!offers.onCaps(m, contract !== undefined, timers())) return;
     waited = undefined;
-    const key = objectsKey(m);
-    caps = { m, pdos, key };
     capsWaiting = { m, reported: false };
     request = undefined;
-    if (!capsChecked.has(key) && capsChecked.size < CHECKED_LIMIT) {
-      capsChecked.add(key);
-      for (const f of checkCaps(pdos).findings) events.finding(located(f, m));
-      const apdo = pdos.findIndex((p) => p.kind === 'pps' || p.kind === 'epr-avs' || p.kind === 'spr-avs');
-      if (apdo >= 0 && (m.d.revision === '2.0' || m.d.revision === '1.0')) {
-        report('caps.revision', `The source's Source_Capabilities at ${seconds(m.t)} say Specification Revision ${m.d.revision} but object ${apdo + 1} is a programmable (augmented) offer, which exists only from Revision 3.0.`, { ...at(m), object: apdo + 1 });
-      }
-    }
   };
 
   const onRequest = (m: SeenMessage): void => {
     const epr = m.d.messageType === 'EPR_Request';
     const raw = objectAt(m.d.bytes, 1);
     if (raw === undefined) return;
+    const caps = offers.current();
     if (!caps && !epr) unexpected(m, 'before any Source_Capabilities');
     if (waited && m.from === 'sink') {
       const { tSinkRequest } = timers();
@@ -234,7 +210,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     waited = undefined;
     if (capsWaiting) checkResponse(capsWaiting, m);
     capsWaiting = undefined;
-    lastUnackedCaps = undefined;
+    offers.answered();
     const position = (raw >>> 28) & 0xf;
     let pdo: SourcePdo | undefined = caps?.pdos[position - 1];
     if (epr) {
@@ -316,7 +292,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   return {
     onMessage(m) {
       if (m.sop !== 'SOP') return;
-      if (m.from === 'source' || m.from === 'sink') revisions[m.from] = m.d.revision;
+      revision.note(m);
       const type = m.d.messageType;
       // A wait already reported: the waiting side went on to send something else (Soft_Reset says more below).
       if (type !== 'Soft_Reset' && anyOpen()) for (const a of waits()) if (a.rule !== 'timing.pps-keepalive') movedOn(a, m.t, m.from, type);
@@ -387,9 +363,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     },
     reset(t) {
       if (contract) events.contractEnd(t);
-      caps = undefined;
+      offers.reset();
       capsWaiting = undefined;
-      lastUnackedCaps = undefined;
       request = undefined;
       accepted = undefined;
       other = undefined;
@@ -399,8 +374,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       transition = false;
     },
     steadyContract: () => (transition ? undefined : contract),
-    offers: () => caps?.pdos,
-    offersKey: () => caps?.key ?? '',
+    offers: () => offers.current()?.pdos,
+    offersKey: () => offers.current()?.key ?? '',
     requestCounts: () => ({ requests: requestsSeen, requestsAccepted }),
   };
 }

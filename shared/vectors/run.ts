@@ -18,7 +18,7 @@
  * - sweep: `{ holds, minRuns }` of a whole fault campaign.
  */
 import type { Finding } from '../core/finding.ts';
-import type { EngineError } from '../core/result.ts';
+import type { EngineError, Result } from '../core/result.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
 import { engine as defaultEngine, type EngineFacade } from './engine-facade.ts';
 import { describeMismatches, matchFindings, matchPartial, matchSequence, matchWithin, type Mismatch } from './match.ts';
@@ -64,7 +64,7 @@ interface Outcome {
 }
 
 /** Parses and validates a vector file's text. */
-export function parseVector(text: string): { ok: true; vector: Vector } | { ok: false; error: EngineError } {
+export function parseVector(text: string): Result<{ vector: Vector }> {
   let json: unknown;
   try {
     json = JSON.parse(text);

@@ -9,6 +9,7 @@ import { scenarioSchema } from '../sim/scenario.ts';
 import { INVARIANT_IDS } from '../sweep/invariants.ts';
 import { SWEEP_FAULT_KINDS } from '../sweep/placements.ts';
 import { traceHeaderSchema, traceRecordSchema } from '../trace/records.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 /** Lower-case words of `a-z`, `0-9`, `.`, `_`, `-`, joined by `/`: `caps/power-rules/45w-without-9v`. */
 export const VECTOR_ID_PATTERN = /^[a-z0-9][a-z0-9._-]*(?:\/[a-z0-9][a-z0-9._-]*)*$/;
@@ -238,12 +239,7 @@ export function traceJsonSchema(): Record<string, unknown> {
   };
 }
 
-/** "field: message" for the first few issues of a failed parse. */
+/** "field: message" for the first few issues of a failed vector parse (shared/core/zod-message.ts). */
 export function describeZodError(error: z.ZodError, limit = 3): string {
-  const lines = error.issues.slice(0, limit).map((issue) => {
-    const path = issue.path.map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`)).join('').replace(/^\./, '');
-    return `${path || '(file)'}: ${issue.message}`;
-  });
-  const more = error.issues.length > limit ? ` (and ${error.issues.length - limit} more)` : '';
-  return lines.join('; ') + more;
+  return zodMessage(error, { where: '(file)', limit });
 }

@@ -30,6 +30,7 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Traces', to: paths.traces.index.path, roles: everyRole, section: 'analyse', summary: 'Upload a log from the field, see what happened on the wire and share the diagnosis.' },
   { label: 'Rules', to: paths.rules.index.path, roles: everyRole, section: 'analyse', summary: 'Every check Parley reports, what it means and where it comes from.' },
   { label: 'Bench', to: paths.bench.path, roles: everyRole, section: 'simulate', summary: 'Simulate a source and a sink negotiating, inject faults, and watch every message, timer and volt.' },
+  { label: 'Fault sweep', to: paths.sweep.path, roles: everyRole, section: 'simulate', summary: 'Every placement of a lost, corrupted or late message and every timer edge, each run judged by invariants.' },
   { label: 'Library', to: paths.library.index.path, roles: everyRole, section: 'test', summary: 'The team\'s test vectors with their history: edit, compare revisions, run them, import and export.' },
   { label: 'Runs', to: paths.runs.index.path, roles: everyRole, section: 'test', summary: 'Every run of the library, from here or from CI per firmware build, with what failed and why.' },
   { label: 'Properties', to: paths.properties.path, roles: roleGroups.editors, section: 'test', summary: 'Write a property over the engine, let it hunt for a counterexample and keep it as a vector.' },

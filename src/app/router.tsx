@@ -57,6 +57,10 @@ export function createAppRouter(queryClient: QueryClient) {
               lazy: async () => ({ Component: (await import('../features/bench/routes/bench.tsx')).BenchRoute }),
             },
             {
+              path: paths.sweep.path,
+              lazy: async () => ({ Component: (await import('../features/sweep/routes/fault-sweep.tsx')).FaultSweepRoute }),
+            },
+            {
               path: paths.traces.index.path,
               lazy: async () => ({ Component: (await import('../features/traces/routes/traces.tsx')).TracesRoute }),
             },

@@ -56,6 +56,10 @@ export const paths = {
     getHref: (options?: { fromTrace?: string | number }) =>
       options?.fromTrace !== undefined ? `/bench?fromTrace=${encodeURIComponent(String(options.fromTrace))}` : '/bench',
   },
+  sweep: {
+    path: '/sweep',
+    getHref: () => '/sweep',
+  },
   traces: {
     index: {
       path: '/traces',

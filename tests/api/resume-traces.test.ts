@@ -47,7 +47,7 @@ describe('start-up resumes unfinished traces', () => {
       // Second run: nobody requests the traces; start-up alone finishes them.
       const server = await startServer(quiet(dataDir));
       try {
-        expect(await (await fetch(`${server.url}/api/health`)).json()).toEqual({ ok: true });
+        expect(await (await fetch(`${server.url}/api/health`)).json()).toMatchObject({ ok: true, database: { ok: true, kind: 'sqlite' }, storage: { ok: true, kind: 'local' }, queue: { ok: true, kind: 'local' } });
         const deadline = Date.now() + 30_000;
         let statuses: string[] = [];
         while (Date.now() < deadline) {

@@ -99,7 +99,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       const rows = await batchEm.find(TeamVector, { vectorId: { $in: ids } }, { fields: ['vectorId', 'revision', 'title', 'kind', 'text'] });
       const byId = new Map(rows.map((r) => [r.vectorId, r]));
       const present = ids.filter((id) => byId.has(id));
-      const results = await runBatch(deps.runPool, present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir })));
+      const results = await runBatch(deps.runPool, present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })));
       if (job.signal.aborted) return;
       const now = deps.clock.now();
       const records: Omit<IRunResult, 'id'>[] = present.map((id, i) => {
@@ -123,13 +123,17 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       for (const id of ids.filter((x) => !byId.has(x))) {
         records.push({ runId, vectorId: id, title: null, kind: null, vectorRevision: null, ok: false, message: 'the vector was deleted from the library before it ran', durationMs: 0, newFailure: false, detail: null, createdAt: now });
       }
-      for (const record of records) batchEm.create(RunResult, record);
-      await batchEm.flush();
       for (const record of records) {
         if (record.ok) passed += 1;
         else failed += 1;
       }
-      await batchEm.nativeUpdate(TestRun, { id: runId }, { done: passed + failed, passed, failed });
+      // One transaction per batch: its results and the run's counts.
+      const counts = { done: passed + failed, passed, failed };
+      await batchEm.transactional(async (tx) => {
+        for (const record of records) tx.create(RunResult, record);
+        await tx.flush();
+        await tx.nativeUpdate(TestRun, { id: runId }, counts);
+      });
       const lastRecord = records[records.length - 1]!;
       const last = { id: lastRecord.vectorId, ok: lastRecord.ok, durationMs: lastRecord.durationMs, ...(lastRecord.message ? { message: lastRecord.message } : {}) };
       job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });

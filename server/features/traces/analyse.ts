@@ -51,7 +51,7 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   // Deleted, or finished by an earlier attempt: nothing to do but tell the subscribers.
   if (!row || row.status === 'done' || row.status === 'failed') return job.publish(traceEvent(row));
   const { sha256, sizeBytes } = row;
-  if (!store.has(sha256)) {
+  if (!(await store.has(sha256))) {
     // The file is gone (data folder copied without it): say so on the row rather than loop.
     const message = 'The analysis failed: the stored file is missing.';
     await em.nativeUpdate(Trace, { id }, { status: 'failed', errorCode: 'trace.file-missing', errorMessage: message, analysedAt: clock.now() });
@@ -59,10 +59,12 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   }
   await em.nativeUpdate(Trace, { id }, { status: 'analysing' });
   job.publish({ type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });
-  const result = await pool.analyze(store.pathOf(sha256), {
-    format: row.format as TraceFormat,
-    onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
-  });
+  const result = await store.withLocalFile(sha256, (path) =>
+    pool.analyze(path, {
+      format: row.format as TraceFormat,
+      onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
+    }),
+  );
   // Stopped by a shutdown: the row stays `analysing` for the next worker (or start-up) to take.
   if (job.signal.aborted) return;
   if (!result.ok) {

@@ -1,6 +1,7 @@
 import { existsSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
-import { basename, resolve } from 'node:path';
+import { basename } from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { rateLimit } from 'express-rate-limit';
@@ -10,6 +11,7 @@ import { z } from 'zod';
 import { MAX_TRACE_BYTES, roleGroups, type AnalysisEvent } from '../../../shared/api/index.ts';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, TraceComment, type ITrace } from '../../db/trace-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import type { AppDeps } from '../../context.ts';
 import { badGateway, badRequest, conflict, forbidden, notFound, rateLimited } from '../../errors.ts';
 import { currentUser, route, type RouteContext, type RouteDef } from '../../route-def.ts';
@@ -149,7 +151,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   const { res, body, query, em, deps } = ctx;
   const me = currentUser(ctx);
   const sniffed = sniffTrace(file.head, file.size <= file.head.length);
-  if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
+  if (!sniffed.ok) throw badRequest(sniffed.error.message, 'trace.not-a-trace');
   if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
     throw badRequest('deviceId: no device under test has that id', 'input.invalid');
   }
@@ -231,7 +233,8 @@ export const tracesRoutes: RouteDef[] = [
       const where: Record<string, unknown>[] = [];
       if (query.q) {
         const like = `%${query.q}%`;
-        where.push({ $or: [{ title: { $like: like } }, { fileName: { $like: like } }, { customerRef: { $like: like } }, { notes: { $like: like } }, { summary: { $like: like } }, { rules: { $like: like } }] });
+        const op = likeOperator(em);
+        where.push({ $or: [{ title: { [op]: like } }, { fileName: { [op]: like } }, { customerRef: { [op]: like } }, { notes: { [op]: like } }, { summary: { [op]: like } }, { rules: { [op]: like } }] });
       }
       if (query.deviceId) where.push({ deviceId: query.deviceId });
       if (query.uploaderId) where.push({ uploaderId: query.uploaderId });
@@ -298,11 +301,12 @@ export const tracesRoutes: RouteDef[] = [
     params: idParams,
     async handler({ em, params, res, deps }) {
       const trace = await findTrace(em, params.id);
-      const path = resolve(deps.traceStore.pathOf(trace.sha256));
-      if (!existsSync(path)) throw notFound('The stored file of this trace is missing', 'trace.file-missing');
+      if (!(await deps.traceStore.has(trace.sha256))) throw notFound('The stored file of this trace is missing', 'trace.file-missing');
+      const stream = await deps.traceStore.read(trace.sha256);
       res.attachment(trace.fileName);
       res.type('text/plain; charset=utf-8');
-      await new Promise<void>((done, fail) => res.sendFile(path, { dotfiles: 'allow', cacheControl: false }, (error) => (error ? fail(error) : done())));
+      res.setHeader('Content-Length', String(trace.sizeBytes));
+      await pipeline(stream, res);
       return undefined;
     },
   }),
@@ -399,7 +403,7 @@ export const tracesRoutes: RouteDef[] = [
     async handler({ em, params, res, deps }) {
       const trace = await findTrace(em, params.id, true);
       const analysis = analysedOrConflict(trace);
-      const read = await deps.analysisPool.records(deps.traceStore.pathOf(trace.sha256), trace.format as TraceFormat, VECTOR_RECORD_LIMIT);
+      const read = await deps.traceStore.withLocalFile(trace.sha256, (path) => deps.analysisPool.records(path, trace.format as TraceFormat, VECTOR_RECORD_LIMIT));
       if (!read.ok) {
         const code = read.error.code === 'trace.too-many-records' ? 'trace.too-many-records' : 'trace.unreadable';
         throw badRequest(`The trace cannot be kept as a vector: ${read.error.message}`, code, { engineCode: read.error.code });

@@ -24,15 +24,16 @@ function likeText(value: string): string {
   return `%${value}%`;
 }
 
-export function vectorWhere(filter: VectorFilter): FilterQuery<ITeamVector> {
+/** `op`: `$like` on SQLite, `$ilike` on PostgreSQL (server/db/orm.ts `likeOperator`). */
+export function vectorWhere(filter: VectorFilter, op: '$like' | '$ilike' = '$like'): FilterQuery<ITeamVector> {
   const and: FilterQuery<ITeamVector>[] = [];
   if (filter.q) {
     for (const word of filter.q.split(/\s+/).filter((w) => w !== '').slice(0, 8)) {
       const like = likeText(word);
-      and.push({ $or: [{ vectorId: { $like: like } }, { title: { $like: like } }, { tags: { $like: like } }, { text: { $like: like } }] });
+      and.push({ $or: [{ vectorId: { [op]: like } }, { title: { [op]: like } }, { tags: { [op]: like } }, { text: { [op]: like } }] });
     }
   }
-  if (filter.tag) and.push({ tags: { $like: likeText(` ${filter.tag} `) } });
+  if (filter.tag) and.push({ tags: { [op]: likeText(` ${filter.tag} `) } });
   if (filter.kind) and.push({ kind: filter.kind });
   if (filter.deviceId) and.push({ deviceId: filter.deviceId });
   return and.length > 0 ? { $and: and } : {};

@@ -4,6 +4,7 @@ import { MAX_IMPORT_ZIP_BYTES, roleGroups } from '../../../shared/api/index.ts';
 import { createTwoFilesPatch, diffLines } from 'diff';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import { badRequest, HttpError, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
@@ -69,7 +70,7 @@ export const vectorsRoutes: RouteDef[] = [
       const { sort, page, pageSize, ...filter } = query;
       const direction = sort.startsWith('-') ? 'desc' : 'asc';
       const column = sortColumn[sort.replace(/^-/, '') as (typeof sortKeys)[number]];
-      const [rows, total] = await em.findAndCount(TeamVector, vectorWhere(filter), {
+      const [rows, total] = await em.findAndCount(TeamVector, vectorWhere(filter, likeOperator(em)), {
         orderBy: [{ [column]: direction }, { vectorId: 'asc' }],
         limit: pageSize,
         offset: (page - 1) * pageSize,
@@ -96,7 +97,7 @@ export const vectorsRoutes: RouteDef[] = [
     access: 'signed-in',
     query: exportQuery,
     async handler({ em, query, res }) {
-      const rows = await em.find(TeamVector, vectorWhere(query), { fields: ['vectorId', 'text'], orderBy: { vectorId: 'asc' } });
+      const rows = await em.find(TeamVector, vectorWhere(query, likeOperator(em)), { fields: ['vectorId', 'text'], orderBy: { vectorId: 'asc' } });
       const zip = libraryZip(rows.map((r) => ({ vectorId: r.vectorId, text: r.text })));
       res.attachment('parley-vectors.zip');
       res.type('application/zip');
@@ -115,7 +116,7 @@ export const vectorsRoutes: RouteDef[] = [
       const upload = req.file;
       if (!upload) throw badRequest('file: choose a zip of *.vector.json files (the multipart field "file")', 'vector.no-file');
       const read = readLibraryZip(new Uint8Array(upload.buffer));
-      if (!read.ok) throw badRequest(read.message, 'vector.bad-zip');
+      if (!read.ok) throw badRequest(read.error.message, 'vector.bad-zip');
       const issues: ImportIssue[] = [];
       const checked = new Map<string, { file: string; checked: CheckedVector }>();
       for (const file of read.files) {

@@ -5,6 +5,7 @@
  */
 import { MAX_IMPORT_BYTES, MAX_IMPORT_FILES } from '../../../shared/api/index.ts';
 import { strFromU8, strToU8, unzipSync, zipSync, type Zippable } from 'fflate';
+import { fail, type Result } from '../../../shared/core/result.ts';
 
 export const ZIP_FOLDER = 'vectors';
 /** DOS time stamps start in 1980; a fixed one keeps exports byte-stable. */
@@ -18,7 +19,7 @@ export function libraryZip(files: readonly { vectorId: string; text: string }[])
   return zipSync(entries, { level: 6, mtime: FIXED_MTIME });
 }
 
-export type ZipRead = { ok: true; files: { name: string; text: string }[] } | { ok: false; message: string };
+export type ZipRead = Result<{ files: { name: string; text: string }[] }>;
 
 /** The `*.vector.json` entries of an uploaded zip (other entries are ignored), with size guards. */
 export function readLibraryZip(bytes: Uint8Array): ZipRead {
@@ -37,12 +38,12 @@ export function readLibraryZip(bytes: Uint8Array): ZipRead {
       },
     });
   } catch (error) {
-    return { ok: false, message: `file: not a readable zip archive (${error instanceof Error ? error.message : String(error)})` };
+    return fail('vector.bad-zip', `file: not a readable zip archive (${error instanceof Error ? error.message : String(error)})`);
   }
-  if (tooBig) return { ok: false, message: `file: the zip holds more than ${MAX_IMPORT_FILES} vectors or ${MAX_IMPORT_BYTES / 1024 / 1024} MB of them` };
+  if (tooBig) return fail('vector.bad-zip', `file: the zip holds more than ${MAX_IMPORT_FILES} vectors or ${MAX_IMPORT_BYTES / 1024 / 1024} MB of them`);
   const files = Object.entries(unzipped)
     .map(([name, data]) => ({ name, text: strFromU8(data) }))
     .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
-  if (files.length === 0) return { ok: false, message: 'file: the zip holds no *.vector.json files' };
+  if (files.length === 0) return fail('vector.bad-zip', 'file: the zip holds no *.vector.json files');
   return { ok: true, files };
 }

@@ -24,6 +24,8 @@ function eMarkerChoiceOf(marker: { currentMa: number; maxVoltageMv: number; eprC
   if (marker.eprCapable && marker.currentMa === 5_000 && marker.maxVoltageMv === 50_000) return '5a-50v-epr';
   return marker.currentMa === 5_000 ? '5a-20v' : '3a-20v';
 }
+import { zodMessage } from '../../../../shared/core/zod-message.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 const revisionSchema = z.enum(['2.0', '3.0']);
 const msSchema = z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(0, 'must be at least 0 ms');
@@ -67,11 +69,11 @@ function compact<T extends object>(value: T): T {
 }
 
 /** Form values → a scenario input (not yet validated), laid over `base`. */
-export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = defaultScenario): { ok: true; scenario: ScenarioInput } | { ok: false; message: string } {
+export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = defaultScenario): Result<{ scenario: ScenarioInput }> {
   const built = buildOffers(values.offers);
-  if (!built.ok) return { ok: false, message: built.error.message };
+  if (!built.ok) return built;
   const builtEpr = values.eprOffers.length > 0 ? buildOffers(values.eprOffers) : null;
-  if (builtEpr && !builtEpr.ok) return { ok: false, message: `EPR offers: ${builtEpr.error.message}` };
+  if (builtEpr && !builtEpr.ok) return fail(builtEpr.error.code, `EPR offers: ${builtEpr.error.message}`);
   const behaviour = compact({ ...base.source.behaviour, capsIntervalMs: values.capsIntervalMs });
   const eMarker = eMarkerChoices[values.eMarker];
   const source = compact({
@@ -95,13 +97,13 @@ export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = de
 }
 
 /** A validated scenario → form values. Offers the form cannot hold (reserved types) fail. */
-export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFormValues } | { ok: false; message: string } {
+export function formOfScenario(scenario: Scenario): Result<{ values: BenchFormValues }> {
   const caps = resolveCaps(scenario.source.caps);
-  if (!caps.ok) return { ok: false, message: `source.caps: ${caps.error.message}` };
+  if (!caps.ok) return fail('scenario.invalid', `source.caps: ${caps.error.message}`);
   const offers: OfferInput[] = [];
   for (const [index, pdo] of caps.pdos.entries()) {
     if (!['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'].includes(pdo.kind)) {
-      return { ok: false, message: `source.caps: offer ${index + 1} is of a reserved type the form cannot show` };
+      return fail('scenario.invalid', `source.caps: offer ${index + 1} is of a reserved type the form cannot show`);
     }
     offers.push(offerInputOf(pdo));
   }
@@ -109,7 +111,7 @@ export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFor
   const eprOffers: OfferInput[] = [];
   if (scenario.source.eprCaps) {
     const epr = resolveCaps(scenario.source.eprCaps);
-    if (!epr.ok) return { ok: false, message: `source.eprCaps: ${epr.error.message}` };
+    if (!epr.ok) return fail(epr.error.code, `source.eprCaps: ${epr.error.message}`);
     eprOffers.push(...epr.pdos.map(offerInputOf));
   }
   return {
@@ -138,7 +140,7 @@ export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFor
 export const benchFormResolverSchema = benchFormSchema.superRefine((values, context) => {
   const mapped = scenarioOfForm(values);
   if (!mapped.ok) {
-    context.addIssue({ code: 'custom', path: ['offers'], message: mapped.message });
+    context.addIssue({ code: 'custom', path: ['offers'], message: mapped.error.message });
     return;
   }
   const parsed = scenarioSchema.safeParse(mapped.scenario);
@@ -158,18 +160,16 @@ function formPathOf(path: readonly PropertyKey[]): (string | number)[] {
 }
 
 /** JSON text → a validated scenario, with "field: message" errors. */
-export function parseScenarioText(text: string): { ok: true; scenario: Scenario; input: ScenarioInput } | { ok: false; message: string } {
+export function parseScenarioText(text: string): Result<{ scenario: Scenario; input: ScenarioInput }> {
   let json: unknown;
   try {
     json = JSON.parse(text);
   } catch (error) {
-    return { ok: false, message: `JSON: ${error instanceof Error ? error.message : String(error)}` };
+    return fail('scenario.json', `JSON: ${error instanceof Error ? error.message : String(error)}`);
   }
   const parsed = scenarioSchema.safeParse(json);
   if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    const field = issue && issue.path.length > 0 ? issue.path.join('.') : 'scenario';
-    return { ok: false, message: `${field}: ${issue?.message ?? 'invalid scenario'}` };
+    return fail('scenario.invalid', zodMessage(parsed.error, { where: 'scenario', limit: 1 }));
   }
   return { ok: true, scenario: parsed.data, input: json as ScenarioInput };
 }

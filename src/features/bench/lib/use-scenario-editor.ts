@@ -8,6 +8,7 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
+import type { Result } from '../../../../shared/core/result.ts';
 import { benchFormResolverSchema, defaultScenario, formOfScenario, parseScenarioText, scenarioOfForm, type BenchFormValues } from './form-model.ts';
 import { sharedFromHash } from '../../../lib/share-url.ts';
 
@@ -17,7 +18,7 @@ export const scenarioText = (scenario: ScenarioInput) => `${JSON.stringify(scena
 export type Loaded = { input: ScenarioInput; values: BenchFormValues };
 
 /** Scenario JSON text as the form's values, or the reason it cannot be shown ("field: message"). */
-export function loadText(text: string): { ok: true; loaded: Loaded } | { ok: false; message: string } {
+export function loadText(text: string): Result<{ loaded: Loaded }> {
   const parsed = parseScenarioText(text);
   if (!parsed.ok) return parsed;
   const form = formOfScenario(parsed.scenario);
@@ -29,12 +30,12 @@ export const loadScenario = (input: unknown) => loadText(JSON.stringify(input ??
 
 function initialScenario(): { loaded: Loaded; notice: string | null } {
   const fallback = loadScenario(defaultScenario);
-  if (!fallback.ok) throw new Error(fallback.message);
+  if (!fallback.ok) throw new Error(fallback.error.message);
   const shared = sharedFromHash(window.location.hash);
   if (!shared) return { loaded: fallback.loaded, notice: null };
-  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.message };
+  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message };
   const result = loadScenario(shared.value);
-  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.message}` };
+  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
 }
 
 export function useScenarioEditor() {
@@ -76,7 +77,7 @@ export function useScenarioEditor() {
       setJsonText(text);
       const result = loadText(text);
       if (!result.ok) {
-        setJsonError(result.message);
+        setJsonError(result.error.message);
         return;
       }
       applyingRef.current = true;

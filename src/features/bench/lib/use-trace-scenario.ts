@@ -4,6 +4,7 @@
  */
 import { useEffect, useRef } from 'react';
 import { useSearchParams } from 'react-router';
+import { fail } from '../../../../shared/core/result.ts';
 import { useTrace } from '../../../lib/api/get-trace.ts';
 import { capturedMessagesOf, scenarioFromMessages } from './scenario-from-trace.ts';
 import { loadScenario, type Loaded } from './use-scenario-editor.ts';
@@ -17,10 +18,10 @@ export function useTraceScenario(enabled: boolean, apply: (loaded: Loaded) => vo
     if (!fromTrace || !trace.data || appliedTrace.current === fromTrace) return;
     appliedTrace.current = fromTrace;
     const captured = capturedMessagesOf(trace.data);
-    const derived = captured ? scenarioFromMessages(captured.messages, { endUs: captured.endUs }) : { ok: false as const, message: 'The trace has no timeline to read.' };
+    const derived = captured ? scenarioFromMessages(captured.messages, { endUs: captured.endUs }) : fail('trace.no-timeline', 'The trace has no timeline to read.');
     const loaded = derived.ok ? loadScenario(derived.scenario) : derived;
     if (!loaded.ok) {
-      setNotice(`Trace ${fromTrace} could not be opened as a scenario: ${loaded.message}`);
+      setNotice(`Trace ${fromTrace} could not be opened as a scenario: ${loaded.error.message}`);
       return;
     }
     apply(loaded.loaded);

@@ -4,6 +4,7 @@
  * form and editor never disagree and the saved file is the byte-stable one.
  */
 import { formatVector } from '../../../../shared/vectors/format.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 export type VectorObject = Record<string, unknown>;
 export type Path = readonly (string | number)[];
@@ -40,15 +41,15 @@ export function templateFor(kind: VectorKindName, base: { id?: string; title?: s
   }
 }
 
-export type Parsed = { ok: true; value: VectorObject } | { ok: false; message: string };
+export type Parsed = Result<{ value: VectorObject }>;
 
 export function parseText(text: string): Parsed {
   try {
     const value = JSON.parse(text) as unknown;
-    if (typeof value !== 'object' || value === null || Array.isArray(value)) return { ok: false, message: 'A vector file is one JSON object { … }.' };
+    if (typeof value !== 'object' || value === null || Array.isArray(value)) return fail('vector.json', 'A vector file is one JSON object { … }.');
     return { ok: true, value: value as VectorObject };
   } catch (error) {
-    return { ok: false, message: `The JSON does not parse: ${error instanceof Error ? error.message : String(error)}` };
+    return fail('vector.json', `The JSON does not parse: ${error instanceof Error ? error.message : String(error)}`);
   }
 }
 

@@ -181,7 +181,7 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
                   <VectorForm value={parsed.value} onChange={(next) => setText(toText(next))} isNew={isNew} devices={devices.data?.items ?? []} deviceId={deviceId} onDeviceChange={setDeviceId} disabled={!canWrite} setIn={setIn} />
                 ) : (
                   <p role="alert" className="text-sm text-orange-700 dark:text-orange-300">
-                    {parsed.message} Fix the file on the right to use the form again.
+                    {parsed.error.message} Fix the file on the right to use the form again.
                   </p>
                 )}
               </CardBody>

@@ -14,6 +14,7 @@ import { OffersForm } from '../components/offers-form.tsx';
 import { SourceLoader } from '../components/source-loader.tsx';
 import { initialFormValues, offersFormSchema, type OffersFormValues } from '../lib/offers-form.ts';
 import { analyseInWorker, readInWorker, useRulesWorker } from '../lib/rules-worker.ts';
+import { zodMessage } from '../../../../shared/core/zod-message.ts';
 
 // recharts is large: the chart arrives in its own chunk.
 const EnvelopeChart = lazy(() => import('../components/envelope-chart.tsx'));
@@ -21,8 +22,7 @@ const EnvelopeChart = lazy(() => import('../components/envelope-chart.tsx'));
 function policyError(draft: PolicyDraft): string | undefined {
   const parsed = sinkPolicySchema.safeParse(policyOf(draft));
   if (parsed.success) return undefined;
-  const issue = parsed.error.issues[0]!;
-  return `${issue.path.join('.') || 'policy'}: ${issue.message}`;
+  return zodMessage(parsed.error, { where: 'policy', limit: 1 });
 }
 
 export function OffersRoute() {

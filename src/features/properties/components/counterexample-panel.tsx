@@ -3,7 +3,7 @@ import { Badge } from '../../../components/badge.tsx';
 import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import type { CounterexampleRun } from '../../../../workers/property.worker.ts';
-import { downloadVector, saveVector } from '../lib/save-vector.ts';
+import { downloadVector, saveVector } from '../../../lib/save-vector.ts';
 import { MessageList } from './message-list.tsx';
 import { SaveStatus, type SaveState } from './save-status.tsx';
 

@@ -3,9 +3,9 @@
  * server has it, else as a download; and a download on request in any case. The file is always
  * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
  */
-import { api, isApiError } from '../../../lib/api-client.ts';
-import { downloadText } from '../../../lib/download.ts';
-import { formatVector } from '../../../../shared/vectors/format.ts';
+import { api, isApiError } from './api-client.ts';
+import { downloadText } from './download.ts';
+import { formatVector } from '../../shared/vectors/format.ts';
 
 export type SaveOutcome =
   | { kind: 'library'; id: string; revision?: number }
