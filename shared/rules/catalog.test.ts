@@ -21,7 +21,7 @@ const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|epr|vbus|trace)\
 /**
  * Result error codes of the engine's edge (shared/core/result.ts): input errors, never findings, so
  * they have no rule page. A decode error code becomes a finding only when it is a catalog id
- * (shared/trace/analyzer.ts); otherwise the analyser reports trace.malformed-line.
+ * (shared/trace/analyser.ts); otherwise the analyser reports trace.malformed-line.
  */
 const ERROR_CODES = new Set(['decode.chunk', 'decode.internal', 'trace.empty', 'trace.internal']);
 

@@ -8,7 +8,7 @@ import type { Contract } from '../core/contract.ts';
 import type { Finding } from '../core/finding.ts';
 import { decodeMessage, parseHex } from '../pd/index.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
-import { analyzeRecords } from '../trace/index.ts';
+import { analyseRecords } from '../trace/index.ts';
 import type { TraceRecord } from '../trace/records.ts';
 import type { Timeline } from '../trace/timeline.ts';
 import type { PortViews } from './port-views.ts';
@@ -90,7 +90,7 @@ export function simulate(scenario: Scenario, options: SimulateOptions = {}): Sim
     shouldStop: options.shouldStop,
   });
   if (options.decode !== false) decodeAll(run.records, caps.pdos);
-  const analysis = options.analyze === false ? undefined : analyzeRecords(run.records);
+  const analysis = options.analyze === false ? undefined : analyseRecords(run.records);
   const result: SimulationResult = {
     contract: run.contract,
     contracts: run.contracts,

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { timersPd3 } from '../core/timers.ts';
 import { HEX, sequence, type Step } from '../../tests/fixtures/traces/build.ts';
-import { analyzeRecords } from './analyzer.ts';
+import { analyseRecords } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
 import { messageDurationUs } from './wire-time.ts';
 
@@ -14,8 +14,8 @@ import { messageDurationUs } from './wire-time.ts';
 // Hard Reset (§8.3.3.2 PE_SRC_Send_Capabilities, §8.3.3.3 PE_SNK_Select_Capability and
 // PE_SNK_Transition_Sink; from memory).
 
-const finding = (records: TraceRecord[], rule: string) => analyzeRecords(records).findings.find((f) => f.rule === rule);
-const rulesOf = (records: TraceRecord[]) => analyzeRecords(records).findings.map((f) => f.rule);
+const finding = (records: TraceRecord[], rule: string) => analyseRecords(records).findings.find((f) => f.rule === rule);
+const rulesOf = (records: TraceRecord[]) => analyseRecords(records).findings.map((f) => f.rule);
 
 const upToRequest: Step[] = [
   { msg: HEX.caps, from: 'source', gapUs: 0 },

@@ -7,10 +7,10 @@ import { describe, expect, it } from 'vitest';
 import { acked, capture, pdHex, pdoWord, type Exchange } from '../../tests/fixtures/traces/spec-build.ts';
 import { avsRdo, cableDiscovery, eprOffers, eprScene, fixedRdo, keepAlives, sprCaps, sprContract } from '../../tests/fixtures/traces/spec-scenes.ts';
 import { fixedPdo, ppsApdo } from '../rules/pdo-builders.ts';
-import { analyzeRecords } from './analyzer.ts';
+import { analyseRecords } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
 
-const analyse = (steps: (Exchange | TraceRecord)[]) => analyzeRecords(capture(steps));
+const analyse = (steps: (Exchange | TraceRecord)[]) => analyseRecords(capture(steps));
 const rulesOf = (steps: (Exchange | TraceRecord)[]) => analyse(steps).findings.map((f) => f.rule);
 const errorsOf = (steps: (Exchange | TraceRecord)[]) => analyse(steps).findings.filter((f) => f.severity === 'error').map((f) => `${f.rule}: ${f.message}`);
 
@@ -57,7 +57,7 @@ describe('EPR mode (§6.4.9, §8.3.3.26)', () => {
   it('names the stopped keep-alives as the cause of the source\'s Hard Reset', () => {
     const scene = capture(eprScene());
     const end = scene[scene.length - 1]!.t;
-    const a = analyzeRecords([...scene, { t: end + 900_000, event: 'hard_reset', from: 'source' }]);
+    const a = analyseRecords([...scene, { t: end + 900_000, event: 'hard_reset', from: 'source' }]);
     expect(a.hardResets[0]?.cause).toMatch(/no EPR_KeepAlive/);
     expect(a.findings.find((f) => f.rule === 'timing.epr-keepalive')?.message).toMatch(/Hard Reset followed/);
   });

@@ -227,7 +227,7 @@ async function runTrace(vector: Extract<Vector, { kind: 'trace' }>, engine: Engi
   const { input, expect } = vector;
   let analysis: { messages: number; contracts: unknown[]; findings: Finding[] };
   if (input.trace !== undefined) {
-    analysis = engine.trace.analyzeRecords(input.trace);
+    analysis = engine.trace.analyseRecords(input.trace);
   } else {
     const file = input.file ?? '';
     if (!options.readFile) return { actual: undefined, mismatches: [], inputError: `input.file: "${file}" cannot be read here (no file access)` };
@@ -237,7 +237,7 @@ async function runTrace(vector: Extract<Vector, { kind: 'trace' }>, engine: Engi
     } catch (error) {
       return { actual: undefined, mismatches: [], inputError: `input.file: cannot read "${file}": ${error instanceof Error ? error.message : String(error)}` };
     }
-    const analysed = engine.trace.analyzeTrace(text, { format: input.format ?? 'auto' });
+    const analysed = engine.trace.analyseTrace(text, { format: input.format ?? 'auto' });
     if (!analysed.ok) return { actual: undefined, mismatches: [], inputError: `input.file: ${analysed.error.message}` };
     analysis = analysed.analysis;
   }

@@ -29,7 +29,7 @@ import { summarize, type SummaryInput } from './summary.ts';
 import { createTimeline, type Timeline } from './timeline.ts';
 import { vbusLimits, voltageOutside } from './vbus.ts';
 
-export interface AnalyzerOptions {
+export interface AnalyserOptions {
   format?: TraceFormat;
   /** Most messages, events and measurements kept in the timeline (default 20 000 each). */
   timelineLimit?: number;
@@ -54,7 +54,7 @@ export interface Analysis {
   timeline: Timeline;
 }
 
-export interface Analyzer extends TraceSink {
+export interface Analyser extends TraceSink {
   push(record: TraceRecord, line?: number): void;
   malformed(line: number, reason: string): void;
   header(header: TraceHeader, line: number): void;
@@ -75,7 +75,7 @@ interface VbusProblem {
   range: string;
 }
 
-export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
+export function createAnalyser(options: AnalyserOptions = {}): Analyser {
   const store = createFindingStore(options.findingsLimit ?? 5_000);
   const timeline = createTimeline(options.timelineLimit ?? 20_000);
   const cache = createDecodeCache();
@@ -363,8 +363,8 @@ function firstProblemOf(findings: readonly Finding[]): { firstProblem?: SummaryI
 }
 
 /** Analyses records already in memory (vectors, the simulator's output, tests). */
-export function analyzeRecords(records: Iterable<TraceRecord>, options: AnalyzerOptions = {}): Analysis {
-  const analyzer = createAnalyzer(options);
-  for (const record of records) analyzer.push(record);
-  return analyzer.finish();
+export function analyseRecords(records: Iterable<TraceRecord>, options: AnalyserOptions = {}): Analysis {
+  const analyser = createAnalyser(options);
+  for (const record of records) analyser.push(record);
+  return analyser.finish();
 }
