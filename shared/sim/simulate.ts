@@ -61,7 +61,17 @@ export interface SimulationResult {
 function invalid(message: string): SimulationResult {
   const finding: Finding = { rule: 'sim.scenario', severity: 'error', message, ref: 'vector.md, Scenario' };
   const idle = (side: 'source' | 'sink') => ({ tUs: 0, side, state: side === 'source' ? 'Unattached.SRC' : 'Unattached.SNK', contract: null, eprMode: false });
-  return { contract: null, contracts: [], ports: { changes: [], final: { source: idle('source'), sink: idle('sink') } }, events: [], findings: [finding], lanes: [], timers: [], endUs: 0, stopped: false };
+  return {
+    contract: null,
+    contracts: [],
+    ports: { changes: [], final: { source: idle('source'), sink: idle('sink') } },
+    events: [],
+    findings: [finding],
+    lanes: [],
+    timers: [],
+    endUs: 0,
+    stopped: false,
+  };
 }
 
 /** Decoded forms, once per distinct hex (a run repeats few distinct messages). */

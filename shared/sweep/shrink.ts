@@ -77,7 +77,12 @@ export function shrinkScenario(scenario: Scenario, invariant: string, options: {
 }
 
 function slug(text: string): string {
-  return text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'run';
+  return (
+    text
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'run'
+  );
 }
 
 function describeFault(fault: Fault): string {

@@ -36,7 +36,11 @@ describe('trace fixtures', () => {
       const fired = findings.map((f) => f.rule);
       for (const rule of header.expect.include) expect(fired, `${file} must report ${rule}`).toContain(rule);
       for (const rule of header.expect.exclude) {
-        if (rule.startsWith('*')) expect(findings.filter((f) => f.severity === rule.slice(1)), `${file}: no ${rule.slice(1)}`).toEqual([]);
+        if (rule.startsWith('*'))
+          expect(
+            findings.filter((f) => f.severity === rule.slice(1)),
+            `${file}: no ${rule.slice(1)}`,
+          ).toEqual([]);
         else expect(fired).not.toContain(rule);
       }
       header.expect.contracts?.forEach((c, i) => expect(contracts[i]).toMatchObject(c));
@@ -197,7 +201,11 @@ describe('repeated offers', () => {
   // The four objects of HEX.caps: 5 V, 9 V, 15 V 3 A fixed and PPS 3.3–11 V 3 A (§6.4.1, Tables 6.9 and 6.14).
   const objects = ['2c910100', '2cd10200', '2cb10400', '3c21dcc0'];
   // An unanswered source repeats its offers every tTypeCSendSourceCap, 100–200 ms (USB PD R3.2 V1.1 §6.6, Table 6.68, from memory).
-  const repeated = (lists: string[][]) => sequence(150_000, lists.map((list, i) => ({ msg: capsHex(i % 8, list), from: 'source' as const, gapUs: i === 0 ? 0 : 150_000 }))).records;
+  const repeated = (lists: string[][]) =>
+    sequence(
+      150_000,
+      lists.map((list, i) => ({ msg: capsHex(i % 8, list), from: 'source' as const, gapUs: i === 0 ? 0 : 150_000 })),
+    ).records;
   const count = (records: TraceRecord[], rule: string) => analyseRecords(records).findings.filter((f) => f.rule === rule).length;
 
   it('checks five copies that differ only in MessageID once', () => {
@@ -225,7 +233,19 @@ describe('robustness', () => {
     );
   });
   it('never fails inside on VCD-like noise', () => {
-    const token = fc.constantFrom('$timescale 1 ns $end', '$timescale 10us $end', '$var wire 1 ! cc $end', '$var wire 4 # bus $end', '$enddefinitions $end', '$dumpvars', '$end', '0!', '1!', 'x!', 'b101 #');
+    const token = fc.constantFrom(
+      '$timescale 1 ns $end',
+      '$timescale 10us $end',
+      '$var wire 1 ! cc $end',
+      '$var wire 4 # bus $end',
+      '$enddefinitions $end',
+      '$dumpvars',
+      '$end',
+      '0!',
+      '1!',
+      'x!',
+      'b101 #',
+    );
     const time = fc.nat(5_000_000).map((n) => `#${n}`);
     fc.assert(
       fc.property(fc.array(fc.oneof(token, time, fc.string({ maxLength: 8 })), { maxLength: 200 }), (tokens) => {
@@ -237,7 +257,9 @@ describe('robustness', () => {
   it('never fails inside on random lines of half-valid records', () => {
     const line = fc.oneof(
       fc.string(),
-      fc.record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') }).map((r) => JSON.stringify(r)),
+      fc
+        .record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') })
+        .map((r) => JSON.stringify(r)),
       fc.record({ t: fc.nat(2_000_000), event: fc.constantFrom('attach', 'detach', 'hard_reset', 'cable_reset') }).map((r) => JSON.stringify(r)),
       fc.record({ t: fc.nat(2_000_000), vbus: fc.record({ mv: fc.nat(25_000), ma: fc.nat(6_000) }) }).map((r) => JSON.stringify(r)),
       fc.uint8Array({ maxLength: 30 }).map((b) => JSON.stringify({ t: 1, msg: [...b].map((x) => x.toString(16).padStart(2, '0')).join('') || '00' })),

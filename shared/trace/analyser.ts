@@ -132,7 +132,10 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
     inEpr: () => epr.inEpr(),
     softReset(m) {
       const cause = recentProblem(m.t);
-      report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });
+      report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, {
+        t: m.t,
+        line: m.line,
+      });
     },
   });
 
@@ -150,7 +153,11 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
   function checkCableCurrent(contract: Contract, t: number): void {
     if (!cable || cable.currentMa === undefined || cableReported || contract.currentMa <= cable.currentMa) return;
     cableReported = true;
-    report('request.cable-current', `The ${contractText(contract)} contract at ${seconds(t)} draws ${amps(contract.currentMa)} over ${cableText(cable)} (its Discover Identity at ${seconds(cable.t)}), which carries at most ${amps(cable.currentMa)}.`, { t });
+    report(
+      'request.cable-current',
+      `The ${contractText(contract)} contract at ${seconds(t)} draws ${amps(contract.currentMa)} over ${cableText(cable)} (its Discover Identity at ${seconds(cable.t)}), which carries at most ${amps(cable.currentMa)}.`,
+      { t },
+    );
   }
 
   function closeVbusProblems(): void {
@@ -290,7 +297,10 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
         p.extremeMv = Math.max(p.extremeMv, ma);
       } else {
         const range = amps(limits.maxMa);
-        const finding = report('vbus.over-current', `IBUS read ${amps(ma)} at ${seconds(t)}, above the ${amps(active.contract.currentMa)} the ${contractText(active.contract)} contract allows.`, { t, ref: limits.ref });
+        const finding = report('vbus.over-current', `IBUS read ${amps(ma)} at ${seconds(t)}, above the ${amps(active.contract.currentMa)} the ${contractText(active.contract)} contract allows.`, {
+          t,
+          ref: limits.ref,
+        });
         currentProblem = { finding, active, count: 1, firstUs: t, lastUs: t, extremeMv: ma, range };
       }
     }
@@ -307,7 +317,11 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
       records++;
       let t = record.t;
       if (t < lastT) {
-        report('trace.time-order', `The time ${seconds(t)}${line !== undefined ? ` on line ${line}` : ''} is earlier than ${seconds(lastT)} before it; it was read as ${seconds(lastT)}.`, line !== undefined ? { t: lastT, line } : { t: lastT });
+        report(
+          'trace.time-order',
+          `The time ${seconds(t)}${line !== undefined ? ` on line ${line}` : ''} is earlier than ${seconds(lastT)} before it; it was read as ${seconds(lastT)}.`,
+          line !== undefined ? { t: lastT, line } : { t: lastT },
+        );
         t = lastT;
       }
       lastT = t;
@@ -335,7 +349,16 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
         findingsOmitted: store.omitted(),
         hardResets,
         summary: summarize({
-          records, messages, measurements, contracts, contractCount, sourceCapabilities, hardResets, hardResetCount, counts, goodCrcSeen: protocol.goodCrcSeen(),
+          records,
+          messages,
+          measurements,
+          contracts,
+          contractCount,
+          sourceCapabilities,
+          hardResets,
+          hardResetCount,
+          counts,
+          goodCrcSeen: protocol.goodCrcSeen(),
           ...policy.requestCounts(),
           ...(hardResets[0]?.cause !== undefined ? { hardResetSide: sideOfClause(hardResets[0].cause) } : {}),
           ...firstProblemOf(store.list()),

@@ -103,7 +103,17 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
   // USB PD R3.2 V1.1 §6.4.10 / §8.3.3.26 EPR entry needs an EPR-capable 50 V 5 A cable (Type-C R2.3
   // §4.9, e-marker EPR Mode Capable): over a 3 A cable there is no EPR mode, not a 3 A EPR contract.
   it('an EPR 28 V 5 A offer over a 3 A cable is caps.cable-epr, not "at most 3 A (84 W)"', () => {
-    const epr = [fixedPdo(5_000, 3_000, { eprModeCapable: true }), fixedPdo(9_000, 3_000), fixedPdo(15_000, 3_000), fixedPdo(20_000, 5_000), paddingPdo(), paddingPdo(), paddingPdo(), fixedPdo(28_000, 5_000), eprAvsApdo(15_000, 28_000, 140)];
+    const epr = [
+      fixedPdo(5_000, 3_000, { eprModeCapable: true }),
+      fixedPdo(9_000, 3_000),
+      fixedPdo(15_000, 3_000),
+      fixedPdo(20_000, 5_000),
+      paddingPdo(),
+      paddingPdo(),
+      paddingPdo(),
+      fixedPdo(28_000, 5_000),
+      eprAvsApdo(15_000, 28_000, 140),
+    ];
     const findings = checkCaps(epr, { epr: true, cableMa: 3_000, pdpW: 140 }).findings;
     expect(findings.map((f) => f.message).join('\n')).not.toMatch(/84 W/);
     const cable = findings.filter((f) => f.rule === 'caps.cable-epr');

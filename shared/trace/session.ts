@@ -78,7 +78,12 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
       }
       if (analysis.records === 0) {
         const unread = analysis.counts.warning;
-        return fail('trace.empty', unread > 0 ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})` : 'the file holds no trace record (message, event, measurement or note)');
+        return fail(
+          'trace.empty',
+          unread > 0
+            ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})`
+            : 'the file holds no trace record (message, event, measurement or note)',
+        );
       }
       return { ok: true, analysis };
     },

@@ -90,7 +90,12 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     const findings = page.getByRole('table', { name: 'Findings' });
     await findings.getByRole('button', { name: /Show timing.sender-response at/ }).click();
     await expect.poll(() => timeline.getAttribute('data-window')).not.toBe(whole);
-    expect(await page.getByTestId('finding-pins').getByRole('button', { name: /timing.sender-response/ }).count()).toBe(1);
+    expect(
+      await page
+        .getByTestId('finding-pins')
+        .getByRole('button', { name: /timing.sender-response/ })
+        .count(),
+    ).toBe(1);
     await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
     const overBudget = await longTasks.over(50);
     expect(overBudget, `long tasks: ${overBudget.join(', ')} ms`).toEqual([]);

@@ -24,7 +24,11 @@ const expected: Record<string, string> = {
 
 describe('the summary sentence of every demo trace', () => {
   it('covers every demo trace', () => {
-    expect(readDemoManifest().map((e) => e.fileName).sort()).toEqual(Object.keys(expected).sort());
+    expect(
+      readDemoManifest()
+        .map((e) => e.fileName)
+        .sort(),
+    ).toEqual(Object.keys(expected).sort());
   });
   for (const [file, sentence] of Object.entries(expected)) {
     it(file, () => {

@@ -9,11 +9,7 @@ export const auditRoutes: RouteDef[] = [
     access: ['admin'],
     query: pageQuery,
     async handler({ em, query }) {
-      const [events, total] = await em.findAndCount(
-        AuditEvent,
-        {},
-        { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
-      );
+      const [events, total] = await em.findAndCount(AuditEvent, {}, { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize });
       const items = events.map((e) => ({
         id: e.id,
         at: e.at.toISOString(),

@@ -100,7 +100,13 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
           const down = m.from !== 'sink';
           const goodCrc = m.messageType === 'GoodCRC';
           const unacked = hasGoodCrc && !goodCrc && !acknowledged.has(index);
-          const tone = !m.crcOk ? 'text-red-600 dark:text-red-400' : goodCrc ? 'text-slate-400 dark:text-slate-600' : m.from === 'sink' ? 'text-sky-600 dark:text-sky-400' : 'text-amber-600 dark:text-amber-400';
+          const tone = !m.crcOk
+            ? 'text-red-600 dark:text-red-400'
+            : goodCrc
+              ? 'text-slate-400 dark:text-slate-600'
+              : m.from === 'sink'
+                ? 'text-sky-600 dark:text-sky-400'
+                : 'text-amber-600 dark:text-amber-400';
           const title = `${m.messageType} #${m.messageId} from the ${m.from} at ${formatTimeUs(m.t)}${m.retry ? ' (retry)' : ''}${!m.crcOk ? ' — bad CRC' : ''}${unacked ? ' — no GoodCRC' : foldGoodCrc && acknowledged.has(index) ? ' — acknowledged' : ''}`;
           return (
             <button
@@ -114,7 +120,16 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
               style={{ left }}
             >
               <svg viewBox="0 0 16 80" preserveAspectRatio="none" className="h-full w-full overflow-visible" aria-hidden="true">
-                <line x1="8" x2="8" y1={down ? 0 : 80} y2={down ? 74 : 6} stroke="currentColor" strokeWidth={goodCrc ? 1 : 1.6} strokeDasharray={m.retry ? '4 3' : undefined} vectorEffect="non-scaling-stroke" />
+                <line
+                  x1="8"
+                  x2="8"
+                  y1={down ? 0 : 80}
+                  y2={down ? 74 : 6}
+                  stroke="currentColor"
+                  strokeWidth={goodCrc ? 1 : 1.6}
+                  strokeDasharray={m.retry ? '4 3' : undefined}
+                  vectorEffect="non-scaling-stroke"
+                />
                 <path d={down ? 'M4 72 L8 80 L12 72' : 'M4 8 L8 0 L12 8'} fill={unacked ? 'none' : 'currentColor'} stroke="currentColor" strokeWidth="1" vectorEffect="non-scaling-stroke" />
               </svg>
               {labelRow.has(index) && (
@@ -126,7 +141,11 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
                   )}
                 >
                   {m.messageType}
-                  {foldGoodCrc && acknowledged.has(index) && <span className="ml-0.5 text-emerald-600" aria-hidden="true">✓</span>}
+                  {foldGoodCrc && acknowledged.has(index) && (
+                    <span className="ml-0.5 text-emerald-600" aria-hidden="true">
+                      ✓
+                    </span>
+                  )}
                 </span>
               )}
             </button>
@@ -137,9 +156,7 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
             {visible.length} messages in view: zoom in to see each one.
           </p>
         )}
-        {visible.length === 0 && (
-          <p className="absolute inset-0 flex items-center justify-center text-xs text-slate-400">No messages in this part of the trace.</p>
-        )}
+        {visible.length === 0 && <p className="absolute inset-0 flex items-center justify-center text-xs text-slate-400">No messages in this part of the trace.</p>}
       </div>
     </div>
   );

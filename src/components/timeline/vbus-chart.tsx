@@ -51,7 +51,6 @@ function merge(vbusV: SeriesPoint[], ibusA: SeriesPoint[], sinkV: SeriesPoint[] 
   return [...byTime.values()].sort((x, y) => x.tMs - y.tMs);
 }
 
-
 /**
  * 1 once `ready`, then one more in each following task up to `stages` (as transitions, so React
  * may slice each part's render). Never goes back: later updates draw every part at once.
@@ -171,7 +170,14 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
     const { vbusV, ibusA } = windowSeries(measurements, window, budget);
     return merge(vbusV, ibusA, sinkMeasurements ? windowSeries(sinkMeasurements, window, budget).vbusV : undefined);
   }, [measurements, window, sinkMeasurements, budget, measured]);
-  const overview = useMemo(() => thin(measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })), 300), [measurements]);
+  const overview = useMemo(
+    () =>
+      thin(
+        measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })),
+        300,
+      ),
+    [measurements],
+  );
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
   const withCurrent = hasCurrent && stage >= 2;
   const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
@@ -240,7 +246,19 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
             <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
             <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
             {withCurrent && (
-              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} niceTicks="none" allowDataOverflow tick={ampTick} />
+              <YAxis
+                yAxisId="a"
+                width={AXIS_WIDTH_PX}
+                orientation="right"
+                stroke={axis}
+                fontSize={11}
+                domain={axes.amps.domain}
+                ticks={axes.amps.ticks}
+                interval={0}
+                niceTicks="none"
+                allowDataOverflow
+                tick={ampTick}
+              />
             )}
             <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={visiblePins} />
             {stage >= 3 && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}

@@ -14,7 +14,6 @@ export type AuditEvent = {
 export type AuditResponse = { items: AuditEvent[]; total: number };
 export type AuditParams = { page: number; pageSize: number };
 
-
 /** One page of the audit log, newest first; `page` counts from 1. */
 export async function getAudit(params: AuditParams, signal?: AbortSignal): Promise<AuditResponse> {
   return api.get<AuditResponse>('/audit', { query: params, signal });

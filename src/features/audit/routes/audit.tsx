@@ -31,12 +31,7 @@ const columns = col.columns([
     id: 'actor',
     header: 'Who',
     enableSorting: false,
-    cell: ({ row }) =>
-      row.original.actor ? (
-        <span title={row.original.actor.email}>{row.original.actor.name || row.original.actor.email}</span>
-      ) : (
-        <span className="text-slate-400">—</span>
-      ),
+    cell: ({ row }) => (row.original.actor ? <span title={row.original.actor.email}>{row.original.actor.name || row.original.actor.email}</span> : <span className="text-slate-400">—</span>),
   }),
   col.accessor('action', {
     header: 'Action',

@@ -30,10 +30,7 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
   const [foldGoodCrc, setFoldGoodCrc] = useState(false);
   const { lanes, messages } = useMemo(() => laneMessagesOf(run.events), [run]);
   const measurements = useMemo(() => chartMeasurements(run.samples, window), [run, window]);
-  const pins = useMemo<ChartPin[]>(
-    () => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])),
-    [run],
-  );
+  const pins = useMemo<ChartPin[]>(() => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])), [run]);
   const end = Math.max(1, run.endUs);
   const firstContractUs = run.contracts[0]?.t;
   const firstMessageUs = lanes[0]?.t ?? 0;
@@ -57,17 +54,7 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
           </Button>
         )}
       </TimelineToolbar>
-      {parts >= 2 && (
-        <VbusChart
-          measurements={measurements.source}
-          sinkMeasurements={measurements.sink}
-          window={window}
-          endUs={end}
-          pins={pins}
-          onWindowChange={onWindowChange}
-          dark={dark}
-        />
-      )}
+      {parts >= 2 && <VbusChart measurements={measurements.source} sinkMeasurements={measurements.sink} window={window} endUs={end} pins={pins} onWindowChange={onWindowChange} dark={dark} />}
       {parts >= 3 && (
         <>
           <MessageLanes

@@ -18,14 +18,7 @@ import { MessagePanel } from '../components/message-panel.tsx';
 import { ContractSummary, FindingsTable } from '../components/run-summary.tsx';
 import { ScenarioForm } from '../components/scenario-form.tsx';
 import { ScenarioJson } from '../components/scenario-json.tsx';
-import {
-  benchFormResolverSchema,
-  defaultScenario,
-  formOfScenario,
-  parseScenarioText,
-  scenarioOfForm,
-  type BenchFormValues,
-} from '../lib/form-model.ts';
+import { benchFormResolverSchema, defaultScenario, formOfScenario, parseScenarioText, scenarioOfForm, type BenchFormValues } from '../lib/form-model.ts';
 import { capturedMessagesOf, scenarioFromMessages } from '../lib/scenario-from-trace.ts';
 import { shareHash, sharedFromHash } from '../../../lib/share-url.ts';
 import type { RunMessage } from '../lib/timeline-data.ts';
@@ -55,17 +48,16 @@ function initialScenario(): { loaded: Loaded; notice: string | null } {
   if (!shared) return { loaded: fallback.loaded, notice: null };
   if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message };
   const result = load(shared.value);
-  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
+  return result.ok
+    ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' }
+    : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
 }
 
 function SafetyNote() {
   return (
-    <aside
-      aria-label="Safety"
-      className="mb-5 rounded-md border border-amber-300/70 bg-amber-50 px-4 py-2.5 text-xs text-amber-950 dark:border-amber-400/30 dark:bg-amber-400/10 dark:text-amber-100"
-    >
-      <strong className="font-semibold">Simulation only.</strong> Nothing here drives hardware. Real adapters deliver up to 48 V and 5 A: before you
-      reproduce a scenario on a bench, follow the USB PD and Type-C specifications, your certified test lab’s procedures and local electrical codes.
+    <aside aria-label="Safety" className="mb-5 rounded-md border border-amber-300/70 bg-amber-50 px-4 py-2.5 text-xs text-amber-950 dark:border-amber-400/30 dark:bg-amber-400/10 dark:text-amber-100">
+      <strong className="font-semibold">Simulation only.</strong> Nothing here drives hardware. Real adapters deliver up to 48 V and 5 A: before you reproduce a scenario on a bench, follow the USB PD
+      and Type-C specifications, your certified test lab’s procedures and local electrical codes.
     </aside>
   );
 }
@@ -285,9 +277,7 @@ export function BenchRoute() {
                   {state.message}
                 </p>
               )}
-              {jsonError && (
-                <p className="text-xs text-amber-800 dark:text-amber-300">The JSON view has an error; Run uses the last valid scenario (the form).</p>
-              )}
+              {jsonError && <p className="text-xs text-amber-800 dark:text-amber-300">The JSON view has an error; Run uses the last valid scenario (the form).</p>}
               {Object.keys(form.formState.errors).length > 0 && (
                 <p role="alert" className="text-xs text-red-600 dark:text-red-400">
                   Fix the highlighted fields in the form before running.
@@ -296,14 +286,21 @@ export function BenchRoute() {
               {shareUrl && (
                 <label className="flex flex-col gap-1 text-xs text-slate-600 dark:text-slate-400">
                   Link to this scenario (copied to the clipboard)
-                  <input readOnly value={shareUrl} aria-label="Share link" onFocus={(event) => event.currentTarget.select()} className="h-8 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950" />
+                  <input
+                    readOnly
+                    value={shareUrl}
+                    aria-label="Share link"
+                    onFocus={(event) => event.currentTarget.select()}
+                    className="h-8 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950"
+                  />
                 </label>
               )}
               {shown ? (
                 <>
                   <ContractSummary contract={shown.contract} contracts={shown.contracts} endUs={shown.endUs} />
                   <p className="text-xs text-slate-500 dark:text-slate-400" data-testid="run-stats">
-                    {shown.events.length} records, {shown.samples.count.toLocaleString('en-GB')} samples, {findingsCount} findings · simulated {(shown.endUs / 1_000).toLocaleString('en-GB')} ms in {shown.elapsedMs} ms
+                    {shown.events.length} records, {shown.samples.count.toLocaleString('en-GB')} samples, {findingsCount} findings · simulated {(shown.endUs / 1_000).toLocaleString('en-GB')} ms in{' '}
+                    {shown.elapsedMs} ms
                   </p>
                 </>
               ) : (
@@ -315,10 +312,7 @@ export function BenchRoute() {
             <Card>
               <CardHeader title="Findings" description="The same checks that run on captured traces, over the simulated one." />
               <CardBody>
-                <FindingsTable
-                  findings={shown.findings}
-                  onSelectTime={(tUs) => setWindow({ startUs: Math.max(0, tUs - 20_000), endUs: Math.min(shown.endUs, tUs + 20_000) })}
-                />
+                <FindingsTable findings={shown.findings} onSelectTime={(tUs) => setWindow({ startUs: Math.max(0, tUs - 20_000), endUs: Math.min(shown.endUs, tUs + 20_000) })} />
               </CardBody>
             </Card>
           )}
@@ -362,4 +356,3 @@ export function BenchRoute() {
     </div>
   );
 }
-

@@ -17,4 +17,3 @@ export function useShareTrace(traceId: string | number) {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['outbox'] }),
   });
 }
-

@@ -41,9 +41,7 @@ export function ShareDialog({ traceId, open, onClose }: { traceId: number; open:
           <h2 id="share-title" className="text-base font-semibold">
             Share diagnosis
           </h2>
-          <p className="mt-1 text-xs text-slate-500 dark:text-slate-400">
-            Sends the summary, the contracts and every finding with its rule and a plain sentence, with a link to this trace.
-          </p>
+          <p className="mt-1 text-xs text-slate-500 dark:text-slate-400">Sends the summary, the contracts and every finding with its rule and a plain sentence, with a link to this trace.</p>
         </div>
         {share.isSuccess ? (
           <p role="status" className="rounded-md bg-emerald-50 px-3 py-2 text-sm text-emerald-900 dark:bg-emerald-500/10 dark:text-emerald-100">
