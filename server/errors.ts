@@ -52,7 +52,8 @@ interface StatusLike {
  * busboy (multer's parser) rejects a malformed multipart body with a plain `Error` and no status or
  * code; these are all of its messages (busboy 1.x, lib/index.js and lib/types/*.js).
  */
-const multipartParseErrors = /^(Multipart: Boundary not found|Malformed content type|Missing Content-Type|Unsupported content type: |Malformed part header|Unexpected end of form|Unexpected end of file|Malformed urlencoded form)/;
+const multipartParseErrors =
+  /^(Multipart: Boundary not found|Malformed content type|Missing Content-Type|Unsupported content type: |Malformed part header|Unexpected end of form|Unexpected end of file|Malformed urlencoded form)/;
 
 /** Maps errors thrown by body-parser, multer and friends, which carry a status or a code but no message for people. */
 function fromLibrary(err: StatusLike): HttpError | null {

@@ -109,8 +109,20 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const analysisPool = createAnalysisPool();
   const runPool = createRunPool();
   const app = createApp({
-    orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken,
-    jobs, analysisPool, runPool, traceStore: store,
+    orm,
+    mailer,
+    secret,
+    publicUrl,
+    distDir,
+    production,
+    logger,
+    logRequests: options.log !== false,
+    dataDir,
+    verifyBearer: verifyApiToken,
+    jobs,
+    analysisPool,
+    runPool,
+    traceStore: store,
   });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;

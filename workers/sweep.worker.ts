@@ -21,7 +21,13 @@ function plan(input: unknown, options: SweepOptions): SweepPlanOutput {
   return { ok: true, runs: placements.length, columns, messages: messages.map(({ index, t, from, messageType, nth }) => ({ index, t, from, messageType, nth })), reference };
 }
 
-function run(input: unknown, options: SweepOptions, start: number, end: number, onProgress?: (done: number) => void): { ok: true; runs: SweepRun[] } | { ok: false; error: { code: string; message: string } } {
+function run(
+  input: unknown,
+  options: SweepOptions,
+  start: number,
+  end: number,
+  onProgress?: (done: number) => void,
+): { ok: true; runs: SweepRun[] } | { ok: false; error: { code: string; message: string } } {
   const parsed = parseScenario(input);
   if (!parsed.ok) return { ok: false, error: parsed.error };
   const planned = planSweep(parsed.scenario, options);
@@ -30,7 +36,12 @@ function run(input: unknown, options: SweepOptions, start: number, end: number, 
 }
 
 /** The shrunk `negotiation` vector of one broken run. */
-function shrink(input: unknown, broken: Pick<SweepRun, 'faults' | 'timers'>, invariant: string, message: string): { ok: true; vector: Record<string, unknown> } | { ok: false; error: { code: string; message: string } } {
+function shrink(
+  input: unknown,
+  broken: Pick<SweepRun, 'faults' | 'timers'>,
+  invariant: string,
+  message: string,
+): { ok: true; vector: Record<string, unknown> } | { ok: false; error: { code: string; message: string } } {
   const parsed = parseScenario(input);
   if (!parsed.ok) return { ok: false, error: parsed.error };
   const shrunk = shrinkScenario(scenarioFor(parsed.scenario, broken), invariant);

@@ -52,7 +52,10 @@ export function startChildServer(env: Record<string, string>, entry = 'server/ma
 export async function signIn(url: string, email: string, password = 'parley-demo'): Promise<string> {
   const res = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }) });
   if (res.status !== 200) throw new Error(`sign-in as ${email}: ${res.status} ${await res.text()}`);
-  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 /**
@@ -66,7 +69,15 @@ export function startControlServer(): Promise<ChildServer> {
     child.stdout!.once('data', (chunk: Buffer) => {
       const url = /(http:\/\/\S+)/.exec(chunk.toString())?.[1];
       if (!url) return reject(new Error('control server did not start'));
-      resolveStart({ url, child, stop: () => new Promise((done) => { child.once('exit', () => done()); child.kill('SIGTERM'); }) });
+      resolveStart({
+        url,
+        child,
+        stop: () =>
+          new Promise((done) => {
+            child.once('exit', () => done());
+            child.kill('SIGTERM');
+          }),
+      });
     });
     child.once('error', reject);
   });

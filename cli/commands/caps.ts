@@ -56,7 +56,7 @@ const watts = (mw: number) => `${Math.round(mw / 100) / 10} W`;
 function offerColumns(pdo: ReadCaps['pdos'][number]): [string, string, string] {
   switch (pdo.kind) {
     case 'fixed':
-      return [volts(pdo.voltageMv), amps(pdo.maxCurrentMa), watts(pdo.voltageMv * pdo.maxCurrentMa / 1_000)];
+      return [volts(pdo.voltageMv), amps(pdo.maxCurrentMa), watts((pdo.voltageMv * pdo.maxCurrentMa) / 1_000)];
     case 'variable':
       return [`${pdo.minVoltageMv / 1_000}–${volts(pdo.maxVoltageMv)}`, amps(pdo.maxCurrentMa), ''];
     case 'battery':

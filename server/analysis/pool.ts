@@ -6,12 +6,12 @@
 import { availableParallelism } from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { AnalysisProgress, AnalyzeFileResult, AnalyzeFileTask, ReadRecordsResult, ReadRecordsTask } from './analyze-file.ts';
+import type { AnalysisProgress, AnalyseFileResult, AnalyseFileTask, ReadRecordsResult, ReadRecordsTask } from './analyse-file.ts';
 
-export type { AnalysisProgress, AnalyzeFileResult, ReadRecordsResult } from './analyze-file.ts';
+export type { AnalysisProgress, AnalyseFileResult, ReadRecordsResult } from './analyse-file.ts';
 
 export interface AnalysisPool {
-  analyze(path: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeFileResult>;
+  analyze(path: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseFileResult>;
   /** The records of a stored trace, read in a worker too (a vector export of a big file). */
   records(path: string, format: ReadRecordsTask['format'], limit: number): Promise<ReadRecordsResult>;
   close(): Promise<void>;
@@ -37,8 +37,8 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
       const { port1, port2 } = new MessageChannel();
       if (onProgress) port1.on('message', (progress: AnalysisProgress) => onProgress(progress));
       try {
-        const task: AnalyzeFileTask = format ? { path, format, port: port2 } : { path, port: port2 };
-        return (await pool.run(task, { transferList: [port2] })) as AnalyzeFileResult;
+        const task: AnalyseFileTask = format ? { path, format, port: port2 } : { path, port: port2 };
+        return (await pool.run(task, { transferList: [port2] })) as AnalyseFileResult;
       } catch (cause) {
         return { ok: false, error: { code: 'analysis.failed', message: `the analysis stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})` } };
       } finally {

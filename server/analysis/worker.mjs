@@ -4,7 +4,7 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { analyzeFile, readRecords } = await import('./analyze-file.ts');
+const { analyseFile, readRecords } = await import('./analyse-file.ts');
 
-export default analyzeFile;
+export default analyseFile;
 export { readRecords };

@@ -91,7 +91,6 @@ export const AuditEvent = defineEntity({
 });
 export type IAuditEvent = InferEntity<typeof AuditEvent>;
 
-
 export const DeviceUnderTest = defineEntity({
   name: 'DeviceUnderTest',
   properties: (p) => ({

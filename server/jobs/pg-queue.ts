@@ -82,10 +82,9 @@ export async function createPgJobQueue(options: PgJobQueueOptions): Promise<JobQ
 
   const supervise = async () => {
     if (kinds.size === 0) return;
-    const active = await pool.query<{ id: string; name: string }>(
-      "select id, name from pgboss.job where state = 'active' and name = any($1) and started_on < now() - interval '3 seconds'",
-      [[...kinds]],
-    );
+    const active = await pool.query<{ id: string; name: string }>("select id, name from pgboss.job where state = 'active' and name = any($1) and started_on < now() - interval '3 seconds'", [
+      [...kinds],
+    ]);
     for (const job of active.rows) {
       if ([...running.values()].some((r) => r.id === job.id)) continue;
       const client = await pool.connect();

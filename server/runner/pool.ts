@@ -74,7 +74,9 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
       return (await pool.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as VectorResult;
     } catch (cause) {
       const timedOut = cause instanceof Error && (cause.name === 'AbortError' || cause.name === 'TimeoutError' || /abort/i.test(cause.message));
-      const message = timedOut ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)` : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
+      const message = timedOut
+        ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)`
+        : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
       return { id: task.vectorId, ok: false, message, durationMs: timedOut ? timeoutMs : 0 };
     }
   };
@@ -88,7 +90,10 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
       const batch = async () => {
         if (inThreads.length === 0) return;
         try {
-          const out = (await pool.run(inThreads.map((x) => x.task), { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) })) as VectorResult[];
+          const out = (await pool.run(
+            inThreads.map((x) => x.task),
+            { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) },
+          )) as VectorResult[];
           out.forEach((result, i) => (results[inThreads[i]!.index] = result));
         } catch {
           // One vector stuck or crashing its worker: run that batch one by one, each with its own limit.

@@ -31,7 +31,7 @@ export function libraryFileReader(vectorsRoot: string, vectorId: string): (path:
 }
 
 async function refuseProperty(_code: string, options: { runs: number; seed: number }): Promise<PropertyOutcome> {
-  return { holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.sandbox', message: 'property vectors run only in the property sandbox, not in the server\'s run pool' } };
+  return { holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.sandbox', message: "property vectors run only in the property sandbox, not in the server's run pool" } };
 }
 
 export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> {

@@ -63,7 +63,13 @@ export function createS3TraceStore(options: S3StoreOptions): TraceStore {
     async keep(tempPath, sha256) {
       try {
         if (await has(sha256)) return;
-        const upload = new Upload({ client, params: { Bucket, Key: keyOf(sha256), Body: createReadStream(tempPath), ContentType: 'application/octet-stream' }, queueSize: 2, partSize: 8 * 1024 * 1024, leavePartsOnError: false });
+        const upload = new Upload({
+          client,
+          params: { Bucket, Key: keyOf(sha256), Body: createReadStream(tempPath), ContentType: 'application/octet-stream' },
+          queueSize: 2,
+          partSize: 8 * 1024 * 1024,
+          leavePartsOnError: false,
+        });
         await upload.done();
       } finally {
         await rm(tempPath, { force: true });

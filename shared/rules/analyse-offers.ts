@@ -67,7 +67,14 @@ export function analyseOffers(input: AnalyseOffersInput): Result<OffersAnalysis>
       const chosen = chooseRequest(pdos, policy.data, { cableMa, epr: input.epr });
       const pdo = pdos[chosen.objectPosition - 1];
       const message = pdo ? requestMessageHex(chosen.rdo, pdo) : undefined;
-      contracts.push({ cableMa, rdo: chosen.rdo.raw, hex: message?.ok ? message.hex : '', objectPosition: chosen.objectPosition, capabilityMismatch: chosen.capabilityMismatch, contract: chosen.contract });
+      contracts.push({
+        cableMa,
+        rdo: chosen.rdo.raw,
+        hex: message?.ok ? message.hex : '',
+        objectPosition: chosen.objectPosition,
+        capabilityMismatch: chosen.capabilityMismatch,
+        contract: chosen.contract,
+      });
     }
   }
   return { ok: true, pdos, report, contracts };

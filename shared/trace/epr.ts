@@ -86,7 +86,7 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
       if (!ctx.hasContract()) entry(m, 'before any explicit SPR contract: a sink asks for EPR mode only from an explicit contract (EPR_Mode Enter)');
       mode = 'entering';
     } else if (action === 'Enter Succeeded' && m.from === 'source') {
-      if (mode !== 'entering') entry(m, 'saying Enter Succeeded without the sink\'s EPR_Mode (Enter) before it');
+      if (mode !== 'entering') entry(m, "saying Enter Succeeded without the sink's EPR_Mode (Enter) before it");
       const cable = ctx.cable();
       if (cable && (!cable.eprCapable || (cable.currentMa ?? 0) < 5_000)) {
         report('epr.entry', `The source let EPR mode begin at ${seconds(m.t)} over ${cableText(cable)} (Discover Identity at ${seconds(cable.t)}); EPR needs an EPR-capable 50 V, 5 A cable.`, at(m));

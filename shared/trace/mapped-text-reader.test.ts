@@ -43,7 +43,18 @@ describe('mapped text reader', () => {
   });
 
   it('reads columns with a time unit, and names the mapping in the JSON Lines header', () => {
-    const mapping = textMappingSchema.parse({ name: 'csv', mode: 'columns', separator: ',', timeColumn: 1, directionColumn: 2, dataColumn: 3, timeUnit: 'ms', data: 'bytes', sourceWords: ['tx'], sinkWords: ['rx'] });
+    const mapping = textMappingSchema.parse({
+      name: 'csv',
+      mode: 'columns',
+      separator: ',',
+      timeColumn: 1,
+      directionColumn: 2,
+      dataColumn: 3,
+      timeUnit: 'ms',
+      data: 'bytes',
+      sourceWords: ['tx'],
+      sinkWords: ['rx'],
+    });
     const out = mappedTextToJsonl('150.2,TX,a1 11 2c 91 01 00\n151.3,RX,41 00\n', mapping, 'bench log');
     expect(out.ok && out.jsonl.split('\n')[0]).toBe('{"trace":1,"title":"bench log","importedWith":"csv"}');
     expect(out.ok && out.messages).toBe(2);

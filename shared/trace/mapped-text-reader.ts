@@ -65,7 +65,11 @@ const SEPARATORS: Record<TextMapping['separator'], RegExp> = { whitespace: /\s+/
 
 /** The message's wire-order hex from the data field, or why it cannot be read. */
 export function wireHexOf(field: string, data: TextMapping['data']): Result<{ hex: string }> {
-  const tokens = field.trim().split(/[\s,:]+/).filter(Boolean).map((t) => t.replace(/^0x/i, ''));
+  const tokens = field
+    .trim()
+    .split(/[\s,:]+/)
+    .filter(Boolean)
+    .map((t) => t.replace(/^0x/i, ''));
   if (tokens.length === 0) return fail('mapping.data', 'no message on the line');
   if (tokens.some((t) => !/^[0-9a-f]+$/i.test(t))) return fail('mapping.data', `not hex: "${tokens.find((t) => !/^[0-9a-f]+$/i.test(t))}"`);
   if (data === 'bytes') {

@@ -61,7 +61,11 @@ export function createOffersTracker(report: Report, finding: (f: Finding) => voi
         for (const f of checkCaps(pdos).findings) finding({ ...f, t: m.t, ...(m.line !== undefined ? { line: m.line } : {}) });
         const apdo = pdos.findIndex((p) => p.kind === 'pps' || p.kind === 'epr-avs' || p.kind === 'spr-avs');
         if (apdo >= 0 && (m.d.revision === '2.0' || m.d.revision === '1.0')) {
-          report('caps.revision', `The source's Source_Capabilities at ${seconds(m.t)} say Specification Revision ${m.d.revision} but object ${apdo + 1} is a programmable (augmented) offer, which exists only from Revision 3.0.`, { ...at(m), object: apdo + 1 });
+          report(
+            'caps.revision',
+            `The source's Source_Capabilities at ${seconds(m.t)} say Specification Revision ${m.d.revision} but object ${apdo + 1} is a programmable (augmented) offer, which exists only from Revision 3.0.`,
+            { ...at(m), object: apdo + 1 },
+          );
         }
       }
       return offers;

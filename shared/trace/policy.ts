@@ -125,9 +125,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const awaitRequestAfterCaps = (p: Pending): Awaited => {
     const { tSenderResponse } = timers();
     return {
-      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: p.m.ackEndUs, waiter: 'source', line: p.m.line,
+      watch: p,
+      rule: 'timing.sender-response',
+      timerName: 'tSenderResponse',
+      timer: tSenderResponse,
+      startUs: p.m.ackEndUs,
+      waiter: 'source',
+      line: p.m.line,
       missing: `The sink did not answer the source's Source_Capabilities at ${seconds(p.m.t)} with a Request`,
-      since: sinceText(p), none: 'no Request', giveUpAfterUs: tSenderResponse.minUs,
+      since: sinceText(p),
+      none: 'no Request',
+      giveUpAfterUs: tSenderResponse.minUs,
     };
   };
   const awaitAnswerTo = (p: Pending): Awaited => {
@@ -135,9 +143,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     const waiter = p.m.from;
     const answerer = waiter === 'sink' ? 'source' : 'sink';
     return {
-      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: requestStart(p), waiter, line: p.m.line,
+      watch: p,
+      rule: 'timing.sender-response',
+      timerName: 'tSenderResponse',
+      timer: tSenderResponse,
+      startUs: requestStart(p),
+      waiter,
+      line: p.m.line,
       missing: `The ${answerer} did not answer the ${waiter}'s ${p.m.d.messageType} at ${seconds(p.m.t)}`,
-      since: sinceText(p), none: 'no answer', giveUpAfterUs: tSenderResponse.minUs,
+      since: sinceText(p),
+      none: 'no answer',
+      giveUpAfterUs: tSenderResponse.minUs,
     };
   };
   /** tPSTransition of the mode the Accept came in (§6.6.4.1, Time Values: SPR and EPR values differ). */
@@ -145,15 +161,32 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const awaitPsRdyAfter = (p: Accepted): Awaited => {
     const tPSTransition = psTransitionOf(p);
     return {
-      watch: p, rule: 'timing.ps-transition', timerName: 'tPSTransition', timer: tPSTransition, startUs: ackEnd(p.m), waiter: 'sink', line: p.m.line,
+      watch: p,
+      rule: 'timing.ps-transition',
+      timerName: 'tPSTransition',
+      timer: tPSTransition,
+      startUs: ackEnd(p.m),
+      waiter: 'sink',
+      line: p.m.line,
       missing: `The source accepted the Request at ${seconds(p.request.m.t)} but sent no PS_RDY`,
-      since: sinceText(p), none: 'no PS_RDY', giveUpAfterUs: tPSTransition.minUs,
+      since: sinceText(p),
+      none: 'no PS_RDY',
+      giveUpAfterUs: tPSTransition.minUs,
     };
   };
   /** The keep-alive's finding is worded in advance(); this only finishes it (a reset never reports it early). */
   const awaitKeepAlive = (c: ActiveContract): Awaited => ({
-    watch: c.keepAlive, rule: 'timing.pps-keepalive', timerName: 'tPPSRequest', timer: timers().tPPSRequest, startUs: c.lastRequestUs, waiter: 'source', line: undefined,
-    missing: 'The sink sent no new Request', since: 'later', none: 'no new Request', giveUpAfterUs: Number.POSITIVE_INFINITY,
+    watch: c.keepAlive,
+    rule: 'timing.pps-keepalive',
+    timerName: 'tPPSRequest',
+    timer: timers().tPPSRequest,
+    startUs: c.lastRequestUs,
+    waiter: 'source',
+    line: undefined,
+    missing: 'The sink sent no new Request',
+    since: 'later',
+    none: 'no new Request',
+    giveUpAfterUs: Number.POSITIVE_INFINITY,
   });
   /** The waits in force, answers first. */
   const waits = (): Awaited[] => {
@@ -178,7 +211,11 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     if (tookUs <= tSenderResponse.maxUs) {
       const startedUs = response.t - ackEnd(first.m);
       if (startedUs > tReceiverResponse.maxUs) {
-        report('timing.receiver-response', `The ${response.from} began its ${response.d.messageType} ${millis(startedUs)} after the ${first.m.from}'s ${first.m.d.messageType} at ${seconds(first.m.t)} ${first.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}; tReceiverResponse asks for at most ${millis(tReceiverResponse.maxUs)}.`, { ...at(response), ref: tReceiverResponse.ref });
+        report(
+          'timing.receiver-response',
+          `The ${response.from} began its ${response.d.messageType} ${millis(startedUs)} after the ${first.m.from}'s ${first.m.d.messageType} at ${seconds(first.m.t)} ${first.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}; tReceiverResponse asks for at most ${millis(tReceiverResponse.maxUs)}.`,
+          { ...at(response), ref: tReceiverResponse.ref },
+        );
       }
       return;
     }
@@ -204,7 +241,11 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       const { tSinkRequest } = timers();
       const afterUs = m.t - ackEnd(waited);
       if (afterUs < tSinkRequest.minUs) {
-        report('timing.sink-request', `The sink asked again at ${seconds(m.t)}, ${millis(afterUs)} after the source's Wait at ${seconds(waited.t)}; tSinkRequest asks it to wait at least ${millis(tSinkRequest.minUs)}.`, { ...at(m), ref: tSinkRequest.ref });
+        report(
+          'timing.sink-request',
+          `The sink asked again at ${seconds(m.t)}, ${millis(afterUs)} after the source's Wait at ${seconds(waited.t)}; tSinkRequest asks it to wait at least ${millis(tSinkRequest.minUs)}.`,
+          { ...at(m), ref: tSinkRequest.ref },
+        );
       }
     }
     waited = undefined;
@@ -338,7 +379,11 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (accepted && pastDeadline(accepted, ackEnd(accepted.m), psTransitionOf(accepted).maxUs, t)) expire(awaitPsRdyAfter(accepted), report);
       if (contract && contract.contract.kind === 'pps' && pastDeadline(contract.keepAlive, contract.lastRequestUs, tPPSRequest.maxUs, t)) {
         contract.keepAlive.reported = true;
-        contract.keepAlive.finding = report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
+        contract.keepAlive.finding = report(
+          'timing.pps-keepalive',
+          `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`,
+          { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref },
+        );
       }
     },
     hardReset(t, from) {

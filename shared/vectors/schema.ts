@@ -39,8 +39,7 @@ const pdosOrHex = {
   pdos: z.array(pdoText).optional().describe('The PDOs as 32-bit hex numbers.'),
 };
 
-const needsCaps = (input: { hex?: string; pdos?: string[]; caps?: string }) =>
-  input.hex !== undefined || input.pdos !== undefined || input.caps !== undefined;
+const needsCaps = (input: { hex?: string; pdos?: string[]; caps?: string }) => input.hex !== undefined || input.pdos !== undefined || input.caps !== undefined;
 
 export const decodeVectorSchema = z
   .object({
@@ -55,9 +54,7 @@ export const decodeVectorSchema = z
         caps: hexText.optional().describe('The Source_Capabilities message a Request refers to.'),
       })
       .strict(),
-    expect: z
-      .object({ message: partial.optional(), error: z.string().optional().describe('The error code when decoding must fail.'), findings: findingsExpectSchema.optional() })
-      .strict(),
+    expect: z.object({ message: partial.optional(), error: z.string().optional().describe('The error code when decoding must fail.'), findings: findingsExpectSchema.optional() }).strict(),
   })
   .strict();
 
@@ -84,9 +81,7 @@ export const capsVectorSchema = z
       })
       .strict()
       .refine(needsCaps, { message: 'give hex or pdos', path: ['pdos'] }),
-    expect: z
-      .object({ findings: findingsExpectSchema.optional(), pdpW: z.number().int().optional(), pdpInferred: z.boolean().optional(), objects: z.array(partial).optional() })
-      .strict(),
+    expect: z.object({ findings: findingsExpectSchema.optional(), pdpW: z.number().int().optional(), pdpInferred: z.boolean().optional(), objects: z.array(partial).optional() }).strict(),
   })
   .strict();
 
@@ -162,9 +157,7 @@ export const traceVectorSchema = z
       })
       .strict()
       .refine((input) => (input.trace === undefined) !== (input.file === undefined), { message: 'give either trace or file', path: ['trace'] }),
-    expect: z
-      .object({ findings: findingsExpectSchema.optional(), contracts: z.array(partial).optional(), messages: z.number().int().min(0).optional() })
-      .strict(),
+    expect: z.object({ findings: findingsExpectSchema.optional(), contracts: z.array(partial).optional(), messages: z.number().int().min(0).optional() }).strict(),
   })
   .strict();
 

@@ -7,9 +7,7 @@ import { api, isApiError } from './api-client.ts';
 import { downloadText } from './download.ts';
 import { formatVector } from '../../shared/vectors/format.ts';
 
-export type SaveOutcome =
-  | { kind: 'library'; id: string; revision?: number }
-  | { kind: 'downloaded'; fileName: string; reason: string };
+export type SaveOutcome = { kind: 'library'; id: string; revision?: number } | { kind: 'downloaded'; fileName: string; reason: string };
 
 /** `property/demo/x/counterexample` → `property-demo-x-counterexample.vector.json`. */
 export function vectorFileName(id: string): string {

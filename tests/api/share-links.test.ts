@@ -26,7 +26,10 @@ async function signInAll(): Promise<void> {
 beforeAll(async () => {
   t = await createTestApp({ clock });
   await signInAll();
-  const uploaded = await support.post('/api/traces').field('title', 'K65 drops a programmable contract').attach('file', readFileSync(join(demoTraceFolder, 'k65-pps-stops.trace.jsonl')), 'k65-pps-stops.trace.jsonl');
+  const uploaded = await support
+    .post('/api/traces')
+    .field('title', 'K65 drops a programmable contract')
+    .attach('file', readFileSync(join(demoTraceFolder, 'k65-pps-stops.trace.jsonl')), 'k65-pps-stops.trace.jsonl');
   traceId = uploaded.body.trace.id;
 });
 

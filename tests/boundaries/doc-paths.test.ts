@@ -12,10 +12,12 @@ function citations(): { file: string; line: number; path: string }[] {
   const out: { file: string; line: number; path: string }[] = [];
   for (const file of files) {
     if (!existsSync(join(repo, file))) continue;
-    readFileSync(join(repo, file), 'utf8').split('\n').forEach((text, index) => {
-      // Markdown links and code comments cite pages by their file names.
-      for (const match of text.matchAll(/(?<![\w/.-])((?:\.{1,2}\/|\/)?[\w./-]*[\w-]\.md)\b/g)) out.push({ file, line: index + 1, path: match[1]! });
-    });
+    readFileSync(join(repo, file), 'utf8')
+      .split('\n')
+      .forEach((text, index) => {
+        // Markdown links and code comments cite pages by their file names.
+        for (const match of text.matchAll(/(?<![\w/.-])((?:\.{1,2}\/|\/)?[\w./-]*[\w-]\.md)\b/g)) out.push({ file, line: index + 1, path: match[1]! });
+      });
   }
   return out;
 }

@@ -53,7 +53,11 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     expect(await current.getByTestId('timer-lane-sink').locator('div').count()).toBeGreaterThan(0);
 
     await current.getByRole('button', { name: 'First contract' }).click();
-    await current.getByRole('listbox', { name: 'Messages' }).getByRole('option', { name: /^Request #\d+ from the sink at/ }).first().click();
+    await current
+      .getByRole('listbox', { name: 'Messages' })
+      .getByRole('option', { name: /^Request #\d+ from the sink at/ })
+      .first()
+      .click();
     const panel = current.getByRole('complementary', { name: 'Message details' });
     await panel.getByRole('heading', { name: 'Request' }).waitFor();
     expect(await panel.getByText('Object position').count()).toBeGreaterThan(0);

@@ -9,7 +9,12 @@ import { requireChromium, screenshot, signIn, useBrowserSuite } from './support.
 const hasChromium = requireChromium();
 
 // Kestrel Devices K60 whose supply slews 34 mV/ms: 5 → 20 V takes ~470 ms, past tPSTransition's 450 ms minimum.
-const SLOW = { source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } }, sink: { policy: { kind: 'max-power' } }, durationMs: 8000, seed: 3 };
+const SLOW = {
+  source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } },
+  sink: { policy: { kind: 'max-power' } },
+  durationMs: 8000,
+  seed: 3,
+};
 
 describe.skipIf(!hasChromium)('the Fault sweep page', () => {
   const suite = useBrowserSuite();

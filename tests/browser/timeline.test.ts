@@ -36,7 +36,10 @@ describe.skipIf(!hasChromium)('the trace timeline', () => {
     expect(await page.title()).toMatch(/^Trace \d+ — K65 drops a programmable contract · Parley$/);
 
     const findings = page.getByRole('table', { name: 'Findings' });
-    await findings.getByRole('button', { name: /Show protocol.hard-reset at/ }).first().click();
+    await findings
+      .getByRole('button', { name: /Show protocol.hard-reset at/ })
+      .first()
+      .click();
     const timeline = page.getByTestId('trace-timeline');
     await expect.poll(() => timeline.getAttribute('data-window')).toBe('21060000-21140000');
     await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
@@ -139,7 +142,10 @@ describe.skipIf(!hasChromium)('the trace timeline', () => {
       customerWatch.assertClean();
 
       // Withdrawn, the same link says so.
-      await dialog.getByRole('button', { name: /^Withdraw the link until/ }).first().click();
+      await dialog
+        .getByRole('button', { name: /^Withdraw the link until/ })
+        .first()
+        .click();
       await expect.poll(() => dialog.getByRole('list', { name: 'Active report links' }).count()).toBe(0);
       const again = await fresh.context.newPage();
       const againWatch = watchPage(again);

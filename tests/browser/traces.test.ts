@@ -79,7 +79,12 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     expect(await page.getByTestId('trace-summary').textContent()).toMatch(/^Contract 20 V 3.25 A/);
     await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
     await page.getByTestId('message-lanes').waitFor();
-    expect(await page.getByRole('listbox', { name: 'Messages' }).getByRole('option', { name: /^Source_Capabilities #/ }).count()).toBe(1);
+    expect(
+      await page
+        .getByRole('listbox', { name: 'Messages' })
+        .getByRole('option', { name: /^Source_Capabilities #/ })
+        .count(),
+    ).toBe(1);
     await screenshot(page, 'trace-page');
 
     // A finding's time zooms the timeline to it.
@@ -88,7 +93,12 @@ describe.skipIf(!hasChromium)('the Traces pages', () => {
     const findings = page.getByRole('table', { name: 'Findings' });
     await findings.getByRole('button', { name: /Show timing.sender-response at/ }).click();
     await expect.poll(() => timeline.getAttribute('data-window')).not.toBe(whole);
-    expect(await page.getByTestId('finding-pins').getByRole('button', { name: /timing.sender-response/ }).count()).toBe(1);
+    expect(
+      await page
+        .getByTestId('finding-pins')
+        .getByRole('button', { name: /timing.sender-response/ })
+        .count(),
+    ).toBe(1);
     await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
     await screenshot(page, 'trace-finding-focused');
 

@@ -19,7 +19,9 @@ export const postgresInstallHint = 'apt-get install postgresql (Debian), then ru
 export function findPostgres(): string | undefined {
   const root = '/usr/lib/postgresql';
   if (!existsSync(root)) return undefined;
-  const versions = readdirSync(root).filter((v) => existsSync(join(root, v, 'bin', 'pg_ctl'))).sort((a, b) => Number(b) - Number(a));
+  const versions = readdirSync(root)
+    .filter((v) => existsSync(join(root, v, 'bin', 'pg_ctl')))
+    .sort((a, b) => Number(b) - Number(a));
   return versions[0] ? join(root, versions[0], 'bin') : undefined;
 }
 

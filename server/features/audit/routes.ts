@@ -5,7 +5,12 @@ import { pageQuery } from '../../http/schemas.ts';
 
 /** Filters of the audit log: an action or an action family ("vector." for all vector changes), who, and what. */
 const auditQuery = pageQuery.extend({
-  action: z.string().trim().max(64).regex(/^[a-z_.]*$/, 'letters, "_" and "." only').optional(),
+  action: z
+    .string()
+    .trim()
+    .max(64)
+    .regex(/^[a-z_.]*$/, 'letters, "_" and "." only')
+    .optional(),
   actor: z.string().trim().max(254).optional(),
   target: z.string().trim().max(200).optional(),
 });
@@ -24,11 +29,7 @@ export const auditRoutes: RouteDef[] = [
       if (query.action) where.action = query.action.endsWith('.') ? { $like: `${literal(query.action)}%` } : query.action;
       if (query.actor) where.actorEmail = { $like: `%${literal(query.actor)}%` };
       if (query.target) where.target = { $like: `%${literal(query.target)}%` };
-      const [events, total] = await em.findAndCount(
-        AuditEvent,
-        where,
-        { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
-      );
+      const [events, total] = await em.findAndCount(AuditEvent, where, { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize });
       const items = events.map((e) => ({
         id: e.id,
         at: e.at.toISOString(),

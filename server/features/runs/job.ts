@@ -34,7 +34,17 @@ export function detailOf(result: Pick<VectorResult, 'expected' | 'actual' | 'mis
 /** The run's event as its row tells it: final once it is closed, else its progress. */
 export function runEvent(run: ITestRun): RunEvent {
   if (run.status === 'running') return { type: 'progress', runId: run.id, done: run.done, total: run.total, passed: run.passed, failed: run.failed };
-  return { type: 'done', runId: run.id, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed: run.passed, failed: run.failed, newFailures: run.newFailures, ...(run.errorMessage ? { error: run.errorMessage } : {}) };
+  return {
+    type: 'done',
+    runId: run.id,
+    status: run.status === 'failed' ? 'failed' : 'done',
+    done: run.done,
+    total: run.total,
+    passed: run.passed,
+    failed: run.failed,
+    newFailures: run.newFailures,
+    ...(run.errorMessage ? { error: run.errorMessage } : {}),
+  };
 }
 
 type RunDeps = Pick<AppDeps, 'orm' | 'clock' | 'mailer' | 'publicUrl' | 'logger' | 'runPool'>;
@@ -99,7 +109,10 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       const rows = await batchEm.find(TeamVector, { vectorId: { $in: ids } }, { fields: ['vectorId', 'revision', 'title', 'kind', 'text'] });
       const byId = new Map(rows.map((r) => [r.vectorId, r]));
       const present = ids.filter((id) => byId.has(id));
-      const results = await runBatch(deps.runPool, present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })));
+      const results = await runBatch(
+        deps.runPool,
+        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })),
+      );
       if (job.signal.aborted) return;
       const now = deps.clock.now();
       const records: Omit<IRunResult, 'id'>[] = present.map((id, i) => {
@@ -121,7 +134,19 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       });
       // A vector deleted from the library since the run started still gets a result.
       for (const id of ids.filter((x) => !byId.has(x))) {
-        records.push({ runId, vectorId: id, title: null, kind: null, vectorRevision: null, ok: false, message: 'the vector was deleted from the library before it ran', durationMs: 0, newFailure: false, detail: null, createdAt: now });
+        records.push({
+          runId,
+          vectorId: id,
+          title: null,
+          kind: null,
+          vectorRevision: null,
+          ok: false,
+          message: 'the vector was deleted from the library before it ran',
+          durationMs: 0,
+          newFailure: false,
+          detail: null,
+          createdAt: now,
+        });
       }
       for (const record of records) {
         if (record.ok) passed += 1;

@@ -18,14 +18,11 @@ export interface ReportedResult {
 
 export type ReportRead = Result<{ format: 'junit' | 'json'; results: ReportedResult[] }>;
 
-
 const jsonReport = z.object({
   ok: z.boolean().optional(),
   passed: z.number().int().min(0).optional(),
   failed: z.number().int().min(0).optional(),
-  results: z
-    .array(z.object({ id: z.string().min(1).max(300), ok: z.boolean(), message: z.string().max(20_000).optional(), durationMs: z.number().min(0).optional() }))
-    .max(MAX_REPORT_CASES),
+  results: z.array(z.object({ id: z.string().min(1).max(300), ok: z.boolean(), message: z.string().max(20_000).optional(), durationMs: z.number().min(0).optional() })).max(MAX_REPORT_CASES),
 });
 
 function asArray<T>(value: T | T[] | undefined): T[] {

@@ -48,8 +48,7 @@ export function buildReport(trace: PresentedTrace, analysis: Analysis, link: str
 
 export type TraceReport = ReturnType<typeof buildReport>;
 
-const escapeHtml = (text: string) =>
-  text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 export function diagnosisMail(options: { to: string; senderName: string; note?: string; report: TraceReport; shared?: { url: string; expiresAt: Date } }): OutgoingMail {
   const { report, senderName, note } = options;

@@ -33,7 +33,6 @@ const traceWriters = roleGroups.traceWriters;
 /** Most records a `trace` vector file may hold. */
 const VECTOR_RECORD_LIMIT = 100_000;
 
-
 const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
 
 const uploadBody = z.object({
@@ -181,7 +180,12 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
     notes: body.notes,
     createdAt: now,
   });
-  recordAudit(em, deps.clock, { actor: me, action: 'trace.uploaded', target: `trace:${file.sha256.slice(0, 12)}`, details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format } });
+  recordAudit(em, deps.clock, {
+    actor: me,
+    action: 'trace.uploaded',
+    target: `trace:${file.sha256.slice(0, 12)}`,
+    details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format },
+  });
   try {
     await em.flush();
   } catch (error) {
@@ -234,7 +238,9 @@ export const tracesRoutes: RouteDef[] = [
       if (query.q) {
         const like = `%${query.q}%`;
         const op = likeOperator(em);
-        where.push({ $or: [{ title: { [op]: like } }, { fileName: { [op]: like } }, { customerRef: { [op]: like } }, { notes: { [op]: like } }, { summary: { [op]: like } }, { rules: { [op]: like } }] });
+        where.push({
+          $or: [{ title: { [op]: like } }, { fileName: { [op]: like } }, { customerRef: { [op]: like } }, { notes: { [op]: like } }, { summary: { [op]: like } }, { rules: { [op]: like } }],
+        });
       }
       if (query.deviceId) where.push({ deviceId: query.deviceId });
       if (query.uploaderId) where.push({ uploaderId: query.uploaderId });
@@ -253,9 +259,7 @@ export const tracesRoutes: RouteDef[] = [
         offset: (query.page - 1) * query.pageSize,
       });
       const devices = await deviceMap(em);
-      const uploaders = await em.getConnection().execute<{ id: number; name: string }[]>(
-        'select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name',
-      );
+      const uploaders = await em.getConnection().execute<{ id: number; name: string }[]>('select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name');
       return {
         items: traces.map((t) => presentTrace(t, devices)),
         total,

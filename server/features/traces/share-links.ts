@@ -25,7 +25,13 @@ export const shareLinkDays = z.coerce.number().int().min(1, 'at least 1 day').ma
 const createBody = z.object({ expiresInDays: shareLinkDays });
 const traceParams = z.object({ id: z.coerce.number().int().positive() });
 const linkParams = z.object({ id: z.coerce.number().int().positive(), linkId: z.coerce.number().int().positive() });
-const tokenParams = z.object({ token: z.string().min(1).max(200).regex(/^\d+\.\d+\.[A-Za-z0-9_-]+$/, 'not a report link') });
+const tokenParams = z.object({
+  token: z
+    .string()
+    .min(1)
+    .max(200)
+    .regex(/^\d+\.\d+\.[A-Za-z0-9_-]+$/, 'not a report link'),
+});
 
 function signature(secret: string, linkId: number, traceId: number, expiresSec: number): string {
   return createHmac('sha256', secret).update(`report-share:${linkId}:${traceId}:${expiresSec}`).digest('base64url');
@@ -95,7 +101,18 @@ async function sharedReport(em: EntityManager, trace: ITrace, link: IReportShare
   return {
     report: { ...report, trace: { ...report.trace, link: null, sha256: undefined } },
     timeline: {
-      messages: timeline.messages.map((m) => ({ t: m.t, durationUs: m.durationUs, from: m.from, sop: m.sop, messageType: m.messageType, messageId: m.messageId, hex: m.hex, crcOk: m.crcOk, ...(m.retry ? { retry: true } : {}), ...(m.goodCrcFor !== undefined ? { goodCrcFor: m.goodCrcFor } : {}) })),
+      messages: timeline.messages.map((m) => ({
+        t: m.t,
+        durationUs: m.durationUs,
+        from: m.from,
+        sop: m.sop,
+        messageType: m.messageType,
+        messageId: m.messageId,
+        hex: m.hex,
+        crcOk: m.crcOk,
+        ...(m.retry ? { retry: true } : {}),
+        ...(m.goodCrcFor !== undefined ? { goodCrcFor: m.goodCrcFor } : {}),
+      })),
       measurements: timeline.measurements,
       events: timeline.events,
       contracts: timeline.contracts,

@@ -35,9 +35,7 @@ export function sniffTrace(head: Uint8Array, complete: boolean): SniffResult {
   if (bad > 4) return fail('trace.not-a-trace', `The file is not UTF-8 text, so it is not a trace. ${FORMATS_READ}.`);
   const format = detectFormat(text);
   if (format === 'vcd') {
-    return VCD_KEYWORD.test(text.replace(/^\uFEFF/, ''))
-      ? { ok: true, format }
-      : fail('trace.not-a-trace', `The file starts with "$" but no VCD declaration ($timescale, $var, …). ${FORMATS_READ}.`);
+    return VCD_KEYWORD.test(text.replace(/^\uFEFF/, '')) ? { ok: true, format } : fail('trace.not-a-trace', `The file starts with "$" but no VCD declaration ($timescale, $var, …). ${FORMATS_READ}.`);
   }
   // Only complete lines: the last one may be cut at the kilobyte.
   if (!complete) {

@@ -28,7 +28,10 @@ function likeText(value: string): string {
 export function vectorWhere(filter: VectorFilter, op: '$like' | '$ilike' = '$like'): FilterQuery<ITeamVector> {
   const and: FilterQuery<ITeamVector>[] = [];
   if (filter.q) {
-    for (const word of filter.q.split(/\s+/).filter((w) => w !== '').slice(0, 8)) {
+    for (const word of filter.q
+      .split(/\s+/)
+      .filter((w) => w !== '')
+      .slice(0, 8)) {
       const like = likeText(word);
       and.push({ $or: [{ vectorId: { [op]: like } }, { title: { [op]: like } }, { tags: { [op]: like } }, { text: { [op]: like } }] });
     }

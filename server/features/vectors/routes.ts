@@ -76,7 +76,10 @@ export const vectorsRoutes: RouteDef[] = [
         offset: (page - 1) * pageSize,
       });
       const devices = await deviceRefs(em);
-      const last = await lastResults(em, rows.map((r) => r.vectorId));
+      const last = await lastResults(
+        em,
+        rows.map((r) => r.vectorId),
+      );
       // Every tag in the library with its count, for the filter menu.
       const tagCounts = new Map<string, number>();
       for (const { tags } of await em.find(TeamVector, {}, { fields: ['tags'] })) {
@@ -138,7 +141,10 @@ export const vectorsRoutes: RouteDef[] = [
         }
       }
       if (issues.length > 0) {
-        const first = issues.slice(0, 3).map((i) => `${i.file}: ${i.message}`).join('; ');
+        const first = issues
+          .slice(0, 3)
+          .map((i) => `${i.file}: ${i.message}`)
+          .join('; ');
         throw badRequest(`Nothing was imported: ${issues.length} file(s) are not valid vectors. ${first}`, 'vector.import-invalid', issues);
       }
       const note = `Imported from ${(upload.originalname || 'a zip').replace(/[\u0000-\u001f]/g, '').slice(0, 120)}`;

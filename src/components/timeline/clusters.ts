@@ -32,14 +32,7 @@ export function firstIndexAtOrAfter<T>(items: readonly T[], tUs: number, timeOf:
  * The items of `indices` (in time order) that lie in the window, folded into clusters: an item
  * joins the open cluster while it is within `minGapPx` of the cluster's first item.
  */
-export function clusterInWindow<T>(
-  items: readonly T[],
-  indices: Iterable<number>,
-  timeOf: (item: T) => number,
-  window: TimeWindow,
-  widthPx: number,
-  minGapPx: number,
-): Cluster[] {
+export function clusterInWindow<T>(items: readonly T[], indices: Iterable<number>, timeOf: (item: T) => number, window: TimeWindow, widthPx: number, minGapPx: number): Cluster[] {
   const spanUs = Math.max(1, window.endUs - window.startUs);
   const gapUs = widthPx > 0 ? (minGapPx / widthPx) * spanUs : spanUs;
   const out: Cluster[] = [];
@@ -64,7 +57,13 @@ export function* indexRange(from: number, to: number): Generator<number> {
 }
 
 /** Merges spans shorter than a pixel into their neighbours' draw: one entry per pixel column at most. */
-export function visibleSpans<T extends { startUs: number; endUs?: number }>(spans: readonly T[], window: TimeWindow, widthPx: number, endOfTraceUs: number, minWidthPx = 2): { span: T; count: number }[] {
+export function visibleSpans<T extends { startUs: number; endUs?: number }>(
+  spans: readonly T[],
+  window: TimeWindow,
+  widthPx: number,
+  endOfTraceUs: number,
+  minWidthPx = 2,
+): { span: T; count: number }[] {
   const spanUs = Math.max(1, window.endUs - window.startUs);
   const minUs = widthPx > 0 ? (minWidthPx / widthPx) * spanUs : 0;
   const out: { span: T; count: number; endUs: number }[] = [];

@@ -38,6 +38,10 @@ export function decodeLaneMessage(messages: readonly LaneMessage[], capsBefore: 
 export function oneLineDecode(message: Message | null): string {
   if (!message) return 'not decoded';
   if (message.objects.length > 0) return message.objects.map((object, index) => `#${index + 1} ${summarizeObject(object)}`).join(' · ');
-  if (message.data) return Object.entries(message.data).slice(0, 4).map(([key, value]) => `${key} ${String(value)}`).join(', ');
+  if (message.data)
+    return Object.entries(message.data)
+      .slice(0, 4)
+      .map(([key, value]) => `${key} ${String(value)}`)
+      .join(', ');
   return `${message.header.category} message, revision ${message.header.specRevision}`;
 }

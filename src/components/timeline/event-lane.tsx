@@ -66,7 +66,10 @@ export function EventLane({ events, window, insetLeftPx = 0, insetRightPx = 0 }:
             const from = leftSide ? x - 6 - labelPx : x + 6;
             const showLabel = from >= freeFromPx && from >= 0;
             if (showLabel) freeFromPx = from + labelPx + 4;
-            const title = cluster.count > 1 ? `${cluster.count} events from ${formatTimeUs(cluster.startUs)} to ${formatTimeUs(cluster.endUs)}, first ${event.label}` : `${event.label} at ${formatTimeUs(cluster.startUs)}`;
+            const title =
+              cluster.count > 1
+                ? `${cluster.count} events from ${formatTimeUs(cluster.startUs)} to ${formatTimeUs(cluster.endUs)}, first ${event.label}`
+                : `${event.label} at ${formatTimeUs(cluster.startUs)}`;
             return (
               <div key={cluster.first} className="absolute inset-y-0" style={{ left: x }} title={title} data-event={event.label} role="img" aria-label={title}>
                 <span className="absolute inset-y-0.5 -ml-px w-0.5 rounded" style={{ background: EVENT_COLOURS[event.tone] }} />

@@ -80,7 +80,14 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
     if (widthPx <= 0) return [];
     const isGoodCrc = (index: number) => messages[index]!.messageType === 'GoodCRC';
     const acks = clusterInWindow(messages, visible.filter(isGoodCrc), (m) => m.t, window, widthPx, BURST_GAP_PX);
-    const others = clusterInWindow(messages, visible.filter((index) => !isGoodCrc(index)), (m) => m.t, window, widthPx, BURST_GAP_PX);
+    const others = clusterInWindow(
+      messages,
+      visible.filter((index) => !isGoodCrc(index)),
+      (m) => m.t,
+      window,
+      widthPx,
+      BURST_GAP_PX,
+    );
     return [...acks, ...others];
   }, [messages, visible, window, widthPx]);
   const bursts = useMemo(() => {
@@ -128,16 +135,18 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
           const down = m.from !== 'sink';
           const goodCrc = m.messageType === 'GoodCRC';
           const unacked = hasGoodCrc && !goodCrc && !acknowledged.has(index);
-          const tone = !m.crcOk ? 'text-red-600 dark:text-red-400' : goodCrc ? 'text-slate-400 dark:text-slate-600' : m.from === 'sink' ? 'text-sky-600 dark:text-sky-400' : 'text-amber-600 dark:text-amber-400';
+          const tone = !m.crcOk
+            ? 'text-red-600 dark:text-red-400'
+            : goodCrc
+              ? 'text-slate-400 dark:text-slate-600'
+              : m.from === 'sink'
+                ? 'text-sky-600 dark:text-sky-400'
+                : 'text-amber-600 dark:text-amber-400';
           const title = burst
             ? `${burst.count} messages from ${formatTimeUs(burst.startUs)} to ${formatTimeUs(burst.endUs)}, first ${m.messageType} from the ${m.from}: zoom in to see each`
             : `${m.messageType} #${m.messageId} from the ${m.from} at ${formatTimeUs(m.t)}${m.retry ? ' (retry)' : ''}${!m.crcOk ? ' — bad CRC' : ''}${unacked ? ' — no GoodCRC' : foldGoodCrc && acknowledged.has(index) ? ' — acknowledged' : ''}`;
           const padUs = burst ? Math.max(20, (burst.endUs - burst.startUs) * 0.1) : 0;
-          const click = burst
-            ? () => onZoomTo?.({ startUs: Math.max(0, burst.startUs - padUs), endUs: burst.endUs + padUs + m.durationUs })
-            : onSelect
-              ? () => onSelect(index)
-              : undefined;
+          const click = burst ? () => onZoomTo?.({ startUs: Math.max(0, burst.startUs - padUs), endUs: burst.endUs + padUs + m.durationUs }) : onSelect ? () => onSelect(index) : undefined;
           return (
             <button
               key={index}
@@ -151,11 +160,23 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
               style={{ left }}
             >
               <svg viewBox="0 0 16 80" preserveAspectRatio="none" className="h-full w-full overflow-visible" aria-hidden="true">
-                <line x1="8" x2="8" y1={down ? 0 : 80} y2={down ? 74 : 6} stroke="currentColor" strokeWidth={goodCrc ? 1 : 1.6} strokeDasharray={m.retry ? '4 3' : undefined} vectorEffect="non-scaling-stroke" />
+                <line
+                  x1="8"
+                  x2="8"
+                  y1={down ? 0 : 80}
+                  y2={down ? 74 : 6}
+                  stroke="currentColor"
+                  strokeWidth={goodCrc ? 1 : 1.6}
+                  strokeDasharray={m.retry ? '4 3' : undefined}
+                  vectorEffect="non-scaling-stroke"
+                />
                 <path d={down ? 'M4 72 L8 80 L12 72' : 'M4 8 L8 0 L12 8'} fill={unacked ? 'none' : 'currentColor'} stroke="currentColor" strokeWidth="1" vectorEffect="non-scaling-stroke" />
               </svg>
               {burst && (
-                <span className="pointer-events-none absolute top-1/2 left-1/2 -translate-x-1/2 -translate-y-1/2 rounded-full bg-slate-700 px-1 font-mono text-[9px] leading-4 text-white dark:bg-slate-300 dark:text-slate-900" aria-hidden="true">
+                <span
+                  className="pointer-events-none absolute top-1/2 left-1/2 -translate-x-1/2 -translate-y-1/2 rounded-full bg-slate-700 px-1 font-mono text-[9px] leading-4 text-white dark:bg-slate-300 dark:text-slate-900"
+                  aria-hidden="true"
+                >
                   {burst.count}
                 </span>
               )}
@@ -170,15 +191,17 @@ export const MessageLanes = memo(function MessageLanes({ messages, window, foldG
                 >
                   {m.messageType}
                   {burst && <span className="text-slate-500"> +{burst.count - 1}</span>}
-                  {foldGoodCrc && acknowledged.has(index) && <span className="ml-0.5 text-emerald-600" aria-hidden="true">✓</span>}
+                  {foldGoodCrc && acknowledged.has(index) && (
+                    <span className="ml-0.5 text-emerald-600" aria-hidden="true">
+                      ✓
+                    </span>
+                  )}
                 </span>
               )}
             </button>
           );
         })}
-        {visible.length === 0 && (
-          <p className="absolute inset-0 flex items-center justify-center text-xs text-slate-400">No messages in this part of the trace.</p>
-        )}
+        {visible.length === 0 && <p className="absolute inset-0 flex items-center justify-center text-xs text-slate-400">No messages in this part of the trace.</p>}
       </div>
     </div>
   );

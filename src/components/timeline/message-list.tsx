@@ -83,13 +83,19 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
     if (rows.length === 0) return;
     const at = selectedRow ?? -1;
     const next =
-      event.key === 'ArrowDown' ? at + 1
-      : event.key === 'ArrowUp' ? at - 1
-      : event.key === 'PageDown' ? at + pageRows
-      : event.key === 'PageUp' ? at - pageRows
-      : event.key === 'Home' ? 0
-      : event.key === 'End' ? rows.length - 1
-      : null;
+      event.key === 'ArrowDown'
+        ? at + 1
+        : event.key === 'ArrowUp'
+          ? at - 1
+          : event.key === 'PageDown'
+            ? at + pageRows
+            : event.key === 'PageUp'
+              ? at - pageRows
+              : event.key === 'Home'
+                ? 0
+                : event.key === 'End'
+                  ? rows.length - 1
+                  : null;
     if (next === null) return;
     event.preventDefault();
     onSelect(rows[Math.min(rows.length - 1, Math.max(0, next))]!);
@@ -98,7 +104,14 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
   const optionId = (index: number) => `message-row-${index}`;
   return (
     <div className={cn('flex flex-col overflow-hidden rounded-md border border-slate-200 dark:border-slate-800', className)} data-testid="message-list">
-      <div className={cn('grid gap-x-2 border-b border-slate-200 bg-slate-50 px-2 font-mono text-[10px] leading-6 text-slate-500 uppercase dark:border-slate-800 dark:bg-slate-900 dark:text-slate-400', COLUMNS)} style={{ height: HEADER_PX }} aria-hidden="true">
+      <div
+        className={cn(
+          'grid gap-x-2 border-b border-slate-200 bg-slate-50 px-2 font-mono text-[10px] leading-6 text-slate-500 uppercase dark:border-slate-800 dark:bg-slate-900 dark:text-slate-400',
+          COLUMNS,
+        )}
+        style={{ height: HEADER_PX }}
+        aria-hidden="true"
+      >
         <span>Time</span>
         <span>Δ</span>
         <span>Dir</span>

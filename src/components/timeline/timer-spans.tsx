@@ -45,11 +45,7 @@ export function TimerSpans({ timers, window, insetLeftPx = 0, insetRightPx = 0, 
           <span className="shrink-0 pt-0.5 pr-2 text-right font-mono text-[10px] text-slate-500 uppercase dark:text-slate-400" style={{ width: insetLeftPx }}>
             {side === 'source' ? 'SRC timers' : 'SNK timers'}
           </span>
-          <div
-            className="relative flex-1 rounded-sm bg-slate-50 dark:bg-slate-950"
-            style={{ height: Math.max(1, rowCount) * ROW_PX + 2 }}
-            data-testid={`timer-lane-${side}`}
-          >
+          <div className="relative flex-1 rounded-sm bg-slate-50 dark:bg-slate-950" style={{ height: Math.max(1, rowCount) * ROW_PX + 2 }} data-testid={`timer-lane-${side}`}>
             {own.map((timer, index) => {
               const style = segmentStyle(window, timer.startUs, timer.endUs);
               if (!style) return null;

@@ -49,7 +49,11 @@ describe('held readings', () => {
   });
 
   it('takes one reading either side, so a held value reaches into a narrow window', () => {
-    const readings: Measurement[] = [{ t: 20_845_055, mv: 9_030 }, { t: 21_130_000, mv: 9_000 }, { t: 21_150_000, mv: 8_640 }];
+    const readings: Measurement[] = [
+      { t: 20_845_055, mv: 9_030 },
+      { t: 21_130_000, mv: 9_000 },
+      { t: 21_150_000, mv: 8_640 },
+    ];
     const series = windowSteps(readings, { startUs: 21_060_000, endUs: 21_140_000 });
     expect(series.readings).toBe(1);
     expect(series.vbusV.map((p) => p.value)).toEqual([9.03, 9, 8.64]);

@@ -49,7 +49,21 @@ const NO_EVENTS: readonly BusEvent[] = [];
  * messages between source and sink and the findings pinned at their times — all on one time
  * window — and beside it every message as a list with the selected one bit by bit.
  */
-export function TraceTimeline({ measurements, messages, findings, events = NO_EVENTS, contracts, bands, endUs, focus, selectedFinding, onSelectFinding, initialWindow, onWindowChange, className }: TraceTimelineProps) {
+export function TraceTimeline({
+  measurements,
+  messages,
+  findings,
+  events = NO_EVENTS,
+  contracts,
+  bands,
+  endUs,
+  focus,
+  selectedFinding,
+  onSelectFinding,
+  initialWindow,
+  onWindowChange,
+  className,
+}: TraceTimelineProps) {
   const end = Math.max(1, endUs);
   const [window, setWindowState] = useState<TimeWindow>(() => (initialWindow ? clampWindow(initialWindow, end) : { startUs: 0, endUs: end }));
   const [foldGoodCrc, setFoldGoodCrc] = useState(true);
@@ -118,7 +132,15 @@ export function TraceTimeline({ measurements, messages, findings, events = NO_EV
             onZoomTo={setWindow}
             selectedIndex={selectedMessage}
           />
-          <FindingPins findings={findings} window={window} selectedIndex={selectedFinding} onSelect={onSelectFinding} onZoomTo={setWindow} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+          <FindingPins
+            findings={findings}
+            window={window}
+            selectedIndex={selectedFinding}
+            onSelect={onSelectFinding}
+            onZoomTo={setWindow}
+            insetLeftPx={PLOT_INSET_LEFT_PX}
+            insetRightPx={PLOT_INSET_RIGHT_PX}
+          />
           <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
             <TimelineLegend current={measurements.some((m) => m.ma !== undefined)} bands={(bands?.length ?? 0) > 0} />
           </div>
@@ -163,7 +185,11 @@ function ContractLane({ contracts, window, endUs }: { contracts: readonly Timeli
               key={c.startUs}
               className="absolute inset-y-0 overflow-hidden rounded-[3px] bg-emerald-100 px-1 font-mono text-[10px] leading-5 whitespace-nowrap text-emerald-900 ring-1 ring-emerald-300 ring-inset dark:bg-emerald-500/15 dark:text-emerald-200 dark:ring-emerald-500/40"
               style={style}
-              title={count > 1 ? `${count} contracts from ${formatTimeUs(c.startUs)}: zoom in to see each` : `${c.label} from ${formatTimeUs(c.startUs)}${c.endUs === undefined ? '' : ` to ${formatTimeUs(c.endUs)}`}`}
+              title={
+                count > 1
+                  ? `${count} contracts from ${formatTimeUs(c.startUs)}: zoom in to see each`
+                  : `${c.label} from ${formatTimeUs(c.startUs)}${c.endUs === undefined ? '' : ` to ${formatTimeUs(c.endUs)}`}`
+              }
             >
               {label}
             </div>

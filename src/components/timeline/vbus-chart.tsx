@@ -169,7 +169,16 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs
         return (
           <g key={`event-${cluster.first}`} data-chart-event={event.label} data-t-us={cluster.startUs}>
             <line x1={x} x2={x} y1={plot.y} y2={plot.y + plot.height} stroke={EVENT_COLOURS[event.tone]} strokeWidth={1.5} />
-            <text x={anchor === 'start' ? x + 3 : x - 3} y={plot.y + 10 + (index % 2) * 12} fontSize={10} textAnchor={anchor} fill={EVENT_COLOURS[event.tone]} stroke={labelColour} strokeWidth={3} paintOrder="stroke">
+            <text
+              x={anchor === 'start' ? x + 3 : x - 3}
+              y={plot.y + 10 + (index % 2) * 12}
+              fontSize={10}
+              textAnchor={anchor}
+              fill={EVENT_COLOURS[event.tone]}
+              stroke={labelColour}
+              strokeWidth={3}
+              paintOrder="stroke"
+            >
               {label}
             </text>
           </g>
@@ -211,7 +220,14 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   }, [measurements, window, sinkMeasurements, budget, measured]);
   // Each reading marked while they have room; a thinned window shows the line alone.
   const dots = series.readings > 0 && series.readings * DOT_ROOM_PX <= plotWidthPx && series.vbusV.length <= budget;
-  const overview = useMemo(() => thin(measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })), 300), [measurements]);
+  const overview = useMemo(
+    () =>
+      thin(
+        measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })),
+        300,
+      ),
+    [measurements],
+  );
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
   const withCurrent = hasCurrent && stage >= 2;
   const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
@@ -280,15 +296,74 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
             <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
             <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
             {withCurrent && (
-              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} niceTicks="none" allowDataOverflow tick={ampTick} />
+              <YAxis
+                yAxisId="a"
+                width={AXIS_WIDTH_PX}
+                orientation="right"
+                stroke={axis}
+                fontSize={11}
+                domain={axes.amps.domain}
+                ticks={axes.amps.ticks}
+                interval={0}
+                niceTicks="none"
+                allowDataOverflow
+                tick={ampTick}
+              />
             )}
-            <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={sortedPins} events={sortedEvents} endUs={endUs} labelColour={dark ? '#0f172a' : '#ffffff'} />
+            <PlotMarks
+              window={window}
+              maxV={axes.volts.domain[1]}
+              gridV={axes.volts.ticks}
+              gridColour={grid}
+              bands={visibleBands}
+              pins={sortedPins}
+              events={sortedEvents}
+              endUs={endUs}
+              labelColour={dark ? '#0f172a' : '#ffffff'}
+            />
             {stage >= 3 && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
-            <Line yAxisId="v" data={series.vbusV} dataKey="value" name="VBUS" type="stepAfter" stroke="#d97706" dot={dots ? READING_DOT : false} activeDot={ACTIVE_DOT} strokeWidth={1.6} isAnimationActive={false} className="parley-vbus-line" />
+            <Line
+              yAxisId="v"
+              data={series.vbusV}
+              dataKey="value"
+              name="VBUS"
+              type="stepAfter"
+              stroke="#d97706"
+              dot={dots ? READING_DOT : false}
+              activeDot={ACTIVE_DOT}
+              strokeWidth={1.6}
+              isAnimationActive={false}
+              className="parley-vbus-line"
+            />
             {sinkMeasurements && stage >= 2 && (
-              <Line yAxisId="v" data={series.sinkV} dataKey="value" name="VBUS at sink" type="stepAfter" stroke="#7c3aed" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} />
+              <Line
+                yAxisId="v"
+                data={series.sinkV}
+                dataKey="value"
+                name="VBUS at sink"
+                type="stepAfter"
+                stroke="#7c3aed"
+                dot={false}
+                activeDot={ACTIVE_DOT}
+                strokeWidth={1.2}
+                strokeDasharray="4 2"
+                isAnimationActive={false}
+              />
             )}
-            {withCurrent && <Line yAxisId="a" data={series.ibusA} dataKey="value" name="IBUS" type="stepAfter" stroke="#0284c7" dot={dots ? CURRENT_DOT : false} activeDot={ACTIVE_DOT} strokeWidth={1.2} isAnimationActive={false} />}
+            {withCurrent && (
+              <Line
+                yAxisId="a"
+                data={series.ibusA}
+                dataKey="value"
+                name="IBUS"
+                type="stepAfter"
+                stroke="#0284c7"
+                dot={dots ? CURRENT_DOT : false}
+                activeDot={ACTIVE_DOT}
+                strokeWidth={1.2}
+                isAnimationActive={false}
+              />
+            )}
           </LineChart>
         )}
       </div>

@@ -32,12 +32,7 @@ const columns = col.columns([
     id: 'actor',
     header: 'Who',
     enableSorting: false,
-    cell: ({ row }) =>
-      row.original.actor ? (
-        <span title={row.original.actor.email}>{row.original.actor.name || row.original.actor.email}</span>
-      ) : (
-        <span className="text-slate-400">—</span>
-      ),
+    cell: ({ row }) => (row.original.actor ? <span title={row.original.actor.email}>{row.original.actor.name || row.original.actor.email}</span> : <span className="text-slate-400">—</span>),
   }),
   col.accessor('action', {
     header: 'Action',
@@ -93,7 +88,13 @@ export function AuditRoute() {
           </select>
         </label>
         <Input label="Who (e-mail)" className="w-56" defaultValue={filters.actor} onChange={(event) => update({ actor: event.target.value.trim() || null, page: null, event: null })} />
-        <Input label="Target" className="w-56" placeholder="vector:caps/…" defaultValue={filters.target} onChange={(event) => update({ target: event.target.value.trim() || null, page: null, event: null })} />
+        <Input
+          label="Target"
+          className="w-56"
+          placeholder="vector:caps/…"
+          defaultValue={filters.target}
+          onChange={(event) => update({ target: event.target.value.trim() || null, page: null, event: null })}
+        />
       </form>
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         {audit.isError ? (

@@ -33,10 +33,7 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
   const [foldGoodCrc, setFoldGoodCrc] = useState(false);
   const { lanes, messages } = useMemo(() => laneMessagesOf(run.events), [run]);
   const measurements = useMemo(() => chartMeasurements(run.samples, window), [run, window]);
-  const pins = useMemo<ChartPin[]>(
-    () => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])),
-    [run],
-  );
+  const pins = useMemo<ChartPin[]>(() => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])), [run]);
   const events = useMemo(() => chartEventsOf(busEventsOf(run.events)), [run]);
   const end = Math.max(1, run.endUs);
   const firstContractUs = run.contracts[0]?.t;
@@ -62,16 +59,7 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
         )}
       </TimelineToolbar>
       {parts >= 2 && (
-        <VbusChart
-          measurements={measurements.source}
-          sinkMeasurements={measurements.sink}
-          window={window}
-          endUs={end}
-          pins={pins}
-          events={events}
-          onWindowChange={onWindowChange}
-          dark={dark}
-        />
+        <VbusChart measurements={measurements.source} sinkMeasurements={measurements.sink} window={window} endUs={end} pins={pins} events={events} onWindowChange={onWindowChange} dark={dark} />
       )}
       {parts >= 3 && (
         <>

@@ -63,7 +63,9 @@ export function ExportPanel({ run, title, chartSvg, dark }: ExportPanelProps) {
         <Button
           variant="secondary"
           size="sm"
-          onClick={() => downloadText(`${base}.trace.jsonl`, traceJsonl(run.events, { title: `Bench run: ${name}`, seed: run.scenario.seed ?? 1, simulatedAt: run.finishedAt }), 'application/x-ndjson')}
+          onClick={() =>
+            downloadText(`${base}.trace.jsonl`, traceJsonl(run.events, { title: `Bench run: ${name}`, seed: run.scenario.seed ?? 1, simulatedAt: run.finishedAt }), 'application/x-ndjson')
+          }
         >
           Trace (.trace.jsonl)
         </Button>
@@ -88,8 +90,8 @@ export function ExportPanel({ run, title, chartSvg, dark }: ExportPanelProps) {
         <span className="font-mono text-xs text-slate-500">{id}</span>
       </div>
       <p className="text-xs text-slate-500 dark:text-slate-400">
-        The vector expects this run’s contract, its key messages in order, and {run.findings.some((finding) => finding.severity === 'error') ? 'its error findings' : 'no error findings'}.
-        Check each expectation against the specification before adding it to the library.
+        The vector expects this run’s contract, its key messages in order, and {run.findings.some((finding) => finding.severity === 'error') ? 'its error findings' : 'no error findings'}. Check each
+        expectation against the specification before adding it to the library.
       </p>
       {problem && (
         <p role="alert" className="text-xs text-red-600 dark:text-red-400">

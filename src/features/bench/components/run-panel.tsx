@@ -51,7 +51,13 @@ export function RunPanel({ state, shown, onCancel, onShare, shareUrl, warnings }
         {shareUrl && (
           <label className="flex flex-col gap-1 text-xs text-slate-600 dark:text-slate-400">
             Link to this scenario (copied to the clipboard)
-            <input readOnly value={shareUrl} aria-label="Share link" onFocus={(event) => event.currentTarget.select()} className="h-8 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950" />
+            <input
+              readOnly
+              value={shareUrl}
+              aria-label="Share link"
+              onFocus={(event) => event.currentTarget.select()}
+              className="h-8 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950"
+            />
           </label>
         )}
         {shown ? (

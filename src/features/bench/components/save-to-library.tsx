@@ -16,7 +16,19 @@ export type SaveToLibraryProps = {
 
 /** Tags as typed: words separated by commas or spaces, lower-case, kebab-case within a tag. */
 export function tagsOf(text: string): string[] {
-  return [...new Set(text.split(/[,\s]+/).map((tag) => tag.trim().toLowerCase().replace(/[^a-z0-9-]+/g, '-')).filter(Boolean))];
+  return [
+    ...new Set(
+      text
+        .split(/[,\s]+/)
+        .map((tag) =>
+          tag
+            .trim()
+            .toLowerCase()
+            .replace(/[^a-z0-9-]+/g, '-'),
+        )
+        .filter(Boolean),
+    ),
+  ];
 }
 
 /** Saves the run as a negotiation vector in the team Library (title, tags), then links to it. */
@@ -25,7 +37,10 @@ export function SaveToLibrary({ run, title, onTitleChange }: SaveToLibraryProps)
   const queryClient = useQueryClient();
   const id = vectorIdOf(title);
   const save = useMutation({
-    mutationFn: () => createVector(JSON.parse(vectorFromRun(run.scenario, run, { id, title: title.trim() || 'Bench scenario', tags: tagsOf(tagText) })) as Record<string, unknown>, { message: 'Saved from a Bench run' }),
+    mutationFn: () =>
+      createVector(JSON.parse(vectorFromRun(run.scenario, run, { id, title: title.trim() || 'Bench scenario', tags: tagsOf(tagText) })) as Record<string, unknown>, {
+        message: 'Saved from a Bench run',
+      }),
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: vectorKeys.lists() }),
   });
   const onSubmit = (event: FormEvent) => {

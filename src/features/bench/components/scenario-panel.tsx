@@ -62,7 +62,10 @@ export function ScenarioPanel({ form, onSubmit, jsonText, jsonError, onJsonChang
                     type="button"
                     role="tab"
                     aria-selected={tab === value}
-                    className={cn('rounded px-3 py-1 text-xs font-medium', tab === value ? 'bg-white text-slate-900 shadow-xs dark:bg-slate-950 dark:text-slate-50' : 'text-slate-600 dark:text-slate-400')}
+                    className={cn(
+                      'rounded px-3 py-1 text-xs font-medium',
+                      tab === value ? 'bg-white text-slate-900 shadow-xs dark:bg-slate-950 dark:text-slate-50' : 'text-slate-600 dark:text-slate-400',
+                    )}
                     onClick={() => setTab(value)}
                   >
                     {value === 'form' ? 'Form' : 'JSON'}

@@ -22,7 +22,11 @@ describe('bench form model', () => {
   });
 
   it('round-trips form → scenario → form and keeps what the form does not show', () => {
-    const base = { ...defaultScenario, sink: { ...defaultScenario.sink, load: { currentMa: 1_200 } }, faults: [{ kind: 'drop' as const, from: 'sink' as const, messageType: 'GoodCRC', nth: 1, count: 2 }] };
+    const base = {
+      ...defaultScenario,
+      sink: { ...defaultScenario.sink, load: { currentMa: 1_200 } },
+      faults: [{ kind: 'drop' as const, from: 'sink' as const, messageType: 'GoodCRC', nth: 1, count: 2 }],
+    };
     const values = formOf(base);
     const changed = { ...values, policy: defaultPolicy('pps'), capsIntervalMs: 150, seed: 9 };
     const mapped = scenarioOfForm(changed, base);

@@ -30,27 +30,26 @@ import { fail, type Result } from '../../../../shared/core/result.ts';
 const revisionSchema = z.enum(['2.0', '3.0']);
 const msSchema = z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(0, 'must be at least 0 ms');
 
-export const benchFormSchema = z
-  .object({
-    offers: offerListSchema.max(7, 'a Source_Capabilities message carries at most 7 offers'),
-    /** EPR offers from object position 8 (empty: an SPR-only source). */
-    eprOffers: z.array(offerListSchema.element).max(4, 'at most 4 EPR offers (positions 8–11)'),
-    /** Empty: the sink is not EPR capable. */
-    sinkEprPdpW: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 W').max(240, 'must be at most 240 W').optional(),
-    eMarker: z.enum(['none', '3a-20v', '5a-20v', '5a-50v-epr']),
-    actions: z.array(actionSchema),
-    sourceSpecRevision: revisionSchema,
-    /** Empty: the simulator's jitter within tTypeCSendSourceCap. */
-    capsIntervalMs: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 ms').max(10_000, 'must be at most 10 000 ms').optional(),
-    sinkSpecRevision: revisionSchema,
-    policy: sinkPolicySchema,
-    changes: z.array(z.object({ atMs: msSchema, policy: sinkPolicySchema })),
-    cableCurrentMa: z.union([z.literal(3_000), z.literal(5_000)]),
-    cableResistanceMohm: z.number({ error: 'enter a number' }).int('must be a whole number of mΩ').min(0, 'must be at least 0 mΩ').max(2_000, 'must be at most 2000 mΩ'),
-    faults: z.array(faultSchema),
-    durationMs: z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(1, 'must be at least 1 ms').max(600_000, 'must be at most 600 000 ms (10 minutes)'),
-    seed: z.number({ error: 'enter a number' }).int('must be a whole number'),
-  });
+export const benchFormSchema = z.object({
+  offers: offerListSchema.max(7, 'a Source_Capabilities message carries at most 7 offers'),
+  /** EPR offers from object position 8 (empty: an SPR-only source). */
+  eprOffers: z.array(offerListSchema.element).max(4, 'at most 4 EPR offers (positions 8–11)'),
+  /** Empty: the sink is not EPR capable. */
+  sinkEprPdpW: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 W').max(240, 'must be at most 240 W').optional(),
+  eMarker: z.enum(['none', '3a-20v', '5a-20v', '5a-50v-epr']),
+  actions: z.array(actionSchema),
+  sourceSpecRevision: revisionSchema,
+  /** Empty: the simulator's jitter within tTypeCSendSourceCap. */
+  capsIntervalMs: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 ms').max(10_000, 'must be at most 10 000 ms').optional(),
+  sinkSpecRevision: revisionSchema,
+  policy: sinkPolicySchema,
+  changes: z.array(z.object({ atMs: msSchema, policy: sinkPolicySchema })),
+  cableCurrentMa: z.union([z.literal(3_000), z.literal(5_000)]),
+  cableResistanceMohm: z.number({ error: 'enter a number' }).int('must be a whole number of mΩ').min(0, 'must be at least 0 mΩ').max(2_000, 'must be at most 2000 mΩ'),
+  faults: z.array(faultSchema),
+  durationMs: z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(1, 'must be at least 1 ms').max(600_000, 'must be at most 600 000 ms (10 minutes)'),
+  seed: z.number({ error: 'enter a number' }).int('must be a whole number'),
+});
 
 export type BenchFormValues = z.infer<typeof benchFormSchema>;
 /** The Kestrel K65's offers (demo data): 5, 9, 15 V at 3 A, 20 V at 3.25 A, PPS 3.3–21 V at 3 A. */
@@ -86,7 +85,13 @@ export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = de
   const scenario: ScenarioInput = {
     ...base,
     source,
-    sink: compact({ ...base.sink, specRevision: values.sinkSpecRevision, policy: values.policy, changes: values.changes, epr: values.sinkEprPdpW === undefined ? undefined : { pdpW: values.sinkEprPdpW } }),
+    sink: compact({
+      ...base.sink,
+      specRevision: values.sinkSpecRevision,
+      policy: values.policy,
+      changes: values.changes,
+      epr: values.sinkEprPdpW === undefined ? undefined : { pdpW: values.sinkEprPdpW },
+    }),
     cable: compact({ ...base.cable, currentRatingMa: values.cableCurrentMa, resistanceMohm: values.cableResistanceMohm, eMarker: eMarker ? { ...eMarker } : undefined }),
     actions: values.actions,
     faults: values.faults.map((fault) => compact(fault)),

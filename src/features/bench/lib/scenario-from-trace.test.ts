@@ -14,7 +14,13 @@ function captured(input: unknown): CapturedMessage[] {
 describe('scenarioFromMessages', () => {
   it('derives offers, a fixed policy and the timing from a simulated capture', () => {
     // A 5 A cable: the source offers its 3.25 A object as it is (over a 3 A cable it would cap it at 3 A).
-    const messages = captured({ ...defaultScenario, cable: { currentRatingMa: 5_000 }, sink: { policy: { kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 } }, source: { ...defaultScenario.source, behaviour: { capsIntervalMs: 150 } }, faults: [{ kind: 'drop', from: 'sink', messageType: 'Request', nth: 1 }] });
+    const messages = captured({
+      ...defaultScenario,
+      cable: { currentRatingMa: 5_000 },
+      sink: { policy: { kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 } },
+      source: { ...defaultScenario.source, behaviour: { capsIntervalMs: 150 } },
+      faults: [{ kind: 'drop', from: 'sink', messageType: 'Request', nth: 1 }],
+    });
     const derived = scenarioFromMessages(messages);
     if (!derived.ok) throw new Error(derived.error.message);
     expect(derived.scenario.source.caps).toEqual(defaultScenario.source.caps);

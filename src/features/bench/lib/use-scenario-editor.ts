@@ -35,7 +35,9 @@ function initialScenario(): { loaded: Loaded; notice: string | null } {
   if (!shared) return { loaded: fallback.loaded, notice: null };
   if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message };
   const result = loadScenario(shared.value);
-  return result.ok ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' } : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
+  return result.ok
+    ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' }
+    : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
 }
 
 export function useScenarioEditor() {

@@ -70,7 +70,11 @@ export function BenchRoute() {
 
   return (
     <div>
-      <PageHeader eyebrow="Simulate" title="Bench" description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation." />
+      <PageHeader
+        eyebrow="Simulate"
+        title="Bench"
+        description="Describe a source, a sink, a cable and the faults to inject; run it and read every message, timer, state and volt of the negotiation."
+      />
       <SafetyNote />
       {notice && (
         <p role="status" className="mb-4 flex items-start justify-between gap-3 rounded-md bg-sky-50 px-4 py-2 text-sm text-sky-900 dark:bg-sky-500/10 dark:text-sky-100">

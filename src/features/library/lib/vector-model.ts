@@ -35,7 +35,7 @@ export function templateFor(kind: VectorKindName, base: { id?: string; title?: s
     case 'property':
       return {
         ...head,
-        input: { code: "export default ({ fc, engine }) =>\n  fc.property(engine.arbitraries.lawfulCaps(), (pdos) => {\n    return pdos.length > 0;\n  });\n", runs: 100, seed: 1 },
+        input: { code: 'export default ({ fc, engine }) =>\n  fc.property(engine.arbitraries.lawfulCaps(), (pdos) => {\n    return pdos.length > 0;\n  });\n', runs: 100, seed: 1 },
         expect: { holds: true },
       };
   }
@@ -98,7 +98,10 @@ function setAt(value: VectorObject, path: Path, next: unknown, depth: number): V
 
 /** "a, b c" → ["a", "b", "c"]; empty → undefined (the key goes). */
 export function listFromText(text: string): string[] | undefined {
-  const items = text.split(/[\s,]+/).map((s) => s.trim()).filter((s) => s !== '');
+  const items = text
+    .split(/[\s,]+/)
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
   return items.length > 0 ? items : undefined;
 }
 

@@ -34,7 +34,9 @@ export function SweepMatrix({ messages, columns, runs, onOpen }: { messages: Mat
             <th className="px-2 py-1 text-left font-medium text-slate-500">#</th>
             <th className="px-2 py-1 text-left font-medium text-slate-500">Message (fault-free run)</th>
             {columns.map((column) => (
-              <th key={column} className="px-2 py-1 text-center font-medium text-slate-500">{column}</th>
+              <th key={column} className="px-2 py-1 text-center font-medium text-slate-500">
+                {column}
+              </th>
             ))}
           </tr>
         </thead>
@@ -44,16 +46,31 @@ export function SweepMatrix({ messages, columns, runs, onOpen }: { messages: Mat
               <td className="px-2 py-1 font-mono text-slate-500 tabular">{message.index}</td>
               <td className="px-2 py-1 whitespace-nowrap">
                 <span className="font-mono">{message.messageType}</span>
-                <span className="text-slate-500"> {message.from === 'source' ? 'SRC→SNK' : 'SNK→SRC'} · {(message.t / 1_000).toFixed(1)} ms</span>
+                <span className="text-slate-500">
+                  {' '}
+                  {message.from === 'source' ? 'SRC→SNK' : 'SNK→SRC'} · {(message.t / 1_000).toFixed(1)} ms
+                </span>
               </td>
               {columns.map((column) => {
                 const run = byCell.get(`${message.index}|${column}`);
-                if (!run) return <td key={column} className="px-2 py-1 text-center text-slate-400" title="This fault cannot hit this message">·</td>;
+                if (!run)
+                  return (
+                    <td key={column} className="px-2 py-1 text-center text-slate-400" title="This fault cannot hit this message">
+                      ·
+                    </td>
+                  );
                 const broken = run.broken.length > 0;
                 const label = `${message.messageType} #${message.index}, ${column}: ${OUTCOME_LABELS[run.outcome]}${broken ? `; breaks ${run.broken[0]!.invariant}` : ''}. Open on the Bench`;
                 return (
                   <td key={column} className="px-2 py-1 text-center">
-                    <button type="button" aria-label={label} title={label} data-run={run.placement} onClick={() => onOpen(run)} className={cn('h-5 w-8 rounded-sm hover:opacity-80 focus-visible:outline-2 focus-visible:outline-amber-500', outcomeColour[run.outcome], broken && brokenRing)} />
+                    <button
+                      type="button"
+                      aria-label={label}
+                      title={label}
+                      data-run={run.placement}
+                      onClick={() => onOpen(run)}
+                      className={cn('h-5 w-8 rounded-sm hover:opacity-80 focus-visible:outline-2 focus-visible:outline-amber-500', outcomeColour[run.outcome], broken && brokenRing)}
+                    />
                   </td>
                 );
               })}

@@ -50,10 +50,16 @@ export function useSweep() {
         const parts = await Promise.all(
           threads.map((w, i) =>
             w.run<RunOutput>((api) =>
-              api.run(input, options, i * size, Math.min(total, (i + 1) * size), progress((done: number) => {
-                doneBy[i] = done;
-                if (!finished) setState({ phase: 'running', done: doneBy.reduce((a, b) => a + b, 0), total, startedMs });
-              })),
+              api.run(
+                input,
+                options,
+                i * size,
+                Math.min(total, (i + 1) * size),
+                progress((done: number) => {
+                  doneBy[i] = done;
+                  if (!finished) setState({ phase: 'running', done: doneBy.reduce((a, b) => a + b, 0), total, startedMs });
+                }),
+              ),
             ),
           ),
         );

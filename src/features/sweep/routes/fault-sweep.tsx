@@ -66,7 +66,14 @@ export function FaultSweepRoute() {
   useEffect(() => {
     if (!parsed.ok || kinds.length === 0) return setPlanned(null);
     let live = true;
-    const timer = setTimeout(() => void plan(parsed.value, options).then((p) => live && setPlanned(p), () => undefined), 250);
+    const timer = setTimeout(
+      () =>
+        void plan(parsed.value, options).then(
+          (p) => live && setPlanned(p),
+          () => undefined,
+        ),
+      250,
+    );
     return () => {
       live = false;
       clearTimeout(timer);
@@ -77,7 +84,11 @@ export function FaultSweepRoute() {
   const runs = state.phase === 'done' ? state.runs : [];
   const summary = useMemo(() => summarize(runs), [runs]);
   const running = state.phase === 'running';
-  const rate = running ? Math.round(state.done / Math.max(0.001, (performance.now() - state.startedMs) / 1_000)) : state.phase === 'done' ? Math.round(runs.length / Math.max(0.001, state.elapsedMs / 1_000)) : null;
+  const rate = running
+    ? Math.round(state.done / Math.max(0.001, (performance.now() - state.startedMs) / 1_000))
+    : state.phase === 'done'
+      ? Math.round(runs.length / Math.max(0.001, state.elapsedMs / 1_000))
+      : null;
 
   const open = (run: SweepRun) => {
     if (parsed.ok) window.open(benchHref(scenarioOfRun(parsed.value, run)), '_blank', 'noopener');
@@ -97,7 +108,11 @@ export function FaultSweepRoute() {
 
   return (
     <div className="space-y-6">
-      <PageHeader eyebrow="Simulate" title="Fault sweep" description="Run a scenario once fault-free, then once for every placement of each fault on every message and every timer at the ends of its range, and judge each run by invariants." />
+      <PageHeader
+        eyebrow="Simulate"
+        title="Fault sweep"
+        description="Run a scenario once fault-free, then once for every placement of each fault on every message and every timer at the ends of its range, and judge each run by invariants."
+      />
       <Card>
         <CardHeader title="Campaign" description="Paste a scenario (or open one from the Bench with its share link). The sweep runs in your browser." />
         <CardBody className="space-y-4">
@@ -129,11 +144,19 @@ export function FaultSweepRoute() {
               </Button>
             )}
             <p className="text-sm text-slate-600 dark:text-slate-300" data-testid="run-count">
-              {planned === null ? 'Working out the runs…' : planned.ok ? `${planned.runs.toLocaleString('en-US')} runs over ${planned.messages.length} messages of the fault-free run` : planned.error.message}
+              {planned === null
+                ? 'Working out the runs…'
+                : planned.ok
+                  ? `${planned.runs.toLocaleString('en-US')} runs over ${planned.messages.length} messages of the fault-free run`
+                  : planned.error.message}
             </p>
           </div>
           {running && <ProgressBar fraction={state.done / Math.max(1, state.total)} label="Sweep progress" />}
-          {rate !== null && <p className="text-xs text-slate-500" data-testid="sweep-rate">{running ? `${state.done} of ${state.total} runs` : `${runs.length} runs`} · {rate.toLocaleString('en-US')} runs/s</p>}
+          {rate !== null && (
+            <p className="text-xs text-slate-500" data-testid="sweep-rate">
+              {running ? `${state.done} of ${state.total} runs` : `${runs.length} runs`} · {rate.toLocaleString('en-US')} runs/s
+            </p>
+          )}
           {state.phase === 'cancelled' && <p className="text-sm text-slate-600">Cancelled. Start again to run the whole campaign.</p>}
           {state.phase === 'failed' && <p className="text-sm text-red-700">The sweep failed: {state.message}</p>}
         </CardBody>
@@ -164,22 +187,32 @@ export function FaultSweepRoute() {
             <CardHeader title={summary.brokenCount === 0 ? 'Every invariant held' : `${summary.brokenCount} run${summary.brokenCount === 1 ? '' : 's'} broke an invariant`} />
             <CardBody>
               <ul className="space-y-3 text-sm" data-testid="sweep-broken">
-                {runs.filter((r) => r.broken.length > 0).map((run) => (
-                  <li key={run.placement} className="space-y-1">
-                    <p>
-                      <span className="font-mono font-medium">{run.placement}</span> · <span className="font-mono">{run.broken[0]!.invariant}</span>: {run.broken[0]!.message}
-                    </p>
-                    <div className="flex flex-wrap items-center gap-2">
-                      <Button size="sm" variant="secondary" onClick={() => open(run)}>
-                        Open on the Bench
-                      </Button>
-                      <Button size="sm" onClick={() => void save(run)} disabled={saved[run.placement] !== undefined && saved[run.placement] !== 'Shrinking…' && !saved[run.placement]!.startsWith('Not saved')}>
-                        Save to Library
-                      </Button>
-                      {saved[run.placement] && <span className="text-xs text-slate-600 dark:text-slate-300" role="status">{saved[run.placement]}</span>}
-                    </div>
-                  </li>
-                ))}
+                {runs
+                  .filter((r) => r.broken.length > 0)
+                  .map((run) => (
+                    <li key={run.placement} className="space-y-1">
+                      <p>
+                        <span className="font-mono font-medium">{run.placement}</span> · <span className="font-mono">{run.broken[0]!.invariant}</span>: {run.broken[0]!.message}
+                      </p>
+                      <div className="flex flex-wrap items-center gap-2">
+                        <Button size="sm" variant="secondary" onClick={() => open(run)}>
+                          Open on the Bench
+                        </Button>
+                        <Button
+                          size="sm"
+                          onClick={() => void save(run)}
+                          disabled={saved[run.placement] !== undefined && saved[run.placement] !== 'Shrinking…' && !saved[run.placement]!.startsWith('Not saved')}
+                        >
+                          Save to Library
+                        </Button>
+                        {saved[run.placement] && (
+                          <span className="text-xs text-slate-600 dark:text-slate-300" role="status">
+                            {saved[run.placement]}
+                          </span>
+                        )}
+                      </div>
+                    </li>
+                  ))}
               </ul>
             </CardBody>
           </Card>

@@ -7,7 +7,11 @@ import { Select } from '../../../components/select.tsx';
 import { fieldErrorsOf } from '../../../lib/api-client.ts';
 import { useSaveImportMapping, type SavedImportMapping } from '../api/import-mappings.ts';
 
-const words = (text: string) => text.split(/[,\s]+/).map((w) => w.trim()).filter(Boolean);
+const words = (text: string) =>
+  text
+    .split(/[,\s]+/)
+    .map((w) => w.trim())
+    .filter(Boolean);
 const UNIT_OPTIONS = (Object.keys(TIME_UNITS_US) as (keyof typeof TIME_UNITS_US)[]).map((unit) => ({ value: unit, label: unit === 'us' ? 'µs' : unit }));
 
 /**
@@ -53,19 +57,48 @@ export function ImportMappingForm({ onSaved }: { onSaved(mapping: SavedImportMap
   return (
     <form aria-label="New import mapping" className="space-y-3" onSubmit={submit} noValidate>
       <Input label="Name" value={name} onChange={(event) => setName(event.target.value)} error={errors.name} placeholder="e.g. K-series console" />
-      <Select label="Read lines by" value={mode} onChange={(event) => setMode(event.target.value as 'pattern' | 'columns')} options={[{ value: 'pattern', label: 'a pattern with named groups' }, { value: 'columns', label: 'columns' }]} />
+      <Select
+        label="Read lines by"
+        value={mode}
+        onChange={(event) => setMode(event.target.value as 'pattern' | 'columns')}
+        options={[
+          { value: 'pattern', label: 'a pattern with named groups' },
+          { value: 'columns', label: 'columns' },
+        ]}
+      />
       {mode === 'pattern' ? (
-        <Input label="Pattern" mono value={pattern} onChange={(event) => setPattern(event.target.value)} error={errors.pattern} hint="A regular expression with the groups (?<time>…), (?<dir>…) and (?<data>…)." />
+        <Input
+          label="Pattern"
+          mono
+          value={pattern}
+          onChange={(event) => setPattern(event.target.value)}
+          error={errors.pattern}
+          hint="A regular expression with the groups (?<time>…), (?<dir>…) and (?<data>…)."
+        />
       ) : (
         <div className="grid grid-cols-3 gap-2">
           <Input label="Time column" inputMode="numeric" value={columns.time} onChange={(event) => setColumns({ ...columns, time: event.target.value })} error={errors.timeColumn} />
-          <Input label="Direction column" inputMode="numeric" value={columns.direction} onChange={(event) => setColumns({ ...columns, direction: event.target.value })} error={errors.directionColumn} />
+          <Input
+            label="Direction column"
+            inputMode="numeric"
+            value={columns.direction}
+            onChange={(event) => setColumns({ ...columns, direction: event.target.value })}
+            error={errors.directionColumn}
+          />
           <Input label="Message from column" inputMode="numeric" value={columns.data} onChange={(event) => setColumns({ ...columns, data: event.target.value })} error={errors.dataColumn} />
         </div>
       )}
       <div className="grid grid-cols-2 gap-2">
         <Select label="Time unit" value={timeUnit} onChange={(event) => setTimeUnit(event.target.value as typeof timeUnit)} options={UNIT_OPTIONS} />
-        <Select label="Message printed as" value={data} onChange={(event) => setData(event.target.value as 'bytes' | 'words')} options={[{ value: 'words', label: 'words (16-bit header, 32-bit objects)' }, { value: 'bytes', label: 'hex bytes in wire order' }]} />
+        <Select
+          label="Message printed as"
+          value={data}
+          onChange={(event) => setData(event.target.value as 'bytes' | 'words')}
+          options={[
+            { value: 'words', label: 'words (16-bit header, 32-bit objects)' },
+            { value: 'bytes', label: 'hex bytes in wire order' },
+          ]}
+        />
       </div>
       <div className="grid grid-cols-3 gap-2">
         <Input label="Source words" value={sourceWords} onChange={(event) => setSourceWords(event.target.value)} error={errors.sourceWords} />

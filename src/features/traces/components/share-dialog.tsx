@@ -22,7 +22,11 @@ function ReportLinks({ traceId, open, days, onDaysChange }: { traceId: number; o
       <div className="flex items-end gap-2">
         <label className="flex flex-col gap-1 text-xs text-slate-700 dark:text-slate-300">
           Valid for
-          <select value={days} onChange={(event) => onDaysChange(Number(event.target.value))} className="h-8 rounded-md border border-slate-300 bg-white px-2 text-sm dark:border-slate-700 dark:bg-slate-950">
+          <select
+            value={days}
+            onChange={(event) => onDaysChange(Number(event.target.value))}
+            className="h-8 rounded-md border border-slate-300 bg-white px-2 text-sm dark:border-slate-700 dark:bg-slate-950"
+          >
             {LINK_DAYS.map((d) => (
               <option key={d} value={d}>
                 {d === 1 ? '1 day' : `${d} days`}
@@ -39,7 +43,13 @@ function ReportLinks({ traceId, open, days, onDaysChange }: { traceId: number; o
         <ul className="space-y-1.5" aria-label="Active report links">
           {active.map((link) => (
             <li key={link.id} className="flex items-center gap-2">
-              <input readOnly value={link.url ?? ''} aria-label={`Report link until ${link.expiresAt.slice(0, 10)}`} onFocus={(event) => event.currentTarget.select()} className="h-7 min-w-0 flex-1 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950" />
+              <input
+                readOnly
+                value={link.url ?? ''}
+                aria-label={`Report link until ${link.expiresAt.slice(0, 10)}`}
+                onFocus={(event) => event.currentTarget.select()}
+                className="h-7 min-w-0 flex-1 rounded border border-slate-300 bg-slate-50 px-2 font-mono text-[11px] dark:border-slate-700 dark:bg-slate-950"
+              />
               <span className="shrink-0 text-[11px] text-slate-500">until {link.expiresAt.slice(0, 10)}</span>
               <Button size="sm" variant="ghost" onClick={() => revoke.mutate(link.id)} aria-label={`Withdraw the link until ${link.expiresAt.slice(0, 10)}`}>
                 Withdraw

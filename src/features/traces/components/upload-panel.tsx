@@ -91,7 +91,9 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
       setPhase({ kind: 'error', title: 'The log could not be read with this mapping', message: mapped.error.message });
       return null;
     }
-    setMappedNote(`Read with “${saved.name}”: ${plural(mapped.messages, 'message')}${mapped.skipped.length > 0 ? `, ${plural(mapped.skipped.length, 'line')} without a message left out (first: line ${mapped.skipped[0]!.line}, ${mapped.skipped[0]!.reason})` : ''}.`);
+    setMappedNote(
+      `Read with “${saved.name}”: ${plural(mapped.messages, 'message')}${mapped.skipped.length > 0 ? `, ${plural(mapped.skipped.length, 'line')} without a message left out (first: line ${mapped.skipped[0]!.line}, ${mapped.skipped[0]!.reason})` : ''}.`,
+    );
     return new File([mapped.jsonl], `${chosen.name.replace(/\.[^.]*$/, '')}.trace.jsonl`, { type: 'application/x-ndjson' });
   };
 
@@ -176,15 +178,7 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
             <span className="text-sm text-slate-700 dark:text-slate-200">Drop a trace here, or click to choose one</span>
           )}
           <span className="text-xs text-slate-500 dark:text-slate-400">The format is read from the content, not the file name.</span>
-          <input
-            ref={fileInput}
-            id={inputId}
-            type="file"
-            className="sr-only"
-            disabled={busy}
-            data-testid="trace-file-input"
-            onChange={(event) => choose(event.target.files?.[0])}
-          />
+          <input ref={fileInput} id={inputId} type="file" className="sr-only" disabled={busy} data-testid="trace-file-input" onChange={(event) => choose(event.target.files?.[0])} />
         </label>
 
         <div className="space-y-1">
@@ -193,7 +187,10 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
             value={mappingId}
             onChange={(event) => setMappingId(event.target.value)}
             disabled={busy}
-            options={[{ value: '', label: 'Detected from the content (JSON Lines, text, VCD)' }, ...(mappings.data?.items ?? []).map((m) => ({ value: String(m.id), label: `Console log: ${m.name}` }))]}
+            options={[
+              { value: '', label: 'Detected from the content (JSON Lines, text, VCD)' },
+              ...(mappings.data?.items ?? []).map((m) => ({ value: String(m.id), label: `Console log: ${m.name}` })),
+            ]}
             hint="A saved import mapping reads a firmware console log without editing it."
           />
           <button type="button" className="text-xs text-amber-800 underline underline-offset-2 dark:text-amber-300" onClick={() => setMappingOpen((open) => !open)} aria-expanded={mappingOpen}>
@@ -215,7 +212,15 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
           <Input label="Customer reference" value={customerRef} maxLength={120} onChange={(event) => setCustomerRef(event.target.value)} disabled={busy} placeholder="e.g. KD-CASE-2291" />
           <Input label="Title" value={title} maxLength={200} onChange={(event) => setTitle(event.target.value)} disabled={busy} hint="Default: the trace's own title or its file name" />
         </div>
-        <Textarea label="Notes" rows={3} value={notes} maxLength={4000} onChange={(event) => setNotes(event.target.value)} disabled={busy} placeholder="What the customer saw, which cable, which firmware…" />
+        <Textarea
+          label="Notes"
+          rows={3}
+          value={notes}
+          maxLength={4000}
+          onChange={(event) => setNotes(event.target.value)}
+          disabled={busy}
+          placeholder="What the customer saw, which cable, which firmware…"
+        />
 
         {phase.kind === 'uploading' && <ProgressBar label="Upload" fraction={phase.fraction} />}
         {phase.kind === 'uploading' && <p className="text-xs text-slate-500">Uploading…</p>}
@@ -225,7 +230,11 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
             <p className="text-xs text-slate-500">Analysing on the server: decoding messages, checking timers, contracts and VBUS…</p>
           </div>
         )}
-        {phase.kind === 'error' && <ErrorMessage title={phase.title}><p className="mt-0.5">{phase.message}</p></ErrorMessage>}
+        {phase.kind === 'error' && (
+          <ErrorMessage title={phase.title}>
+            <p className="mt-0.5">{phase.message}</p>
+          </ErrorMessage>
+        )}
         {mappedNote && phase.kind !== 'idle' && phase.kind !== 'error' && (
           <p className="text-xs text-slate-600 dark:text-slate-400" data-testid="mapped-note">
             {mappedNote}
@@ -252,7 +261,10 @@ function UploadResult({ detail, duplicate }: { detail: TraceDetail; duplicate: b
   const { trace, analysis } = detail;
   const malformed = analysis?.findings.filter((f) => f.rule === 'trace.malformed-line') ?? [];
   return (
-    <div role="status" className="space-y-2 rounded-md border border-emerald-200 bg-emerald-50 px-4 py-3 text-sm text-emerald-950 dark:border-emerald-500/30 dark:bg-emerald-500/10 dark:text-emerald-100">
+    <div
+      role="status"
+      className="space-y-2 rounded-md border border-emerald-200 bg-emerald-50 px-4 py-3 text-sm text-emerald-950 dark:border-emerald-500/30 dark:bg-emerald-500/10 dark:text-emerald-100"
+    >
       <p className="font-medium">{duplicate ? `This file was uploaded before, as “${trace.title}”.` : 'Analysed.'}</p>
       {trace.summary && <p data-testid="upload-summary">{trace.summary}</p>}
       {malformed.length > 0 && (

@@ -106,11 +106,14 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
   const show = useCallback(
     (index: number) => {
       const t = analysis?.findings[index]?.t;
-      setParams((current) => {
-        const next = new URLSearchParams(current);
-        next.set('finding', String(index));
-        return next;
-      }, { replace: true });
+      setParams(
+        (current) => {
+          const next = new URLSearchParams(current);
+          next.set('finding', String(index));
+          return next;
+        },
+        { replace: true },
+      );
       if (t !== undefined) setFocus({ tUs: t, key: Date.now() });
     },
     [analysis, setParams],

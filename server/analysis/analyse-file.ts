@@ -9,7 +9,7 @@ import type { MessagePort } from 'node:worker_threads';
 import { createReader, createTraceSession, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
 import type { Result } from '../../shared/core/result.ts';
 
-export interface AnalyzeFileTask {
+export interface AnalyseFileTask {
   path: string;
   /** The reader to use; default: detected from the content. */
   format?: TraceFormat;
@@ -22,11 +22,11 @@ export interface AnalysisProgress {
   totalBytes: number;
 }
 
-export type AnalyzeFileResult = Result<{ analysis: Analysis; bytesRead: number }>;
+export type AnalyseFileResult = Result<{ analysis: Analysis; bytesRead: number }>;
 
 const CHUNK_BYTES = 256 * 1024;
 
-export async function analyzeFile(task: AnalyzeFileTask): Promise<AnalyzeFileResult> {
+export async function analyseFile(task: AnalyseFileTask): Promise<AnalyseFileResult> {
   const totalBytes = (await stat(task.path)).size;
   const session = createTraceSession({ format: task.format ?? 'auto' });
   const everyMs = task.progressEveryMs ?? 100;
@@ -100,4 +100,4 @@ export async function readRecords(task: ReadRecordsTask): Promise<ReadRecordsRes
   return { ok: true, records };
 }
 
-export default analyzeFile;
+export default analyseFile;
