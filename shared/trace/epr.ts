@@ -150,7 +150,9 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
     onMessage(m, steady) {
       if (m.sop !== 'SOP') return;
       const type = m.d.messageType;
-      if (mode === 'epr' && m.from === 'sink') restartKeepAlive(m.endUs);
+      // SinkEPRKeepAliveTimer starts on each entry to the sink's Ready state (USB PD R3.1 §8.3.3.3.11,
+      // from memory), which follows every exchange in either direction, not the sink's own message.
+      if (mode === 'epr') restartKeepAlive(m.ackEndUs ?? m.endUs);
       if (type === 'EPR_Mode') onEprMode(m);
       else if (type === 'EPR_Source_Capabilities' && m.from === 'source') onEprCaps(m);
       else if (type === 'EPR_Request' && m.from === 'sink') onEprRequest(m);
