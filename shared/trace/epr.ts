@@ -167,13 +167,16 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
       if (mode !== 'epr') return;
       settle(steady, t);
       if (!steady || keepAlive.reported) return;
-      const { tSinkEPRKeepAlive } = timers();
-      if (t <= aliveUs + tSinkEPRKeepAlive.maxUs) return;
+      // A sink starts its EPR_KeepAlive when the timer expires; the message reaches the line a few
+      // milliseconds later. Allow that latency, bounded by tReceiverResponse (common practice), so a
+      // compliant sink is never reported.
+      const { tSinkEPRKeepAlive, tReceiverResponse } = timers();
+      if (t <= aliveUs + tSinkEPRKeepAlive.maxUs + tReceiverResponse.maxUs) return;
       keepAlive.reported = true;
       keepAlive.finding = report(
         'timing.epr-keepalive',
         `The sink sent no EPR_KeepAlive (nor any other message) within tSinkEPRKeepAlive (${millis(tSinkEPRKeepAlive.maxUs)}) after ${seconds(aliveUs)} while EPR mode held.`,
-        { t: aliveUs + tSinkEPRKeepAlive.maxUs, ref: tSinkEPRKeepAlive.ref },
+        { t: aliveUs + tSinkEPRKeepAlive.maxUs + tReceiverResponse.maxUs, ref: tSinkEPRKeepAlive.ref },
       );
     },
     inEpr: () => mode === 'epr',
