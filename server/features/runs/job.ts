@@ -94,13 +94,13 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   if (!run) return;
   if (run.status !== 'running') return job.publish(runEvent(run));
   const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
-  const todo = vectorIds.filter((id) => !stored.has(id));
+  const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
   let passed = await em.count(RunResult, { runId, ok: true });
   let failed = stored.size - passed;
   job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
   // As many batches in flight as the pool has threads, plus one waiting, so no thread idles.
-  const batches = batchesOf(todo, RUN_BATCH_SIZE);
+  const batches = batchesOf(pending, RUN_BATCH_SIZE);
   let next = 0;
   const lane = async () => {
     while (next < batches.length && !job.signal.aborted) {
