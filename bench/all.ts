@@ -70,15 +70,28 @@ function growthText(figure: BenchFigure): string {
 function row(bench: string, f: BenchFigure): string[] {
   const ratio = ratioOf(f);
   const target = f.target ? `${f.target} ${f.met === undefined ? '' : f.met ? 'met' : 'NOT met'}`.trim() : '';
-  return [bench, f.figure, `${num(f.parley)} ${f.unit}`, f.peer === undefined ? '–' : `${num(f.peer)} ${f.unit} (${f.peerName ?? 'peer'})`, ratio === undefined ? '–' : `${num(ratio)}×`, growthText(f), target];
+  return [
+    bench,
+    f.figure,
+    `${num(f.parley)} ${f.unit}`,
+    f.peer === undefined ? '–' : `${num(f.peer)} ${f.unit} (${f.peerName ?? 'peer'})`,
+    ratio === undefined ? '–' : `${num(ratio)}×`,
+    growthText(f),
+    target,
+  ];
 }
 
 function table(rows: string[][]): string {
   const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
-  return rows.map((r, i) => {
-    const line = r.map((cell, c) => cell.padEnd(widths[c]!)).join('  ').trimEnd();
-    return i === 0 ? `${line}\n${widths.map((w) => '-'.repeat(w)).join('  ')}` : line;
-  }).join('\n');
+  return rows
+    .map((r, i) => {
+      const line = r
+        .map((cell, c) => cell.padEnd(widths[c]!))
+        .join('  ')
+        .trimEnd();
+      return i === 0 ? `${line}\n${widths.map((w) => '-'.repeat(w)).join('  ')}` : line;
+    })
+    .join('\n');
 }
 
 const outcomes: Outcome[] = [];

@@ -187,7 +187,9 @@ async function measure(file: string, floorScript: string, label: string): Promis
     const out = JSON.parse(cli.stdout) as { messages: number; summary: string; counts: Record<string, number> };
     m.summary = `${out.messages.toLocaleString('en')} messages; ${out.summary}`;
     const cpu = (r: RunResult) => (r.cpuMs === undefined ? '' : ` (CPU ${(r.cpuMs / 1000).toFixed(2)} s)`);
-    console.log(`${label} run ${run + 1}: floor ${(floor.ms / 1000).toFixed(2)} s${cpu(floor)}, parley analyze ${(cli.ms / 1000).toFixed(2)} s${cpu(cli)}, peak ${((cli.maxRssKb ?? 0) / 1024).toFixed(0)} MB`);
+    console.log(
+      `${label} run ${run + 1}: floor ${(floor.ms / 1000).toFixed(2)} s${cpu(floor)}, parley analyze ${(cli.ms / 1000).toFixed(2)} s${cpu(cli)}, peak ${((cli.maxRssKb ?? 0) / 1024).toFixed(0)} MB`,
+    );
   }
   return m;
 }
@@ -201,7 +203,9 @@ async function main(): Promise<void> {
     const lines = writeTrace(file, 'jsonl');
     writeTrace(textFile, 'text');
     const sizeMb = statSync(file).size / 1e6;
-    console.log(`trace: ${lines.toLocaleString('en')} lines, ${sizeMb.toFixed(1)} MB as JSON Lines, ${(statSync(textFile).size / 1e6).toFixed(1)} MB as text (written in ${((performance.now() - genStart) / 1000).toFixed(1)} s)`);
+    console.log(
+      `trace: ${lines.toLocaleString('en')} lines, ${sizeMb.toFixed(1)} MB as JSON Lines, ${(statSync(textFile).size / 1e6).toFixed(1)} MB as text (written in ${((performance.now() - genStart) / 1000).toFixed(1)} s)`,
+    );
 
     const jsonl = await measure(file, FLOOR, 'JSON Lines');
     const text = await measure(textFile, TEXT_FLOOR, 'text');
@@ -216,8 +220,24 @@ async function main(): Promise<void> {
     console.log(`text ratio: ${textRatio.toFixed(2)}× (target ≤ ${TEXT_RATIO_TARGET}×) ${textRatio <= TEXT_RATIO_TARGET ? 'met' : 'NOT met'}`);
     console.log(`peak memory: ${rssMb.toFixed(0)} MB (target ≤ ${RSS_TARGET_MB} MB) ${rssMb <= RSS_TARGET_MB ? 'met' : 'NOT met'}`);
     report('analyze', [
-      { figure: `parley analyze --json, ${(lines / 1e6).toFixed(1)} M JSON Lines`, unit: 's', parley: jsonl.cliMs / 1000, peer: jsonl.floorMs / 1000, peerName: 'readline + JSON.parse', target: `≤ ${RATIO_TARGET}× floor`, met: ratio <= RATIO_TARGET },
-      { figure: `parley analyze --json, ${(lines / 1e6).toFixed(1)} M text lines`, unit: 's', parley: text.cliMs / 1000, peer: text.floorMs / 1000, peerName: 'readline + split', target: `≤ ${TEXT_RATIO_TARGET}× floor`, met: textRatio <= TEXT_RATIO_TARGET },
+      {
+        figure: `parley analyze --json, ${(lines / 1e6).toFixed(1)} M JSON Lines`,
+        unit: 's',
+        parley: jsonl.cliMs / 1000,
+        peer: jsonl.floorMs / 1000,
+        peerName: 'readline + JSON.parse',
+        target: `≤ ${RATIO_TARGET}× floor`,
+        met: ratio <= RATIO_TARGET,
+      },
+      {
+        figure: `parley analyze --json, ${(lines / 1e6).toFixed(1)} M text lines`,
+        unit: 's',
+        parley: text.cliMs / 1000,
+        peer: text.floorMs / 1000,
+        peerName: 'readline + split',
+        target: `≤ ${TEXT_RATIO_TARGET}× floor`,
+        met: textRatio <= TEXT_RATIO_TARGET,
+      },
       { figure: 'parley analyze, peak memory', unit: 'MB', parley: rssMb, target: `≤ ${RSS_TARGET_MB} MB`, met: rssMb <= RSS_TARGET_MB },
     ]);
     if (ratio > RATIO_TARGET || textRatio > TEXT_RATIO_TARGET || rssMb > RSS_TARGET_MB) process.exitCode = 1;

@@ -104,7 +104,11 @@ async function main(): Promise<void> {
   const { url, bare } = JSON.parse(first) as { url: string; bare: string };
   const figures: BenchFigure[] = [];
   try {
-    const signIn = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@kestrel.example', password: 'parley-demo' }) });
+    const signIn = await fetch(`${url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: 'admin@kestrel.example', password: 'parley-demo' }),
+    });
     const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
     const headers = { cookie };
 
@@ -121,7 +125,9 @@ async function main(): Promise<void> {
       importHealth = importHealth.concat(await probe.stop());
       if (!res.ok) throw new Error(`import failed: ${res.status} ${await res.text()}`);
     }
-    console.log(`import of 5,000 vectors: ${importTimes.map((s) => s.toFixed(1)).join(' s, ')} s; health during import p99 ${percentile(importHealth, 99).toFixed(0)} ms, max ${Math.max(...importHealth).toFixed(0)} ms`);
+    console.log(
+      `import of 5,000 vectors: ${importTimes.map((s) => s.toFixed(1)).join(' s, ')} s; health during import p99 ${percentile(importHealth, 99).toFixed(0)} ms, max ${Math.max(...importHealth).toFixed(0)} ms`,
+    );
     figures.push({ figure: 'import of 5,000 vectors (zip, through the API)', unit: 's', parley: importTimes[0]!, target: '≤ 10 s', met: importTimes[0]! <= 10 });
     figures.push({ figure: '/api/health during the import, p99', unit: 'ms', parley: percentile(importHealth, 99), target: '≤ 100 ms', met: percentile(importHealth, 99) <= 100 });
 
@@ -151,7 +157,9 @@ async function main(): Promise<void> {
     const storedBytes = readdirSync(join(dataDir, 'traces'))
       .filter((f) => f.endsWith('.analysis'))
       .reduce((sum, f) => sum + statSync(join(dataDir, 'traces', f)).size, 0);
-    console.log(`${files} traces, ${(traceBytes / 1e6).toFixed(0)} MB, analysed in ${((performance.now() - t0) / 1000).toFixed(0)} s; stored analyses ${(storedBytes / 1e6).toFixed(1)} MB (${(storedBytes / traceBytes).toFixed(3)}× the files)`);
+    console.log(
+      `${files} traces, ${(traceBytes / 1e6).toFixed(0)} MB, analysed in ${((performance.now() - t0) / 1000).toFixed(0)} s; stored analyses ${(storedBytes / 1e6).toFixed(1)} MB (${(storedBytes / traceBytes).toFixed(3)}× the files)`,
+    );
     figures.push({ figure: `stored analysis ÷ trace file (${TRACE_FILE_MB} MB traces)`, unit: '×', parley: storedBytes / traceBytes, target: '≤ 1.5×', met: storedBytes / traceBytes <= 1.5 });
     const firstTrace = ((await (await fetch(`${url}/api/traces?pageSize=1`, { headers })).json()) as { items: { id: number }[] }).items[0]!.id;
 
@@ -171,7 +179,16 @@ async function main(): Promise<void> {
       console.log(
         `${name.padEnd(28)} ${measured.reqPerSec.toFixed(0).padStart(6)} req/s p99 ${String(measured.p99Ms).padStart(4)} ms (non-2xx ${measured.non2xx})   bare ${floor.reqPerSec.toFixed(0)} req/s p99 ${floor.p99Ms} ms   RSS ${rss.rssMb.toFixed(0)} MB`,
       );
-      figures.push({ figure: `${name}, 50 connections`, unit: 'req/s', parley: measured.reqPerSec, peer: floor.reqPerSec, peerName: 'bare Express JSON route', higherIsBetter: true, target: '≥ 1,000 req/s', met: measured.reqPerSec >= 1_000 });
+      figures.push({
+        figure: `${name}, 50 connections`,
+        unit: 'req/s',
+        parley: measured.reqPerSec,
+        peer: floor.reqPerSec,
+        peerName: 'bare Express JSON route',
+        higherIsBetter: true,
+        target: '≥ 1,000 req/s',
+        met: measured.reqPerSec >= 1_000,
+      });
       figures.push({ figure: `${name}, p99 latency`, unit: 'ms', parley: measured.p99Ms, peer: floor.p99Ms, peerName: 'bare Express JSON route', target: '≤ 50 ms', met: measured.p99Ms <= 50 });
     }
 
@@ -182,11 +199,20 @@ async function main(): Promise<void> {
       url,
       connections: CONNECTIONS,
       duration: DURATION_S,
-      requests: [{ method: 'POST', path: '/api/auth/login', headers: { 'content-type': 'application/json' }, setupRequest: (req) => ({ ...req, body: JSON.stringify({ email: `flood-${n++}@example.com`, password: 'wrong-password' }) }) }],
+      requests: [
+        {
+          method: 'POST',
+          path: '/api/auth/login',
+          headers: { 'content-type': 'application/json' },
+          setupRequest: (req) => ({ ...req, body: JSON.stringify({ email: `flood-${n++}@example.com`, password: 'wrong-password' }) }),
+        },
+      ],
     });
     const floodHealth = await probe.stop();
     const limited = flood['4xx'];
-    console.log(`sign-in flood: ${flood.requests.total} requests (${limited} answered 4xx, mostly 429); health p99 ${percentile(floodHealth, 99).toFixed(0)} ms, max ${Math.max(...floodHealth).toFixed(0)} ms`);
+    console.log(
+      `sign-in flood: ${flood.requests.total} requests (${limited} answered 4xx, mostly 429); health p99 ${percentile(floodHealth, 99).toFixed(0)} ms, max ${Math.max(...floodHealth).toFixed(0)} ms`,
+    );
     figures.push({ figure: '/api/health during a sign-in flood, p99', unit: 'ms', parley: percentile(floodHealth, 99), target: '≤ 100 ms', met: percentile(floodHealth, 99) <= 100 });
 
     const rss = rssOf(child.pid!);

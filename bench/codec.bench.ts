@@ -52,7 +52,7 @@ const MIX = [HEX, '4100', '82102cb10413', '6101', 'a103', '4102', 'a605', '6103'
 let m = 0;
 const mixNs = timeNs('decodeMessage, negotiation mix', N, () => decodeMessage(MIX[m++ & 7]!));
 
-const words = Uint32Array.from({ length: 1024 }, (_, i) => (Math.imul(i, 0x9e37_79b1) >>> 0));
+const words = Uint32Array.from({ length: 1024 }, (_, i) => Math.imul(i, 0x9e37_79b1) >>> 0);
 let w = 0;
 const arithmetic = (value: number) => '0x' + (value >>> 0).toString(16).padStart(8, '0');
 const tableNs = timeNs('hex32 (byte table)', N * 10, () => hex32(words[w++ & 1023]!));

@@ -44,23 +44,36 @@ const oneCore = rate(SECONDS, sweepRun);
 
 const cores = availableParallelism();
 const results = await Promise.all(
-  Array.from({ length: cores }, () =>
-    new Promise<{ runs: number; ms: number }>((resolve, reject) => {
-      const worker = new Worker(new URL('./sweep-worker.mjs', import.meta.url), { workerData: { scenario, options, seconds: SECONDS, warmSeconds: WARM_SECONDS } });
-      worker.once('message', (m: { runs: number; ms: number }) => void worker.terminate().then(() => resolve(m)));
-      worker.once('error', reject);
-    }),
+  Array.from(
+    { length: cores },
+    () =>
+      new Promise<{ runs: number; ms: number }>((resolve, reject) => {
+        const worker = new Worker(new URL('./sweep-worker.mjs', import.meta.url), { workerData: { scenario, options, seconds: SECONDS, warmSeconds: WARM_SECONDS } });
+        worker.once('message', (m: { runs: number; ms: number }) => void worker.terminate().then(() => resolve(m)));
+        worker.once('error', reject);
+      }),
   ),
 );
 const allCores = Math.round(results.reduce((sum, r) => sum + r.runs / (r.ms / 1_000), 0));
 
 const fmt = (n: number) => n.toLocaleString('en-US');
-console.log(`fault sweep of a 9 V SPR negotiation: ${plan.placements.length} runs a campaign (${plan.messages.length} messages; drop, corrupt, 2 delays, ${plan.placements.filter((p) => p.timers).length} timer edges)`);
+console.log(
+  `fault sweep of a 9 V SPR negotiation: ${plan.placements.length} runs a campaign (${plan.messages.length} messages; drop, corrupt, 2 delays, ${plan.placements.filter((p) => p.timers).length} timer edges)`,
+);
 console.log(`  baseline, bare simulate() of the same scenarios: ${fmt(bare)}/s on one core`);
 console.log(`  sweep runs (simulate + analyser + invariants):   ${fmt(oneCore)}/s on one core (${(oneCore / bare).toFixed(2)}× the baseline)`);
 console.log(`  sweep runs on all ${cores} cores (worker threads):   ${fmt(allCores)}/s (${(allCores / oneCore).toFixed(2)}× one core)`);
 console.log(`  target ${fmt(TARGET_PER_CORE)}/s per core: ${oneCore >= TARGET_PER_CORE ? 'met' : 'NOT met'} (${(oneCore / TARGET_PER_CORE).toFixed(2)}× the target)`);
 report('sweep', [
-  { figure: 'sweep runs, one core (9 V SPR)', unit: '/s', parley: oneCore, peer: bare, peerName: 'bare simulate()', higherIsBetter: true, target: `≥ ${fmt(TARGET_PER_CORE)}/s`, met: oneCore >= TARGET_PER_CORE },
+  {
+    figure: 'sweep runs, one core (9 V SPR)',
+    unit: '/s',
+    parley: oneCore,
+    peer: bare,
+    peerName: 'bare simulate()',
+    higherIsBetter: true,
+    target: `≥ ${fmt(TARGET_PER_CORE)}/s`,
+    met: oneCore >= TARGET_PER_CORE,
+  },
   { figure: `sweep runs, all ${cores} cores`, unit: '/s', parley: allCores, peer: oneCore, peerName: 'one core', higherIsBetter: true },
 ]);

@@ -101,7 +101,9 @@ try {
     const bytes = writeCapture(file, n);
     const run = await measure(process.execPath, [cli, 'wire', 'decode', file, '--json']);
     const closed = run.code === 0 && /"ok": true\n\}\n$/.test(run.tail);
-    console.log(`${label(n).padStart(5)} messages, ${(bytes / 1e6).toFixed(0)} MB VCD: wire decode --json ${run.seconds.toFixed(1)} s, peak ${run.peakMb.toFixed(0)} MB, ${(run.stdoutBytes / 1e6).toFixed(0)} MB of JSON, ${closed ? 'complete' : `FAILED (exit ${run.code}): ${run.tail}`}`);
+    console.log(
+      `${label(n).padStart(5)} messages, ${(bytes / 1e6).toFixed(0)} MB VCD: wire decode --json ${run.seconds.toFixed(1)} s, peak ${run.peakMb.toFixed(0)} MB, ${(run.stdoutBytes / 1e6).toFixed(0)} MB of JSON, ${closed ? 'complete' : `FAILED (exit ${run.code}): ${run.tail}`}`,
+    );
     if (!closed) process.exitCode = 1;
     peaks.push({ size: label(n), value: run.peakMb });
     times.push({ size: label(n), value: (run.seconds * 1e9) / n / 1000 });
@@ -119,7 +121,9 @@ try {
     writeCapture(file, PEER_SIZE);
     small = await measure(process.execPath, [cli, 'wire', 'decode', file, '--json']);
     sigrokRun = await measure('sigrok-cli', ['-i', file, '-I', 'vcd', '-P', 'usb_power_delivery', '-A', 'usb_power_delivery=data']);
-    console.log(`${label(PEER_SIZE).padStart(5)} messages: wire decode --json ${small.seconds.toFixed(1)} s, peak ${small.peakMb.toFixed(0)} MB; sigrok-cli usb_power_delivery on the same file ${sigrokRun.seconds.toFixed(1)} s, peak ${sigrokRun.peakMb.toFixed(0)} MB`);
+    console.log(
+      `${label(PEER_SIZE).padStart(5)} messages: wire decode --json ${small.seconds.toFixed(1)} s, peak ${small.peakMb.toFixed(0)} MB; sigrok-cli usb_power_delivery on the same file ${sigrokRun.seconds.toFixed(1)} s, peak ${sigrokRun.peakMb.toFixed(0)} MB`,
+    );
   } else console.log('sigrok-cli is not installed: no peer figure (apt-get install sigrok-cli)');
   const ratio = largest && first ? largest.peakMb / first.peakMb : NaN;
   console.log(`peak at ${label(SIZES[SIZES.length - 1]!)} / peak at ${label(SIZES[0]!)} = ${ratio.toFixed(2)}× (target ≤ ${PEAK_RATIO_TARGET}×): ${ratio <= PEAK_RATIO_TARGET ? 'met' : 'NOT met'}`);
@@ -131,7 +135,16 @@ try {
           { figure: `wire decode --json, peak memory, ${label(PEER_SIZE)} messages`, unit: 'MB', parley: small.peakMb, peer: sigrokRun.peakMb, peerName: 'sigrok-cli, same VCD' },
         ]
       : []),
-    { figure: 'wire decode --json, peak memory by size', unit: 'MB', parley: largest?.peakMb ?? NaN, peer: first?.peakMb, peerName: `own peak at ${label(n0)}`, growth: peaks, target: `≤ ${PEAK_RATIO_TARGET}× the ${label(n0)} peak`, met: ratio <= PEAK_RATIO_TARGET },
+    {
+      figure: 'wire decode --json, peak memory by size',
+      unit: 'MB',
+      parley: largest?.peakMb ?? NaN,
+      peer: first?.peakMb,
+      peerName: `own peak at ${label(n0)}`,
+      growth: peaks,
+      target: `≤ ${PEAK_RATIO_TARGET}× the ${label(n0)} peak`,
+      met: ratio <= PEAK_RATIO_TARGET,
+    },
     { figure: 'wire decode --json, time per message by size', unit: 'µs/msg', parley: times[times.length - 1]?.value ?? NaN, growth: times },
   ]);
 } finally {

@@ -34,7 +34,10 @@ beforeAll(() => {
   writeFileSync(f('vectors/long-id.vector.json'), JSON.stringify({ ...long, id: `caps/${'a'.repeat(60)}` }));
   writeFileSync(f('empty.txt'), '');
   // A 9 V negotiation (Kestrel Devices K27), one with an unknown key, and one too short to attach.
-  writeFileSync(f('scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }, durationMs: 2_000 }));
+  writeFileSync(
+    f('scenario.json'),
+    JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }, durationMs: 2_000 }),
+  );
   writeFileSync(f('bad-scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c'] } }, gremlins: 3 }));
   writeFileSync(f('short-scenario.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c'] } }, durationMs: 1 }));
   writeFileSync(f('random.bin'), randomBytes(64 * 1024));
@@ -169,12 +172,7 @@ const specific: Record<string, Case[]> = {
     { argv: ['--caps', GOODCRC, '--sink', '{"kind":"max-power"}'] },
     { argv: ['--caps', CAPS, '--sink', '{"kind":"max-power"}'], allowed: [0] },
   ],
-  simulate: [
-    { argv: ['-'] },
-    { argv: ['empty.txt', '--sample-every-us', 'x'] },
-    { argv: ['empty.txt', '--trace'] },
-    { argv: ['a', 'b'] },
-  ],
+  simulate: [{ argv: ['-'] }, { argv: ['empty.txt', '--sample-every-us', 'x'] }, { argv: ['empty.txt', '--trace'] }, { argv: ['a', 'b'] }],
   sweep: [
     { argv: ['-'] },
     { argv: ['a', 'b'] },
@@ -217,7 +215,7 @@ const specific: Record<string, Case[]> = {
     { argv: ['vectors', '--junit'] },
     { argv: ['vectors', '--junit', 'folder'] },
     { argv: ['vectors', '--filter', '['] },
-    { argv: ['vectors', '--filter', '(((', ] },
+    { argv: ['vectors', '--filter', '((('] },
     { argv: ['vectors', '--filter', '{a,b}'] },
     { argv: ['vectors', '--filter', '\\'] },
     { argv: ['vectors', '--filter', ''] },
@@ -232,14 +230,7 @@ const specific: Record<string, Case[]> = {
     // Broken files are failing results, not usage errors (run.ts).
     ...['empty.txt', 'random.bin', 'long-line.txt', 'bad-utf8.txt'].map((file) => ({ argv: [file], allowed: [1] })),
   ],
-  schema: [
-    { argv: ['nonsense'] },
-    { argv: ['toString'] },
-    { argv: ['__proto__'] },
-    { argv: ['constructor'] },
-    { argv: ['vector', 'trace'] },
-    { argv: ['vector'], allowed: [0] },
-  ],
+  schema: [{ argv: ['nonsense'] }, { argv: ['toString'] }, { argv: ['__proto__'] }, { argv: ['constructor'] }, { argv: ['vector', 'trace'] }, { argv: ['vector'], allowed: [0] }],
 };
 
 /** Generic files are valid or failing input for some commands. */

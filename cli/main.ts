@@ -10,16 +10,20 @@ type CommandModule = { run(args: string[], io: CliIo): Promise<number> };
 /** Command name → summary and lazy loader (lazy so `parley decode` does not load the simulator). */
 export const commands: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
   // One line per command, in the order of docs/cli.md; each module is `commands/<name>.ts`.
-  decode: { summary: 'decode one message: decode <hex>… [--words] [--crc] [--sop SOP|SOP\'|SOP\'\'] [--caps <hex>]', load: () => import('./commands/decode.ts') },
+  decode: { summary: "decode one message: decode <hex>… [--words] [--crc] [--sop SOP|SOP'|SOP''] [--caps <hex>]", load: () => import('./commands/decode.ts') },
   encode: { summary: 'encode a Message (JSON file, or - for stdin) to wire hex', load: () => import('./commands/encode.ts') },
   wire: { summary: 'CC-line waveforms: wire encode <hex>… --vcd <out.vcd>, wire decode <in.vcd> [--signal NAME]', load: () => import('./commands/wire.ts') },
   caps: { summary: 'check Source_Capabilities: caps <hex>… | --pdos 0x…,0x… [--pdp W] [--cable 3000|5000] [--label "…"]', load: () => import('./commands/caps.ts') },
   request: { summary: 'the Request a sink policy sends: request --caps <hex> --sink <json|file> [--cable 3000|5000]', load: () => import('./commands/request.ts') },
   simulate: { summary: 'run a negotiation scenario: simulate <scenario.json|-> [--trace <out.trace.jsonl>] [--samples] [--json]', load: () => import('./commands/simulate.ts') },
   analyze: { summary: 'decode and check a trace: analyze <file> [--format auto|jsonl|text|vcd] [--fail-on error|warning] [--json]', load: () => import('./commands/analyze.ts') },
-  sweep: { summary: 'fault campaign over a scenario: sweep <scenario.json|-> [--faults drop,corrupt,delay] [--pairs] [--timers edges] [--max N] [--shard i/n] [--junit <file>] [--out <dir>]', load: () => import('./commands/sweep.ts') },
+  sweep: {
+    summary: 'fault campaign over a scenario: sweep <scenario.json|-> [--faults drop,corrupt,delay] [--pairs] [--timers edges] [--max N] [--shard i/n] [--junit <file>] [--out <dir>]',
+    load: () => import('./commands/sweep.ts'),
+  },
   run: { summary: 'run vector files or folders of them (--filter <glob>, --junit <file>)', load: () => import('./commands/run.ts') },
   schema: { summary: 'print the JSON Schema of vector, scenario or trace', load: () => import('./commands/schema.ts') },
+  worker: { summary: 'work on the shared job queue of a team deployment (DATABASE_URL), serving no HTTP', load: () => import('./commands/worker.ts') },
 };
 
 export function version(): string {
@@ -64,10 +68,7 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     return await module.run(rest, io);
   } catch (error) {
     // Anything but a CliError is a bug of ours that slipped through: say so, still in one line.
-    const cliError =
-      error instanceof CliError
-        ? error
-        : new CliError('cli.internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
+    const cliError = error instanceof CliError ? error : new CliError('cli.internal', `internal error: ${error instanceof Error ? error.message : String(error)}`);
     const { code, where } = cliError;
     const message = oneLine(cliError.message);
     io.stderr(`parley ${name}: ${message}\n`);

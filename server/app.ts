@@ -21,7 +21,8 @@ import { createLocalJobQueue } from './jobs/local-queue.ts';
 import { registerJobKinds } from './jobs/kinds.ts';
 import { createAnalysisPool, type AnalysisPool } from './analysis/pool.ts';
 import { createRunPool, type RunPool } from './runner/pool.ts';
-import { traceStore, type TraceStore } from './features/traces/store.ts';
+import type { TraceStore } from './storage/types.ts';
+import { createLocalTraceStore } from './storage/local-store.ts';
 import { memoryRateLimitStore, type RateLimitStoreFactory } from './features/auth/rate-limit.ts';
 
 export interface AppOptions {
@@ -120,7 +121,7 @@ export function createApp(options: AppOptions): Express {
     rateLimitStore: options.rateLimitStore ?? memoryRateLimitStore,
     verifyBearer: options.verifyBearer,
     dataDir,
-    traceStore: options.traceStore ?? traceStore(dataDir),
+    traceStore: options.traceStore ?? createLocalTraceStore(dataDir),
     jobs: options.jobs ?? createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') }),
     analysisPool: options.analysisPool ?? createAnalysisPool(),
     runPool: options.runPool ?? createRunPool(),

@@ -7,7 +7,7 @@ import type { Mailer } from './mail/mailer.ts';
 import type { JobQueue } from './jobs/types.ts';
 import type { AnalysisPool } from './analysis/pool.ts';
 import type { RunPool } from './runner/pool.ts';
-import type { TraceStore } from './features/traces/store.ts';
+import type { TraceStore } from './storage/types.ts';
 import type { RateLimitStoreFactory } from './features/auth/rate-limit.ts';
 
 export interface Clock {

@@ -2,6 +2,7 @@ import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { Logger } from 'pino';
 import type { ApiErrorBody, ApiErrorCode } from '../shared/api/index.ts';
+import { fieldOf, zodMessage } from '../shared/core/zod-message.ts';
 
 /**
  * An error meant for the caller: an HTTP status, a stable machine code and one plain sentence.
@@ -33,16 +34,9 @@ export const tooLarge = (message = 'The request is too large', code: ApiErrorCod
 export const rateLimited = (message = 'Too many attempts; try again later', code: ApiErrorCode = 'request.rate-limited') => new HttpError(429, code, message);
 export const badGateway = (message: string, code: ApiErrorCode = 'upstream.failed') => new HttpError(502, code, message);
 
-/** "field: message" for each issue; the location (body, query, params) stands in for an empty path. */
-export function zodMessage(error: ZodError, location = 'body'): string {
-  return error.issues
-    .map((issue) => `${issue.path.length > 0 ? issue.path.join('.') : location}: ${issue.message}`)
-    .join('; ');
-}
-
 export function fromZod(error: ZodError, location = 'body'): HttpError {
-  const details = error.issues.map((issue) => ({ path: issue.path.join('.') || location, message: issue.message }));
-  return badRequest(zodMessage(error, location), 'input.invalid', details);
+  const details = error.issues.map((issue) => ({ path: fieldOf(issue.path, { where: location }), message: issue.message }));
+  return badRequest(zodMessage(error, { where: location }), 'input.invalid', details);
 }
 
 interface StatusLike {
@@ -58,7 +52,8 @@ interface StatusLike {
  * busboy (multer's parser) rejects a malformed multipart body with a plain `Error` and no status or
  * code; these are all of its messages (busboy 1.x, lib/index.js and lib/types/*.js).
  */
-const multipartParseErrors = /^(Multipart: Boundary not found|Malformed content type|Missing Content-Type|Unsupported content type: |Malformed part header|Unexpected end of form|Unexpected end of file|Malformed urlencoded form)/;
+const multipartParseErrors =
+  /^(Multipart: Boundary not found|Malformed content type|Missing Content-Type|Unsupported content type: |Malformed part header|Unexpected end of form|Unexpected end of file|Malformed urlencoded form)/;
 
 /** Maps errors thrown by body-parser, multer and friends, which carry a status or a code but no message for people. */
 function fromLibrary(err: StatusLike): HttpError | null {

@@ -12,6 +12,8 @@ import { outboxRoutes } from './features/outbox/routes.ts';
 import { auditRoutes } from './features/audit/routes.ts';
 import { devicesRoutes } from './features/devices/routes.ts';
 import { tracesRoutes } from './features/traces/routes.ts';
+import { shareLinkRoutes } from './features/traces/share-links.ts';
+import { importMappingRoutes } from './features/import-mappings/routes.ts';
 import { vectorsRoutes } from './features/vectors/routes.ts';
 import { runsRoutes } from './features/runs/routes.ts';
 import { tokensRoutes } from './features/tokens/routes.ts';
@@ -25,6 +27,8 @@ export const routeTable: RouteDef[] = [
   ...auditRoutes,
   ...devicesRoutes,
   ...tracesRoutes,
+  ...shareLinkRoutes,
+  ...importMappingRoutes,
   ...vectorsRoutes,
   ...runsRoutes,
   ...tokensRoutes,
@@ -44,28 +48,22 @@ function requestEm(): EntityManager {
 export function buildApiRouter(routes: readonly RouteDef[], deps: AppDeps): Router {
   const router = Router();
   for (const def of routes) {
-    router[def.method](
-      def.path,
-      authorize(def.access, deps, requestEm),
-      ...(def.middleware?.(deps) ?? []),
-      validate({ body: def.body, query: def.query, params: def.params }),
-      async (req, res) => {
-        const valid = res.locals.valid ?? { body: undefined, query: undefined, params: undefined };
-        const result = await def.handler({
-          req,
-          res,
-          body: valid.body,
-          query: valid.query,
-          params: valid.params,
-          user: res.locals.user ?? null,
-          em: requestEm(),
-          deps,
-        });
-        if (res.headersSent) return;
-        if (result === undefined) res.status(204).end();
-        else res.json(result);
-      },
-    );
+    router[def.method](def.path, authorize(def.access, deps, requestEm), ...(def.middleware?.(deps) ?? []), validate({ body: def.body, query: def.query, params: def.params }), async (req, res) => {
+      const valid = res.locals.valid ?? { body: undefined, query: undefined, params: undefined };
+      const result = await def.handler({
+        req,
+        res,
+        body: valid.body,
+        query: valid.query,
+        params: valid.params,
+        user: res.locals.user ?? null,
+        em: requestEm(),
+        deps,
+      });
+      if (res.headersSent) return;
+      if (result === undefined) res.status(204).end();
+      else res.json(result);
+    });
   }
   return router;
 }

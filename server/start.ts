@@ -20,7 +20,12 @@ import { verifyApiToken } from './features/tokens/verify.ts';
 import { resumeUnfinishedTraces } from './features/traces/resume.ts';
 import { closeOrphanedRuns } from './features/runs/resume.ts';
 import { createLocalJobQueue } from './jobs/local-queue.ts';
-import { traceStore } from './features/traces/store.ts';
+import { createPgJobQueue } from './jobs/pg-queue.ts';
+import type { JobQueue } from './jobs/types.ts';
+import { createLocalTraceStore } from './storage/local-store.ts';
+import { createS3TraceStore } from './storage/s3-store.ts';
+import type { TraceStore } from './storage/types.ts';
+import type { Env } from './config/env.ts';
 
 export interface StartOptions {
   /** 0 = a random free port. Default PORT or 3000. */
@@ -35,6 +40,19 @@ export interface StartOptions {
   /** Log start-up and one line per request. Default on. */
   log?: boolean;
   distDir?: string;
+}
+
+/** The trace store the environment names: a bucket with S3_URL and S3_BUCKET, else `<dataDir>/traces`. */
+export function traceStoreFromEnv(env: Env, dataDir: string): TraceStore {
+  if (env.S3_URL && env.S3_BUCKET) return createS3TraceStore({ endpoint: env.S3_URL, bucket: env.S3_BUCKET, region: env.S3_REGION, prefix: env.S3_PREFIX, incomingDir: join(dataDir, 'incoming') });
+  return createLocalTraceStore(dataDir);
+}
+
+/** The job queue: shared through PostgreSQL with DATABASE_URL, else in this process. */
+export async function jobQueueFromEnv(env: Env, logger: pino.Logger): Promise<JobQueue> {
+  const onError = (kind: string, key: string, cause: unknown) => logger.error({ err: cause, kind, key }, 'job failed');
+  if (env.DATABASE_URL) return createPgJobQueue({ databaseUrl: env.DATABASE_URL, onError, log: (message) => logger.warn(message) });
+  return createLocalJobQueue({ onError });
 }
 
 export interface RunningServer {
@@ -62,12 +80,13 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const { removed } = prepareDataFolder(dataDir);
   if (removed.length > 0) logger.info(`removed ${removed.length} file(s) a stopped server left behind: ${removed.slice(0, 5).join(', ')}`);
   const production = env.NODE_ENV === 'production';
-  const secret = resolveSecret({ envSecret: env.PARLEY_SECRET, dataDir, production });
+  const secret = resolveSecret({ envSecret: env.PARLEY_SECRET, dataDir, production, shared: env.DATABASE_URL !== undefined });
 
-  const orm = await openOrm({ dbName: join(dataDir, 'parley.sqlite') });
+  const orm = await openOrm(env.DATABASE_URL ? { databaseUrl: env.DATABASE_URL } : { dbName: join(dataDir, 'parley.sqlite') });
   restrictDataFiles(dataDir);
+  const store = traceStoreFromEnv(env, dataDir);
   if (options.demo ?? env.PARLEY_DEMO) {
-    if (await seedDemo(orm.em.fork(), systemClock, { dataDir })) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
+    if (await seedDemo(orm.em.fork(), systemClock, { dataDir, traceStore: store })) logger.info('demo data created: sign in as admin@kestrel.example / parley-demo');
   }
   if (production && !env.demoAskedFor) {
     const exposed = await accountsWithDemoPassword(orm.em.fork());
@@ -99,36 +118,49 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
 
   const distDir = options.distDir ?? join(repoRoot, 'dist');
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
-  const jobs = createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') });
+  const jobs = await jobQueueFromEnv(env, logger);
   const analysisPool = createAnalysisPool();
   const runPool = createRunPool();
   const app = createApp({
-    orm, mailer, secret, publicUrl, distDir, production, logger, logRequests: options.log !== false, dataDir, verifyBearer: verifyApiToken,
-    jobs, analysisPool, runPool, traceStore: traceStore(dataDir), trustProxy: env.trustProxy,
+    orm,
+    mailer,
+    secret,
+    publicUrl,
+    distDir,
+    production,
+    logger,
+    logRequests: options.log !== false,
+    dataDir,
+    verifyBearer: verifyApiToken,
+    jobs,
+    analysisPool,
+    runPool,
+    traceStore: store,
+    trustProxy: env.trustProxy,
   });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
 
   // Traces left queued or analysing by the last run resume now, in the background.
-  const resumed = closeOrphanedRuns(orm, systemClock).then(() => resumeUnfinishedTraces({
-    orm,
-    jobs,
-    onError: (traceId, message) => logger.warn(`trace ${traceId}: ${message}`),
-  })).then(
-    ({ ids, done }) => {
-      if (ids.length > 0) logger.info(`resuming the analysis of ${ids.length} unfinished trace(s)`);
-      return done;
-    },
-    (cause: unknown) => logger.error(`unfinished traces could not be resumed: ${cause instanceof Error ? cause.message : String(cause)}`),
-  );
+  // A PostgreSQL queue keeps its jobs (and retries a dead worker's); the in-process one resumes here.
+  const resume = async (): Promise<void> => {
+    if (jobs.name === 'postgres') return;
+    await closeOrphanedRuns(orm, systemClock);
+    const { ids, done } = await resumeUnfinishedTraces({ orm, jobs, onError: (traceId, message) => logger.warn(`trace ${traceId}: ${message}`) });
+    if (ids.length > 0) logger.info(`resuming the analysis of ${ids.length} unfinished trace(s)`);
+    await done;
+  };
+  const resumed = resume().catch((cause: unknown) => logger.error(`unfinished traces could not be resumed: ${cause instanceof Error ? cause.message : String(cause)}`));
 
   let closing: Promise<void> | undefined;
   const close = () => {
     closing ??= (async () => {
+      // Open event streams end too: a load balancer sends their reconnects to another instance.
       await new Promise<void>((resolveClose) => {
         server.close(() => resolveClose());
         server.closeIdleConnections();
+        setTimeout(() => server.closeAllConnections(), 2_000).unref();
       });
       // Jobs stop first (their rows stay unfinished, for the next start to resume), then the threads.
       const jobsStopped = jobs.close();

@@ -2,7 +2,7 @@
  * The codec off the main thread (the Decoder page): pasted text → decoded message, and a CC-line
  * VCD capture → each message in it. Both return values, never throw.
  */
-import type { EngineError } from '../shared/core/result.ts';
+import type { Result } from '../shared/core/result.ts';
 import { decodeInput, decodeMessage, toHex, type Sop } from '../shared/pd/index.ts';
 import { decodeVcd } from '../shared/wire/index.ts';
 import { exposeEngine } from './expose.ts';
@@ -12,7 +12,7 @@ export type VcdEntry =
   | { kind: 'hard_reset' | 'cable_reset'; t: number }
   | { kind: 'unreadable'; t: number; reason: string };
 
-export type VcdOutcome = { ok: true; entries: VcdEntry[] } | { ok: false; error: EngineError };
+export type VcdOutcome = Result<{ entries: VcdEntry[] }>;
 
 function decodeVcdText(text: string): VcdOutcome {
   const result = decodeVcd(text);

@@ -8,6 +8,7 @@
  * CSP that allows 'unsafe-eval' (server/app.ts, `propertyWorkerCsp`); the page's own CSP stays strict.
  * Cancelling is the page's job: it terminates this worker (src/lib/engine-worker.ts).
  */
+import type { Result } from '../shared/core/result.ts';
 import * as fc from 'fast-check';
 import { exposeEngine } from './expose.ts';
 import type { Contract } from '../shared/core/contract.ts';
@@ -39,9 +40,7 @@ export type CounterexampleRun = {
   endUs: number;
 };
 
-export type PropertyCheck =
-  | { ok: false; error: { code: string; message: string } }
-  | { ok: true; result: VectorResult; counterexampleRun?: CounterexampleRun };
+export type PropertyCheck = Result<{ result: VectorResult; counterexampleRun?: CounterexampleRun }>;
 
 /** Progress messages to the page at most this often, so a fast property is not slowed by them. */
 const REPORT_EVERY_MS = 80;

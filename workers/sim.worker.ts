@@ -5,6 +5,7 @@
  * never spends a long task deserialising hundreds of thousands of small arrays.
  * Cancelling is the page's job: it terminates this worker (src/lib/engine-worker.ts).
  */
+import type { Result } from '../shared/core/result.ts';
 import { transfer } from 'comlink';
 import { exposeEngine } from './expose.ts';
 import { parseScenario, simulate, type SimulationResult } from '../shared/sim/index.ts';
@@ -14,9 +15,7 @@ export type SimRunOptions = {
   sampleEveryUs?: number;
 };
 
-export type SimRunOutput =
-  | { ok: false; error: { code: string; message: string } }
-  | ({ ok: true; samples: Int32Array; sampleCount: number } & Omit<SimulationResult, 'samples'>);
+export type SimRunOutput = Result<{ samples: Int32Array; sampleCount: number } & Omit<SimulationResult, 'samples'>>;
 
 /** At most this many samples (4 × Int32 each) cross back: 2.4 M samples ≈ 38 MB. */
 const MAX_SAMPLES = 2_400_000;

@@ -52,7 +52,9 @@ describe('parley analyze', () => {
   it('prints a readable report for people', async () => {
     const r = await cli('analyze', 'timing-pps-keepalive.trace.jsonl');
     expect(r.code).toBe(0);
-    expect(r.stdout.split('\n')[0]).toBe('Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s; 1 error; likely cause of the Hard Reset: the sink stopped re-requesting its programmable contract, which points at the device (sink).');
+    expect(r.stdout.split('\n')[0]).toBe(
+      'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s; 1 error; likely cause of the Hard Reset: the sink stopped re-requesting its programmable contract, which points at the device (sink).',
+    );
     expect(r.stdout).toContain('timing.pps-keepalive');
     expect(r.stdout).toContain('PPS 8.4 V 2.5 A');
   });

@@ -27,7 +27,7 @@ interface Options {
 
 export async function run(args: string[], io: CliIo): Promise<number> {
   const options = parseArgs(args);
-  const analysis = await analyzeFile(resolve(io.cwd, options.file), options);
+  const analysis = await analyseFile(resolve(io.cwd, options.file), options);
   if (options.json) {
     const { format, messages, contracts, findings, summary, records, counts, findingsOmitted, hardResets, timeline } = analysis;
     printJson(io, { ok: true, format, messages, contracts, findings, summary, records, counts, findingsOmitted, hardResets, ...(options.timeline ? { timeline } : {}) });
@@ -40,7 +40,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   return failed ? EXIT_CHECKS_FAILED : EXIT_OK;
 }
 
-async function analyzeFile(path: string, options: Options): Promise<Analysis> {
+async function analyseFile(path: string, options: Options): Promise<Analysis> {
   const session = createTraceSession({ format: options.format, ...(options.signal === undefined ? {} : { signal: options.signal }) });
   try {
     const stream = createReadStream(path, { encoding: 'utf8', highWaterMark: CHUNK_BYTES });

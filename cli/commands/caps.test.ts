@@ -16,7 +16,14 @@ const le = (word: string) => word.match(/../g)!.reverse().join('');
 // 20 V 3.25 A, PPS 3.3–11 V 3 A, PPS 3.3–21 V 3 A (USB PD R3.1 V1.8 Tables 6-9 and 6-13, from memory).
 const WORDS = ['0001912c', '0002d12c', '0004b12c', '00064145', 'c0dc213c', 'c1a4213c'];
 const HEX = 'a161' + WORDS.map(le).join('');
-type Json = { ok: boolean; pdpW: number; pdpInferred: boolean; objects: { kind: string }[]; findings: { rule: string; severity: string; object?: number }[]; error?: { code: string; message: string } };
+type Json = {
+  ok: boolean;
+  pdpW: number;
+  pdpInferred: boolean;
+  objects: { kind: string }[];
+  findings: { rule: string; severity: string; object?: number }[];
+  error?: { code: string; message: string };
+};
 
 describe('parley caps', () => {
   it('checks a message, infers the PDP and says so (--json)', async () => {

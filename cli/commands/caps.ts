@@ -56,7 +56,7 @@ const watts = (mw: number) => `${Math.round(mw / 100) / 10} W`;
 function offerColumns(pdo: ReadCaps['pdos'][number]): [string, string, string] {
   switch (pdo.kind) {
     case 'fixed':
-      return [volts(pdo.voltageMv), amps(pdo.maxCurrentMa), watts(pdo.voltageMv * pdo.maxCurrentMa / 1_000)];
+      return [volts(pdo.voltageMv), amps(pdo.maxCurrentMa), watts((pdo.voltageMv * pdo.maxCurrentMa) / 1_000)];
     case 'variable':
       return [`${pdo.minVoltageMv / 1_000}–${volts(pdo.maxVoltageMv)}`, amps(pdo.maxCurrentMa), ''];
     case 'battery':
@@ -78,7 +78,7 @@ function describeOffers(io: CliIo, offers: ReadCaps, pdpW: number, pdpInferred: 
     rows.push([String(i + 1), padding ? '(empty)' : pdo.kind, ...(padding ? ['', '', ''] : offerColumns(pdo)), pdo.raw]);
   });
   const cable = cableMa === undefined ? 'cable not given' : `${cableMa / 1_000} A cable`;
-  return `${paint(io, 'bold', title)}: ${offers.pdos.length} objects, PDP ${pdpW} W${pdpInferred ? ' (inferred)' : ''}, ${cable}\n${formatTable(rows)}\n`;
+  return `${paint(io, 'bold', title)}: ${offers.pdos.length} ${offers.pdos.length === 1 ? 'object' : 'objects'}, PDP ${pdpW} W${pdpInferred ? ' (inferred)' : ''}, ${cable}\n${formatTable(rows)}\n`;
 }
 
 export function describeFindings(io: CliIo, findings: readonly Finding[]): string {

@@ -66,9 +66,7 @@ function readCaps(hex: string): SourcePdo[] {
 export function describeMessage(io: CliIo, message: Message, warnings: Finding[]): string {
   const h = message.header;
   const who = h.cablePlug !== undefined ? (h.cablePlug ? 'from a cable plug' : 'to a cable plug') : `from ${h.powerRole}/${h.dataRole?.toUpperCase()}`;
-  const lines = [
-    `${paint(io, 'bold', h.messageType)}  ${message.sop}  ${h.category}, ${who}, revision ${h.specRevision}, MessageID ${h.messageId}, header ${h.raw}`,
-  ];
+  const lines = [`${paint(io, 'bold', h.messageType)}  ${message.sop}  ${h.category}, ${who}, revision ${h.specRevision}, MessageID ${h.messageId}, header ${h.raw}`];
   const e = message.extendedHeader;
   if (e) {
     const what = e.requestChunk ? `request for chunk ${e.chunkNumber}` : e.chunked ? `chunk ${e.chunkNumber} of a ${e.dataSize}-byte block` : `unchunked, ${e.dataSize} bytes`;

@@ -28,7 +28,20 @@ describe('parley encode', () => {
     // RDO position 1, 3 A / 3 A, USB comms, no suspend → 0x1304_b12c (R3.1 Table 6.23, by hand).
     const message = {
       header: { messageType: 'Request', messageId: 1, specRevision: '3.0', powerRole: 'sink', dataRole: 'ufp' },
-      objects: [{ kind: 'rdo-fixed', objectPosition: 1, operatingCurrentMa: 3000, maxOperatingCurrentMa: 3000, giveBack: false, capabilityMismatch: false, usbCommunicationsCapable: true, noUsbSuspend: true, unchunkedExtendedMessages: false, eprModeCapable: false }],
+      objects: [
+        {
+          kind: 'rdo-fixed',
+          objectPosition: 1,
+          operatingCurrentMa: 3000,
+          maxOperatingCurrentMa: 3000,
+          giveBack: false,
+          capabilityMismatch: false,
+          usbCommunicationsCapable: true,
+          noUsbSuspend: true,
+          unchunkedExtendedMessages: false,
+          eprModeCapable: false,
+        },
+      ],
     };
     writeFileSync(join(dir, 'request.json'), JSON.stringify(message));
     const { io, out } = fakeIo('', dir);
@@ -37,7 +50,24 @@ describe('parley encode', () => {
   });
 
   it('exits 2 with the field path on an out-of-range value', async () => {
-    const message = { header: { messageType: 'Source_Capabilities', messageId: 0, specRevision: '3.0', powerRole: 'source', dataRole: 'dfp' }, objects: [{ kind: 'fixed', voltageMv: 5010, maxCurrentMa: 3000, peakCurrent: 0, dualRolePower: false, usbSuspendSupported: false, unconstrainedPower: false, usbCommunicationsCapable: false, dualRoleData: false, unchunkedExtendedMessages: false, eprModeCapable: false }] };
+    const message = {
+      header: { messageType: 'Source_Capabilities', messageId: 0, specRevision: '3.0', powerRole: 'source', dataRole: 'dfp' },
+      objects: [
+        {
+          kind: 'fixed',
+          voltageMv: 5010,
+          maxCurrentMa: 3000,
+          peakCurrent: 0,
+          dualRolePower: false,
+          usbSuspendSupported: false,
+          unconstrainedPower: false,
+          usbCommunicationsCapable: false,
+          dualRoleData: false,
+          unchunkedExtendedMessages: false,
+          eprModeCapable: false,
+        },
+      ],
+    };
     const { io, out } = fakeIo(JSON.stringify(message));
     expect(await runCli(['encode', '-', '--json'], io)).toBe(2);
     expect(JSON.parse(out.stdout).error).toEqual({ code: 'encode.range', message: 'objects[0].voltageMv: 5010 mV is not a multiple of 50 mV' });
@@ -53,7 +83,11 @@ describe('parley encode', () => {
   });
 
   it('prints every chunk of a long extended message', async () => {
-    const message = { header: { messageType: 'Manufacturer_Info', messageId: 0, specRevision: '3.0', powerRole: 'source', dataRole: 'dfp' }, extendedHeader: { chunked: true }, payload: '00'.repeat(30) };
+    const message = {
+      header: { messageType: 'Manufacturer_Info', messageId: 0, specRevision: '3.0', powerRole: 'source', dataRole: 'dfp' },
+      extendedHeader: { chunked: true },
+      payload: '00'.repeat(30),
+    };
     const { io, out } = fakeIo(JSON.stringify(message));
     expect(await runCli(['encode', '-', '--json'], io)).toBe(0);
     const doc = JSON.parse(out.stdout);

@@ -5,9 +5,7 @@
 import { parentPort } from 'node:worker_threads';
 
 const loadEngine =
-  process.env.PARLEY_BUNDLED === '1'
-    ? () => import('../../shared/vectors/index.ts')
-    : async () => (await import('tsx/esm/api')).tsImport('../../shared/vectors/index.ts', import.meta.url);
+  process.env.PARLEY_BUNDLED === '1' ? () => import('../../shared/vectors/index.ts') : async () => (await import('tsx/esm/api')).tsImport('../../shared/vectors/index.ts', import.meta.url);
 
 const ready = loadEngine();
 ready.then(

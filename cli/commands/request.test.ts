@@ -29,7 +29,13 @@ describe('parley request', () => {
     // message: header 0x1082 (Request, 1 object, R3.0, sink/ufp), then the RDO little-endian.
     expect(r.json()).toEqual({
       ok: true,
-      request: { hex: '82102cb10440', rdo: '0x4004b12c', objectPosition: 4, capabilityMismatch: false, contract: { kind: 'fixed', objectPosition: 4, voltageMv: 20_000, currentMa: 3_000, powerMw: 60_000 } },
+      request: {
+        hex: '82102cb10440',
+        rdo: '0x4004b12c',
+        objectPosition: 4,
+        capabilityMismatch: false,
+        contract: { kind: 'fixed', objectPosition: 4, voltageMv: 20_000, currentMa: 3_000, powerMw: 60_000 },
+      },
       findings: [],
     });
   });

@@ -10,6 +10,7 @@ import type { ZodError } from 'zod';
 import { checkRequest, chooseRequest, describePdo, readCapsHex, readPdoList, requestMessageHex, sinkPolicySchema, type SinkPolicy } from '../../shared/rules/index.ts';
 import { CliError, EXIT_OK, formatTable, paint, printJson, type CliIo } from '../io.ts';
 import { describeFindings, parseCable, parseOptions } from './caps.ts';
+import { zodMessage } from '../../shared/core/zod-message.ts';
 
 const USAGE = 'request --caps <hex> | --pdos 0x…,0x… --sink <json|file> [--cable 3000|5000] [--epr] [--json]';
 
@@ -76,8 +77,5 @@ async function readPolicy(text: string, io: CliIo): Promise<SinkPolicy> {
 }
 
 function describeIssues(error: ZodError): string {
-  return error.issues
-    .slice(0, 3)
-    .map((issue) => `${issue.path.length > 0 ? issue.path.join('.') : 'policy'}: ${issue.message}`)
-    .join('; ');
+  return zodMessage(error, { where: 'policy', limit: 3 });
 }

@@ -53,6 +53,13 @@ describe('parley simulate', () => {
     expect(JSON.parse(lines[1]!)).toEqual({ t: 0, event: 'attach', cc: 'CC1', rp: '3.0A' });
   });
 
+  it('titles the trace with the scenario file name, not the path it was given by', async () => {
+    const r = await cli(['simulate', join(dir, 'example.json'), '--trace', 'titled.trace.jsonl']);
+    expect(r.code).toBe(0);
+    const header = JSON.parse(readFileSync(join(dir, 'titled.trace.jsonl'), 'utf8').split('\n')[0]!) as { title: string };
+    expect(header.title).toBe('Simulation of example.json');
+  });
+
   it('prints a timeline for people, reading the scenario from stdin', async () => {
     const r = await cli(['simulate', '-'], JSON.stringify(scenario));
     expect(r.code).toBe(0);

@@ -6,7 +6,7 @@
  * `--json` document: `contracts`, `lanes` and `timers`. Exit 0 when it ran, 2 on bad input.
  */
 import { readFile, writeFile } from 'node:fs/promises';
-import { resolve } from 'node:path';
+import { basename, resolve } from 'node:path';
 import type { Message, Rdo, SourcePdo } from '../../shared/pd/types.ts';
 import { describePdo } from '../../shared/rules/index.ts';
 import { parseScenario, sampleRows, simulate, type SimulationResult } from '../../shared/sim/index.ts';
@@ -64,7 +64,8 @@ export async function readJson(file: string, io: CliIo): Promise<unknown> {
 }
 
 async function writeTrace(path: string, file: string, seed: number, events: readonly TraceRecord[]): Promise<void> {
-  const header = { trace: 1, title: `Simulation of ${file}`, simulatedBy: 'parley simulate', seed };
+  // The scenario's file name, not the path it was given by: a trace travels, the folder does not.
+  const header = { trace: 1, title: `Simulation of ${file === '-' ? 'standard input' : basename(file)}`, simulatedBy: 'parley simulate', seed };
   const lines = [JSON.stringify(header), ...events.map((record) => JSON.stringify(record))];
   try {
     await writeFile(path, `${lines.join('\n')}\n`);

@@ -4,10 +4,7 @@
 // as the main thread (the plan is deterministic) and runs the slice of it it is given.
 import { parentPort, workerData } from 'node:worker_threads';
 
-const sweep =
-  process.env.PARLEY_BUNDLED === '1'
-    ? await import('../../shared/sweep/index.ts')
-    : await (await import('tsx/esm/api')).tsImport('../../shared/sweep/index.ts', import.meta.url);
+const sweep = process.env.PARLEY_BUNDLED === '1' ? await import('../../shared/sweep/index.ts') : await (await import('tsx/esm/api')).tsImport('../../shared/sweep/index.ts', import.meta.url);
 const { scenario, options, start, end } = workerData;
 const planned = sweep.planSweep(scenario, options);
 if (!planned.ok) parentPort.postMessage({ error: planned.error.message });

@@ -9,7 +9,10 @@ let dir = '';
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'parley-sweep-'));
   // Kestrel Devices K27: 5 V 3 A, 9 V 3 A; the sink asks 9 V 2 A.
-  writeFileSync(join(dir, '9v.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }, durationMs: 5_000, seed: 3 }));
+  writeFileSync(
+    join(dir, '9v.json'),
+    JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }, durationMs: 5_000, seed: 3 }),
+  );
 });
 afterAll(() => {
   if (dir) rmSync(dir, { recursive: true, force: true });
@@ -28,7 +31,14 @@ describe('parley sweep', () => {
   it('sweeps a 9 V SPR scenario: ≥ 3 × the messages in runs, every invariant held, exit 0', async () => {
     const r = await cli('sweep', '9v.json', '--json');
     expect(r.code).toBe(0);
-    const doc = JSON.parse(r.stdout) as { ok: boolean; runs: number; brokenCount: number; messages: unknown[]; outcomes: { outcome: string; runs: number; example: { run: string } }[]; broken: unknown[] };
+    const doc = JSON.parse(r.stdout) as {
+      ok: boolean;
+      runs: number;
+      brokenCount: number;
+      messages: unknown[];
+      outcomes: { outcome: string; runs: number; example: { run: string } }[];
+      broken: unknown[];
+    };
     expect(doc).toMatchObject({ ok: true, brokenCount: 0, broken: [] });
     expect(doc.messages).toHaveLength(8);
     expect(doc.runs).toBeGreaterThanOrEqual(3 * doc.messages.length);
@@ -58,7 +68,15 @@ describe('parley sweep', () => {
   it('writes a shrunk vector for each broken run under --out and exits 1', async () => {
     // Kestrel Devices K60 whose supply slews 34 mV/ms: 5 → 20 V takes ~470 ms, past tPSTransition's
     // 450 ms minimum, so the run with that timer at its minimum breaks an invariant (the source is too slow).
-    writeFileSync(join(dir, 'slow.json'), JSON.stringify({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } }, sink: { policy: { kind: 'max-power' } }, durationMs: 8_000, seed: 3 }));
+    writeFileSync(
+      join(dir, 'slow.json'),
+      JSON.stringify({
+        source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } },
+        sink: { policy: { kind: 'max-power' } },
+        durationMs: 8_000,
+        seed: 3,
+      }),
+    );
     const r = await cli('sweep', 'slow.json', '--faults', 'drop', '--timers', 'edges', '--out', 'out', '--json');
     expect(r.code).toBe(1);
     const doc = JSON.parse(r.stdout) as { ok: boolean; broken: { run: string; invariant: string; vector?: string }[] };

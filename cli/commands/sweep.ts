@@ -47,7 +47,10 @@ function parseCount(text: string | undefined, option: string, min: number, max: 
 
 function parseKinds(text: string | undefined): SweepFaultKind[] | undefined {
   if (text === undefined) return undefined;
-  const kinds = text.split(',').map((k) => k.trim()).filter(Boolean);
+  const kinds = text
+    .split(',')
+    .map((k) => k.trim())
+    .filter(Boolean);
   if (kinds.length === 0) throw new CliError('usage', `--faults: list fault kinds separated by commas (${SWEEP_FAULT_KINDS.join(', ')})`);
   for (const kind of kinds) {
     if (!(SWEEP_FAULT_KINDS as readonly string[]).includes(kind)) throw new CliError('usage', `--faults: unknown fault kind "${kind}"; one of ${SWEEP_FAULT_KINDS.join(', ')}`);

@@ -98,7 +98,10 @@ async function encode(positionals: string[], values: ReturnType<typeof parse>['v
   const tickUs = timescale ? parseTimescaleUs(timescale) : undefined;
   if (tickUs !== undefined && tickUs !== null && tickUs > maxTickUs(bitrate)) {
     const fits = TIMESCALES.filter((t) => (parseTimescaleUs(t) ?? Infinity) <= maxTickUs(bitrate));
-    throw new CliError('usage', `--timescale: ${timescale} is too coarse for ${bitrate} bit/s (a tick must be at most a quarter of a bit, ${(maxTickUs(bitrate) * 1000).toFixed(0)} ns); use ${fits[fits.length - 1]} or finer`);
+    throw new CliError(
+      'usage',
+      `--timescale: ${timescale} is too coarse for ${bitrate} bit/s (a tick must be at most a quarter of a bit, ${(maxTickUs(bitrate) * 1000).toFixed(0)} ns); use ${fits[fits.length - 1]} or finer`,
+    );
   }
 
   const packets = positionals.map((arg, i) => toPacket(arg, i, defaultSop));
@@ -141,7 +144,16 @@ function createDescriber() {
     framed.set(e.bytes);
     new DataView(framed.buffer).setUint32(e.bytes.length, e.crc, true);
     const decoded = decodeMessage(framed, { sop: e.sop, crc: true, caps });
-    const entry: DecodedEntry = { t: e.t, sop: e.sop, hex: toHex(e.bytes), crc: e.crc.toString(16).padStart(8, '0'), crcOk: e.crcOk, eop: e.eop, bitrateBps: e.bitrateBps, message: decoded.ok ? decoded.message : null };
+    const entry: DecodedEntry = {
+      t: e.t,
+      sop: e.sop,
+      hex: toHex(e.bytes),
+      crc: e.crc.toString(16).padStart(8, '0'),
+      crcOk: e.crcOk,
+      eop: e.eop,
+      bitrateBps: e.bitrateBps,
+      message: decoded.ok ? decoded.message : null,
+    };
     if (!decoded.ok) entry.error = { code: decoded.error.code, message: decoded.error.message };
     // A Request refers to the offers in force: the last good Source_Capabilities on SOP.
     if (decoded.ok && e.crcOk && e.sop === 'SOP' && decoded.message.header.messageType === 'Source_Capabilities') caps = decoded.message.objects;

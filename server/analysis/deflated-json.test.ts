@@ -6,7 +6,13 @@ import { crc32Combine, deflateJson, gzipEnvelope, inflateStoredFile, parseStored
 
 describe('stored JSON sent as stored', () => {
   it('combines CRC-32s as zlib does: crc(A‖B) from crc(A), crc(B) and the length of B', () => {
-    for (const [a, b] of [[0, 1], [1, 0], [5, 7], [1000, 4096], [65_537, 3]] as [number, number][]) {
+    for (const [a, b] of [
+      [0, 1],
+      [1, 0],
+      [5, 7],
+      [1000, 4096],
+      [65_537, 3],
+    ] as [number, number][]) {
       const first = randomBytes(a);
       const second = randomBytes(b);
       expect(crc32Combine(crc32(first), crc32(second), second.length)).toBe(crc32(Buffer.concat([first, second])));

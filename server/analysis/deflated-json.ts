@@ -7,9 +7,7 @@
  *
  * File layout: 4 bytes `PZJ1`, CRC-32 of the JSON (u32 LE), its length in bytes (u32 LE), the body.
  */
-import { createReadStream } from 'node:fs';
-import { open } from 'node:fs/promises';
-import type { Readable } from 'node:stream';
+import { Readable } from 'node:stream';
 import { constants, crc32, createInflateRaw, deflateRawSync, inflateRaw } from 'node:zlib';
 import { promisify } from 'node:util';
 
@@ -43,18 +41,28 @@ export function parseStoredFile(bytes: Buffer): DeflatedJson {
   return { crc32: bytes.readUInt32LE(4), length: bytes.readUInt32LE(8), body: bytes.subarray(HEADER_BYTES) };
 }
 
-/** Reads only the header: what building a gzip envelope needs besides the body's bytes. */
-export async function readStoredHeader(path: string): Promise<{ crc32: number; length: number; bodyBytes: number }> {
-  const file = await open(path, 'r');
-  try {
-    const header = Buffer.alloc(HEADER_BYTES);
-    await file.read(header, 0, HEADER_BYTES, 0);
-    if (!header.subarray(0, 4).equals(MAGIC)) throw new Error('not a stored analysis file');
-    const { size } = await file.stat();
-    return { crc32: header.readUInt32LE(4), length: header.readUInt32LE(8), bodyBytes: size - HEADER_BYTES };
-  } finally {
-    await file.close();
+/**
+ * Opens a stored file from a stream (the trace store's): reads its header and answers the body as
+ * a stream, without holding the file.
+ */
+export async function openStoredStream(stream: Readable): Promise<{ crc32: number; length: number; body: Readable }> {
+  const chunks = stream[Symbol.asyncIterator]() as AsyncIterator<Buffer>;
+  let head = Buffer.alloc(0);
+  while (head.length < HEADER_BYTES) {
+    const next = await chunks.next();
+    if (next.done) break;
+    head = Buffer.concat([head, next.value]);
   }
+  if (head.length < HEADER_BYTES || !head.subarray(0, 4).equals(MAGIC)) {
+    stream.destroy();
+    throw new Error('not a stored analysis file');
+  }
+  const first = head.subarray(HEADER_BYTES);
+  async function* rest(): AsyncGenerator<Buffer> {
+    if (first.length > 0) yield first;
+    for (let next = await chunks.next(); !next.done; next = await chunks.next()) yield next.value;
+  }
+  return { crc32: head.readUInt32LE(4), length: head.readUInt32LE(8), body: Readable.from(rest(), { objectMode: false }) };
 }
 
 // zlib's crc32_combine (GF(2) matrix method): the CRC of A‖B from crc(A), crc(B) and len(B).
@@ -102,11 +110,6 @@ export function gzipEnvelope(prefix: string, stored: { crc32: number; length: nu
   return [GZIP_HEADER, deflateRawSync(head, { finishFlush: constants.Z_SYNC_FLUSH }), body, deflateRawSync(tail), trailer];
 }
 
-/** The body of a stored file as a stream, without reading it whole. */
-export function storedBodyStream(path: string): Readable {
-  return createReadStream(path, { start: HEADER_BYTES });
-}
-
 /** The stored JSON as text (inflated on the thread pool), for the few routes that need the object. */
 export async function inflateStoredFile(bytes: Buffer): Promise<string> {
   const { body } = parseStoredFile(bytes);
@@ -115,6 +118,6 @@ export async function inflateStoredFile(bytes: Buffer): Promise<string> {
 }
 
 /** An inflating stream of a stored body, for clients that do not take gzip. */
-export function inflatingStream(path: string): Readable {
-  return storedBodyStream(path).pipe(createInflateRaw({ finishFlush: constants.Z_SYNC_FLUSH }));
+export function inflatingStream(body: Readable): Readable {
+  return body.pipe(createInflateRaw({ finishFlush: constants.Z_SYNC_FLUSH }));
 }

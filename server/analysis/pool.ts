@@ -6,14 +6,14 @@
 import { availableParallelism } from 'node:os';
 import { MessageChannel, type MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { AnalysisProgress, AnalyzeAndStoreResult, AnalyzeAndStoreTask, AnalyzeFileResult, AnalyzeFileTask, ReadRecordsResult, ReadRecordsTask } from './analyze-file.ts';
+import type { AnalyseAndStoreResult, AnalyseAndStoreTask, AnalysisProgress, AnalyseFileResult, AnalyseFileTask, ReadRecordsResult, ReadRecordsTask } from './analyse-file.ts';
 
-export type { AnalysisProgress, AnalyzeAndStoreResult, AnalyzeFileResult, ReadRecordsResult } from './analyze-file.ts';
+export type { AnalyseAndStoreResult, AnalysisProgress, AnalyseFileResult, ReadRecordsResult } from './analyse-file.ts';
 
 export interface AnalysisPool {
-  analyze(path: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeFileResult>;
-  /** Analyses and writes the stored analysis to `storeTo` in the worker; answers its parts, never the object graph. */
-  analyzeAndStore(path: string, storeTo: string, options?: { format?: AnalyzeFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyzeAndStoreResult>;
+  analyze(path: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseFileResult>;
+  /** Analyses and writes the stored analysis to the new file `storeTo` in the worker; answers its parts, never the object graph. */
+  analyseAndStore(path: string, storeTo: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseAndStoreResult>;
   /** The records of a stored trace, read in a worker too (a vector export of a big file). */
   records(path: string, format: ReadRecordsTask['format'], limit: number): Promise<ReadRecordsResult>;
   close(): Promise<void>;
@@ -36,11 +36,13 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
   });
   return {
     analyze(path, options = {}) {
-      return runWithProgress<AnalyzeFileResult>(options.onProgress, (port) => pool.run({ path, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyzeFileTask, { transferList: [port] }));
+      return runWithProgress<AnalyseFileResult>(options.onProgress, (port) =>
+        pool.run({ path, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyseFileTask, { transferList: [port] }),
+      );
     },
-    analyzeAndStore(path, storeTo, options = {}) {
-      return runWithProgress<AnalyzeAndStoreResult>(options.onProgress, (port) =>
-        pool.run({ path, storeTo, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyzeAndStoreTask, { transferList: [port], name: 'analyzeAndStore' }),
+    analyseAndStore(path, storeTo, options = {}) {
+      return runWithProgress<AnalyseAndStoreResult>(options.onProgress, (port) =>
+        pool.run({ path, storeTo, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyseAndStoreTask, { transferList: [port], name: 'analyseAndStore' }),
       );
     },
     async records(path, format, limit) {
@@ -57,7 +59,10 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
 }
 
 /** Runs a task with a progress port; a crashed worker becomes an error value. */
-async function runWithProgress<R>(onProgress: ((progress: AnalysisProgress) => void) | undefined, run: (port: MessagePort) => Promise<unknown>): Promise<R | { ok: false; error: { code: string; message: string } }> {
+async function runWithProgress<R>(
+  onProgress: ((progress: AnalysisProgress) => void) | undefined,
+  run: (port: MessagePort) => Promise<unknown>,
+): Promise<R | { ok: false; error: { code: string; message: string } }> {
   const { port1, port2 } = new MessageChannel();
   if (onProgress) port1.on('message', (progress: AnalysisProgress) => onProgress(progress));
   try {

@@ -4,7 +4,7 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { analyzeFile, analyzeAndStore, readRecords } = await import('./analyze-file.ts');
+const { analyseFile, analyseAndStore, readRecords } = await import('./analyse-file.ts');
 
-export default analyzeFile;
-export { analyzeAndStore, readRecords };
+export default analyseFile;
+export { analyseAndStore, readRecords };

@@ -1,9 +1,7 @@
 import { z } from 'zod';
-import { zodMessage } from '../errors.ts';
+import { zodMessage } from '../../shared/core/zod-message.ts';
 
-const flag = z
-  .enum(['0', '1', 'true', 'false', 'on', 'off', 'yes', 'no'])
-  .transform((value) => ['1', 'true', 'on', 'yes'].includes(value));
+const flag = z.enum(['0', '1', 'true', 'false', 'on', 'off', 'yes', 'no']).transform((value) => ['1', 'true', 'on', 'yes'].includes(value));
 
 const envSchema = z
   .object({
@@ -20,7 +18,25 @@ const envSchema = z
     NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
     PUBLIC_URL: z.url({ protocol: /^https?$/ }).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+    /** `postgres://…`: PostgreSQL and the shared job queue (a team deployment); unset: SQLite in PARLEY_DATA. */
+    DATABASE_URL: z
+      .string()
+      .regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL (leave it unset for SQLite)')
+      .optional(),
+    /** S3-compatible endpoint for trace files, e.g. `https://s3.eu-west-1.amazonaws.com`; with S3_BUCKET. */
+    S3_URL: z.url({ protocol: /^https?$/ }).optional(),
+    S3_BUCKET: z
+      .string()
+      .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, 'must be an S3 bucket name')
+      .optional(),
+    S3_REGION: z.string().min(1).default('us-east-1'),
+    /** Key prefix inside the bucket. */
+    S3_PREFIX: z
+      .string()
+      .regex(/^[\w./-]*$/, 'letters, digits, ".", "_", "-" and "/" only')
+      .default('traces/'),
   })
+  .refine((env) => (env.S3_URL === undefined) === (env.S3_BUCKET === undefined), { message: 'set S3_URL and S3_BUCKET together', path: ['S3_BUCKET'] })
   .transform((env) => ({
     ...env,
     PARLEY_DEMO: env.PARLEY_DEMO ?? env.NODE_ENV !== 'production',
@@ -41,6 +57,6 @@ export type Env = z.infer<typeof envSchema>;
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const cleaned = Object.fromEntries(Object.entries(source).filter(([, value]) => value !== undefined && value !== ''));
   const parsed = envSchema.safeParse(cleaned);
-  if (!parsed.success) throw new Error(`Invalid environment: ${zodMessage(parsed.error, 'env')}`);
+  if (!parsed.success) throw new Error(`Invalid environment: ${zodMessage(parsed.error, { where: 'env' })}`);
   return parsed.data;
 }

@@ -6,9 +6,11 @@ import { join } from 'node:path';
  * The key that signs session cookies: PARLEY_SECRET when set; in production it must be set; otherwise
  * a random key generated once into `<dataDir>/secret` (mode 0600) so sessions survive restarts.
  */
-export function resolveSecret(options: { envSecret?: string; dataDir: string; production: boolean }): string {
+export function resolveSecret(options: { envSecret?: string; dataDir: string; production: boolean; shared?: boolean }): string {
   if (options.envSecret) return options.envSecret;
   if (options.production) throw new Error('PARLEY_SECRET must be set (32 characters or more) when NODE_ENV=production');
+  // Several instances share one database: a key generated on one machine would sign out users on the others.
+  if (options.shared) throw new Error('PARLEY_SECRET must be set (32 characters or more, the same on every instance) when DATABASE_URL is set');
   const file = join(options.dataDir, 'secret');
   mkdirSync(options.dataDir, { recursive: true });
   try {

@@ -1,6 +1,8 @@
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
 import { Trace, TraceChunk, TraceComment, TraceItem } from './trace-entities.ts';
 import { libraryEntities } from './library-entities.ts';
+import { ReportShareLink } from '../features/traces/share-link-entity.ts';
+import { ImportMapping } from '../features/import-mappings/entity.ts';
 
 /**
  * Every table of the server. Dates come from the injected clock, so no column has a database default.
@@ -89,7 +91,6 @@ export const AuditEvent = defineEntity({
 });
 export type IAuditEvent = InferEntity<typeof AuditEvent>;
 
-
 export const DeviceUnderTest = defineEntity({
   name: 'DeviceUnderTest',
   properties: (p) => ({
@@ -109,4 +110,4 @@ export const DeviceUnderTest = defineEntity({
 });
 export type IDeviceUnderTest = InferEntity<typeof DeviceUnderTest>;
 
-export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, TraceItem, TraceChunk, ...libraryEntities];
+export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, TraceItem, TraceChunk, ...libraryEntities, ReportShareLink, ImportMapping];

@@ -3,6 +3,8 @@ import { DeviceUnderTest, Organisation, User, type Role } from './entities.ts';
 import type { Clock } from '../context.ts';
 import { checkPassword, hashPassword } from '../features/auth/passwords.ts';
 import { seedDemoTraces } from './demo-traces/seed-traces.ts';
+import type { TraceStore } from '../storage/types.ts';
+import { createLocalTraceStore } from '../storage/local-store.ts';
 import { seedTeamLibrary } from '../features/vectors/seed.ts';
 
 export const demoPassword = 'parley-demo';
@@ -65,7 +67,7 @@ export const demoDevices = [
  * With a `dataDir` (the server's PARLEY_DATA) it also stores and analyses the demo traces and
  * fills the team library from the built-in `vectors/` folder.
  */
-export async function seedDemo(em: EntityManager, clock: Clock, options: { dataDir?: string } = {}): Promise<boolean> {
+export async function seedDemo(em: EntityManager, clock: Clock, options: { dataDir?: string; traceStore?: TraceStore } = {}): Promise<boolean> {
   if ((await em.count(User)) > 0 || (await em.count(Organisation)) > 0) return false;
   const now = clock.now();
   const passwordHash = await hashPassword(demoPassword);
@@ -75,7 +77,7 @@ export async function seedDemo(em: EntityManager, clock: Clock, options: { dataD
   }
   for (const device of demoDevices) em.create(DeviceUnderTest, { ...device, createdAt: now, updatedAt: now });
   await em.flush();
-  if (options.dataDir) await seedDemoTraces(em, clock, options.dataDir);
+  if (options.dataDir) await seedDemoTraces(em, clock, options.traceStore ?? createLocalTraceStore(options.dataDir));
   if (options.dataDir) await seedTeamLibrary(em, clock);
   return true;
 }

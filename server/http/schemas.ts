@@ -11,8 +11,4 @@ export const pageQuery = z.object({
 });
 
 /** An e-mail address, trimmed and lower-cased, so one person has one spelling of it. */
-export const emailSchema = z
-  .string()
-  .trim()
-  .toLowerCase()
-  .pipe(z.email('must be an e-mail address').max(254));
+export const emailSchema = z.string().trim().toLowerCase().pipe(z.email('must be an e-mail address').max(254));

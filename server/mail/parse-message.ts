@@ -67,12 +67,10 @@ function decodeBody(part: Part): string {
 
 /** RFC 2047 encoded words such as `=?UTF-8?Q?Caf=C3=A9?=` in Subject and address headers. */
 export function decodeWords(value: string): string {
-  return value
-    .replace(/(=\?[^?]+\?[BbQq]\?[^?]*\?=)\s+(?==\?)/g, '$1')
-    .replace(/=\?([^?]+)\?([BbQq])\?([^?]*)\?=/g, (_all, charset: string, kind: string, data: string) => {
-      if (kind.toUpperCase() === 'B') return decodeBytes(Buffer.from(data, 'base64'), charset);
-      return decodeBytes(bytesOfQuotedPrintable(data.replace(/_/g, ' ')), charset);
-    });
+  return value.replace(/(=\?[^?]+\?[BbQq]\?[^?]*\?=)\s+(?==\?)/g, '$1').replace(/=\?([^?]+)\?([BbQq])\?([^?]*)\?=/g, (_all, charset: string, kind: string, data: string) => {
+    if (kind.toUpperCase() === 'B') return decodeBytes(Buffer.from(data, 'base64'), charset);
+    return decodeBytes(bytesOfQuotedPrintable(data.replace(/_/g, ' ')), charset);
+  });
 }
 
 function collect(part: Part, found: { text?: string; html?: string }): void {

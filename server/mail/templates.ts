@@ -1,7 +1,6 @@
 import type { OutgoingMail } from './mailer.ts';
 
-const escapeHtml = (text: string) =>
-  text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 function layout(paragraphs: string[], link: { href: string; label: string }): string {
   const body = paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n');

@@ -37,6 +37,10 @@ export function isPropertyVectorText(text: string): boolean {
   }
 }
 
+function goesToSandbox(task: RunVectorTask): boolean {
+  return task.kind === undefined || task.kind === null ? isPropertyVectorText(task.text) : task.kind === 'property';
+}
+
 /** Validation and matching here (small for a property vector), the code itself in the sandbox. */
 async function runInSandbox(task: RunVectorTask, sandbox: PropertySandbox): Promise<VectorResult> {
   const result = await runVectorText(task.text, task.vectorId, { checkProperty: (code, job) => sandbox.check(code, job) });
@@ -65,12 +69,14 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
     resourceLimits: { maxOldGenerationSizeMb: 512 },
   });
   const run = async (task: RunVectorTask): Promise<VectorResult> => {
-    if (isPropertyVectorText(task.text)) return runInSandbox(task, sandbox);
+    if (goesToSandbox(task)) return runInSandbox(task, sandbox);
     try {
       return (await pool.run(task, { signal: AbortSignal.timeout(timeoutMs) })) as VectorResult;
     } catch (cause) {
       const timedOut = cause instanceof Error && (cause.name === 'AbortError' || cause.name === 'TimeoutError' || /abort/i.test(cause.message));
-      const message = timedOut ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)` : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
+      const message = timedOut
+        ? `stopped after ${Math.round(timeoutMs / 1_000)} s (a vector must finish within that)`
+        : `the runner stopped unexpectedly (${cause instanceof Error ? cause.message : String(cause)})`;
       return { id: task.vectorId, ok: false, message, durationMs: timedOut ? timeoutMs : 0 };
     }
   };
@@ -79,12 +85,15 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
     threads: maxThreads,
     async runBatch(tasks) {
       const results = new Array<VectorResult>(tasks.length);
-      const inThreads = tasks.flatMap((task, index) => (isPropertyVectorText(task.text) ? [] : [{ task, index }]));
-      const sandboxed = tasks.flatMap((task, index) => (isPropertyVectorText(task.text) ? [{ task, index }] : []));
+      const inThreads = tasks.flatMap((task, index) => (goesToSandbox(task) ? [] : [{ task, index }]));
+      const sandboxed = tasks.flatMap((task, index) => (goesToSandbox(task) ? [{ task, index }] : []));
       const batch = async () => {
         if (inThreads.length === 0) return;
         try {
-          const out = (await pool.run(inThreads.map((x) => x.task), { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) })) as VectorResult[];
+          const out = (await pool.run(
+            inThreads.map((x) => x.task),
+            { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) },
+          )) as VectorResult[];
           out.forEach((result, i) => (results[inThreads[i]!.index] = result));
         } catch {
           // One vector stuck or crashing its worker: run that batch one by one, each with its own limit.

@@ -47,7 +47,7 @@ afterAll(async () => {
 const property = (body: string, atLoad = ''): string => `${atLoad}\nexport default ({ fc }) => fc.property(fc.constant(0), () => { ${body}; return true; });`;
 const without = ({ durationMs: _durationMs, ...rest }: { durationMs?: number }) => rest;
 
-describe('the sandbox gives the checker\'s own results', () => {
+describe("the sandbox gives the checker's own results", () => {
   it('every shipped property vector: same verdict, counterexample and shrink path as in process', async () => {
     expect(shipped.length).toBeGreaterThanOrEqual(6);
     for (const text of shipped) {
@@ -76,7 +76,7 @@ describe.each([
 ])('code that reaches out, with %s', (_name, sandbox) => {
   const denied = /Access to this API has been restricted \(property code runs in a sandbox/;
 
-  it('cannot read the data folder\'s secret or database, nor the repository', async () => {
+  it("cannot read the data folder's secret or database, nor the repository", async () => {
     for (const path of [secretPath, join(dataDir, 'parley.sqlite'), join(repo, 'package.json')]) {
       const atLoad = await sandbox().check(property('', `process.getBuiltinModule('node:fs').readFileSync(${JSON.stringify(path)}, 'utf8');`), { runs: 1, seed: 1 });
       expect(atLoad.error?.code).toBe('property.load');

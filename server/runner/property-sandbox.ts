@@ -98,10 +98,13 @@ export function createPropertySandbox(options: SandboxOptions): PropertySandbox 
     if (bundled === undefined) {
       bundled = bundleChecker();
       // A server that exits without closing the pool leaves no bundle behind either.
-      bundled.then((bundle) => {
-        bundleDir = bundle.dir;
-        process.once('exit', removeBundle);
-      }, () => undefined);
+      bundled.then(
+        (bundle) => {
+          bundleDir = bundle.dir;
+          process.once('exit', removeBundle);
+        },
+        () => undefined,
+      );
     }
     launch ??= bundled.then((bundle) => planLaunch(bundle.path, options.layers ?? 'all'));
     return launch;

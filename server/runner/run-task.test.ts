@@ -4,7 +4,16 @@ import { runVectorTask } from './run-task.ts';
 
 /** The run pool's threads never evaluate property code: the pool routes it to the sandbox, and a worker refuses it. */
 describe('property vectors and the thread pool', () => {
-  const property = { vector: 1, id: 'property/any', title: 'Any', tags: [], ref: 'common practice', kind: 'property', input: { code: 'export default ({ fc }) => fc.property(fc.constant(0), () => true);', runs: 1, seed: 1 }, expect: { holds: true } };
+  const property = {
+    vector: 1,
+    id: 'property/any',
+    title: 'Any',
+    tags: [],
+    ref: 'common practice',
+    kind: 'property',
+    input: { code: 'export default ({ fc }) => fc.property(fc.constant(0), () => true);', runs: 1, seed: 1 },
+    expect: { holds: true },
+  };
 
   it('a worker refuses a property vector with a clear message', async () => {
     const result = await runVectorTask({ text: JSON.stringify(property), vectorId: property.id, vectorsRoot: '/nonexistent' });

@@ -14,6 +14,11 @@ export interface RunVectorTask {
   vectorId: string;
   /** Folder of the built-in library, for trace vectors that name a file. */
   vectorsRoot: string;
+  /**
+   * The vector's kind as the library stored it, which spares the request thread parsing the text
+   * to route it; a worker still refuses property code whatever this says.
+   */
+  kind?: string | null;
 }
 
 export function libraryFileReader(vectorsRoot: string, vectorId: string): (path: string) => Promise<string> {
@@ -26,7 +31,7 @@ export function libraryFileReader(vectorsRoot: string, vectorId: string): (path:
 }
 
 async function refuseProperty(_code: string, options: { runs: number; seed: number }): Promise<PropertyOutcome> {
-  return { holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.sandbox', message: 'property vectors run only in the property sandbox, not in the server\'s run pool' } };
+  return { holds: false, numRuns: 0, seed: options.seed, error: { code: 'property.sandbox', message: "property vectors run only in the property sandbox, not in the server's run pool" } };
 }
 
 export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> {

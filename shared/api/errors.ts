@@ -32,6 +32,13 @@ export const apiErrorCodes = [
   'mail.not-sent',
   // Resources
   'trace.not-found',
+  'share-link.invalid',
+  'share-link.not-found',
+  'share-link.not-yours',
+  'import-mapping.too-many',
+  'import-mapping.name-taken',
+  'import-mapping.not-found',
+  'import-mapping.not-yours',
   'trace.not-a-trace',
   'trace.no-file',
   'trace.file-missing',

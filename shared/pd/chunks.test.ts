@@ -4,8 +4,17 @@ import { decodeMessage } from './decode-message.ts';
 import type { MessageInput } from './encode-message.ts';
 
 const fixed = (voltageMv: number, maxCurrentMa: number) => ({
-  kind: 'fixed' as const, voltageMv, maxCurrentMa, peakCurrent: 0, dualRolePower: false, usbSuspendSupported: false, unconstrainedPower: false,
-  usbCommunicationsCapable: false, dualRoleData: false, unchunkedExtendedMessages: false, eprModeCapable: true,
+  kind: 'fixed' as const,
+  voltageMv,
+  maxCurrentMa,
+  peakCurrent: 0,
+  dualRolePower: false,
+  usbSuspendSupported: false,
+  unconstrainedPower: false,
+  usbCommunicationsCapable: false,
+  dualRoleData: false,
+  unchunkedExtendedMessages: false,
+  eprModeCapable: true,
 });
 
 // An EPR_Source_Capabilities (USB PD R3.2 V1.1 §6.5.15.1): SPR offers in positions 1–7 (unused ones
@@ -13,8 +22,13 @@ const fixed = (voltageMv: number, maxCurrentMa: number) => ({
 const EPR_CAPS: MessageInput = {
   header: { messageType: 'EPR_Source_Capabilities', messageId: 3, specRevision: '3.0', powerRole: 'source', dataRole: 'dfp' },
   objects: [
-    fixed(5000, 3000), fixed(9000, 3000), fixed(15_000, 3000), fixed(20_000, 5000),
-    { kind: 'raw', raw: '0x00000000' }, { kind: 'raw', raw: '0x00000000' }, { kind: 'raw', raw: '0x00000000' },
+    fixed(5000, 3000),
+    fixed(9000, 3000),
+    fixed(15_000, 3000),
+    fixed(20_000, 5000),
+    { kind: 'raw', raw: '0x00000000' },
+    { kind: 'raw', raw: '0x00000000' },
+    { kind: 'raw', raw: '0x00000000' },
     fixed(28_000, 5000),
     fixed(36_000, 5000),
     { kind: 'epr-avs', minVoltageMv: 15_000, maxVoltageMv: 36_000, pdpW: 180, peakCurrent: 0 },
@@ -39,7 +53,11 @@ describe('encodeChunks + createChunkAssembler', () => {
     expect(done.state).toBe('complete');
     if (done.state !== 'complete') return;
     expect(done.message.objects).toHaveLength(10);
-    expect(done.message.objects.slice(4, 7)).toEqual([{ kind: 'raw', raw: '0x00000000' }, { kind: 'raw', raw: '0x00000000' }, { kind: 'raw', raw: '0x00000000' }]);
+    expect(done.message.objects.slice(4, 7)).toEqual([
+      { kind: 'raw', raw: '0x00000000' },
+      { kind: 'raw', raw: '0x00000000' },
+      { kind: 'raw', raw: '0x00000000' },
+    ]);
     expect(done.message.objects[7]).toMatchObject({ kind: 'fixed', voltageMv: 28_000, maxCurrentMa: 5000 });
     expect(done.message.objects[9]).toMatchObject({ kind: 'epr-avs', maxVoltageMv: 36_000, pdpW: 180 });
     expect(done.message.payload).toHaveLength(80);

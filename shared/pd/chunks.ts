@@ -69,7 +69,13 @@ export function createChunkAssembler(): ChunkAssembler {
       if (!entry) return { state: 'error', error: { code: 'decode.chunk', message: `chunk ${ext.chunkNumber} of ${message.header.messageType} arrived without chunk 0` } };
       if (ext.chunkNumber !== entry.next || ext.dataSize !== entry.first.extendedHeader?.dataSize) {
         open.delete(key);
-        return { state: 'error', error: { code: 'decode.chunk', message: `expected chunk ${entry.next} of ${message.header.messageType} (Data Size ${entry.first.extendedHeader?.dataSize}), got chunk ${ext.chunkNumber} (Data Size ${ext.dataSize})` } };
+        return {
+          state: 'error',
+          error: {
+            code: 'decode.chunk',
+            message: `expected chunk ${entry.next} of ${message.header.messageType} (Data Size ${entry.first.extendedHeader?.dataSize}), got chunk ${ext.chunkNumber} (Data Size ${ext.dataSize})`,
+          },
+        };
       }
       entry.parts.push(message.payload ?? '');
       entry.next++;

@@ -53,7 +53,8 @@ export function decodeExtendedMessage(body: Uint8Array, header: MessageHeader, w
       return fail('decode.length', `a chunk carrying ${dataBytes} data bytes has ${objects} data objects, but the header says ${header.numDataObjects}`, { offset: 0 });
     }
     const expected = 2 + 4 * objects;
-    if (body.length !== expected) return fail('decode.length', `the header says ${objects} data objects (${expected} bytes) but ${body.length} bytes were given`, { offset: Math.min(body.length, expected) });
+    if (body.length !== expected)
+      return fail('decode.length', `the header says ${objects} data objects (${expected} bytes) but ${body.length} bytes were given`, { offset: Math.min(body.length, expected) });
     for (let i = 4 + dataBytes; i < body.length; i++) {
       if (body[i] !== 0) {
         warnings.push(decodeFinding('decode.reserved-bits', `The padding after the chunk's data is not zero (byte ${i}).`, { ref: 'USB PD R3.2 V1.1 §6.2.1.2.1 (chunk padding)' }));
@@ -61,9 +62,13 @@ export function decodeExtendedMessage(body: Uint8Array, header: MessageHeader, w
       }
     }
   } else {
-    if (header.numDataObjects !== 0) warnings.push(decodeFinding('decode.reserved-bits', 'Number of Data Objects should be zero in an unchunked extended message (from memory).', { ref: 'USB PD R3.2 V1.1 §6.2.1.1.2 (from memory)' }));
+    if (header.numDataObjects !== 0)
+      warnings.push(
+        decodeFinding('decode.reserved-bits', 'Number of Data Objects should be zero in an unchunked extended message (from memory).', { ref: 'USB PD R3.2 V1.1 §6.2.1.1.2 (from memory)' }),
+      );
     const expected = 4 + ext.dataSize;
-    if (body.length !== expected) return fail('decode.length', `the extended header's Data Size is ${ext.dataSize} bytes (${expected} in all) but ${body.length} bytes were given`, { offset: Math.min(body.length, expected) });
+    if (body.length !== expected)
+      return fail('decode.length', `the extended header's Data Size is ${ext.dataSize} bytes (${expected} in all) but ${body.length} bytes were given`, { offset: Math.min(body.length, expected) });
   }
   const block = body.subarray(4, 4 + dataBytes);
   const part: ExtendedPart = { extendedHeader: ext, objects: [], payload: toHex(block) };

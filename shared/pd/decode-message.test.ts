@@ -22,7 +22,12 @@ describe('decodeMessage', () => {
     if (!r.ok) return;
     expect(r.message.header).toMatchObject({ messageType: 'Source_Capabilities', numDataObjects: 6 });
     expect(r.message.objects.map((o) => [o.kind, (o as { voltageMv?: number }).voltageMv ?? (o as { maxVoltageMv?: number }).maxVoltageMv])).toEqual([
-      ['fixed', 5000], ['fixed', 9000], ['fixed', 12_000], ['fixed', 15_000], ['fixed', 20_000], ['pps', 11_000],
+      ['fixed', 5000],
+      ['fixed', 9000],
+      ['fixed', 12_000],
+      ['fixed', 15_000],
+      ['fixed', 20_000],
+      ['pps', 11_000],
     ]);
     expect(r.message.objects[4]).toMatchObject({ maxCurrentMa: 3250 });
     expect(r.warnings).toEqual([]);
@@ -79,7 +84,17 @@ describe('decodeMessage', () => {
     const m = encodeMessage({
       header: { messageType: 'EPR_Request', messageId: 2, specRevision: '3.0', powerRole: 'sink', dataRole: 'ufp' },
       objects: [
-        { kind: 'rdo-avs', objectPosition: 8, outputVoltageMv: 28_000, operatingCurrentMa: 5000, capabilityMismatch: false, usbCommunicationsCapable: false, noUsbSuspend: true, unchunkedExtendedMessages: false, eprModeCapable: true },
+        {
+          kind: 'rdo-avs',
+          objectPosition: 8,
+          outputVoltageMv: 28_000,
+          operatingCurrentMa: 5000,
+          capabilityMismatch: false,
+          usbCommunicationsCapable: false,
+          noUsbSuspend: true,
+          unchunkedExtendedMessages: false,
+          eprModeCapable: true,
+        },
         { kind: 'epr-avs', minVoltageMv: 15_000, maxVoltageMv: 48_000, pdpW: 240, peakCurrent: 0 },
       ],
     });

@@ -55,7 +55,8 @@ function decode(bytes: Uint8Array, options: DecodeOptions): DecodeResult {
   if (header.messageType === 'Reserved') {
     warnings.push(decodeFinding('decode.reserved-type', `Message type code ${headerRaw & 0x1f} is reserved for ${header.category} messages.`));
   }
-  if (header.specRevision === 'reserved') warnings.push(decodeFinding('decode.reserved-bits', 'The header\'s Specification Revision is 11b, which is reserved.', { ref: 'USB PD R3.2 V1.1 §6.2.1.1.5, Table 6.1' }));
+  if (header.specRevision === 'reserved')
+    warnings.push(decodeFinding('decode.reserved-bits', "The header's Specification Revision is 11b, which is reserved.", { ref: 'USB PD R3.2 V1.1 §6.2.1.1.5, Table 6.1' }));
   if (isCableSop(sop) && headerRaw & HEADER_CABLE_RESERVED_MASK) {
     warnings.push(decodeFinding('decode.reserved-bits', `Header bit 5 is reserved on ${sop} but is set.`, { ref: 'USB PD R3.2 V1.1 §6.2.1.1.4, Table 6.1' }));
   }

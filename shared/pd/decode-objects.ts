@@ -83,7 +83,9 @@ function decodeRequestRdo(type: string, raw: number, words: ArrayLike<number>, c
   const epr = type === 'EPR_Request';
   const maxPosition = epr ? 13 : 7;
   if (position === 0 || position > maxPosition) {
-    warnings.push(decodeFinding('decode.object-position', `The Request names object position ${position}, which is reserved${epr ? '' : ' outside an EPR_Request (positions 1–7 here)'}.`, { object: 1 }));
+    warnings.push(
+      decodeFinding('decode.object-position', `The Request names object position ${position}, which is reserved${epr ? '' : ' outside an EPR_Request (positions 1–7 here)'}.`, { object: 1 }),
+    );
   }
   let referenced: OfferLike | undefined;
   if (epr && words.length > 1) referenced = decodeSourcePdo(words[1]! >>> 0);

@@ -5,7 +5,13 @@
 import type { DataObject } from './types.ts';
 
 const UNIT_SUFFIXES: readonly [suffix: string, unit: string, divisor: number][] = [
-  ['Mv', 'V', 1000], ['Ma', 'A', 1000], ['Mw', 'W', 1000], ['Mwh', 'Wh', 1000], ['Ms', 'ms', 1], ['W', 'W', 1], ['C', '°C', 1],
+  ['Mv', 'V', 1000],
+  ['Ma', 'A', 1000],
+  ['Mw', 'W', 1000],
+  ['Mwh', 'Wh', 1000],
+  ['Ms', 'ms', 1],
+  ['W', 'W', 1],
+  ['C', '°C', 1],
 ];
 
 /** Identifiers shown in hex, as the specification and USB descriptors print them. */

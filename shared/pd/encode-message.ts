@@ -60,7 +60,12 @@ function encode(message: MessageInput): Uint8Array {
     body = new Uint8Array(2 + 4 * objects.length);
     const view = new DataView(body.buffer);
     const sink = h.messageType === 'Sink_Capabilities';
-    for (let i = 0; i < objects.length; i++) view.setUint32(2 + 4 * i, at(`objects[${i}]`, () => encodeObject(objects[i]!, sink)), true);
+    for (let i = 0; i < objects.length; i++)
+      view.setUint32(
+        2 + 4 * i,
+        at(`objects[${i}]`, () => encodeObject(objects[i]!, sink)),
+        true,
+      );
     setHeader(body, { ...h, numDataObjects: objects.length, extended: false });
   }
   if (message.crc === undefined) return body;
@@ -103,7 +108,12 @@ function dataBlock(message: MessageInput, objects: DataObjectInput[], chunkNumbe
     const out = new Uint8Array(4 * objects.length);
     const view = new DataView(out.buffer);
     const sink = type === 'EPR_Sink_Capabilities';
-    for (let i = 0; i < objects.length; i++) view.setUint32(4 * i, at(`objects[${i}]`, () => encodeObject(objects[i]!, sink)), true);
+    for (let i = 0; i < objects.length; i++)
+      view.setUint32(
+        4 * i,
+        at(`objects[${i}]`, () => encodeObject(objects[i]!, sink)),
+        true,
+      );
     return out;
   }
   if (hasDataBlock(type) && message.data !== undefined && chunkNumber === 0) return encodeDataBlock(type, message.data);

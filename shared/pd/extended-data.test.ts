@@ -31,7 +31,10 @@ describe('extended data blocks', () => {
     const block = '34127856000000000102050301024f510000000001030041' + '00';
     const data = decodeDataBlock('Source_Capabilities_Extended', bytes(block));
     expect(data).toMatchObject({
-      vid: 0x1234, pid: 0x5678, holdupTimeMs: 3, sprSourcePdpW: 65,
+      vid: 0x1234,
+      pid: 0x5678,
+      holdupTimeMs: 3,
+      sprSourcePdpW: 65,
       voltageRegulationFields: { loadStepMaPerUs: 500, loadStepMagnitudePercent: 90 },
       complianceFlags: { lps: true, ps1: false, ps2: false },
       touchCurrentFlags: { lowTouchCurrentEps: false, groundPinSupported: true },
@@ -63,7 +66,14 @@ describe('extended data blocks', () => {
 
   it('Sink_Capabilities_Extended (§6.5.13): the PDP fields in W', () => {
     const block = '341278560000000001020100000000000000' + '0f1e2d' + '8c8c8c';
-    expect(decodeDataBlock('Sink_Capabilities_Extended', bytes(block))).toMatchObject({ vid: 0x1234, skedbVersion: 1, sinkMinimumPdpW: 15, sinkOperationalPdpW: 30, sinkMaximumPdpW: 45, eprSinkMaximumPdpW: 140 });
+    expect(decodeDataBlock('Sink_Capabilities_Extended', bytes(block))).toMatchObject({
+      vid: 0x1234,
+      skedbVersion: 1,
+      sinkMinimumPdpW: 15,
+      sinkOperationalPdpW: 30,
+      sinkMaximumPdpW: 45,
+      eprSinkMaximumPdpW: 140,
+    });
     roundTrip('Sink_Capabilities_Extended', block);
   });
 

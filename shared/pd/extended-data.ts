@@ -39,12 +39,23 @@ export const SOURCE_CAPS_EXTENDED_LAYOUT: BlockLayout = {
   messageType: 'Source_Capabilities_Extended',
   ref: 'USB PD R3.2 V1.1 §6.5.1, Source Capabilities Extended Data Block (R3.1 Table 6.54)',
   fields: [
-    u16('vid', 'Vendor ID'), u16('pid', 'Product ID'), { name: 'xid', size: 4, label: 'XID' },
-    u8('fwVersion', 'Firmware Version'), u8('hwVersion', 'Hardware Version'), u8('voltageRegulation', 'Voltage Regulation'),
-    u8('holdupTimeMs', 'Holdup Time', 'ms'), u8('compliance', 'Compliance'), u8('touchCurrent', 'Touch Current'),
-    u16('peakCurrent1', 'Peak Current1'), u16('peakCurrent2', 'Peak Current2'), u16('peakCurrent3', 'Peak Current3'),
-    u8('touchTemp', 'Touch Temp'), u8('sourceInputs', 'Source Inputs'), u8('batteries', 'Number of Batteries/Battery Slots'),
-    u8('sprSourcePdpW', 'SPR Source PDP Rating', 'W'), u8('eprSourcePdpW', 'EPR Source PDP Rating', 'W'),
+    u16('vid', 'Vendor ID'),
+    u16('pid', 'Product ID'),
+    { name: 'xid', size: 4, label: 'XID' },
+    u8('fwVersion', 'Firmware Version'),
+    u8('hwVersion', 'Hardware Version'),
+    u8('voltageRegulation', 'Voltage Regulation'),
+    u8('holdupTimeMs', 'Holdup Time', 'ms'),
+    u8('compliance', 'Compliance'),
+    u8('touchCurrent', 'Touch Current'),
+    u16('peakCurrent1', 'Peak Current1'),
+    u16('peakCurrent2', 'Peak Current2'),
+    u16('peakCurrent3', 'Peak Current3'),
+    u8('touchTemp', 'Touch Temp'),
+    u8('sourceInputs', 'Source Inputs'),
+    u8('batteries', 'Number of Batteries/Battery Slots'),
+    u8('sprSourcePdpW', 'SPR Source PDP Rating', 'W'),
+    u8('eprSourcePdpW', 'EPR Source PDP Rating', 'W'),
   ],
 };
 
@@ -52,9 +63,13 @@ export const STATUS_LAYOUT: BlockLayout = {
   messageType: 'Status',
   ref: 'USB PD R3.2 V1.1 §6.5.2, Status Data Block (R3.1 Table 6.55)',
   fields: [
-    u8('internalTempC', 'Internal Temp (°C; 0 = not supported)', '°C'), u8('presentInput', 'Present Input'),
-    u8('presentBatteryInput', 'Present Battery Input'), u8('eventFlags', 'Event Flags'), u8('temperatureStatus', 'Temperature Status'),
-    u8('powerStatus', 'Power Status'), u8('powerStateChange', 'Power State Change'),
+    u8('internalTempC', 'Internal Temp (°C; 0 = not supported)', '°C'),
+    u8('presentInput', 'Present Input'),
+    u8('presentBatteryInput', 'Present Battery Input'),
+    u8('eventFlags', 'Event Flags'),
+    u8('temperatureStatus', 'Temperature Status'),
+    u8('powerStatus', 'Power Status'),
+    u8('powerStateChange', 'Power State Change'),
   ],
 };
 
@@ -68,7 +83,8 @@ export const BATTERY_CAPABILITIES_LAYOUT: BlockLayout = {
   messageType: 'Battery_Capabilities',
   ref: 'USB PD R3.2 V1.1 §6.5.5, Battery Capability Data Block (from memory)',
   fields: [
-    u16('vid', 'Vendor ID'), u16('pid', 'Product ID'),
+    u16('vid', 'Vendor ID'),
+    u16('pid', 'Product ID'),
     u16('batteryDesignCapacity', 'Battery Design Capacity (0.1 Wh; 0 = no battery, 0xFFFF = unknown)'),
     u16('batteryLastFullChargeCapacity', 'Battery Last Full Charge Capacity (0.1 Wh; 0 = no battery, 0xFFFF = unknown)'),
     u8('batteryType', 'Battery Type (B0: Invalid Battery reference)'),
@@ -85,12 +101,24 @@ export const SINK_CAPS_EXTENDED_LAYOUT: BlockLayout = {
   messageType: 'Sink_Capabilities_Extended',
   ref: 'USB PD R3.2 V1.1 §6.5.13, Sink Capabilities Extended Data Block (from memory)',
   fields: [
-    u16('vid', 'Vendor ID'), u16('pid', 'Product ID'), { name: 'xid', size: 4, label: 'XID' },
-    u8('fwVersion', 'Firmware Version'), u8('hwVersion', 'Hardware Version'), u8('skedbVersion', 'SKEDB Version'),
-    u8('loadStep', 'Load Step (00b 150 mA/µs, 01b 500 mA/µs)'), u16('sinkLoadCharacteristics', 'Sink Load Characteristics'),
-    u8('compliance', 'Compliance'), u8('touchTemp', 'Touch Temp'), u8('batteryInfo', 'Battery Info'), u8('sinkModes', 'Sink Modes'),
-    u8('sinkMinimumPdpW', 'Sink Minimum PDP', 'W'), u8('sinkOperationalPdpW', 'Sink Operational PDP', 'W'), u8('sinkMaximumPdpW', 'Sink Maximum PDP', 'W'),
-    u8('eprSinkMinimumPdpW', 'EPR Sink Minimum PDP', 'W'), u8('eprSinkOperationalPdpW', 'EPR Sink Operational PDP', 'W'), u8('eprSinkMaximumPdpW', 'EPR Sink Maximum PDP', 'W'),
+    u16('vid', 'Vendor ID'),
+    u16('pid', 'Product ID'),
+    { name: 'xid', size: 4, label: 'XID' },
+    u8('fwVersion', 'Firmware Version'),
+    u8('hwVersion', 'Hardware Version'),
+    u8('skedbVersion', 'SKEDB Version'),
+    u8('loadStep', 'Load Step (00b 150 mA/µs, 01b 500 mA/µs)'),
+    u16('sinkLoadCharacteristics', 'Sink Load Characteristics'),
+    u8('compliance', 'Compliance'),
+    u8('touchTemp', 'Touch Temp'),
+    u8('batteryInfo', 'Battery Info'),
+    u8('sinkModes', 'Sink Modes'),
+    u8('sinkMinimumPdpW', 'Sink Minimum PDP', 'W'),
+    u8('sinkOperationalPdpW', 'Sink Operational PDP', 'W'),
+    u8('sinkMaximumPdpW', 'Sink Maximum PDP', 'W'),
+    u8('eprSinkMinimumPdpW', 'EPR Sink Minimum PDP', 'W'),
+    u8('eprSinkOperationalPdpW', 'EPR Sink Operational PDP', 'W'),
+    u8('eprSinkMaximumPdpW', 'EPR Sink Maximum PDP', 'W'),
   ],
 };
 
@@ -125,7 +153,8 @@ function addSubFields(messageType: string, data: Record<string, unknown>): void 
   const n = (name: string) => (typeof data[name] === 'number' ? (data[name] as number) : undefined);
   if (messageType === 'Status') {
     const input = n('presentInput');
-    if (input !== undefined) data.presentInputFlags = { externalPower: bit(input, 1), externalPowerAc: bit(input, 2), internalPowerFromBattery: bit(input, 3), internalPowerFromNonBattery: bit(input, 4) };
+    if (input !== undefined)
+      data.presentInputFlags = { externalPower: bit(input, 1), externalPowerAc: bit(input, 2), internalPowerFromBattery: bit(input, 3), internalPowerFromNonBattery: bit(input, 4) };
     const battery = n('presentBatteryInput');
     if (battery !== undefined) data.presentBatteryInputFlags = { fixedBatteries: battery & 0xf, hotSwappableBatteries: battery >> 4 };
     const events = n('eventFlags');
@@ -133,9 +162,17 @@ function addSubFields(messageType: string, data: Record<string, unknown>): void 
     const temperature = n('temperatureStatus');
     if (temperature !== undefined) data.temperatureStatusText = TEMPERATURE_STATUS[(temperature >> 1) & 3];
     const power = n('powerStatus');
-    if (power !== undefined) data.powerStatusFlags = { limitedByCable: bit(power, 1), limitedByOtherPorts: bit(power, 2), limitedByExternalPower: bit(power, 3), limitedByEventFlags: bit(power, 4), limitedByTemperature: bit(power, 5) };
+    if (power !== undefined)
+      data.powerStatusFlags = {
+        limitedByCable: bit(power, 1),
+        limitedByOtherPorts: bit(power, 2),
+        limitedByExternalPower: bit(power, 3),
+        limitedByEventFlags: bit(power, 4),
+        limitedByTemperature: bit(power, 5),
+      };
     const change = n('powerStateChange');
-    if (change !== undefined) data.powerStateChangeFields = { newPowerState: NEW_POWER_STATE[change & 7] ?? change & 7, newPowerStateIndicator: POWER_STATE_INDICATOR[(change >> 3) & 7] ?? (change >> 3) & 7 };
+    if (change !== undefined)
+      data.powerStateChangeFields = { newPowerState: NEW_POWER_STATE[change & 7] ?? change & 7, newPowerStateIndicator: POWER_STATE_INDICATOR[(change >> 3) & 7] ?? (change >> 3) & 7 };
   } else if (messageType === 'Source_Capabilities_Extended') {
     const regulation = n('voltageRegulation');
     if (regulation !== undefined) data.voltageRegulationFields = { loadStepMaPerUs: (regulation & 3) === 1 ? 500 : 150, loadStepMagnitudePercent: bit(regulation, 2) ? 90 : 25 };
@@ -154,7 +191,10 @@ function addSubFields(messageType: string, data: Record<string, unknown>): void 
     const batteries = n('batteries');
     if (batteries !== undefined) data.batteriesFields = { fixedBatteries: batteries & 0xf, hotSwappableBatteries: batteries >> 4 };
   } else if (messageType === 'Battery_Capabilities') {
-    for (const [k, out] of [['batteryDesignCapacity', 'batteryDesignCapacityMwh'], ['batteryLastFullChargeCapacity', 'batteryLastFullChargeCapacityMwh']] as const) {
+    for (const [k, out] of [
+      ['batteryDesignCapacity', 'batteryDesignCapacityMwh'],
+      ['batteryLastFullChargeCapacity', 'batteryLastFullChargeCapacityMwh'],
+    ] as const) {
       const v = n(k);
       // 0x0000: no battery; 0xFFFF: capacity unknown.
       if (v !== undefined) data[out] = v === 0 || v === 0xffff ? null : v * 100;

@@ -63,7 +63,12 @@ export function decodeHeader(raw: number, sop: Sop): MessageHeader {
     return { raw: hex16(raw), messageType, category, numDataObjects, messageId, specRevision, cablePlug: (raw & 0x100) !== 0, extended };
   }
   return {
-    raw: hex16(raw), messageType, category, numDataObjects, messageId, specRevision,
+    raw: hex16(raw),
+    messageType,
+    category,
+    numDataObjects,
+    messageId,
+    specRevision,
     powerRole: raw & 0x100 ? 'source' : 'sink',
     dataRole: raw & 0x20 ? 'dfp' : 'ufp',
     extended,

@@ -51,8 +51,10 @@ describe('hex16 / hex32 / toHex (byte table)', () => {
         expect(hex16(value)).toBe('0x' + (value & 0xffff).toString(16).padStart(4, '0'));
       }),
     );
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 40 }), (bytes) => {
-      expect(toHex(bytes)).toBe([...bytes].map((b) => b.toString(16).padStart(2, '0')).join(''));
-    }));
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 40 }), (bytes) => {
+        expect(toHex(bytes)).toBe([...bytes].map((b) => b.toString(16).padStart(2, '0')).join(''));
+      }),
+    );
   });
 });

@@ -33,19 +33,37 @@ function encoded(input: MessageInput): Uint8Array {
 // Message header 0x518f = 5 objects, MessageID 0, Cable Plug 1, revision 3.x, type 01111b Vendor_Defined (Table 6.6).
 const PASSIVE_5A_EPR = ['0x518f', '0xff00a041', '0x18601234', '0x00000000', '0x56780100', '0x120a2640'];
 
-describe('Discover Identity ACK from a cable plug (SOP\')', () => {
+describe("Discover Identity ACK from a cable plug (SOP')", () => {
   it('decodes a passive 5 A, 50 V, EPR-capable cable field by field', () => {
     const m = decodeWords(PASSIVE_5A_EPR, "SOP'");
     expect(m.header).toMatchObject({ messageType: 'Vendor_Defined', cablePlug: true, numDataObjects: 5 });
     expect(m.objects.map((o) => o.kind)).toEqual(['vdm-header', 'cable-id-header', 'cert-stat', 'product', 'passive-cable']);
     expect(m.objects[0]).toMatchObject({ svid: 0xff00, structured: true, commandType: 'ACK', command: 'Discover Identity' });
-    expect(m.objects[1]).toMatchObject({ raw: '0x18601234', productTypeCablePlug: 'Passive Cable', connectorType: 'USB Type-C Plug', usbVendorId: 0x1234, modalOperationSupported: false, usbCommunicationsCapableAsHost: false });
+    expect(m.objects[1]).toMatchObject({
+      raw: '0x18601234',
+      productTypeCablePlug: 'Passive Cable',
+      connectorType: 'USB Type-C Plug',
+      usbVendorId: 0x1234,
+      modalOperationSupported: false,
+      usbCommunicationsCapableAsHost: false,
+    });
     expect(m.objects[2]).toEqual({ kind: 'cert-stat', raw: '0x00000000', xid: 0 });
     expect(m.objects[3]).toEqual({ kind: 'product', raw: '0x56780100', usbProductId: 0x5678, bcdDevice: 0x0100 });
     expect(m.objects[4]).toEqual({
-      kind: 'passive-cable', raw: '0x120a2640', hwVersion: 1, firmwareVersion: 2, vdoVersion: 0, plugToPlugOrCaptive: 'USB Type-C', eprModeCapable: true,
-      cableLatency: '<10 ns (~1 m)', cableTerminationType: 'VCONN not required', maximumVbusVoltage: '50 V', vbusCurrentHandlingCapability: '5 A',
-      usbHighestSpeed: 'USB 2.0 only', maxVbusVoltageMv: 50_000, vbusCurrentMa: 5_000,
+      kind: 'passive-cable',
+      raw: '0x120a2640',
+      hwVersion: 1,
+      firmwareVersion: 2,
+      vdoVersion: 0,
+      plugToPlugOrCaptive: 'USB Type-C',
+      eprModeCapable: true,
+      cableLatency: '<10 ns (~1 m)',
+      cableTerminationType: 'VCONN not required',
+      maximumVbusVoltage: '50 V',
+      vbusCurrentHandlingCapability: '5 A',
+      usbHighestSpeed: 'USB 2.0 only',
+      maxVbusVoltageMv: 50_000,
+      vbusCurrentMa: 5_000,
     });
     expect(cableLimits(m)).toEqual({ kind: 'passive', vbusCurrentMa: 5_000, maxVbusVoltageMv: 50_000, eprModeCapable: true });
   });
@@ -83,10 +101,17 @@ describe('Discover Identity ACK from a cable plug (SOP\')', () => {
   it('reads a VPD VDO: impedances in 2 mΩ and 1 mΩ units, Charge Through current', () => {
     // B16..15 00b 20 V, B14 1 = 5 A, B12..7 = 10 (20 mΩ), B6..1 = 15 (15 mΩ), B0 charge through.
     const raw = (1 << 14) | (10 << 7) | (15 << 1) | 1;
-    expect(decodeOtherObject('vpd', raw)).toMatchObject({ maximumVbusVoltage: '20 V', chargeThroughCurrentSupport: '5 A', vbusImpedanceMohm: 20, groundImpedanceMohm: 15, chargeThroughSupport: true, chargeThroughCurrentMa: 5_000 });
+    expect(decodeOtherObject('vpd', raw)).toMatchObject({
+      maximumVbusVoltage: '20 V',
+      chargeThroughCurrentSupport: '5 A',
+      vbusImpedanceMohm: 20,
+      groundImpedanceMohm: 15,
+      chargeThroughSupport: true,
+      chargeThroughCurrentMa: 5_000,
+    });
   });
 
-  it('the request to the cable is the VDM header alone, on SOP\' with Cable Plug = 0', () => {
+  it("the request to the cable is the VDM header alone, on SOP' with Cable Plug = 0", () => {
     const r = decodeMessage(encoded(discoverIdentityRequest()), { sop: "SOP'" });
     expect(r.ok && r.message.header).toMatchObject({ numDataObjects: 1, cablePlug: false });
     expect(r.ok && r.message.objects[0]).toMatchObject({ commandType: 'REQ', command: 'Discover Identity' });
@@ -102,10 +127,34 @@ describe('Discover Identity ACK from a port partner (SOP)', () => {
 
   it('a hub that is both UFP and DFP sends UFP VDO, a zero pad, then DFP VDO (from memory)', () => {
     const input = discoverIdentityAck([
-      { kind: 'id-header', usbCommunicationsCapableAsHost: true, usbCommunicationsCapableAsDevice: true, productTypeUfp: 'PDUSB Hub', modalOperationSupported: false, productTypeDfp: 'PDUSB Hub', connectorType: 'USB Type-C Receptacle', usbVendorId: 0x1234 },
+      {
+        kind: 'id-header',
+        usbCommunicationsCapableAsHost: true,
+        usbCommunicationsCapableAsDevice: true,
+        productTypeUfp: 'PDUSB Hub',
+        modalOperationSupported: false,
+        productTypeDfp: 'PDUSB Hub',
+        connectorType: 'USB Type-C Receptacle',
+        usbVendorId: 0x1234,
+      },
       { kind: 'cert-stat', xid: 42 },
       { kind: 'product', usbProductId: 1, bcdDevice: 2 },
-      { kind: 'ufp', ufpVdoVersion: 3, usb4DeviceCapable: false, usb32DeviceCapable: true, usb2BillboardOnly: false, usb2DeviceCapable: true, connectorTypeLegacy: 0, vconnPower: '1 W', vconnRequired: false, vbusRequired: true, nonReconfigurableAlternateModes: false, reconfigurableAlternateModes: false, tbt3AlternateMode: false, usbHighestSpeed: 'USB 3.2 Gen1' },
+      {
+        kind: 'ufp',
+        ufpVdoVersion: 3,
+        usb4DeviceCapable: false,
+        usb32DeviceCapable: true,
+        usb2BillboardOnly: false,
+        usb2DeviceCapable: true,
+        connectorTypeLegacy: 0,
+        vconnPower: '1 W',
+        vconnRequired: false,
+        vbusRequired: true,
+        nonReconfigurableAlternateModes: false,
+        reconfigurableAlternateModes: false,
+        tbt3AlternateMode: false,
+        usbHighestSpeed: 'USB 3.2 Gen1',
+      },
       { kind: 'pad' },
       { kind: 'dfp', dfpVdoVersion: 2, usb4HostCapable: false, usb32HostCapable: true, usb2HostCapable: true, connectorTypeLegacy: 0, portNumber: 3 },
     ]);

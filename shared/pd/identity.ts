@@ -93,20 +93,38 @@ export function cableIdentityVdos(cable: CableIdentity): DataObjectInput[] {
     vbusCurrentHandlingCapability: cable.vbusCurrentMa === 5_000 ? '5 A' : '3 A',
     usbHighestSpeed: cable.usbHighestSpeed ?? 'USB 2.0 only',
   };
-  const vdos: DataObjectInput[] = [
-    idHeader,
-    { kind: 'cert-stat', xid: cable.xid ?? 0 },
-    { kind: 'product', usbProductId: cable.usbProductId ?? 0, bcdDevice: cable.bcdDevice ?? 0x0100 },
-  ];
+  const vdos: DataObjectInput[] = [idHeader, { kind: 'cert-stat', xid: cable.xid ?? 0 }, { kind: 'product', usbProductId: cable.usbProductId ?? 0, bcdDevice: cable.bcdDevice ?? 0x0100 }];
   if (!active) {
     vdos.push({ kind: 'passive-cable', ...common, vdoVersion: 0, cableTerminationType: 'VCONN not required' });
     return vdos;
   }
   vdos.push(
-    { kind: 'active-cable-1', ...common, vdoVersion: 3, cableTerminationType: 'Both ends active, VCONN required', sbuSupported: false, sbuType: 'Passive', vbusThroughCable: true, sopDoublePrimeControllerPresent: false },
     {
-      kind: 'active-cable-2', maxOperatingTemperatureC: 70, shutdownTemperatureC: 85, u3CldPower: '>10 mW', u3ToU0TransitionMode: 'U3 to U0 direct', physicalConnection: 'Copper',
-      activeElement: 'Active Re-timer', usb4Supported: false, usb2HubHopsConsumed: 0, usb2Supported: true, usb32Supported: true, usbLanesSupported: 'Two lanes', opticallyIsolated: false, usb4AsymmetricMode: false, usbGen: 'Gen 2 or higher',
+      kind: 'active-cable-1',
+      ...common,
+      vdoVersion: 3,
+      cableTerminationType: 'Both ends active, VCONN required',
+      sbuSupported: false,
+      sbuType: 'Passive',
+      vbusThroughCable: true,
+      sopDoublePrimeControllerPresent: false,
+    },
+    {
+      kind: 'active-cable-2',
+      maxOperatingTemperatureC: 70,
+      shutdownTemperatureC: 85,
+      u3CldPower: '>10 mW',
+      u3ToU0TransitionMode: 'U3 to U0 direct',
+      physicalConnection: 'Copper',
+      activeElement: 'Active Re-timer',
+      usb4Supported: false,
+      usb2HubHopsConsumed: 0,
+      usb2Supported: true,
+      usb32Supported: true,
+      usbLanesSupported: 'Two lanes',
+      opticallyIsolated: false,
+      usb4AsymmetricMode: false,
+      usbGen: 'Gen 2 or higher',
     },
   );
   return vdos;
@@ -130,7 +148,12 @@ export function cableLimits(message: Pick<Message, 'objects'>): CableLimits | un
   for (const o of message.objects) {
     const object = o as Record<string, unknown>;
     if (object.kind === 'passive-cable' || object.kind === 'active-cable-1') {
-      return { kind: object.kind === 'passive-cable' ? 'passive' : 'active', vbusCurrentMa: object.vbusCurrentMa as number | null, maxVbusVoltageMv: object.maxVbusVoltageMv as number, eprModeCapable: object.eprModeCapable === true };
+      return {
+        kind: object.kind === 'passive-cable' ? 'passive' : 'active',
+        vbusCurrentMa: object.vbusCurrentMa as number | null,
+        maxVbusVoltageMv: object.maxVbusVoltageMv as number,
+        eprModeCapable: object.eprModeCapable === true,
+      };
     }
     if (object.kind === 'vpd') return { kind: 'vpd', vbusCurrentMa: object.chargeThroughCurrentMa as number, maxVbusVoltageMv: object.maxVbusVoltageMv as number, eprModeCapable: false };
   }

@@ -1,5 +1,5 @@
 /**
- * The message codec: public entry (/work/notes/interfaces.md, "shared/pd").
+ * The message codec: public entry (README.md beside it).
  * Result-returning functions take user input and never throw; the building blocks are pure and
  * fast, and their writers throw RangeError on a field out of range.
  */
@@ -21,6 +21,16 @@ export { fieldValue, fieldCount, fieldMask, reservedMask, type FieldLayout, type
 export { describeFields, fieldWords, formatValue, summarizeObject } from './describe.ts';
 export { headerLayout, objectLayout, EXTENDED_HEADER_LAYOUT } from './layouts.ts';
 export { decodeInput, type DecoderInput, type DecodeOutcome, type InputMode } from './decode-input.ts';
-export { cableIdentityAck, cableIdentityVdos, cableLimits, discoverIdentityAck, discoverIdentityRequest, discoverSvidsAck, type CableIdentity, type CableLimits, type VdmMessageOptions } from './identity.ts';
+export {
+  cableIdentityAck,
+  cableIdentityVdos,
+  cableLimits,
+  discoverIdentityAck,
+  discoverIdentityRequest,
+  discoverSvidsAck,
+  type CableIdentity,
+  type CableLimits,
+  type VdmMessageOptions,
+} from './identity.ts';
 export { vdmObjectKinds, PD_SID } from './vdm-objects.ts';
 export { VDO_LAYOUTS } from './layouts-vdo.ts';

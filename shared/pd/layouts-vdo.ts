@@ -9,7 +9,15 @@ import type { FieldLayout, WordLayout } from './layout.ts';
 
 const R = (hi: number, lo: number): FieldLayout => ({ name: 'reserved', hi, lo, type: 'reserved', label: 'Reserved' });
 const flagAt = (bit: number, name: string, label: string, inverted = false): FieldLayout => ({ name, hi: bit, lo: bit, type: 'flag', label, ...(inverted ? { inverted } : {}) });
-const uint = (hi: number, lo: number, name: string, label: string, unit?: string, scale?: number): FieldLayout => ({ name, hi, lo, type: 'uint', label, ...(unit ? { unit } : {}), ...(scale ? { scale } : {}) });
+const uint = (hi: number, lo: number, name: string, label: string, unit?: string, scale?: number): FieldLayout => ({
+  name,
+  hi,
+  lo,
+  type: 'uint',
+  label,
+  ...(unit ? { unit } : {}),
+  ...(scale ? { scale } : {}),
+});
 const enumAt = (hi: number, lo: number, name: string, label: string, values: Record<number, string>): FieldLayout => ({ name, hi, lo, type: 'enum', label, values });
 
 const REF = 'USB PD R3.2 V1.1 §6.4.4.3.1';
@@ -40,7 +48,10 @@ const idHeaderBottom = [enumAt(22, 21, 'connectorType', 'Connector Type', CONNEC
 
 /** ID Header VDO of a port partner (on SOP). */
 export const ID_HEADER_LAYOUT: WordLayout = {
-  kind: 'id-header', title: 'ID Header VDO', ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`, bits: 32,
+  kind: 'id-header',
+  title: 'ID Header VDO',
+  ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`,
+  bits: 32,
   fields: [
     ...idHeaderTop,
     enumAt(29, 27, 'productTypeUfp', 'Product Type (UFP)', PRODUCT_TYPE_UFP),
@@ -52,7 +63,10 @@ export const ID_HEADER_LAYOUT: WordLayout = {
 
 /** ID Header VDO of a cable plug or VPD (on SOP'); Product Type (DFP) is zero there. */
 export const CABLE_ID_HEADER_LAYOUT: WordLayout = {
-  kind: 'cable-id-header', title: 'ID Header VDO (cable plug)', ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`, bits: 32,
+  kind: 'cable-id-header',
+  title: 'ID Header VDO (cable plug)',
+  ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`,
+  bits: 32,
   fields: [
     ...idHeaderTop,
     enumAt(29, 27, 'productTypeCablePlug', 'Product Type (Cable Plug/VPD)', PRODUCT_TYPE_CABLE),
@@ -63,17 +77,26 @@ export const CABLE_ID_HEADER_LAYOUT: WordLayout = {
 };
 
 export const CERT_STAT_LAYOUT: WordLayout = {
-  kind: 'cert-stat', title: 'Cert Stat VDO', ref: `${REF}.2, Cert Stat VDO table (R3.1 Table 6.37; number from memory)`, bits: 32,
+  kind: 'cert-stat',
+  title: 'Cert Stat VDO',
+  ref: `${REF}.2, Cert Stat VDO table (R3.1 Table 6.37; number from memory)`,
+  bits: 32,
   fields: [uint(31, 0, 'xid', 'XID (assigned by USB-IF)')],
 };
 
 export const PRODUCT_LAYOUT: WordLayout = {
-  kind: 'product', title: 'Product VDO', ref: `${REF}.3, Product VDO table (R3.1 Table 6.38; number from memory)`, bits: 32,
+  kind: 'product',
+  title: 'Product VDO',
+  ref: `${REF}.3, Product VDO table (R3.1 Table 6.38; number from memory)`,
+  bits: 32,
   fields: [uint(31, 16, 'usbProductId', 'USB Product ID'), uint(15, 0, 'bcdDevice', 'bcdDevice')],
 };
 
 export const UFP_LAYOUT: WordLayout = {
-  kind: 'ufp', title: 'UFP VDO', ref: `${REF}.4, UFP VDO table (R3.1 Table 6.39; number from memory)`, bits: 32,
+  kind: 'ufp',
+  title: 'UFP VDO',
+  ref: `${REF}.4, UFP VDO table (R3.1 Table 6.39; number from memory)`,
+  bits: 32,
   fields: [
     uint(31, 29, 'ufpVdoVersion', 'UFP VDO Version (011b = 1.3)'),
     R(28, 28),
@@ -86,15 +109,18 @@ export const UFP_LAYOUT: WordLayout = {
     enumAt(10, 8, 'vconnPower', 'VCONN Power', { 0: '1 W', 1: '1.5 W', 2: '2 W', 3: '3 W', 4: '4 W', 5: '5 W', 6: '6 W' }),
     flagAt(7, 'vconnRequired', 'VCONN Required'),
     flagAt(6, 'vbusRequired', 'VBUS Required (0b = yes)', true),
-    flagAt(5, 'nonReconfigurableAlternateModes', 'Alternate Modes: modes that do not reconfigure the connector\'s signals'),
-    flagAt(4, 'reconfigurableAlternateModes', 'Alternate Modes: modes that reconfigure the connector\'s signals'),
+    flagAt(5, 'nonReconfigurableAlternateModes', "Alternate Modes: modes that do not reconfigure the connector's signals"),
+    flagAt(4, 'reconfigurableAlternateModes', "Alternate Modes: modes that reconfigure the connector's signals"),
     flagAt(3, 'tbt3AlternateMode', 'Alternate Modes: TBT3'),
     enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
   ],
 };
 
 export const DFP_LAYOUT: WordLayout = {
-  kind: 'dfp', title: 'DFP VDO', ref: `${REF}.5, DFP VDO table (R3.1 Table 6.40; number from memory)`, bits: 32,
+  kind: 'dfp',
+  title: 'DFP VDO',
+  ref: `${REF}.5, DFP VDO table (R3.1 Table 6.40; number from memory)`,
+  bits: 32,
   fields: [
     uint(31, 29, 'dfpVdoVersion', 'DFP VDO Version'),
     R(28, 27),
@@ -115,11 +141,23 @@ const cableTop = [
   enumAt(19, 18, 'plugToPlugOrCaptive', 'USB Type-C plug to USB Type-C / Captive', PLUG),
   flagAt(17, 'eprModeCapable', 'EPR Mode Capable'),
 ];
-const PASSIVE_LATENCY: Record<number, string> = { 1: '<10 ns (~1 m)', 2: '10–20 ns (~2 m)', 3: '20–30 ns (~3 m)', 4: '30–40 ns (~4 m)', 5: '40–50 ns (~5 m)', 6: '50–60 ns (~6 m)', 7: '60–70 ns (~7 m)', 8: '>70 ns (>~7 m)' };
+const PASSIVE_LATENCY: Record<number, string> = {
+  1: '<10 ns (~1 m)',
+  2: '10–20 ns (~2 m)',
+  3: '20–30 ns (~3 m)',
+  4: '30–40 ns (~4 m)',
+  5: '40–50 ns (~5 m)',
+  6: '50–60 ns (~6 m)',
+  7: '60–70 ns (~7 m)',
+  8: '>70 ns (>~7 m)',
+};
 const ACTIVE_LATENCY: Record<number, string> = { ...PASSIVE_LATENCY, 8: '1000 ns (~100 m)', 9: '2000 ns (~200 m)', 10: '3000 ns (~300 m)' };
 
 export const PASSIVE_CABLE_LAYOUT: WordLayout = {
-  kind: 'passive-cable', title: 'Passive Cable VDO', ref: `${REF}.6, Passive Cable VDO table (R3.1 Table 6.41; number from memory)`, bits: 32,
+  kind: 'passive-cable',
+  title: 'Passive Cable VDO',
+  ref: `${REF}.6, Passive Cable VDO table (R3.1 Table 6.41; number from memory)`,
+  bits: 32,
   fields: [
     ...cableTop,
     enumAt(16, 13, 'cableLatency', 'Cable Latency', PASSIVE_LATENCY),
@@ -133,7 +171,10 @@ export const PASSIVE_CABLE_LAYOUT: WordLayout = {
 };
 
 export const ACTIVE_CABLE_1_LAYOUT: WordLayout = {
-  kind: 'active-cable-1', title: 'Active Cable VDO1', ref: `${REF}.7, Active Cable VDO1 table (R3.1 Table 6.42; number from memory)`, bits: 32,
+  kind: 'active-cable-1',
+  title: 'Active Cable VDO1',
+  ref: `${REF}.7, Active Cable VDO1 table (R3.1 Table 6.42; number from memory)`,
+  bits: 32,
   fields: [
     ...cableTop,
     enumAt(16, 13, 'cableLatency', 'Cable Latency', ACTIVE_LATENCY),
@@ -149,7 +190,10 @@ export const ACTIVE_CABLE_1_LAYOUT: WordLayout = {
 };
 
 export const ACTIVE_CABLE_2_LAYOUT: WordLayout = {
-  kind: 'active-cable-2', title: 'Active Cable VDO2', ref: `${REF}.8, Active Cable VDO2 table (R3.1 Table 6.43; number from memory)`, bits: 32,
+  kind: 'active-cable-2',
+  title: 'Active Cable VDO2',
+  ref: `${REF}.8, Active Cable VDO2 table (R3.1 Table 6.43; number from memory)`,
+  bits: 32,
   fields: [
     uint(31, 24, 'maxOperatingTemperatureC', 'Maximum Operating Temperature', '°C'),
     uint(23, 16, 'shutdownTemperatureC', 'Shutdown Temperature', '°C'),
@@ -170,7 +214,10 @@ export const ACTIVE_CABLE_2_LAYOUT: WordLayout = {
 };
 
 export const VPD_LAYOUT: WordLayout = {
-  kind: 'vpd', title: 'VPD VDO', ref: `${REF}.9, VPD VDO table (R3.1 Table 6.44; number from memory)`, bits: 32,
+  kind: 'vpd',
+  title: 'VPD VDO',
+  ref: `${REF}.9, VPD VDO table (R3.1 Table 6.44; number from memory)`,
+  bits: 32,
   fields: [
     uint(31, 28, 'hwVersion', 'HW Version'),
     uint(27, 24, 'firmwareVersion', 'Firmware Version'),
@@ -187,13 +234,19 @@ export const VPD_LAYOUT: WordLayout = {
 
 /** Discover SVIDs ACK: two SVIDs a VDO; a zero SVID ends the list (§6.4.4.3.2). */
 export const SVIDS_LAYOUT: WordLayout = {
-  kind: 'svids', title: 'Discover SVIDs Responder VDO', ref: 'USB PD R3.2 V1.1 §6.4.4.3.2, Discover SVIDs Responder VDO table (R3.1 Table 6.45)', bits: 32,
+  kind: 'svids',
+  title: 'Discover SVIDs Responder VDO',
+  ref: 'USB PD R3.2 V1.1 §6.4.4.3.2, Discover SVIDs Responder VDO table (R3.1 Table 6.45)',
+  bits: 32,
   fields: [uint(31, 16, 'svidN', 'SVID n'), uint(15, 0, 'svidNPlus1', 'SVID n+1')],
 };
 
 /** The 32-bit pad between the UFP and DFP VDOs of a dual-role port (all zero; from memory). */
 export const PAD_LAYOUT: WordLayout = {
-  kind: 'pad', title: 'Pad (between UFP and DFP VDOs)', ref: `${REF}, Discover Identity response of a DRD (from memory)`, bits: 32,
+  kind: 'pad',
+  title: 'Pad (between UFP and DFP VDOs)',
+  ref: `${REF}, Discover Identity response of a DRD (from memory)`,
+  bits: 32,
   fields: [R(31, 0)],
 };
 

@@ -58,7 +58,12 @@ describe('power layouts', () => {
           if (sink.kind === 'epr-avs' || sink.kind === 'spr-avs') expected.peakCurrent = (raw >>> 26) & 3;
           expect(fields).toEqual(expected);
         }
-        for (const [ref, kind] of [[{ kind: 'fixed' }, 'rdo-fixed'], [{ kind: 'battery' }, 'rdo-battery'], [{ kind: 'pps' }, 'rdo-pps'], [{ kind: 'epr-avs' }, 'rdo-avs']] as const) {
+        for (const [ref, kind] of [
+          [{ kind: 'fixed' }, 'rdo-fixed'],
+          [{ kind: 'battery' }, 'rdo-battery'],
+          [{ kind: 'pps' }, 'rdo-pps'],
+          [{ kind: 'epr-avs' }, 'rdo-avs'],
+        ] as const) {
           const { kind: k, raw: _r, ...fields } = decodeRdo(raw, ref);
           expect(k).toBe(kind);
           expect(fields).toEqual(viaLayout(raw, RDO_LAYOUTS[kind]!));

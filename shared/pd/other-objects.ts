@@ -38,12 +38,7 @@ export function decodeOtherObject(kind: string, raw: number): OtherObject {
 /** Encodes an object of a layout kind (or `raw`), keeping reserved bits of `raw`. Throws RangeError. */
 export function encodeOtherObject(object: OtherObject): number {
   if (object.kind === 'raw') return rawWord(object.raw, 'raw');
-  const layout =
-    object.kind === 'vdm-header'
-      ? object.structured === true
-        ? VDM_STRUCTURED_LAYOUT
-        : VDM_UNSTRUCTURED_LAYOUT
-      : otherLayout(object.kind, 0);
+  const layout = object.kind === 'vdm-header' ? (object.structured === true ? VDM_STRUCTURED_LAYOUT : VDM_UNSTRUCTURED_LAYOUT) : otherLayout(object.kind, 0);
   if (!layout) throw new RangeError(`kind: "${object.kind}" is not a data object kind of this message`);
   return (encodeFields(object, layout) | keptReserved(object.raw, reservedMask(layout))) >>> 0;
 }

@@ -12,9 +12,17 @@ describe('decodeRdo', () => {
   it('0x1304b12c against a fixed PDO: position 1, 3 A / 3 A, USB comms, no suspend (Table 6.23)', () => {
     // B31..28 = 1; B25 = 1; B24 = 1; B19..10 = 300 → 3000 mA; B9..0 = 300 → 3000 mA.
     expect(decodeRdo(0x1304_b12c, fixed)).toEqual({
-      kind: 'rdo-fixed', raw: '0x1304b12c', objectPosition: 1, operatingCurrentMa: 3000, maxOperatingCurrentMa: 3000,
-      giveBack: false, capabilityMismatch: false, usbCommunicationsCapable: true, noUsbSuspend: true,
-      unchunkedExtendedMessages: false, eprModeCapable: false,
+      kind: 'rdo-fixed',
+      raw: '0x1304b12c',
+      objectPosition: 1,
+      operatingCurrentMa: 3000,
+      maxOperatingCurrentMa: 3000,
+      giveBack: false,
+      capabilityMismatch: false,
+      usbCommunicationsCapable: true,
+      noUsbSuspend: true,
+      unchunkedExtendedMessages: false,
+      eprModeCapable: false,
     });
   });
   it('the object position has 4 bits (B31..28): 13 reads as 13', () => {

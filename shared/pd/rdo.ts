@@ -47,7 +47,11 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
       objectPosition,
       outputVoltageMv: ((raw >>> 9) & 0xfff) * (pps ? 20 : 25),
       operatingCurrentMa: (raw & 0x7f) * 50,
-      capabilityMismatch, usbCommunicationsCapable, noUsbSuspend, unchunkedExtendedMessages, eprModeCapable,
+      capabilityMismatch,
+      usbCommunicationsCapable,
+      noUsbSuspend,
+      unchunkedExtendedMessages,
+      eprModeCapable,
     };
   }
   const giveBack = (raw & (1 << 27)) !== 0;
@@ -58,7 +62,12 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
       objectPosition,
       operatingPowerMw: ((raw >>> 10) & 0x3ff) * 250,
       maxOperatingPowerMw: (raw & 0x3ff) * 250,
-      giveBack, capabilityMismatch, usbCommunicationsCapable, noUsbSuspend, unchunkedExtendedMessages, eprModeCapable,
+      giveBack,
+      capabilityMismatch,
+      usbCommunicationsCapable,
+      noUsbSuspend,
+      unchunkedExtendedMessages,
+      eprModeCapable,
     };
   }
   return {
@@ -67,7 +76,12 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
     objectPosition,
     operatingCurrentMa: ((raw >>> 10) & 0x3ff) * 10,
     maxOperatingCurrentMa: (raw & 0x3ff) * 10,
-    giveBack, capabilityMismatch, usbCommunicationsCapable, noUsbSuspend, unchunkedExtendedMessages, eprModeCapable,
+    giveBack,
+    capabilityMismatch,
+    usbCommunicationsCapable,
+    noUsbSuspend,
+    unchunkedExtendedMessages,
+    eprModeCapable,
   };
 }
 

@@ -6,8 +6,16 @@ describe('decodeSinkPdo', () => {
   it('fixed 0x1401912c: 5 V / 3 A operational, Higher Capability, USB Communications Capable (Table 6.17)', () => {
     // B28 = 1, B26 = 1; B19..10 = 100 → 5000 mV; B9..0 = 300 → 3000 mA.
     expect(decodeSinkPdo(0x1401_912c)).toEqual({
-      kind: 'fixed', raw: '0x1401912c', voltageMv: 5000, operationalCurrentMa: 3000, dualRolePower: false, higherCapability: true,
-      unconstrainedPower: false, usbCommunicationsCapable: true, dualRoleData: false, frSwapRequiredCurrent: 0,
+      kind: 'fixed',
+      raw: '0x1401912c',
+      voltageMv: 5000,
+      operationalCurrentMa: 3000,
+      dualRolePower: false,
+      higherCapability: true,
+      unconstrainedPower: false,
+      usbCommunicationsCapable: true,
+      dualRoleData: false,
+      frSwapRequiredCurrent: 0,
     });
   });
   it('Fast Role Swap required current is B24..23 (Table 6.17)', () => {

@@ -7,9 +7,18 @@ describe('decodeSourcePdo', () => {
   it('fixed 0x0001912c is 5 V / 3 A (Table 6.9: B19..10 × 50 mV, B9..0 × 10 mA)', () => {
     // (0x0001912c >> 10) & 0x3ff = 100 → 5000 mV; 0x12c = 300 → 3000 mA.
     expect(decodeSourcePdo(0x0001_912c)).toEqual({
-      kind: 'fixed', raw: '0x0001912c', voltageMv: 5000, maxCurrentMa: 3000, peakCurrent: 0, dualRolePower: false,
-      usbSuspendSupported: false, unconstrainedPower: false, usbCommunicationsCapable: false, dualRoleData: false,
-      unchunkedExtendedMessages: false, eprModeCapable: false,
+      kind: 'fixed',
+      raw: '0x0001912c',
+      voltageMv: 5000,
+      maxCurrentMa: 3000,
+      peakCurrent: 0,
+      dualRolePower: false,
+      usbSuspendSupported: false,
+      unconstrainedPower: false,
+      usbCommunicationsCapable: false,
+      dualRoleData: false,
+      unchunkedExtendedMessages: false,
+      eprModeCapable: false,
     });
   });
   it('fixed flags sit at B29…B23 and Peak Current at B21..20 (Table 6.9)', () => {

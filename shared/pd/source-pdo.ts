@@ -28,7 +28,6 @@ export const PDO_TYPE_BATTERY = 0b01;
 export const PDO_TYPE_VARIABLE = 0b10;
 export const PDO_TYPE_APDO = 0b11;
 
-
 /** Reserved bits of each source form (a set bit gives `decode.reserved-bits`). */
 export const SOURCE_RESERVED_MASKS = {
   fixed: 1 << 22,
@@ -103,19 +102,6 @@ export { APDO_TYPE_EPR_AVS, APDO_TYPE_PPS, APDO_TYPE_SPR_AVS, decodeApdo, encode
  * Voltage and B19..10 Minimum Voltage in 50 mV, B9..0 the current or power in `step` units); only the
  * name of the low field differs. Throws RangeError naming the field.
  */
-export function encodeRangePdo(
-  type: number,
-  pdo: { maxVoltageMv: unknown; minVoltageMv: unknown },
-  value: unknown,
-  step: number,
-  field: string,
-  unit: string,
-): number {
-  return (
-    ((type << 30) |
-      (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) |
-      (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) |
-      units(value, step, 10, field, unit)) >>>
-    0
-  );
+export function encodeRangePdo(type: number, pdo: { maxVoltageMv: unknown; minVoltageMv: unknown }, value: unknown, step: number, field: string, unit: string): number {
+  return ((type << 30) | (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) | (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) | units(value, step, 10, field, unit)) >>> 0;
 }

@@ -67,13 +67,57 @@ export interface FixedSinkPdo {
   frSwapRequiredCurrent: number;
 }
 
-export interface VariableSourcePdo { kind: 'variable'; raw: string; minVoltageMv: number; maxVoltageMv: number; maxCurrentMa: number }
-export interface VariableSinkPdo { kind: 'variable'; raw: string; minVoltageMv: number; maxVoltageMv: number; operationalCurrentMa: number }
-export interface BatterySourcePdo { kind: 'battery'; raw: string; minVoltageMv: number; maxVoltageMv: number; maxPowerMw: number }
-export interface BatterySinkPdo { kind: 'battery'; raw: string; minVoltageMv: number; maxVoltageMv: number; operationalPowerMw: number }
-export interface PpsApdo { kind: 'pps'; raw: string; minVoltageMv: number; maxVoltageMv: number; maxCurrentMa: number; powerLimited: boolean }
-export interface EprAvsApdo { kind: 'epr-avs'; raw: string; minVoltageMv: number; maxVoltageMv: number; pdpW: number; peakCurrent: number }
-export interface SprAvsApdo { kind: 'spr-avs'; raw: string; maxCurrent15vMa: number; maxCurrent20vMa: number; peakCurrent: number }
+export interface VariableSourcePdo {
+  kind: 'variable';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  maxCurrentMa: number;
+}
+export interface VariableSinkPdo {
+  kind: 'variable';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  operationalCurrentMa: number;
+}
+export interface BatterySourcePdo {
+  kind: 'battery';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  maxPowerMw: number;
+}
+export interface BatterySinkPdo {
+  kind: 'battery';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  operationalPowerMw: number;
+}
+export interface PpsApdo {
+  kind: 'pps';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  maxCurrentMa: number;
+  powerLimited: boolean;
+}
+export interface EprAvsApdo {
+  kind: 'epr-avs';
+  raw: string;
+  minVoltageMv: number;
+  maxVoltageMv: number;
+  pdpW: number;
+  peakCurrent: number;
+}
+export interface SprAvsApdo {
+  kind: 'spr-avs';
+  raw: string;
+  maxCurrent15vMa: number;
+  maxCurrent20vMa: number;
+  peakCurrent: number;
+}
 
 export type SourcePdo = FixedSourcePdo | VariableSourcePdo | BatterySourcePdo | PpsApdo | EprAvsApdo | SprAvsApdo;
 export type SinkPdo = FixedSinkPdo | VariableSinkPdo | BatterySinkPdo | PpsApdo | EprAvsApdo | SprAvsApdo;
@@ -89,12 +133,40 @@ interface RdoFlags {
   eprModeCapable: boolean;
 }
 
-export interface FixedRdo extends RdoFlags { kind: 'rdo-fixed' | 'rdo-variable'; raw: string; operatingCurrentMa: number; maxOperatingCurrentMa: number; giveBack: boolean }
-export interface BatteryRdo extends RdoFlags { kind: 'rdo-battery'; raw: string; operatingPowerMw: number; maxOperatingPowerMw: number; giveBack: boolean }
-export interface PpsRdo extends RdoFlags { kind: 'rdo-pps'; raw: string; outputVoltageMv: number; operatingCurrentMa: number }
-export interface AvsRdo extends RdoFlags { kind: 'rdo-avs'; raw: string; outputVoltageMv: number; operatingCurrentMa: number }
+export interface FixedRdo extends RdoFlags {
+  kind: 'rdo-fixed' | 'rdo-variable';
+  raw: string;
+  operatingCurrentMa: number;
+  maxOperatingCurrentMa: number;
+  giveBack: boolean;
+}
+export interface BatteryRdo extends RdoFlags {
+  kind: 'rdo-battery';
+  raw: string;
+  operatingPowerMw: number;
+  maxOperatingPowerMw: number;
+  giveBack: boolean;
+}
+export interface PpsRdo extends RdoFlags {
+  kind: 'rdo-pps';
+  raw: string;
+  outputVoltageMv: number;
+  operatingCurrentMa: number;
+}
+export interface AvsRdo extends RdoFlags {
+  kind: 'rdo-avs';
+  raw: string;
+  outputVoltageMv: number;
+  operatingCurrentMa: number;
+}
 /** A Request decoded without the Source_Capabilities it refers to: the fixed/variable reading. */
-export interface UnknownRdo extends RdoFlags { kind: 'rdo'; raw: string; operatingCurrentMa: number; maxOperatingCurrentMa: number; giveBack: boolean }
+export interface UnknownRdo extends RdoFlags {
+  kind: 'rdo';
+  raw: string;
+  operatingCurrentMa: number;
+  maxOperatingCurrentMa: number;
+  giveBack: boolean;
+}
 
 export type Rdo = FixedRdo | BatteryRdo | PpsRdo | AvsRdo | UnknownRdo;
 

@@ -16,7 +16,10 @@ describe('analyseOffers', () => {
     if (!r.ok) return;
     expect(r.report.findings.filter((f) => f.severity === 'error')).toEqual([]);
     // 20 V: 3 A over a 3 A cable (60 W), 3.25 A over 5 A (65 W); RDO 4 << 28 | 325 << 10 | 325
-    expect(r.contracts.map((c) => [c.cableMa, c.contract.powerMw, c.rdo])).toEqual([[3_000, 60_000, '0x4004b12c'], [5_000, 65_000, '0x40051545']]);
+    expect(r.contracts.map((c) => [c.cableMa, c.contract.powerMw, c.rdo])).toEqual([
+      [3_000, 60_000, '0x4004b12c'],
+      [5_000, 65_000, '0x40051545'],
+    ]);
   });
   it('places the first EPR offer at position 8 in EPR mode', () => {
     const r = analyseOffers({ offers: [...sixtyFive, { kind: 'fixed', voltageMv: 28_000, maxCurrentMa: 5_000 }], epr: true });
@@ -24,12 +27,22 @@ describe('analyseOffers', () => {
     expect(r.ok && r.report.findings.map((f) => f.rule)).not.toContain('caps.epr-position');
   });
   it('names the field of a bad policy', () => {
-    expect(analyseOffers({ offers: [...sixtyFive], policy: { kind: 'fixed', voltageMv: 9_000 } })).toMatchObject({ ok: false, error: { code: 'input.policy', message: expect.stringMatching(/^policy\.currentMa: /) } });
+    expect(analyseOffers({ offers: [...sixtyFive], policy: { kind: 'fixed', voltageMv: 9_000 } })).toMatchObject({
+      ok: false,
+      error: { code: 'input.policy', message: expect.stringMatching(/^policy\.currentMa: /) },
+    });
   });
 });
 
 describe('readOffers', () => {
   it('reads PDO words into form offers', () => {
-    expect(readOffers({ pdos: ['0001912c', '0002d12c'] })).toMatchObject({ ok: true, offers: [{ kind: 'fixed', voltageMv: 5_000 }, { kind: 'fixed', voltageMv: 9_000 }], epr: false });
+    expect(readOffers({ pdos: ['0001912c', '0002d12c'] })).toMatchObject({
+      ok: true,
+      offers: [
+        { kind: 'fixed', voltageMv: 5_000 },
+        { kind: 'fixed', voltageMv: 9_000 },
+      ],
+      epr: false,
+    });
   });
 });

@@ -19,6 +19,7 @@ import { FIRST_EPR_POSITION, isEprPdo, isPadding } from './pdo-facts.ts';
 import { readCapsHex, readPdoList } from './read-caps.ts';
 import { requestMessageHex } from './request-message.ts';
 import { sinkPolicySchema } from './sink-policy.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 export interface AnalyseOffersInput {
   offers: OfferInput[];
@@ -60,14 +61,20 @@ export function analyseOffers(input: AnalyseOffersInput): Result<OffersAnalysis>
   if (input.policy !== undefined) {
     const policy = sinkPolicySchema.safeParse(input.policy);
     if (!policy.success) {
-      const issue = policy.error.issues[0]!;
-      return fail('input.policy', `policy${issue.path.length > 0 ? `.${issue.path.join('.')}` : ''}: ${issue.message}`);
+      return fail('input.policy', zodMessage(policy.error, { prefix: 'policy', limit: 1 }));
     }
     for (const cableMa of [3_000, 5_000]) {
       const chosen = chooseRequest(pdos, policy.data, { cableMa, epr: input.epr });
       const pdo = pdos[chosen.objectPosition - 1];
       const message = pdo ? requestMessageHex(chosen.rdo, pdo) : undefined;
-      contracts.push({ cableMa, rdo: chosen.rdo.raw, hex: message?.ok ? message.hex : '', objectPosition: chosen.objectPosition, capabilityMismatch: chosen.capabilityMismatch, contract: chosen.contract });
+      contracts.push({
+        cableMa,
+        rdo: chosen.rdo.raw,
+        hex: message?.ok ? message.hex : '',
+        objectPosition: chosen.objectPosition,
+        capabilityMismatch: chosen.capabilityMismatch,
+        contract: chosen.contract,
+      });
     }
   }
   return { ok: true, pdos, report, contracts };

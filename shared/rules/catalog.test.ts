@@ -21,23 +21,49 @@ const QUOTED_ID = /['"`]((?:decode|caps|request|timing|protocol|epr|vbus|trace)\
 /**
  * Result error codes of the engine's edge (shared/core/result.ts): input errors, never findings, so
  * they have no rule page. A decode error code becomes a finding only when it is a catalog id
- * (shared/trace/analyzer.ts); otherwise the analyser reports trace.malformed-line.
+ * (shared/trace/analyser.ts); otherwise the analyser reports trace.malformed-line.
  */
 const ERROR_CODES = new Set(['decode.chunk', 'decode.internal', 'trace.empty', 'trace.internal']);
 
 // The fixed ids and severities of the contract's rule table (docs/rules.md).
 const contractRules = new Map<string, string>([
-  ['decode.length', 'error'], ['decode.reserved-type', 'warning'], ['decode.reserved-bits', 'warning'], ['decode.crc', 'error'],
-  ['caps.first-not-vsafe5v', 'error'], ['caps.order', 'error'], ['caps.duplicate', 'error'], ['caps.power-rules-missing', 'error'],
-  ['caps.power-rules-current', 'error'], ['caps.pps-range', 'warning'], ['caps.cable-current', 'info'], ['caps.label-mismatch', 'warning'],
-  ['request.position', 'error'], ['request.exceeds-offer', 'error'], ['request.out-of-range', 'error'],
-  ['timing.sender-response', 'error'], ['timing.ps-transition', 'error'], ['timing.pps-keepalive', 'error'], ['timing.caps-interval', 'warning'],
-  ['protocol.missing-goodcrc', 'error'], ['protocol.message-id', 'error'], ['protocol.unexpected', 'error'], ['protocol.hard-reset', 'info'],
-  ['protocol.soft-reset', 'info'], ['vbus.out-of-range', 'error'], ['vbus.over-current', 'warning'], ['trace.malformed-line', 'warning'],
+  ['decode.length', 'error'],
+  ['decode.reserved-type', 'warning'],
+  ['decode.reserved-bits', 'warning'],
+  ['decode.crc', 'error'],
+  ['caps.first-not-vsafe5v', 'error'],
+  ['caps.order', 'error'],
+  ['caps.duplicate', 'error'],
+  ['caps.power-rules-missing', 'error'],
+  ['caps.power-rules-current', 'error'],
+  ['caps.pps-range', 'warning'],
+  ['caps.cable-current', 'info'],
+  ['caps.label-mismatch', 'warning'],
+  ['request.position', 'error'],
+  ['request.exceeds-offer', 'error'],
+  ['request.out-of-range', 'error'],
+  ['timing.sender-response', 'error'],
+  ['timing.ps-transition', 'error'],
+  ['timing.pps-keepalive', 'error'],
+  ['timing.caps-interval', 'warning'],
+  ['protocol.missing-goodcrc', 'error'],
+  ['protocol.message-id', 'error'],
+  ['protocol.unexpected', 'error'],
+  ['protocol.hard-reset', 'info'],
+  ['protocol.soft-reset', 'info'],
+  ['vbus.out-of-range', 'error'],
+  ['vbus.over-current', 'warning'],
+  ['trace.malformed-line', 'warning'],
   ['trace.time-order', 'error'],
   // Added in the second version.
-  ['caps.cable-epr', 'info'], ['caps.revision', 'error'], ['request.epr-copy', 'error'], ['timing.receiver-response', 'warning'],
-  ['timing.sink-request', 'error'], ['timing.epr-keepalive', 'error'], ['timing.hard-reset-recovery', 'error'], ['epr.entry', 'error'],
+  ['caps.cable-epr', 'info'],
+  ['caps.revision', 'error'],
+  ['request.epr-copy', 'error'],
+  ['timing.receiver-response', 'warning'],
+  ['timing.sink-request', 'error'],
+  ['timing.epr-keepalive', 'error'],
+  ['timing.hard-reset-recovery', 'error'],
+  ['epr.entry', 'error'],
   ['protocol.collision', 'error'],
 ]);
 
@@ -74,7 +100,7 @@ describe('rule catalog', () => {
     }
   });
 
-  it('mirrors the codec\'s own finding table (shared/pd/findings.ts) with the same severities', () => {
+  it("mirrors the codec's own finding table (shared/pd/findings.ts) with the same severities", () => {
     for (const [id, entry] of Object.entries(DECODE_RULES)) {
       expect(isRuleId(id), id).toBe(true);
       if (isRuleId(id)) expect(ruleCatalog[id].severity, id).toBe(entry.severity);

@@ -45,7 +45,7 @@ export const ruleCatalog = {
     severity: 'warning',
     title: 'Reserved bits are set',
     explanation:
-      'Bits the specification marks Reserved must be sent as zero and ignored on receipt. Set bits do not break a negotiation by themselves, but a later revision may give them a meaning, so a device that sets them today can misbehave with tomorrow\'s partner. Report it to the firmware owner of the sending side.',
+      "Bits the specification marks Reserved must be sent as zero and ignored on receipt. Set bits do not break a negotiation by themselves, but a later revision may give them a meaning, so a device that sets them today can misbehave with tomorrow's partner. Report it to the firmware owner of the sending side.",
     ref: `${R32} §1.4.2 Keywords (Reserved); §6.2.1 Message Construction`,
     basis: 'from memory',
   },
@@ -96,7 +96,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Offers out of the required order',
     explanation:
-      'The specification fixes the order of the objects: vSafe5V first, the other fixed supplies by rising voltage, then battery and variable supplies by rising minimum voltage, then the augmented objects (SPR AVS, then PPS by rising maximum voltage). Sinks often pick an offer by position and assume the order, so an unordered list can make a sink request the wrong voltage. Sort the PDOs in the source\'s firmware.',
+      "The specification fixes the order of the objects: vSafe5V first, the other fixed supplies by rising voltage, then battery and variable supplies by rising minimum voltage, then the augmented objects (SPR AVS, then PPS by rising maximum voltage). Sinks often pick an offer by position and assume the order, so an unordered list can make a sink request the wrong voltage. Sort the PDOs in the source's firmware.",
     ref: `${R31} §6.4.1 Capabilities Message (ordering of PDOs); ${R32} §6.4.1`,
     basis: 'from memory',
   },
@@ -112,7 +112,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'More than seven SPR objects',
     explanation:
-      'A Source_Capabilities message holds at most seven data objects (the header\'s Number of Data Objects field counts to 7), and EPR_Source_Capabilities gives the SPR offers positions 1 to 7. More than seven SPR offers cannot be sent; drop the least useful ones.',
+      "A Source_Capabilities message holds at most seven data objects (the header's Number of Data Objects field counts to 7), and EPR_Source_Capabilities gives the SPR offers positions 1 to 7. More than seven SPR offers cannot be sent; drop the least useful ones.",
     ref: `${R31} §6.2.1.1.2 Number of Data Objects; §6.5.15.1 EPR_Source_Capabilities`,
     basis: 'from memory',
   },
@@ -128,7 +128,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'A voltage the Power Rules require is missing',
     explanation:
-      'The Power Rules tie a source\'s PDP (its rated power) to the fixed voltages it must offer: 5 V always; above 15 W also 9 V; above 27 W also 15 V; above 45 W also 20 V; EPR sources above 100 W also 28 V, above 140 W 36 V, above 180 W 48 V, and an EPR AVS range. Sinks are designed around these voltages, so a 45 W charger without 9 V may charge a phone slowly or not at all. Offer every required voltage, or declare the PDP the offers really support.',
+      "The Power Rules tie a source's PDP (its rated power) to the fixed voltages it must offer: 5 V always; above 15 W also 9 V; above 27 W also 15 V; above 45 W also 20 V; EPR sources above 100 W also 28 V, above 140 W 36 V, above 180 W 48 V, and an EPR AVS range. Sinks are designed around these voltages, so a 45 W charger without 9 V may charge a phone slowly or not at all. Offer every required voltage, or declare the PDP the offers really support.",
     ref: `${R31} §10.2.3, Table 10-2 SPR Normative Voltages and Currents; Table 10-3 EPR Normative Voltages and Currents`,
     basis: 'from memory',
   },
@@ -152,7 +152,7 @@ export const ruleCatalog = {
     severity: 'warning',
     title: 'EPR AVS range is not the defined one',
     explanation:
-      'An EPR adjustable supply runs from 15 V up to the highest EPR fixed voltage of the source\'s PDP band (28 V up to 140 W, 36 V up to 180 W, 48 V up to 240 W). A different range leaves sinks unsure what they may request. Offer the range the Power Rules give for the PDP.',
+      "An EPR adjustable supply runs from 15 V up to the highest EPR fixed voltage of the source's PDP band (28 V up to 140 W, 36 V up to 180 W, 48 V up to 240 W). A different range leaves sinks unsure what they may request. Offer the range the Power Rules give for the PDP.",
     ref: `${R31} §10.2.3.3 EPR Adjustable Voltage Supply; Table 10-3`,
     basis: 'from memory',
   },
@@ -160,7 +160,7 @@ export const ruleCatalog = {
     severity: 'info',
     title: 'Offer above 3 A needs a 5 A cable',
     explanation:
-      'A sink may draw more than 3 A only through a cable whose electronic marker says it carries 5 A; every USB Type-C cable carries 3 A. With an ordinary cable the offer is usable only up to 3 A (a 20 V × 5 A offer gives 60 W, not 100 W), and a source should not advertise more than 3 A before it has read the cable\'s marker. This is information, not a fault: use a 5 A cable to get the full power.',
+      "A sink may draw more than 3 A only through a cable whose electronic marker says it carries 5 A; every USB Type-C cable carries 3 A. With an ordinary cable the offer is usable only up to 3 A (a 20 V × 5 A offer gives 60 W, not 100 W), and a source should not advertise more than 3 A before it has read the cable's marker. This is information, not a fault: use a 5 A cable to get the full power.",
     ref: `${R31} §4.4 Cable Type Detection; USB Type-C R2.3 §4.9 Electronically Marked Cables`,
     basis: 'from memory',
   },
@@ -184,7 +184,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'PD 2.0 source offers programmable supplies',
     explanation:
-      'Augmented PDOs (programmable PPS ranges, adjustable AVS ranges) were added in USB PD Revision 3.0; a Revision 2.0 port cannot offer them and a Revision 2.0 sink reads them as reserved objects. A source whose messages say Specification Revision 2.0 while its Source_Capabilities hold APDOs is inconsistent: either the header field is wrong (the port really speaks 3.x) or the offers are. Ask the charger\'s firmware owner which one it is.',
+      "Augmented PDOs (programmable PPS ranges, adjustable AVS ranges) were added in USB PD Revision 3.0; a Revision 2.0 port cannot offer them and a Revision 2.0 sink reads them as reserved objects. A source whose messages say Specification Revision 2.0 while its Source_Capabilities hold APDOs is inconsistent: either the header field is wrong (the port really speaks 3.x) or the offers are. Ask the charger's firmware owner which one it is.",
     ref: `${R32} §6.2.1.1.5 Specification Revision; §6.4.1 Power Data Objects (APDOs are Revision 3.x only)`,
     basis: 'from memory',
   },
@@ -202,7 +202,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Request names an object that was not offered',
     explanation:
-      'The Request\'s Object Position points at no offer of the Source_Capabilities in force (zero, past the last object, or an empty padding object). A source must Reject it, and the sink gets no contract. Look at how the sink firmware counts positions: they start at 1.',
+      "The Request's Object Position points at no offer of the Source_Capabilities in force (zero, past the last object, or an empty padding object). A source must Reject it, and the sink gets no contract. Look at how the sink firmware counts positions: they start at 1.",
     ref: `${R31} §6.4.2 Request Message (Object Position); §8.3.3.2 Source Port Policy Engine (Capability Response)`,
     basis: 'from memory',
   },
@@ -226,15 +226,15 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'More current requested than the cable carries',
     explanation:
-      'The cable\'s electronic marker (its answer to Discover Identity on SOP\') states the VBUS current it is built for, 3 A or 5 A. A source must not offer, and a contract must not use, more than the cable carries: above it the cable heats and may be damaged. The trace shows a contract above the cable\'s rating; the source should have limited its offers to 3 A after reading the cable, or the sink should not have asked for more.',
+      "The cable's electronic marker (its answer to Discover Identity on SOP') states the VBUS current it is built for, 3 A or 5 A. A source must not offer, and a contract must not use, more than the cable carries: above it the cable heats and may be damaged. The trace shows a contract above the cable's rating; the source should have limited its offers to 3 A after reading the cable, or the sink should not have asked for more.",
     ref: `${R32} §6.4.4.3.1 Discover Identity, Passive/Active Cable VDO (VBUS Current Handling Capability); §4.4 Cable Type Detection; USB Type-C R2.3 §4.9`,
     basis: 'from memory',
   },
   'request.out-of-range': {
     severity: 'error',
-    title: 'Programmable request outside the offer\'s range',
+    title: "Programmable request outside the offer's range",
     explanation:
-      'A PPS or AVS request asks for an output voltage below the offer\'s minimum or above its maximum. The source must Reject it. Clamp the requested voltage into the range of the APDO the request names.',
+      "A PPS or AVS request asks for an output voltage below the offer's minimum or above its maximum. The source must Reject it. Clamp the requested voltage into the range of the APDO the request names.",
     ref: `${R31} §6.4.2 Request Message, PPS and AVS Request Data Objects`,
     basis: 'from memory',
   },
@@ -252,7 +252,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'PS_RDY came too late',
     explanation:
-      'After accepting a Request the source must reach the new voltage and send PS_RDY within tPSTransition. A sink that waits longer sends Hard Reset, and power drops. Check the power stage\'s slew rate and the firmware\'s wait before PS_RDY.',
+      "After accepting a Request the source must reach the new voltage and send PS_RDY within tPSTransition. A sink that waits longer sends Hard Reset, and power drops. Check the power stage's slew rate and the firmware's wait before PS_RDY.",
     ref: `${R32} §6.6.6 PSTransitionTimer; Time Values table (tPSTransition)`,
     basis: 'from memory',
   },
@@ -276,7 +276,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Request repeated too soon after Wait',
     explanation:
-      'When a source answers a Request with Wait, the sink must wait at least tSinkRequest (100 ms) before it asks again, unless new Source_Capabilities arrive first. Asking sooner floods a source that has just said it cannot serve the request yet. Fix the sink\'s SinkRequestTimer.',
+      "When a source answers a Request with Wait, the sink must wait at least tSinkRequest (100 ms) before it asks again, unless new Source_Capabilities arrive first. Asking sooner floods a source that has just said it cannot serve the request yet. Fix the sink's SinkRequestTimer.",
     ref: `${R32} §6.6.4.2 SinkRequestTimer; Time Values table (tSinkRequest)`,
     basis: 'from memory',
   },
@@ -284,7 +284,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'No EPR keep-alive',
     explanation:
-      'In EPR mode the sink must show it is still there: when it has nothing else to send it sends EPR_KeepAlive at least every tSinkEPRKeepAlive (0.5 s), and the source, hearing nothing for tSourceEPRKeepAlive (about 1 s), leaves EPR mode with a Hard Reset so that no 28–48 V stays on an unattended cable. A missing keep-alive is the sink\'s fault and is the usual cause of an EPR adapter dropping to 5 V about a second after the contract.',
+      "In EPR mode the sink must show it is still there: when it has nothing else to send it sends EPR_KeepAlive at least every tSinkEPRKeepAlive (0.5 s), and the source, hearing nothing for tSourceEPRKeepAlive (about 1 s), leaves EPR mode with a Hard Reset so that no 28–48 V stays on an unattended cable. A missing keep-alive is the sink's fault and is the usual cause of an EPR adapter dropping to 5 V about a second after the contract.",
     ref: `${R32} §6.6.21 EPR timers (SinkEPRKeepAliveTimer, SourceEPRKeepAliveTimer); §8.3.3.3.11 EPR keep-alive`,
     basis: 'from memory',
   },
@@ -300,7 +300,7 @@ export const ruleCatalog = {
     severity: 'warning',
     title: 'Source_Capabilities repeated at the wrong interval',
     explanation:
-      'Before a contract, a source repeats Source_Capabilities every tTypeCSendSourceCap (100–200 ms) until a sink answers. Faster repetition floods the line; slower repetition delays charging and can miss the sink\'s window. Check the source\'s caps timer.',
+      "Before a contract, a source repeats Source_Capabilities every tTypeCSendSourceCap (100–200 ms) until a sink answers. Faster repetition floods the line; slower repetition delays charging and can miss the sink's window. Check the source's caps timer.",
     ref: `${R32} §6.6.4.1 SourceCapabilityTimer; Time Values table (tTypeCSendSourceCap)`,
     basis: 'from memory',
   },
@@ -318,7 +318,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'MessageID repeats or skips',
     explanation:
-      'Each side counts its messages with a 3-bit MessageID that advances after a GoodCRC and stays the same only for a retry. A repeated ID that is not a retry makes the receiver drop the message as a duplicate; a skipped ID points at a lost message or a counter bug. Check the sender\'s MessageIDCounter handling, especially after Soft_Reset.',
+      "Each side counts its messages with a 3-bit MessageID that advances after a GoodCRC and stays the same only for a retry. A repeated ID that is not a retry makes the receiver drop the message as a duplicate; a skipped ID points at a lost message or a counter bug. Check the sender's MessageIDCounter handling, especially after Soft_Reset.",
     ref: `${R32} §6.2.1.1.6 MessageID; §6.7.2 MessageIDCounter`,
     basis: 'from memory',
   },
@@ -326,7 +326,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Message not allowed in this state',
     explanation:
-      'A message arrived that the receiver\'s state does not allow: PS_RDY without Accept, a Request before any Source_Capabilities, Accept with nothing to accept. A receiver answers with Soft_Reset, so the negotiation starts over. Compare the sequence with the policy engine state diagrams.',
+      "A message arrived that the receiver's state does not allow: PS_RDY without Accept, a Request before any Source_Capabilities, Accept with nothing to accept. A receiver answers with Soft_Reset, so the negotiation starts over. Compare the sequence with the policy engine state diagrams.",
     ref: `${R32} §8.3.3 State Diagrams`,
     basis: 'from memory',
   },
@@ -334,7 +334,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Sink started an exchange while the source said SinkTxNG',
     explanation:
-      'In USB PD 3.x the source signals through its Rp who may start the next exchange: Rp at 3.0 A means SinkTxOK (the sink may start), Rp at 1.5 A means SinkTxNG (the source is about to send; the sink must not start). A sink that starts anyway, after the source has held SinkTxNG for tSinkTx, collides with the source\'s message, and one of them is lost. Fix the sink to read Rp before it starts an exchange.',
+      "In USB PD 3.x the source signals through its Rp who may start the next exchange: Rp at 3.0 A means SinkTxOK (the sink may start), Rp at 1.5 A means SinkTxNG (the source is about to send; the sink must not start). A sink that starts anyway, after the source has held SinkTxNG for tSinkTx, collides with the source's message, and one of them is lost. Fix the sink to read Rp before it starts an exchange.",
     ref: `${R32} §5.7 Collision Avoidance; USB Type-C R2.3 §4.8.1.3 (Rp levels as SinkTxOK/SinkTxNG); Time Values table (tSinkTx)`,
     basis: 'from memory',
   },
@@ -360,7 +360,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'EPR mode entered out of order',
     explanation:
-      'EPR mode has a fixed way in: an explicit SPR contract, the sink\'s EPR_Mode (Enter), the source\'s Enter Acknowledged, the source checking the cable\'s e-marker, then Enter Succeeded; only then come EPR_Source_Capabilities and EPR_Request. The trace shows a step skipped — EPR offers or an EPR_Request outside EPR mode, or EPR mode entered over a cable whose e-marker is not EPR capable (which risks 28–48 V on a cable not built for it).',
+      "EPR mode has a fixed way in: an explicit SPR contract, the sink's EPR_Mode (Enter), the source's Enter Acknowledged, the source checking the cable's e-marker, then Enter Succeeded; only then come EPR_Source_Capabilities and EPR_Request. The trace shows a step skipped — EPR offers or an EPR_Request outside EPR mode, or EPR mode entered over a cable whose e-marker is not EPR capable (which risks 28–48 V on a cable not built for it).",
     ref: `${R32} §6.4.9 EPR_Mode; §8.3.3.26 EPR Mode entry (source and sink); §6.4.4.3.1 cable VDO EPR Mode Capable`,
     basis: 'from memory',
   },
@@ -368,9 +368,9 @@ export const ruleCatalog = {
   // ---- vbus --------------------------------------------------------------------------------------
   'vbus.out-of-range': {
     severity: 'error',
-    title: 'VBUS outside the contract\'s tolerance',
+    title: "VBUS outside the contract's tolerance",
     explanation:
-      'After PS_RDY the source must hold VBUS within the tolerance of the contract (±5 % for a fixed supply; the programmed voltage within its tolerance for PPS). Outside it, a sink may refuse to charge or be damaged. Measure at the source\'s connector to separate a source fault from cable drop.',
+      "After PS_RDY the source must hold VBUS within the tolerance of the contract (±5 % for a fixed supply; the programmed voltage within its tolerance for PPS). Outside it, a sink may refuse to charge or be damaged. Measure at the source's connector to separate a source fault from cable drop.",
     ref: `${R32} §7.1.8 Output Voltage Tolerance and Range; Source Electrical Parameters table (vSrcNew)`,
     basis: 'from memory',
   },
@@ -396,7 +396,7 @@ export const ruleCatalog = {
     severity: 'error',
     title: 'Time goes backwards',
     explanation:
-      'A record\'s time stamp is earlier than the one before it. Timing checks need a monotonic clock, so results near that point cannot be trusted. Look for merged captures or a logger whose clock wrapped.',
+      "A record's time stamp is earlier than the one before it. Timing checks need a monotonic clock, so results near that point cannot be trusted. Look for merged captures or a logger whose clock wrapped.",
     ref: 'common practice',
     basis: 'common practice',
   },
@@ -418,11 +418,7 @@ export function ruleGroup(rule: RuleId): RuleGroup {
  * A finding with the catalog's severity and ref (a caller may give a more precise ref). `lowerTo`
  * may only soften it: a fault the ports recovered from (a CRC error a retry repaired) is a warning.
  */
-export function makeFinding(
-  rule: RuleId,
-  message: string,
-  extra: { t?: number; line?: number; object?: number; ref?: string; lowerTo?: Severity } = {},
-): Finding {
+export function makeFinding(rule: RuleId, message: string, extra: { t?: number; line?: number; object?: number; ref?: string; lowerTo?: Severity } = {}): Finding {
   const entry: RuleEntry = ruleCatalog[rule];
   const rank: Record<Severity, number> = { info: 0, warning: 1, error: 2 };
   const severity = extra.lowerTo !== undefined && rank[extra.lowerTo] < rank[entry.severity] ? extra.lowerTo : entry.severity;

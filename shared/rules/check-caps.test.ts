@@ -13,7 +13,14 @@ describe('checkCaps', () => {
     const offers = [fixed(5_000, 3_000), fixed(9_000, 3_000), fixed(15_000, 3_000), fixed(20_000, 3_250)];
     expect(checkCaps(offers, { pdpW: 65, cableMa: 5_000 })).toEqual({ pdpW: 65, pdpInferred: false, findings: [] });
     // 3.25 A is above 3 A: information that a 5 A cable is needed (USB Type-C R2.3 §4.9, from memory).
-    expect(checkCaps(offers)).toMatchObject({ pdpW: 65, pdpInferred: true, findings: [{ rule: 'caps.cable-current', object: 4 }, { rule: 'caps.pdp-inferred', severity: 'info' }] });
+    expect(checkCaps(offers)).toMatchObject({
+      pdpW: 65,
+      pdpInferred: true,
+      findings: [
+        { rule: 'caps.cable-current', object: 4 },
+        { rule: 'caps.pdp-inferred', severity: 'info' },
+      ],
+    });
   });
 
   it('a declared PDP above what is offered yields Power Rules errors', () => {

@@ -28,7 +28,13 @@ export function checkRequest(rdo: Rdo, pdos: readonly SourcePdo[], options: { t?
   const pdo = position >= 1 ? pdos[position - 1] : undefined;
   if (!pdo || isPadding(pdo)) {
     const offered = pdos.filter((p) => !isPadding(p)).length;
-    return [makeFinding('request.position', `The Request names object ${position}, but the source offered ${offered === 0 ? 'nothing' : `objects 1 to ${pdos.length}`}${pdo ? ' and that position is empty' : ''}.`, { ...at, object: position })];
+    return [
+      makeFinding(
+        'request.position',
+        `The Request names object ${position}, but the source offered ${offered === 0 ? 'nothing' : `objects 1 to ${pdos.length}`}${pdo ? ' and that position is empty' : ''}.`,
+        { ...at, object: position },
+      ),
+    ];
   }
   const r = typedRdo(rdo, pdo);
   const where = { ...at, object: position };
@@ -39,13 +45,17 @@ export function checkRequest(rdo: Rdo, pdos: readonly SourcePdo[], options: { t?
     if (r.operatingCurrentMa > pdo.maxCurrentMa) {
       findings.push(makeFinding('request.exceeds-offer', `The Request asks for ${A(r.operatingCurrentMa)} from ${what}, which allows at most ${A(pdo.maxCurrentMa)}.`, where));
     } else if (r.maxOperatingCurrentMa > pdo.maxCurrentMa && !r.capabilityMismatch) {
-      findings.push(makeFinding('request.exceeds-offer', `The Request gives a maximum of ${A(r.maxOperatingCurrentMa)} for ${what}, above its ${A(pdo.maxCurrentMa)}, without setting Capability Mismatch.`, where));
+      findings.push(
+        makeFinding('request.exceeds-offer', `The Request gives a maximum of ${A(r.maxOperatingCurrentMa)} for ${what}, above its ${A(pdo.maxCurrentMa)}, without setting Capability Mismatch.`, where),
+      );
     }
   } else if (r.kind === 'rdo-battery' && pdo.kind === 'battery') {
     if (r.operatingPowerMw > pdo.maxPowerMw) {
       findings.push(makeFinding('request.exceeds-offer', `The Request asks for ${W(r.operatingPowerMw)} from ${what}, which allows at most ${W(pdo.maxPowerMw)}.`, where));
     } else if (r.maxOperatingPowerMw > pdo.maxPowerMw && !r.capabilityMismatch) {
-      findings.push(makeFinding('request.exceeds-offer', `The Request gives a maximum of ${W(r.maxOperatingPowerMw)} for ${what}, above its ${W(pdo.maxPowerMw)}, without setting Capability Mismatch.`, where));
+      findings.push(
+        makeFinding('request.exceeds-offer', `The Request gives a maximum of ${W(r.maxOperatingPowerMw)} for ${what}, above its ${W(pdo.maxPowerMw)}, without setting Capability Mismatch.`, where),
+      );
     }
   } else if (r.kind === 'rdo-pps' || r.kind === 'rdo-avs') {
     const { minMv, maxMv } = voltageRangeMv(pdo);
@@ -59,7 +69,9 @@ export function checkRequest(rdo: Rdo, pdos: readonly SourcePdo[], options: { t?
       pdo.kind === 'pps'
         ? pdo.maxCurrentMa
         : pdo.kind === 'spr-avs'
-          ? r.outputVoltageMv <= 15_000 ? pdo.maxCurrent15vMa : pdo.maxCurrent20vMa
+          ? r.outputVoltageMv <= 15_000
+            ? pdo.maxCurrent15vMa
+            : pdo.maxCurrent20vMa
           : pdo.kind === 'epr-avs' && r.outputVoltageMv > 0
             ? Math.min(EPR_AVS_MAX_MA, Math.floor((pdo.pdpW * 1_000_000) / r.outputVoltageMv))
             : Number.POSITIVE_INFINITY;

@@ -55,13 +55,17 @@ export function checkStructure(pdos: readonly SourcePdo[], options: { epr?: bool
 
   for (const p of spr) {
     if (isEprPdo(p.pdo)) {
-      const where = options.epr ? `position ${p.position}, but EPR offers start at position ${FIRST_EPR_POSITION}` : 'an SPR Source_Capabilities message; EPR offers belong in EPR_Source_Capabilities from position 8';
+      const where = options.epr
+        ? `position ${p.position}, but EPR offers start at position ${FIRST_EPR_POSITION}`
+        : 'an SPR Source_Capabilities message; EPR offers belong in EPR_Source_Capabilities from position 8';
       findings.push(makeFinding('caps.epr-position', `Object ${p.position} (${describePdo(p.pdo)}) is an EPR offer in ${where}.`, { object: p.position }));
     }
   }
   for (const p of eprPart) {
     if (!isEprPdo(p.pdo)) {
-      findings.push(makeFinding('caps.epr-position', `Object ${p.position} (${describePdo(p.pdo)}) is an SPR offer after position ${MAX_SPR_OBJECTS}, where only EPR offers belong.`, { object: p.position }));
+      findings.push(
+        makeFinding('caps.epr-position', `Object ${p.position} (${describePdo(p.pdo)}) is an SPR offer after position ${MAX_SPR_OBJECTS}, where only EPR offers belong.`, { object: p.position }),
+      );
     }
   }
 
@@ -99,7 +103,9 @@ function checkDuplicates(real: Positioned[]): Finding[] {
     if (p.pdo.kind !== 'fixed') continue;
     const earlier = seen.get(p.pdo.voltageMv);
     if (earlier !== undefined) {
-      findings.push(makeFinding('caps.duplicate', `Objects ${earlier} and ${p.position} are both fixed ${p.pdo.voltageMv / 1_000} V supplies; each fixed voltage may be offered once.`, { object: p.position }));
+      findings.push(
+        makeFinding('caps.duplicate', `Objects ${earlier} and ${p.position} are both fixed ${p.pdo.voltageMv / 1_000} V supplies; each fixed voltage may be offered once.`, { object: p.position }),
+      );
     } else seen.set(p.pdo.voltageMv, p.position);
   }
   return findings;

@@ -87,7 +87,11 @@ describe('chooseRequest: range', () => {
     expect(r).toMatchObject({ objectPosition: 3, capabilityMismatch: false, contract: { voltageMv: 15_000, currentMa: 2_670 } });
   });
   it('none with enough power: the strongest in range with Capability Mismatch; none in range: vSafe5V', () => {
-    expect(chooseRequest(sixtyFive, { kind: 'range', minVoltageMv: 9_000, maxVoltageMv: 20_000, powerMw: 65_000 })).toMatchObject({ objectPosition: 4, capabilityMismatch: true, contract: { currentMa: 3_000 } });
+    expect(chooseRequest(sixtyFive, { kind: 'range', minVoltageMv: 9_000, maxVoltageMv: 20_000, powerMw: 65_000 })).toMatchObject({
+      objectPosition: 4,
+      capabilityMismatch: true,
+      contract: { currentMa: 3_000 },
+    });
     expect(chooseRequest(sixtyFive, { kind: 'range', minVoltageMv: 10_000, maxVoltageMv: 12_000, powerMw: 20_000 })).toMatchObject({ objectPosition: 1, capabilityMismatch: true });
   });
 });

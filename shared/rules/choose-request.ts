@@ -127,7 +127,14 @@ export function chooseRequest(pdos: readonly SourcePdo[], policy: SinkPolicy, op
         return false;
       });
       const currentOf = (o: Offer) => {
-        const offerMa = o.pdo.kind === 'epr-avs' ? Math.floor((o.pdo.pdpW * 1_000_000) / Math.max(voltageMv, 1)) : o.pdo.kind === 'spr-avs' ? (voltageMv <= 15_000 ? o.pdo.maxCurrent15vMa : o.pdo.maxCurrent20vMa) : 0;
+        const offerMa =
+          o.pdo.kind === 'epr-avs'
+            ? Math.floor((o.pdo.pdpW * 1_000_000) / Math.max(voltageMv, 1))
+            : o.pdo.kind === 'spr-avs'
+              ? voltageMv <= 15_000
+                ? o.pdo.maxCurrent15vMa
+                : o.pdo.maxCurrent20vMa
+              : 0;
         return Math.min(offerMa, cableMa);
       };
       const offer = holding.find((o) => currentOf(o) >= wantMa) ?? [...holding].sort((a, b) => currentOf(b) - currentOf(a))[0];
@@ -164,6 +171,16 @@ export function chooseRequest(pdos: readonly SourcePdo[], policy: SinkPolicy, op
 
 /** Only when there are no offers at all: a request for position 1 at nothing. */
 const fallbackPdo: FixedSourcePdo = {
-  kind: 'fixed', raw: '0x00000000', voltageMv: 5_000, maxCurrentMa: 0, peakCurrent: 0, dualRolePower: false, usbSuspendSupported: false,
-  unconstrainedPower: false, usbCommunicationsCapable: false, dualRoleData: false, unchunkedExtendedMessages: false, eprModeCapable: false,
+  kind: 'fixed',
+  raw: '0x00000000',
+  voltageMv: 5_000,
+  maxCurrentMa: 0,
+  peakCurrent: 0,
+  dualRolePower: false,
+  usbSuspendSupported: false,
+  unconstrainedPower: false,
+  usbCommunicationsCapable: false,
+  dualRoleData: false,
+  unchunkedExtendedMessages: false,
+  eprModeCapable: false,
 };

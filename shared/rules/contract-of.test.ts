@@ -20,7 +20,19 @@ describe('contractOf', () => {
 
 describe('contractOf without raw', () => {
   it('encodes an RDO built in code to re-read it by the offer type', () => {
-    const rdo = { kind: 'rdo' as const, raw: '', objectPosition: 1, operatingCurrentMa: 1_000, maxOperatingCurrentMa: 1_000, giveBack: false, capabilityMismatch: false, usbCommunicationsCapable: false, noUsbSuspend: false, unchunkedExtendedMessages: false, eprModeCapable: false };
+    const rdo = {
+      kind: 'rdo' as const,
+      raw: '',
+      objectPosition: 1,
+      operatingCurrentMa: 1_000,
+      maxOperatingCurrentMa: 1_000,
+      giveBack: false,
+      capabilityMismatch: false,
+      usbCommunicationsCapable: false,
+      noUsbSuspend: false,
+      unchunkedExtendedMessages: false,
+      eprModeCapable: false,
+    };
     expect(contractOf(rdo, fixed(5_000, 3_000))).toEqual({ kind: 'fixed', objectPosition: 1, voltageMv: 5_000, currentMa: 1_000, powerMw: 5_000 });
   });
 });

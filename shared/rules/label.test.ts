@@ -18,10 +18,25 @@ describe('parseLabel', () => {
       ],
       powerW: 65,
     });
-    expect(entries('5V=3A / 9V=2A')).toMatchObject({ entries: [{ minVoltageMv: 5_000, currentMa: 3_000 }, { minVoltageMv: 9_000, currentMa: 2_000 }] });
+    expect(entries('5V=3A / 9V=2A')).toMatchObject({
+      entries: [
+        { minVoltageMv: 5_000, currentMa: 3_000 },
+        { minVoltageMv: 9_000, currentMa: 2_000 },
+      ],
+    });
     expect(entries('5V 3A 9V 2.22A')).toMatchObject({ entries: [{ currentMa: 3_000 }, { minVoltageMv: 9_000, currentMa: 2_220 }] });
-    expect(entries('Output: 5.0VDC 3.0A; 9,0V 2A')).toMatchObject({ entries: [{ minVoltageMv: 5_000, currentMa: 3_000 }, { minVoltageMv: 9_000, currentMa: 2_000 }] });
-    expect(entries('5V/9V 3A')).toMatchObject({ entries: [{ minVoltageMv: 5_000, currentMa: 3_000 }, { minVoltageMv: 9_000, currentMa: 3_000 }] });
+    expect(entries('Output: 5.0VDC 3.0A; 9,0V 2A')).toMatchObject({
+      entries: [
+        { minVoltageMv: 5_000, currentMa: 3_000 },
+        { minVoltageMv: 9_000, currentMa: 2_000 },
+      ],
+    });
+    expect(entries('5V/9V 3A')).toMatchObject({
+      entries: [
+        { minVoltageMv: 5_000, currentMa: 3_000 },
+        { minVoltageMv: 9_000, currentMa: 3_000 },
+      ],
+    });
   });
   it('reads programmable ranges with or without "PPS"', () => {
     expect(entries('PPS 3.3-21V⎓3A')).toEqual({ entries: [{ minVoltageMv: 3_300, maxVoltageMv: 21_000, currentMa: 3_000 }] });

@@ -83,7 +83,9 @@ export function checkLabel(pdos: readonly SourcePdo[], label: string, pdpW: numb
     const what = single ? v(entry.minVoltageMv) : `${v(entry.minVoltageMv).slice(0, -2)}–${v(entry.maxVoltageMv)}`;
     const offer = pdos[index];
     if (!offer) {
-      findings.push(makeFinding('caps.label-mismatch', `The label names ${what}${entry.currentMa === undefined ? '' : ` at ${a(entry.currentMa)}`}, but no such ${single ? 'fixed supply' : 'range'} is offered.`));
+      findings.push(
+        makeFinding('caps.label-mismatch', `The label names ${what}${entry.currentMa === undefined ? '' : ` at ${a(entry.currentMa)}`}, but no such ${single ? 'fixed supply' : 'range'} is offered.`),
+      );
       continue;
     }
     const offeredMa = offer.kind === 'fixed' || offer.kind === 'pps' || offer.kind === 'variable' ? offer.maxCurrentMa : undefined;

@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { fail, type Result } from '../core/result.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { batteryPdo, eprAvsApdo, fixedPdo, ppsApdo, sprAvsApdo, variablePdo } from './pdo-builders.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 const step = (unit: string, size: number, max: number) =>
   z
@@ -83,9 +84,7 @@ export function offerInputOf(pdo: SourcePdo): OfferInput {
 export function buildOffers(input: unknown): Result<{ pdos: SourcePdo[] }> {
   const parsed = offerListSchema.safeParse(input);
   if (!parsed.success) {
-    const issue = parsed.error.issues[0]!;
-    const where = issue.path.length > 0 ? `offers.${issue.path.join('.')}` : 'offers';
-    return fail('input.offers', `${where}: ${issue.message}`);
+    return fail('input.offers', zodMessage(parsed.error, { prefix: 'offers', limit: 1 }));
   }
   try {
     const pdos = parsed.data.map((o): SourcePdo => {

@@ -18,8 +18,19 @@ function withRaw<T extends SourcePdo>(pdo: T): T {
 
 export function fixedPdo(voltageMv: number, maxCurrentMa: number, flags: FixedFlags = {}): FixedSourcePdo {
   return withRaw({
-    kind: 'fixed', raw: '', voltageMv, maxCurrentMa, peakCurrent: 0, dualRolePower: false, usbSuspendSupported: false, unconstrainedPower: false,
-    usbCommunicationsCapable: false, dualRoleData: false, unchunkedExtendedMessages: false, eprModeCapable: false, ...flags,
+    kind: 'fixed',
+    raw: '',
+    voltageMv,
+    maxCurrentMa,
+    peakCurrent: 0,
+    dualRolePower: false,
+    usbSuspendSupported: false,
+    unconstrainedPower: false,
+    usbCommunicationsCapable: false,
+    dualRoleData: false,
+    unchunkedExtendedMessages: false,
+    eprModeCapable: false,
+    ...flags,
   });
 }
 

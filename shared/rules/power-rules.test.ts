@@ -12,11 +12,21 @@ describe('powerRulesFor', () => {
     expect(powerRulesFor(15).fixed).toEqual([{ voltageMv: 5_000, currentMa: 3_000 }]);
   });
   it('15–27 W: 5 V 3 A and 9 V at PDP/9 (rounded down to 10 mA)', () => {
-    expect(powerRulesFor(20).fixed).toEqual([{ voltageMv: 5_000, currentMa: 3_000 }, { voltageMv: 9_000, currentMa: 2_220 }]);
-    expect(powerRulesFor(27).fixed).toEqual([{ voltageMv: 5_000, currentMa: 3_000 }, { voltageMv: 9_000, currentMa: 3_000 }]);
+    expect(powerRulesFor(20).fixed).toEqual([
+      { voltageMv: 5_000, currentMa: 3_000 },
+      { voltageMv: 9_000, currentMa: 2_220 },
+    ]);
+    expect(powerRulesFor(27).fixed).toEqual([
+      { voltageMv: 5_000, currentMa: 3_000 },
+      { voltageMv: 9_000, currentMa: 3_000 },
+    ]);
   });
   it('27–45 W: adds 15 V at PDP/15', () => {
-    expect(powerRulesFor(45).fixed).toEqual([{ voltageMv: 5_000, currentMa: 3_000 }, { voltageMv: 9_000, currentMa: 3_000 }, { voltageMv: 15_000, currentMa: 3_000 }]);
+    expect(powerRulesFor(45).fixed).toEqual([
+      { voltageMv: 5_000, currentMa: 3_000 },
+      { voltageMv: 9_000, currentMa: 3_000 },
+      { voltageMv: 15_000, currentMa: 3_000 },
+    ]);
     expect(powerRulesFor(30).fixed.at(-1)).toEqual({ voltageMv: 15_000, currentMa: 2_000 });
   });
   it('45–60 W: adds 20 V at PDP/20', () => {
@@ -32,8 +42,15 @@ describe('powerRulesFor', () => {
   it('EPR: 28 V, 36 V, 48 V by band and the AVS range', () => {
     expect(powerRulesFor(140, { epr: true })).toMatchObject({ avs: { minVoltageMv: 15_000, maxVoltageMv: 28_000 } });
     expect(powerRulesFor(140, { epr: true }).fixed.at(-1)).toEqual({ voltageMv: 28_000, currentMa: 5_000 });
-    expect(powerRulesFor(180, { epr: true }).fixed.slice(-2)).toEqual([{ voltageMv: 28_000, currentMa: 5_000 }, { voltageMv: 36_000, currentMa: 5_000 }]);
-    expect(powerRulesFor(240, { epr: true }).fixed.slice(-3)).toEqual([{ voltageMv: 28_000, currentMa: 5_000 }, { voltageMv: 36_000, currentMa: 5_000 }, { voltageMv: 48_000, currentMa: 5_000 }]);
+    expect(powerRulesFor(180, { epr: true }).fixed.slice(-2)).toEqual([
+      { voltageMv: 28_000, currentMa: 5_000 },
+      { voltageMv: 36_000, currentMa: 5_000 },
+    ]);
+    expect(powerRulesFor(240, { epr: true }).fixed.slice(-3)).toEqual([
+      { voltageMv: 28_000, currentMa: 5_000 },
+      { voltageMv: 36_000, currentMa: 5_000 },
+      { voltageMv: 48_000, currentMa: 5_000 },
+    ]);
     expect(powerRulesFor(240, { epr: true }).avs).toEqual({ minVoltageMv: 15_000, maxVoltageMv: 48_000 });
     expect(powerRulesFor(120, { epr: true }).fixed.at(-1)).toEqual({ voltageMv: 28_000, currentMa: 4_280 });
   });

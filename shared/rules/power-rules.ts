@@ -84,7 +84,9 @@ export function checkPowerRules(pdos: readonly SourcePdo[], pdpW: number, option
   }
   if (rules.avs && !pdos.some((p) => p.kind === 'epr-avs')) {
     const { minVoltageMv, maxVoltageMv } = rules.avs;
-    findings.push(makeFinding('caps.power-rules-missing', `The Power Rules require ${who} in EPR to offer an adjustable supply from ${minVoltageMv / 1_000} V to ${maxVoltageMv / 1_000} V, and none is offered.`));
+    findings.push(
+      makeFinding('caps.power-rules-missing', `The Power Rules require ${who} in EPR to offer an adjustable supply from ${minVoltageMv / 1_000} V to ${maxVoltageMv / 1_000} V, and none is offered.`),
+    );
   }
   return findings;
 }

@@ -21,18 +21,12 @@ const rdoFlags = {
 
 export const maxPowerPolicySchema = z.object({ kind: z.literal('max-power'), ...rdoFlags }).strict();
 
-export const fixedPolicySchema = z
-  .object({ kind: z.literal('fixed'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags })
-  .strict();
+export const fixedPolicySchema = z.object({ kind: z.literal('fixed'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags }).strict();
 
-export const ppsPolicySchema = z
-  .object({ kind: z.literal('pps'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags })
-  .strict();
+export const ppsPolicySchema = z.object({ kind: z.literal('pps'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags }).strict();
 
 /** An adjustable-voltage offer (SPR AVS or EPR AVS): voltage in 100 mV steps, current in 50 mA steps (vector.md). */
-export const avsPolicySchema = z
-  .object({ kind: z.literal('avs'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags })
-  .strict();
+export const avsPolicySchema = z.object({ kind: z.literal('avs'), voltageMv: millivolts, currentMa: milliamps, ...rdoFlags }).strict();
 
 export const rangePolicySchema = z
   .object({
@@ -67,8 +61,4 @@ export interface ChosenRequest {
 }
 
 /** The signature `chooseRequest` (./choose-request.ts) implements. */
-export type ChooseRequest = (
-  pdos: readonly import('../pd/types.ts').SourcePdo[],
-  policy: SinkPolicy,
-  options?: ChooseRequestOptions,
-) => ChosenRequest;
+export type ChooseRequest = (pdos: readonly import('../pd/types.ts').SourcePdo[], policy: SinkPolicy, options?: ChooseRequestOptions) => ChosenRequest;

@@ -17,8 +17,13 @@ function run(input: Record<string, unknown>): SimulationResult {
   return simulate(parsed.scenario);
 }
 const list = (result: SimulationResult) =>
-  result.events.flatMap((r) => ('msg' in r && r.message && r.message.header.messageType !== 'GoodCRC' ? [{ t: r.t, from: r.from ?? '', type: r.message.header.messageType, bytes: r.msg.length / 2 }] : []));
-const after = (result: SimulationResult, tUs: number) => list(result).filter((m) => m.t >= tUs).map((m) => `${m.from} ${m.type}`);
+  result.events.flatMap((r) =>
+    'msg' in r && r.message && r.message.header.messageType !== 'GoodCRC' ? [{ t: r.t, from: r.from ?? '', type: r.message.header.messageType, bytes: r.msg.length / 2 }] : [],
+  );
+const after = (result: SimulationResult, tUs: number) =>
+  list(result)
+    .filter((m) => m.t >= tUs)
+    .map((m) => `${m.from} ${m.type}`);
 const rpEvents = (result: SimulationResult) => result.events.filter((r) => 'event' in r && r.event === 'rp') as { t: number; rp?: string }[];
 
 describe('asking the partner', () => {
@@ -32,14 +37,24 @@ describe('asking the partner', () => {
       ],
     });
     expect(after(result, 1_000_000).slice(0, 6)).toEqual([
-      'sink Get_Source_Cap_Extended', 'source Source_Capabilities_Extended', 'sink Get_Status', 'source Status', 'sink Get_PPS_Status', 'source PPS_Status',
+      'sink Get_Source_Cap_Extended',
+      'source Source_Capabilities_Extended',
+      'sink Get_Status',
+      'source Status',
+      'sink Get_PPS_Status',
+      'source PPS_Status',
     ]);
     // Header 2 + 7 objects (extended header 2 + 25-byte SCEDB, padded to 28) = 30 bytes (§6.5.1, §6.2.1.2).
     expect(list(result).find((m) => m.type === 'Source_Capabilities_Extended')!.bytes).toBe(30);
   });
 
   it('a source-only port answers Get_Sink_Cap with Not_Supported; a sink answers with its Sink_Capabilities', () => {
-    const result = run({ actions: [{ atMs: 1_000, by: 'sink', action: 'get_sink_cap' }, { atMs: 1_200, by: 'source', action: 'get_sink_cap' }] });
+    const result = run({
+      actions: [
+        { atMs: 1_000, by: 'sink', action: 'get_sink_cap' },
+        { atMs: 1_200, by: 'source', action: 'get_sink_cap' },
+      ],
+    });
     expect(after(result, 1_000_000).slice(0, 4)).toEqual(['sink Get_Sink_Cap', 'source Not_Supported', 'source Get_Sink_Cap', 'sink Sink_Capabilities']);
   });
 });
@@ -58,7 +73,12 @@ describe('collision avoidance', () => {
     expect(ok!.t).toBeGreaterThan(answer.t);
   });
   it('the sink waits for SinkTxOK before it starts an exchange', () => {
-    const result = run({ actions: [{ atMs: 1_000, by: 'source', action: 'get_sink_cap' }, { atMs: 1_005, by: 'sink', action: 'get_status' }] });
+    const result = run({
+      actions: [
+        { atMs: 1_000, by: 'source', action: 'get_sink_cap' },
+        { atMs: 1_005, by: 'sink', action: 'get_status' },
+      ],
+    });
     const ok = rpEvents(result)[1]!;
     const ask = list(result).find((m) => m.type === 'Get_Status')!;
     expect(ask.t).toBeGreaterThan(ok.t);
@@ -75,7 +95,10 @@ describe('swaps', () => {
   it('DR_Swap and VCONN_Swap accepted; a rejected and a Not_Supported answer keep the roles', () => {
     const accept = run({
       sink: { behaviour: { swapAnswer: 'accept' } },
-      actions: [{ atMs: 1_000, by: 'source', action: 'dr_swap' }, { atMs: 1_300, by: 'sink', action: 'vconn_swap' }],
+      actions: [
+        { atMs: 1_000, by: 'source', action: 'dr_swap' },
+        { atMs: 1_300, by: 'sink', action: 'vconn_swap' },
+      ],
       source: { caps: { pdos: CAPS }, behaviour: { swapAnswer: 'accept' } },
     });
     expect(after(accept, 1_000_000).slice(0, 5)).toEqual(['source DR_Swap', 'sink Accept', 'sink VCONN_Swap', 'source Accept', 'sink PS_RDY']);

@@ -41,8 +41,7 @@ export function identityAck(marker: EMarker): number[] {
   const idHeader = ((0b011 << 27) | (0b11 << 21) | CABLE_VID) >>> 0;
   const certStat = 0;
   const product = ((CABLE_PID << 16) | 0x0100) >>> 0;
-  const passive =
-    ((0b10 << 18) | ((marker.eprCapable ? 1 : 0) << 17) | (0b0001 << 13) | ((VOLTAGE_CODES[marker.maxVoltageMv] ?? 0) << 9) | ((marker.currentMa >= 5_000 ? 0b10 : 0b01) << 5)) >>> 0;
+  const passive = ((0b10 << 18) | ((marker.eprCapable ? 1 : 0) << 17) | (0b0001 << 13) | ((VOLTAGE_CODES[marker.maxVoltageMv] ?? 0) << 9) | ((marker.currentMa >= 5_000 ? 0b10 : 0b01) << 5)) >>> 0;
   return [vdmHeader('ack'), idHeader, certStat, product, passive];
 }
 

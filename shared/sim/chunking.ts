@@ -51,7 +51,14 @@ export function chunkStep(state: ChunkState, event: ChunkEvent): [ChunkState, Ch
       return [state, [{ kind: 'start-timer', name: 'tChunkSenderRequest' }]];
     }
     case 'failed': {
-      if (state.tx?.type === event.type) return [{ ...state, tx: null }, [{ kind: 'stop-timer', name: 'tChunkSenderRequest' }, { kind: 'failed', type: event.type }]];
+      if (state.tx?.type === event.type)
+        return [
+          { ...state, tx: null },
+          [
+            { kind: 'stop-timer', name: 'tChunkSenderRequest' },
+            { kind: 'failed', type: event.type },
+          ],
+        ];
       return [{ ...state, rx: null }, [{ kind: 'stop-timer', name: 'tChunkSenderResponse' }]];
     }
     case 'timer':
@@ -65,7 +72,10 @@ export function chunkStep(state: ChunkState, event: ChunkEvent): [ChunkState, Ch
         if (!tx || tx.type !== event.type || header.chunkNumber !== tx.sentChunk + 1) return [state, []];
         return [
           { ...state, tx: { ...tx, sentChunk: header.chunkNumber } },
-          [{ kind: 'stop-timer', name: 'tChunkSenderRequest' }, { kind: 'transmit', type: tx.type, objects: chunkObjects(tx.bytes, header.chunkNumber) }],
+          [
+            { kind: 'stop-timer', name: 'tChunkSenderRequest' },
+            { kind: 'transmit', type: tx.type, objects: chunkObjects(tx.bytes, header.chunkNumber) },
+          ],
         ];
       }
       const take = Math.min(MAX_CHUNK_BYTES, header.dataSize - header.chunkNumber * MAX_CHUNK_BYTES);

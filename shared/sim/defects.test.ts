@@ -14,8 +14,7 @@ function run(input: Record<string, unknown>): SimulationResult {
   if (!parsed.ok) throw new Error(parsed.error.message);
   return simulate(parsed.scenario);
 }
-const sent = (result: SimulationResult, type: string) =>
-  result.events.filter((r) => 'msg' in r && r.message?.header.messageType === type) as { t: number; from?: string }[];
+const sent = (result: SimulationResult, type: string) => result.events.filter((r) => 'msg' in r && r.message?.header.messageType === type) as { t: number; from?: string }[];
 
 describe('after a Reject with a contract in place', () => {
   // §8.3.3.3.5 PE_SNK_Select_Capability: Reject with an Explicit Contract → PE_SNK_Ready, keeping the
@@ -55,7 +54,14 @@ describe('after nHardResetCount with a PD connection', () => {
   // §8.3.3.2.4 PE_SRC_Discovery / NoResponseTimer: HardResetCounter > nHardResetCount → PE_SRC_Disabled
   // only when the partners were never PD connected; when they were, ErrorRecovery. The PD connection
   // lasts until detach: a Hard Reset (Transition_to_default) does not clear it.
-  const context: SourceContext = { offers: () => ({ words: [0x0001_912c], pdos: [] }), eprCapable: false, discoverCable: false, swapAnswer: 'reject', pdpW: () => ({ spr: 15, epr: 0 }), vbusMv: () => 5_000 };
+  const context: SourceContext = {
+    offers: () => ({ words: [0x0001_912c], pdos: [] }),
+    eprCapable: false,
+    discoverCable: false,
+    swapAnswer: 'reject',
+    pdpW: () => ({ spr: 15, epr: 0 }),
+    vbusMv: () => 5_000,
+  };
   it('the source keeps its PD connection through Hard Resets and takes ErrorRecovery, not Disabled', () => {
     let pe: SourcePe = { ...initialSourcePe('3.0'), state: 'PE_SRC_Send_Capabilities' };
     [pe] = sourceStep(pe, { kind: 'sent', type: 'Source_Capabilities' }, context);

@@ -27,7 +27,14 @@ function run(input: Record<string, unknown>): SimulationResult {
   return simulate(parsed.scenario);
 }
 
-interface Msg { t: number; from: string; sop: string; type: string; objects: number[]; name: string }
+interface Msg {
+  t: number;
+  from: string;
+  sop: string;
+  type: string;
+  objects: number[];
+  name: string;
+}
 function messages(result: SimulationResult): Msg[] {
   return result.events.flatMap((r) => {
     if (!('msg' in r) || !r.message || r.message.header.messageType === 'GoodCRC') return [];
@@ -35,7 +42,12 @@ function messages(result: SimulationResult): Msg[] {
     const bytes = Buffer.from(r.msg, 'hex');
     const objects: number[] = [];
     for (let i = 2; i + 3 < bytes.length; i += 4) objects.push(bytes.readUInt32LE(i));
-    const name = type === 'EPR_Mode' ? `EPR_Mode(${['', 'Enter', 'Enter_Acknowledged', 'Enter_Succeeded', 'Enter_Failed', 'Exit'][eprModeOf(objects[0]).action]})` : type === 'Extended_Control' ? `Extended_Control(${bytes[4]})` : type;
+    const name =
+      type === 'EPR_Mode'
+        ? `EPR_Mode(${['', 'Enter', 'Enter_Acknowledged', 'Enter_Succeeded', 'Enter_Failed', 'Exit'][eprModeOf(objects[0]).action]})`
+        : type === 'Extended_Control'
+          ? `Extended_Control(${bytes[4]})`
+          : type;
     return [{ t: r.t, from: r.from ?? '', sop: r.sop ?? 'SOP', type, objects, name }];
   });
 }
@@ -48,9 +60,23 @@ describe('a 140 W source, an EPR sink asking 28 V 5 A and an EPR cable', () => {
 
   it('reaches 28 V at object position 8 through the full entry sequence', () => {
     const expected = [
-      'source Vendor_Defined', 'cable Vendor_Defined', 'source Source_Capabilities', 'sink Request', 'source Accept', 'source PS_RDY',
-      'sink EPR_Mode(Enter)', 'source EPR_Mode(Enter_Acknowledged)', 'source Vendor_Defined', 'cable Vendor_Defined', 'source EPR_Mode(Enter_Succeeded)',
-      'source EPR_Source_Capabilities', 'sink EPR_Source_Capabilities', 'source EPR_Source_Capabilities', 'sink EPR_Request', 'source Accept', 'source PS_RDY',
+      'source Vendor_Defined',
+      'cable Vendor_Defined',
+      'source Source_Capabilities',
+      'sink Request',
+      'source Accept',
+      'source PS_RDY',
+      'sink EPR_Mode(Enter)',
+      'source EPR_Mode(Enter_Acknowledged)',
+      'source Vendor_Defined',
+      'cable Vendor_Defined',
+      'source EPR_Mode(Enter_Succeeded)',
+      'source EPR_Source_Capabilities',
+      'sink EPR_Source_Capabilities',
+      'source EPR_Source_Capabilities',
+      'sink EPR_Request',
+      'source Accept',
+      'source PS_RDY',
     ];
     expect(names.slice(0, expected.length)).toEqual(expected);
     expect(result.contract).toEqual({ kind: 'fixed', objectPosition: 8, voltageMv: 28_000, currentMa: 5_000, powerMw: 140_000 });
@@ -134,7 +160,9 @@ describe('EPR exit and a lapsed keep-alive', () => {
   // §6.4.10 Exit: the source offers SPR again and the sink requests within it.
   it('leaves EPR mode on epr_exit and settles on SPR offers', () => {
     const result = run({ actions: [{ atMs: 2_000, by: 'sink', action: 'epr_exit' }] });
-    const after = messages(result).filter((m) => m.t > 2_000_000).map((m) => `${m.from} ${m.name}`);
+    const after = messages(result)
+      .filter((m) => m.t > 2_000_000)
+      .map((m) => `${m.from} ${m.name}`);
     expect(after.slice(0, 5)).toEqual(['sink EPR_Mode(Exit)', 'source Source_Capabilities', 'sink Request', 'source Accept', 'source PS_RDY']);
     expect(result.contract).toMatchObject({ voltageMv: 20_000 });
     expect(result.ports.final.source.eprMode).toBe(false);
@@ -144,7 +172,9 @@ describe('EPR exit and a lapsed keep-alive', () => {
     const result = run({ faults: [{ kind: 'silent', from: 'sink', atMs: 1_000 }], durationMs: 3_000 });
     const reset = result.events.find((r) => 'event' in r && r.event === 'hard_reset') as { t: number; from?: string };
     expect(reset.from).toBe('source');
-    const lastHeard = messages(result).filter((m) => m.from === 'sink' && m.t < reset.t).at(-1)!;
+    const lastHeard = messages(result)
+      .filter((m) => m.from === 'sink' && m.t < reset.t)
+      .at(-1)!;
     expect(reset.t - lastHeard.t).toBeGreaterThanOrEqual(T.tSourceEPRKeepAlive.minUs);
     expect(reset.t - lastHeard.t).toBeLessThanOrEqual(T.tSourceEPRKeepAlive.maxUs + 5_000);
   });

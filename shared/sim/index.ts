@@ -1,5 +1,18 @@
 /** Public entry of the negotiation simulator (interfaces: "shared/sim"). */
-export { scenarioSchema, faultSchema, sourceBehaviourSchema, actionSchema, eMarkerSchema, swapAnswerSchema, actionNames, parseScenario, type Scenario, type ScenarioInput, type Fault, type ActionName } from './scenario.ts';
+export {
+  scenarioSchema,
+  faultSchema,
+  sourceBehaviourSchema,
+  actionSchema,
+  eMarkerSchema,
+  swapAnswerSchema,
+  actionNames,
+  parseScenario,
+  type Scenario,
+  type ScenarioInput,
+  type Fault,
+  type ActionName,
+} from './scenario.ts';
 export { simulate, type SimulateOptions, type SimulationResult, type Sample } from './simulate.ts';
 export { resolveCaps, type ResolvedCaps, type CapsInput } from './caps.ts';
 export type { LaneEntry, TimerSpan, TimedContract, Side } from './types.ts';

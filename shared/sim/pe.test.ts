@@ -47,7 +47,11 @@ describe('sinkStep', () => {
 
   // §6.5.x / §8.3.3.3: a revision 2.0 partner gets the lower revision; R2.0 has no programmable offers.
   it('negotiates down to revision 2.0 when the source speaks 2.0', () => {
-    const [pe] = sinkStep({ ...initialSinkPe('3.0', { kind: 'max-power' }), state: 'PE_SNK_Wait_for_Capabilities' }, { kind: 'message', type: 'Source_Capabilities', objects: words, revision: '2.0' }, { cableMa: 3_000, ownRevision: '3.0' });
+    const [pe] = sinkStep(
+      { ...initialSinkPe('3.0', { kind: 'max-power' }), state: 'PE_SNK_Wait_for_Capabilities' },
+      { kind: 'message', type: 'Source_Capabilities', objects: words, revision: '2.0' },
+      { cableMa: 3_000, ownRevision: '3.0' },
+    );
     expect(pe.revision).toBe('2.0');
   });
 });

@@ -62,20 +62,14 @@ export function protocolStep(state: ProtocolState, event: ProtocolEvent, nRetryC
     case 'good-crc': {
       const pending = state.pending;
       if (!pending || pending.messageId !== event.messageId) return [state, []];
-      return [
-        { ...state, txCounter: next(state.txCounter), pending: null },
-        [{ kind: 'stop-crc-timer' }, { kind: 'sent', type: pending.type }],
-      ];
+      return [{ ...state, txCounter: next(state.txCounter), pending: null }, [{ kind: 'stop-crc-timer' }, { kind: 'sent', type: pending.type }]];
     }
     case 'crc-timeout': {
       const pending = state.pending;
       if (!pending) return [state, []];
       if (pending.attempts <= nRetryCount) {
         const retry = { ...pending, attempts: pending.attempts + 1 };
-        return [
-          { ...state, pending: retry },
-          [{ kind: 'transmit', type: retry.type, objects: retry.objects, messageId: retry.messageId, attempt: retry.attempts }],
-        ];
+        return [{ ...state, pending: retry }, [{ kind: 'transmit', type: retry.type, objects: retry.objects, messageId: retry.messageId, attempt: retry.attempts }]];
       }
       return [{ ...state, txCounter: next(state.txCounter), pending: null }, [{ kind: 'failed', type: pending.type }]];
     }

@@ -133,7 +133,15 @@ class Run {
       pending: (layer) => this.prl[layer].pending,
       startReceiveTimer: (layer, endUs) => this.startTimer(layer, this.portOfLayer(layer), 'tReceive', endUs),
     });
-    this.vbus = new VbusPath(this.clock, schedule, this.records, scenario.source.behaviour.slewMvPerMs / 1_000, power.rpCurrentMa(scenario.source.behaviour.rp), scenario.cable.resistanceMohm, scenario.sink.load.currentMa);
+    this.vbus = new VbusPath(
+      this.clock,
+      schedule,
+      this.records,
+      scenario.source.behaviour.slewMvPerMs / 1_000,
+      power.rpCurrentMa(scenario.source.behaviour.rp),
+      scenario.cable.resistanceMohm,
+      scenario.sink.load.currentMa,
+    );
     this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.floor(this.durationUs / options.sampleEveryUs) + 1)) : undefined;
     // A 5 A cable without an explicit e-marker still answers as 5 A, 20 V, not EPR capable (vector.md).
     const { eMarker, currentRatingMa } = scenario.cable;
@@ -152,12 +160,26 @@ class Run {
     };
     const swapWords = hexWords(scenario.sink.swapCaps?.pdos) ?? VSAFE5V_1A5; // 5 V 1.5 A
     const swapOffers = offersFor(swapWords, null);
-    this.sourceContext = { source: mainSource, sink: { ...mainSource, offers: swapOffers, eprCapable: false, discoverCable: false, swapAnswer: scenario.sink.behaviour.swapAnswer, pdpW: () => ({ spr: pdpOf(swapOffers(null, false).pdos), epr: 0 }) } };
+    this.sourceContext = {
+      source: mainSource,
+      sink: {
+        ...mainSource,
+        offers: swapOffers,
+        eprCapable: false,
+        discoverCable: false,
+        swapAnswer: scenario.sink.behaviour.swapAnswer,
+        pdpW: () => ({ spr: pdpOf(swapOffers(null, false).pdos), epr: 0 }),
+      },
+    };
     const decodeOffers = (words: readonly number[]) => this.decodedOffers(words);
     this.offersOf = offers;
     const mainSink: SinkContext = {
-      cableMa, ownRevision: scenario.sink.specRevision, decodeOffers, eprPdpW: scenario.sink.epr?.pdpW ?? null,
-      sinkCaps: hexWords(scenario.sink.caps?.pdos) ?? derivedSinkCaps(scenario.sink.policy), swapAnswer: scenario.sink.behaviour.swapAnswer,
+      cableMa,
+      ownRevision: scenario.sink.specRevision,
+      decodeOffers,
+      eprPdpW: scenario.sink.epr?.pdpW ?? null,
+      sinkCaps: hexWords(scenario.sink.caps?.pdos) ?? derivedSinkCaps(scenario.sink.policy),
+      swapAnswer: scenario.sink.behaviour.swapAnswer,
     };
     this.sinkContext = { sink: mainSink, source: { ...mainSink, ownRevision: scenario.source.specRevision, eprPdpW: null, sinkCaps: VSAFE5V_1A5, swapAnswer: scenario.source.behaviour.swapAnswer } };
     this.pe = { source: initialSourcePe(scenario.source.specRevision), sink: initialSinkPe(scenario.sink.specRevision, scenario.sink.policy) };
@@ -217,7 +239,7 @@ class Run {
     const revision = cable ? '3.0' : this.revisionOf(port);
     const header = packHeader(type, objects.length, messageId, bits, revision);
     // Faults name an Extended_Control by its own type (vector.md).
-    const faultName = type === 'Extended_Control' ? ECDB_NAMES[((objects[0] ?? 0) >>> 16) & 0xff] ?? type : type;
+    const faultName = type === 'Extended_Control' ? (ECDB_NAMES[((objects[0] ?? 0) >>> 16) & 0xff] ?? type) : type;
     return { layer, sop: prime ? "SOP'" : 'SOP', from: cable ? 'cable' : this.role[port], type, objects, messageId, attempt, header, faultName };
   }
   performProtocol(layer: LayerKey, effect: ProtocolEffect, partnerRevision: Revision): void {
@@ -610,8 +632,14 @@ class Run {
     this.timers.close(clock.nowUs);
     options.onProgress?.(1);
     const output: RunOutput = {
-      records: this.records, lanes: this.lanes, timers: this.timers.spans, contracts: this.contracts, contract: this.vbus.contract,
-      ports: this.portViews(), endUs: clock.nowUs, stopped,
+      records: this.records,
+      lanes: this.lanes,
+      timers: this.timers.spans,
+      contracts: this.contracts,
+      contract: this.vbus.contract,
+      ports: this.portViews(),
+      endUs: clock.nowUs,
+      stopped,
     };
     if (this.samples) output.samples = this.samples.finish();
     return output;

@@ -9,16 +9,14 @@ import { fail, type Result } from '../core/result.ts';
 import { timersPd3, type TimerName } from '../core/timers.ts';
 import { sinkPolicySchema } from '../rules/sink-policy.ts';
 import { resolveCaps } from './caps.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 const TIMER_NAMES = Object.keys(timersPd3) as [TimerName, ...TimerName[]];
 
 const revision = z.enum(['2.0', '3.0']);
 const ms = z.number().int().nonnegative();
 
-const capsSchema = z.union([
-  z.object({ pdos: z.array(z.string()).min(1).max(7) }).strict(),
-  z.object({ hex: z.string().min(1) }).strict(),
-]);
+const capsSchema = z.union([z.object({ pdos: z.array(z.string()).min(1).max(7) }).strict(), z.object({ hex: z.string().min(1) }).strict()]);
 /** EPR objects, from object position 8 (USB PD R3.2 V1.1 §6.5.15.1; at most 4, positions 8–11, from memory). */
 const eprCapsSchema = z.object({ pdos: z.array(z.string()).min(1).max(4) }).strict();
 const pdoListSchema = z.object({ pdos: z.array(z.string()).min(1).max(7) }).strict();
@@ -27,8 +25,17 @@ const pdoListSchema = z.object({ pdos: z.array(z.string()).min(1).max(7) }).stri
 export const swapAnswerSchema = z.enum(['accept', 'reject', 'wait', 'not_supported']);
 
 export const actionNames = [
-  'get_source_cap', 'get_sink_cap', 'get_source_cap_extended', 'get_status', 'get_pps_status',
-  'pr_swap', 'dr_swap', 'vconn_swap', 'soft_reset', 'hard_reset', 'epr_exit',
+  'get_source_cap',
+  'get_sink_cap',
+  'get_source_cap_extended',
+  'get_status',
+  'get_pps_status',
+  'pr_swap',
+  'dr_swap',
+  'vconn_swap',
+  'soft_reset',
+  'hard_reset',
+  'epr_exit',
 ] as const;
 export const actionSchema = z.object({ atMs: ms, by: z.enum(['source', 'sink']), action: z.enum(actionNames) }).strict();
 export type ActionName = (typeof actionNames)[number];
@@ -89,7 +96,10 @@ export const scenarioSchema = z
         specRevision: revision.default('3.0'),
         policy: sinkPolicySchema.default({ kind: 'max-power' }),
         /** EPR capable with this operational PDP (W). */
-        epr: z.object({ pdpW: z.number().int().min(1).max(240) }).strict().optional(),
+        epr: z
+          .object({ pdpW: z.number().int().min(1).max(240) })
+          .strict()
+          .optional(),
         /** The sink's Sink_Capabilities (default: from its policy, vSafe5V first). */
         caps: pdoListSchema.optional(),
         /** What the former sink offers after a PR_Swap (default one fixed 5 V 1.5 A object). */
@@ -144,7 +154,11 @@ export const scenarioSchema = z
     // USB PD R2.0 has no Augmented PDOs (R3.2 V1.1 §6.4.1: APDOs are R3.x only).
     const apdo = caps.pdos.findIndex((pdo) => pdo.kind === 'pps' || pdo.kind === 'spr-avs' || pdo.kind === 'epr-avs');
     if (scenario.source.specRevision === '2.0' && apdo >= 0) {
-      context.addIssue({ code: 'custom', path: ['source', 'caps'], message: `a PD 2.0 source cannot offer programmable (augmented) objects, and object ${apdo + 1} is one; set specRevision "3.0" or remove it` });
+      context.addIssue({
+        code: 'custom',
+        path: ['source', 'caps'],
+        message: `a PD 2.0 source cannot offer programmable (augmented) objects, and object ${apdo + 1} is one; set specRevision "3.0" or remove it`,
+      });
     }
     if (scenario.source.eprCaps) {
       if (scenario.source.specRevision === '2.0') context.addIssue({ code: 'custom', path: ['source', 'eprCaps'], message: 'EPR needs a PD 3.x source: set specRevision "3.0"' });
@@ -167,7 +181,5 @@ export type Fault = z.output<typeof faultSchema>;
 export function parseScenario(input: unknown): Result<{ scenario: Scenario }> {
   const parsed = scenarioSchema.safeParse(input);
   if (parsed.success) return { ok: true, scenario: parsed.data };
-  const issue = parsed.error.issues[0];
-  const field = issue && issue.path.length > 0 ? issue.path.join('.') : 'scenario';
-  return fail('scenario.invalid', `${field}: ${issue?.message ?? 'invalid scenario'}`);
+  return fail('scenario.invalid', zodMessage(parsed.error, { where: 'scenario', limit: 1 }));
 }

@@ -26,9 +26,7 @@ interface Msg {
 }
 
 function messages(result: SimulationResult): Msg[] {
-  return result.events.flatMap((r) =>
-    'msg' in r && r.message ? [{ t: r.t, from: r.from ?? '', type: r.message.header.messageType, id: r.message.header.messageId, crcOk: r.crcOk !== false }] : [],
-  );
+  return result.events.flatMap((r) => ('msg' in r && r.message ? [{ t: r.t, from: r.from ?? '', type: r.message.header.messageType, id: r.message.header.messageId, crcOk: r.crcOk !== false }] : []));
 }
 const hardResets = (result: SimulationResult) => result.events.filter((r) => 'event' in r && r.event === 'hard_reset') as { t: number; from?: string }[];
 const errors = (result: SimulationResult) => result.findings.filter((f) => f.severity === 'error');
@@ -40,10 +38,7 @@ describe('a negotiation without faults', () => {
     const result = run({});
     expect(result.contract).toEqual({ kind: 'fixed', objectPosition: 3, voltageMv: 15_000, currentMa: 3_000, powerMw: 45_000 });
     const sequence = messages(result).map((m) => `${m.from} ${m.type}`);
-    expect(sequence).toEqual([
-      'source Source_Capabilities', 'sink GoodCRC', 'sink Request', 'source GoodCRC',
-      'source Accept', 'sink GoodCRC', 'source PS_RDY', 'sink GoodCRC',
-    ]);
+    expect(sequence).toEqual(['source Source_Capabilities', 'sink GoodCRC', 'sink Request', 'source GoodCRC', 'source Accept', 'sink GoodCRC', 'source PS_RDY', 'sink GoodCRC']);
     expect(errors(result)).toEqual([]);
     expect(result.lanes.filter((l) => l.side === 'sink').map((l) => l.state)).toContain('PE_SNK_Ready');
     const response = result.timers.find((s) => s.name === 'tSenderResponse' && s.side === 'sink');
@@ -80,7 +75,9 @@ describe('a negotiation without faults', () => {
 
   it('asks for the offers again when the policy changes, and takes the new contract', () => {
     const result = run({ sink: { policy: { kind: 'max-power' }, changes: [{ atMs: 1_000, policy: { kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 } }] } });
-    const after = messages(result).filter((m) => m.t >= 1_000_000 && m.type !== 'GoodCRC').map((m) => `${m.from} ${m.type}`);
+    const after = messages(result)
+      .filter((m) => m.t >= 1_000_000 && m.type !== 'GoodCRC')
+      .map((m) => `${m.from} ${m.type}`);
     expect(after).toEqual(['sink Get_Source_Cap', 'source Source_Capabilities', 'sink Request', 'source Accept', 'source PS_RDY']);
     expect(result.contracts.map((c) => c.voltageMv)).toEqual([15_000, 9_000]);
     expect(result.contract).toMatchObject({ kind: 'fixed', voltageMv: 9_000, currentMa: 2_000 });
@@ -112,7 +109,10 @@ describe('faults', () => {
 
   // §6.7.2: after nRetryCount retries the transmission fails; §6.8.1 the sender then sends Soft_Reset.
   it('nRetryCount retries without GoodCRC end in a Soft_Reset, for R3 (2) and R2.0 (3)', () => {
-    for (const [revision, retries] of [['3.0', countersPd3.nRetryCount], ['2.0', 3]] as const) {
+    for (const [revision, retries] of [
+      ['3.0', countersPd3.nRetryCount],
+      ['2.0', 3],
+    ] as const) {
       const result = run({
         source: { caps: { pdos: CAPS.slice(0, 3) }, specRevision: revision },
         sink: { specRevision: revision },
@@ -232,7 +232,9 @@ describe('programmable contracts', () => {
   // §6.6.x SourcePPSCommTimer: no Request within tPPSTimeout (12–15 s) → the source Hard Resets.
   it('a sink that stops re-requesting gets a Hard Reset after tPPSTimeout', () => {
     const result = run({ sink: { policy: pps }, faults: [{ kind: 'silent', from: 'sink', atMs: 2_000 }], durationMs: 20_000 });
-    const last = messages(result).filter((m) => m.type === 'Request').at(-1)!;
+    const last = messages(result)
+      .filter((m) => m.type === 'Request')
+      .at(-1)!;
     const reset = hardResets(result)[0]!;
     expect(reset.from).toBe('source');
     expect(reset.t - last.t).toBeGreaterThanOrEqual(T.tPPSTimeout.minUs);

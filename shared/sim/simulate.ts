@@ -8,7 +8,7 @@ import type { Contract } from '../core/contract.ts';
 import type { Finding } from '../core/finding.ts';
 import { decodeMessage, parseHex } from '../pd/index.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
-import { analyzeRecords } from '../trace/index.ts';
+import { analyseRecords } from '../trace/index.ts';
 import type { TraceRecord } from '../trace/records.ts';
 import type { Timeline } from '../trace/timeline.ts';
 import type { PortViews } from './port-views.ts';
@@ -61,7 +61,17 @@ export interface SimulationResult {
 function invalid(message: string): SimulationResult {
   const finding: Finding = { rule: 'sim.scenario', severity: 'error', message, ref: 'vector.md, Scenario' };
   const idle = (side: 'source' | 'sink') => ({ tUs: 0, side, state: side === 'source' ? 'Unattached.SRC' : 'Unattached.SNK', contract: null, eprMode: false });
-  return { contract: null, contracts: [], ports: { changes: [], final: { source: idle('source'), sink: idle('sink') } }, events: [], findings: [finding], lanes: [], timers: [], endUs: 0, stopped: false };
+  return {
+    contract: null,
+    contracts: [],
+    ports: { changes: [], final: { source: idle('source'), sink: idle('sink') } },
+    events: [],
+    findings: [finding],
+    lanes: [],
+    timers: [],
+    endUs: 0,
+    stopped: false,
+  };
 }
 
 /** Decoded forms, once per distinct hex (a run repeats few distinct messages). */
@@ -90,7 +100,7 @@ export function simulate(scenario: Scenario, options: SimulateOptions = {}): Sim
     shouldStop: options.shouldStop,
   });
   if (options.decode !== false) decodeAll(run.records, caps.pdos);
-  const analysis = options.analyze === false ? undefined : analyzeRecords(run.records);
+  const analysis = options.analyze === false ? undefined : analyseRecords(run.records);
   const result: SimulationResult = {
     contract: run.contract,
     contracts: run.contracts,

@@ -55,8 +55,21 @@ export interface SinkPe {
 
 export function initialSinkPe(revision: Revision, policy: SinkPolicy): SinkPe {
   return {
-    state: 'idle', revision, hardResetCounter: 0, vbusPresent: false, contract: null, requested: null, policy, policyDirty: false, pdos: [], words: [],
-    pdConnected: false, eprMode: false, eprTried: false, vconnSource: false, pending: [],
+    state: 'idle',
+    revision,
+    hardResetCounter: 0,
+    vbusPresent: false,
+    contract: null,
+    requested: null,
+    policy,
+    policyDirty: false,
+    pdos: [],
+    words: [],
+    pdConnected: false,
+    eprMode: false,
+    eprTried: false,
+    vconnSource: false,
+    pending: [],
   };
 }
 
@@ -376,7 +389,11 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
           return waitForCaps({ ...pe, eprMode: true }, effects);
         }
         if (action === eprModeAction.enterFailed) {
-          effects.push({ kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'stop-timer', name: 'tEnterEPR' }, { kind: 'note', text: `sink: EPR mode entry failed (reason ${data}); staying in SPR` });
+          effects.push(
+            { kind: 'stop-timer', name: 'tSenderResponse' },
+            { kind: 'stop-timer', name: 'tEnterEPR' },
+            { kind: 'note', text: `sink: EPR mode entry failed (reason ${data}); staying in SPR` },
+          );
           return enterReady(pe, context, effects);
         }
       }

@@ -66,8 +66,19 @@ export interface SourcePe {
 
 export function initialSourcePe(revision: Revision): SourcePe {
   return {
-    state: 'idle', phase: null, revision, capsCounter: 0, hardResetCounter: 0, pdConnected: false, contract: null, accepted: null,
-    eprMode: false, cable: undefined, sinkEprCapable: false, offered: null, pending: [],
+    state: 'idle',
+    phase: null,
+    revision,
+    capsCounter: 0,
+    hardResetCounter: 0,
+    pdConnected: false,
+    contract: null,
+    accepted: null,
+    eprMode: false,
+    cable: undefined,
+    sinkEprCapable: false,
+    offered: null,
+    pending: [],
   };
 }
 
@@ -271,7 +282,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
         return [pe, effects];
       }
       if ((event.kind === 'failed' && event.sop === "SOP'") || (event.kind === 'timer' && event.name === 'tVDMSenderResponse')) {
-        effects.push({ kind: 'note', text: 'source: no answer from the cable on SOP\' → offers limited to 3 A' });
+        effects.push({ kind: 'note', text: "source: no answer from the cable on SOP' → offers limited to 3 A" });
         return sendCaps({ ...pe, cable: null }, context, effects);
       }
       break;

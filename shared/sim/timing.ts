@@ -32,11 +32,15 @@ function drawRangeUs(name: SimTimerName, revision: Revision): [number, number] {
 export function timerDurationUs(name: SimTimerName, side: Side, revision: Revision, scenario: Scenario, random: Random): number {
   const source = scenario.source.behaviour;
   const fixedMs =
-    name === 'tTypeCSendSourceCap' ? source.capsIntervalMs
-    : name === 'tFirstSourceCap' ? source.firstCapsDelayMs
-    : name === 'tSrcTransition' ? source.transitionDelayMs
-    : name === 'tPPSRequest' ? scenario.sink.behaviour.ppsRequestIntervalMs
-    : undefined;
+    name === 'tTypeCSendSourceCap'
+      ? source.capsIntervalMs
+      : name === 'tFirstSourceCap'
+        ? source.firstCapsDelayMs
+        : name === 'tSrcTransition'
+          ? source.transitionDelayMs
+          : name === 'tPPSRequest'
+            ? scenario.sink.behaviour.ppsRequestIntervalMs
+            : undefined;
   if (fixedMs !== undefined) return fixedMs * 1_000;
   const [minUs, maxUs] = drawRangeUs(name, revision);
   const edge = scenario.timers?.[name];

@@ -47,10 +47,26 @@ describe('the invariant library', () => {
     expect(judge(late)[0]).toMatchObject({ invariant: 'contract.agreement' });
     expect(judge(late)[0]!.message).toContain('the sink holds no contract');
     // 30 ms before the end the sink loses it: longer than the grace (tSenderResponse min, 27 ms) by the end.
-    const atEnd = run({ views: views([[1_000_000, c20]], [[1_000_000, c20], [4_970_000, null]]) });
+    const atEnd = run({
+      views: views(
+        [[1_000_000, c20]],
+        [
+          [1_000_000, c20],
+          [4_970_000, null],
+        ],
+      ),
+    });
     expect(ids(atEnd)).toEqual(['contract.agreement']);
     expect(judge(atEnd)[0]!.message).toBe('from 4970.0 ms the source holds fixed 20 V 2 A (position 3) while the sink holds no contract (for 30.0 ms, until the end)');
-    const justBefore = run({ views: views([[1_000_000, c20]], [[1_000_000, c20], [4_980_000, null]]) });
+    const justBefore = run({
+      views: views(
+        [[1_000_000, c20]],
+        [
+          [1_000_000, c20],
+          [4_980_000, null],
+        ],
+      ),
+    });
     expect(ids(justBefore)).toEqual([]);
     const different = run({ views: views([[1_000_000, c20]], [[1_000_000, c9]]) });
     expect(ids(different)).toEqual(['contract.agreement']);

@@ -60,7 +60,8 @@ const agreement: Invariant = {
 const vbus: Invariant = {
   id: 'contract.vbus',
   title: 'VBUS at the sink matches the contract',
-  explanation: "Once the sink has its PS_RDY, every VBUS reading until the next transition is within the contract's tolerance (fixed ±5 %, vSafe5V 4.75–5.5 V, programmable ±5 % of the request, variable and battery within the offer) less the cable's drop at the current drawn.",
+  explanation:
+    "Once the sink has its PS_RDY, every VBUS reading until the next transition is within the contract's tolerance (fixed ±5 %, vSafe5V 4.75–5.5 V, programmable ±5 % of the request, variable and battery within the offer) less the cable's drop at the current drawn.",
   ref: 'USB PD R3.2 V1.1 §7.1 Source electrical parameters (vSafe5V, vSrcNew, vPpsNew; from memory)',
   check({ scenario, result, views, pdos }) {
     const sink = views.sink;
@@ -79,7 +80,8 @@ const vbus: Invariant = {
       const dropMv = Math.round((ma * resistanceMohm) / 1_000);
       const sinkMv = record.vbus.mv - dropMv;
       const outside = voltageOutside({ ...limits, minMv: limits.minMv - dropMv }, sinkMv, ma);
-      if (outside) return `at ${ms(record.t)} VBUS at the sink reads ${sinkMv} mV (${record.vbus.mv} mV at the source, ${ma} mA) under ${describeContract(current)}, outside ${limits.minMv - dropMv}–${limits.maxMv} mV`;
+      if (outside)
+        return `at ${ms(record.t)} VBUS at the sink reads ${sinkMv} mV (${record.vbus.mv} mV at the source, ${ma} mA) under ${describeContract(current)}, outside ${limits.minMv - dropMv}–${limits.maxMv} mV`;
     }
     return null;
   },
@@ -175,7 +177,8 @@ export function explainedBy(faults: readonly Fault[], rule: string): boolean {
 const analyserExplained: Invariant = {
   id: 'analyser.explained',
   title: 'Every analyser error is explained by the injected fault',
-  explanation: "The trace analyser reports no error the injected faults cannot cause: a fault on the wire may make answers late or missing and cause retries and resets, never bad offers, bad Requests or VBUS out of range; held timers at their edges are legal and explain nothing.",
+  explanation:
+    'The trace analyser reports no error the injected faults cannot cause: a fault on the wire may make answers late or missing and cause retries and resets, never bad offers, bad Requests or VBUS out of range; held timers at their edges are legal and explain nothing.',
   ref: 'docs/rules.md rule catalog; USB PD R3.2 V1.1 §6.6 timers (legal values cause no error)',
   check({ scenario, result }) {
     const unexplained: Finding[] = result.findings.filter((f) => f.severity === 'error' && !explainedBy(scenario.faults, f.rule));

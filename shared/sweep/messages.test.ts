@@ -10,7 +10,7 @@ describe('runMessages', () => {
     expect(messageTypeOfHex('a1212c910100')).toBe('Source_Capabilities');
   });
 
-  it('numbers each sender\'s messages of a type, skipping corrupted copies and events', () => {
+  it("numbers each sender's messages of a type, skipping corrupted copies and events", () => {
     const messages = runMessages([
       { t: 0, event: 'attach' },
       { t: 10, msg: 'a1112c910100', from: 'source' },

@@ -5,7 +5,16 @@ import { delayEdgesMs, FAULT_FREE_ID, generatePlacements, matrixColumns } from '
 
 const m = (index: number, from: 'source' | 'sink', messageType: string, nth = 1): RunMessage => ({ index, t: index * 1_000, from, messageType, nth, hex: '' });
 // Source_Capabilities, GoodCRC, Request, GoodCRC, Accept, GoodCRC, PS_RDY, GoodCRC: a fixed contract's 8 messages.
-const negotiation = [m(0, 'source', 'Source_Capabilities'), m(1, 'sink', 'GoodCRC'), m(2, 'sink', 'Request'), m(3, 'source', 'GoodCRC'), m(4, 'source', 'Accept'), m(5, 'sink', 'GoodCRC', 2), m(6, 'source', 'PS_RDY'), m(7, 'sink', 'GoodCRC', 3)];
+const negotiation = [
+  m(0, 'source', 'Source_Capabilities'),
+  m(1, 'sink', 'GoodCRC'),
+  m(2, 'sink', 'Request'),
+  m(3, 'source', 'GoodCRC'),
+  m(4, 'source', 'Accept'),
+  m(5, 'sink', 'GoodCRC', 2),
+  m(6, 'source', 'PS_RDY'),
+  m(7, 'sink', 'GoodCRC', 3),
+];
 
 describe('generatePlacements', () => {
   it('places drop and corrupt on every message and two delays on every message but GoodCRC', () => {
@@ -15,7 +24,10 @@ describe('generatePlacements', () => {
     expect(placements).toHaveLength(25);
     expect(placements.find((p) => p.id === 'drop@5')?.faults).toEqual([{ kind: 'drop', from: 'sink', messageType: 'GoodCRC', nth: 2 }]);
     const { withinMs, pastMs } = delayEdgesMs();
-    expect(placements.find((p) => p.id === `delay${pastMs}@4`)).toMatchObject({ faults: [{ kind: 'delay', from: 'source', messageType: 'Accept', nth: 1, delayMs: pastMs }], cell: { messageIndex: 4, column: `delay ${pastMs} ms` } });
+    expect(placements.find((p) => p.id === `delay${pastMs}@4`)).toMatchObject({
+      faults: [{ kind: 'delay', from: 'source', messageType: 'Accept', nth: 1, delayMs: pastMs }],
+      cell: { messageIndex: 4, column: `delay ${pastMs} ms` },
+    });
     expect(placements.some((p) => p.id === `delay${withinMs}@1`)).toBe(false);
     expect(new Set(placements.map((p) => p.id)).size).toBe(placements.length);
   });

@@ -6,7 +6,7 @@ import type { Contract } from '../core/contract.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import type { Fault, Scenario } from '../sim/scenario.ts';
 import { simulate, type SimulationResult } from '../sim/simulate.ts';
-import { analyzeRecords } from '../trace/analyzer.ts';
+import { analyseRecords } from '../trace/analyser.ts';
 import { judge, resetCounts, type BrokenInvariant, type ResetCounts } from './invariants.ts';
 import { classifyOutcome, type OutcomeClass } from './outcome.ts';
 import type { Placement } from './placements.ts';
@@ -46,7 +46,7 @@ export function runPlacement(base: Scenario, placement: Placement, reference: Co
   const scenario = scenarioFor(base, placement);
   const result = simulateRun(scenario, { decode: false, analyze: false });
   // The analyser for its invariant, without the timeline a page would show (half its cost).
-  result.findings = analyzeRecords(result.events, { timelineLimit: 0 }).findings;
+  result.findings = analyseRecords(result.events, { timelineLimit: 0 }).findings;
   const { views, broken, resets } = judgeScenario(scenario, result, pdos);
   const run: SweepRun = {
     placement: placement.id,

@@ -15,7 +15,10 @@ export function sampleWithSeed<T>(items: readonly T[], max: number | undefined, 
     const j = random.between(i, indexes.length - 1);
     [indexes[i], indexes[j]] = [indexes[j]!, indexes[i]!];
   }
-  return indexes.slice(0, max).sort((a, b) => a - b).map((index) => items[index]!);
+  return indexes
+    .slice(0, max)
+    .sort((a, b) => a - b)
+    .map((index) => items[index]!);
 }
 
 export interface Shard {

@@ -7,7 +7,7 @@
 import { resolveCaps } from '../sim/caps.ts';
 import type { Fault, Scenario } from '../sim/scenario.ts';
 import { simulate } from '../sim/simulate.ts';
-import { analyzeRecords } from '../trace/analyzer.ts';
+import { analyseRecords } from '../trace/analyser.ts';
 import { invariantById } from './invariants.ts';
 import { judgeScenario, type Simulate } from './run-placement.ts';
 
@@ -16,7 +16,7 @@ export function breaks(scenario: Scenario, invariant: string, simulateRun: Simul
   const caps = resolveCaps(scenario.source.caps);
   if (!caps.ok) return false;
   const result = simulateRun(scenario, { decode: false, analyze: false });
-  if (invariant === 'analyser.explained') result.findings = analyzeRecords(result.events, { timelineLimit: 0 }).findings;
+  if (invariant === 'analyser.explained') result.findings = analyseRecords(result.events, { timelineLimit: 0 }).findings;
   return judgeScenario(scenario, result, caps.pdos, [invariant]).broken.length > 0;
 }
 
@@ -77,7 +77,12 @@ export function shrinkScenario(scenario: Scenario, invariant: string, options: {
 }
 
 function slug(text: string): string {
-  return text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'run';
+  return (
+    text
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'run'
+  );
 }
 
 function describeFault(fault: Fault): string {

@@ -30,7 +30,7 @@ describe('a fault sweep of a 9 V SPR negotiation', () => {
   if (!planned.ok) throw new Error(planned.error.message);
   const { plan } = planned;
 
-  it('runs at least 3 × the fault-free run\'s messages and every invariant holds', () => {
+  it("runs at least 3 × the fault-free run's messages and every invariant holds", () => {
     // Source_Capabilities, Request, Accept, PS_RDY, each with its GoodCRC (USB PD R3.2 V1.1 §8.3.2.2).
     expect(plan.messages.map((m) => m.messageType)).toEqual(['Source_Capabilities', 'GoodCRC', 'Request', 'GoodCRC', 'Accept', 'GoodCRC', 'PS_RDY', 'GoodCRC']);
     expect(plan.reference).toMatchObject({ kind: 'fixed', voltageMv: 9_000, currentMa: 2_000, objectPosition: 2 });
@@ -86,7 +86,9 @@ describe('a defect planted in the simulator', () => {
     const vector = vectorSchema.parse(sweepVector(shrunk.scenario, 'contract.agreement'));
     expect(vector).toMatchObject({ kind: 'negotiation', tags: ['sweep'], expect: { invariants: ['contract.agreement'] } });
     return Promise.all([
-      runVector(vector, { engine: { ...engine, sim: { ...engine.sim, simulate: planted } } }).then((r) => expect(r).toMatchObject({ ok: false, message: expect.stringContaining('contract.agreement is broken') })),
+      runVector(vector, { engine: { ...engine, sim: { ...engine.sim, simulate: planted } } }).then((r) =>
+        expect(r).toMatchObject({ ok: false, message: expect.stringContaining('contract.agreement is broken') }),
+      ),
       runVector(vector).then((r) => expect(r).toMatchObject({ ok: true })),
     ]);
   });
@@ -98,7 +100,12 @@ describe("the simulator's former defect (issue 10: a source that keeps missing t
   // Before the fix this sweep's tPSTransition=min run broke contract.agreement (the sink, its Hard
   // Resets spent, ignored the late PS_RDY while the source sat in Ready at 20 V); the shrunk run is
   // kept as vectors/negotiation/sweep/slow-source-tpstransition-min.vector.json, which now passes.
-  const slow = scenario({ source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } }, sink: { policy: { kind: 'max-power' } }, durationMs: 8_000, seed: 3 });
+  const slow = scenario({
+    source: { caps: { pdos: ['0x0001912c', '0x0002d12c', '0x0004b12c', '0x0006412c'] }, behaviour: { slewMvPerMs: 34 } },
+    sink: { policy: { kind: 'max-power' } },
+    durationMs: 8_000,
+    seed: 3,
+  });
 
   it('holds contract.agreement at both tPSTransition edges; the slow source itself is still an unexplained timing error at the minimum', () => {
     const planned = planSweep(slow, { timerEdges: true });

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { timersPd3 } from '../core/timers.ts';
 import { HEX, sequence, type Step } from '../../tests/fixtures/traces/build.ts';
-import { analyzeRecords } from './analyzer.ts';
+import { analyseRecords } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
 import { messageDurationUs } from './wire-time.ts';
 
@@ -14,8 +14,8 @@ import { messageDurationUs } from './wire-time.ts';
 // Hard Reset (§8.3.3.2 PE_SRC_Send_Capabilities, §8.3.3.3 PE_SNK_Select_Capability and
 // PE_SNK_Transition_Sink; from memory).
 
-const finding = (records: TraceRecord[], rule: string) => analyzeRecords(records).findings.find((f) => f.rule === rule);
-const rulesOf = (records: TraceRecord[]) => analyzeRecords(records).findings.map((f) => f.rule);
+const finding = (records: TraceRecord[], rule: string) => analyseRecords(records).findings.find((f) => f.rule === rule);
+const rulesOf = (records: TraceRecord[]) => analyseRecords(records).findings.map((f) => f.rule);
 
 const upToRequest: Step[] = [
   { msg: HEX.caps, from: 'source', gapUs: 0 },
@@ -29,11 +29,7 @@ const REQUEST_ACK_END = requested.endUs;
 const afterRequest = (extra: TraceRecord[]) => [...requested.records, ...extra];
 
 /** The same, answered with Accept (and its GoodCRC): the sink now waits for PS_RDY. */
-const accepted = sequence(150_000, [
-  ...upToRequest,
-  { msg: HEX.accept(1), from: 'source', gapUs: 2_200 },
-  { msg: HEX.sinkGoodCrc(1), from: 'sink', gapUs: 63 },
-]);
+const accepted = sequence(150_000, [...upToRequest, { msg: HEX.accept(1), from: 'source', gapUs: 2_200 }, { msg: HEX.sinkGoodCrc(1), from: 'sink', gapUs: 63 }]);
 const ACCEPT_ACK_END = accepted.endUs;
 const afterAccept = (extra: TraceRecord[]) => [...accepted.records, ...extra];
 
@@ -42,9 +38,7 @@ describe('a Request that gets no answer (timing.sender-response)', () => {
     expect(REQUEST_ACK_END).toBe(157_794);
     const records = afterRequest([{ t: REQUEST_ACK_END + 33_400, event: 'hard_reset', from: 'sink' }]);
     const f = finding(records, 'timing.sender-response');
-    expect(f?.message).toBe(
-      "The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the sink sent a Hard Reset 33.4 ms after the Request was acknowledged.",
-    );
+    expect(f?.message).toBe("The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the sink sent a Hard Reset 33.4 ms after the Request was acknowledged.");
     expect(f?.ref).toBe(timersPd3.tSenderResponse.ref);
     expect(f?.severity).toBe('error');
     const reset = finding(records, 'protocol.hard-reset');
@@ -69,16 +63,12 @@ describe('a Request that gets no answer (timing.sender-response)', () => {
   it('is reported when the sink moves on with another message after the maximum', () => {
     // A second Request, MessageID 1 (header 0x1282), 40 ms after the first one's GoodCRC.
     const f = finding(afterRequest([{ t: REQUEST_ACK_END + 40_000, msg: '8212c8200320', from: 'sink' }]), 'timing.sender-response');
-    expect(f?.message).toBe(
-      "The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the sink sent Request 40 ms after the Request was acknowledged.",
-    );
+    expect(f?.message).toBe("The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the sink sent Request 40 ms after the Request was acknowledged.");
   });
 
   it('is reported when the trace ends long enough after the Request', () => {
     const f = finding(afterRequest([{ t: REQUEST_ACK_END + 120_000, vbus: { mv: 5_010 } }]), 'timing.sender-response');
-    expect(f?.message).toBe(
-      "The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the trace ends 120 ms after the Request was acknowledged with no answer.",
-    );
+    expect(f?.message).toBe("The source did not answer the sink's Request at 0.157 s within tSenderResponse (33 ms); the trace ends 120 ms after the Request was acknowledged with no answer.");
     expect(f?.t).toBe(REQUEST_ACK_END + 33_000);
   });
 
@@ -137,9 +127,7 @@ describe('Source_Capabilities that get no Request (timing.sender-response)', () 
 describe('an Accept that is never followed by PS_RDY (timing.ps-transition)', () => {
   it('is reported when the trace goes on past the 550 ms maximum', () => {
     const f = finding(afterAccept([{ t: ACCEPT_ACK_END + 600_000, vbus: { mv: 5_020 } }]), 'timing.ps-transition');
-    expect(f?.message).toBe(
-      'The source accepted the Request at 0.157 s but sent no PS_RDY within tPSTransition (550 ms); the trace ends 600 ms after the Accept was acknowledged with no PS_RDY.',
-    );
+    expect(f?.message).toBe('The source accepted the Request at 0.157 s but sent no PS_RDY within tPSTransition (550 ms); the trace ends 600 ms after the Accept was acknowledged with no PS_RDY.');
     expect(f?.ref).toBe(timersPd3.tPSTransition.ref);
   });
   it('is reported when the sink gives up with a Hard Reset inside the 450–550 ms range', () => {
@@ -159,7 +147,12 @@ describe('an Accept that is never followed by PS_RDY (timing.ps-transition)', ()
 describe('a programmable contract whose keep-alive stops (timing.pps-keepalive)', () => {
   // The fixture's PPS 8.4 V 2.5 A contract with one keep-alive Request at 1.0 s, without its reset.
   const text = readFileSync(join(import.meta.dirname, '../../tests/fixtures/traces/timing-pps-keepalive.trace.jsonl'), 'utf8');
-  const held = text.trim().split('\n').slice(1).map((line) => JSON.parse(line) as TraceRecord).filter((r) => !('event' in r && r.event === 'hard_reset'));
+  const held = text
+    .trim()
+    .split('\n')
+    .slice(1)
+    .map((line) => JSON.parse(line) as TraceRecord)
+    .filter((r) => !('event' in r && r.event === 'hard_reset'));
   const lastRequestUs = 1_000_000;
 
   it('is reported when the trace goes on past tPPSRequest with no new Request', () => {
@@ -169,7 +162,7 @@ describe('a programmable contract whose keep-alive stops (timing.pps-keepalive)'
     );
     expect(f?.t).toBe(lastRequestUs + timersPd3.tPPSRequest.maxUs);
   });
-  it('is finished by the source\'s Hard Reset after tPPSTimeout', () => {
+  it("is finished by the source's Hard Reset after tPPSTimeout", () => {
     const f = finding([...held, { t: 13_500_000, event: 'hard_reset', from: 'source' }], 'timing.pps-keepalive');
     expect(f?.message).toContain('held; the source sent a Hard Reset 12.5 s later.');
   });

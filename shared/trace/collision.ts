@@ -15,9 +15,29 @@ import { millis, seconds } from './format.ts';
 import type { Report, SeenMessage } from './seen.ts';
 
 const SINK_STARTS = new Set([
-  'Request', 'EPR_Request', 'Get_Source_Cap', 'Get_Sink_Cap', 'Get_Source_Cap_Extended', 'Get_Status', 'Get_PPS_Status', 'Get_Country_Codes',
-  'Get_Country_Info', 'Get_Manufacturer_Info', 'Get_Battery_Cap', 'Get_Battery_Status', 'Get_Revision', 'Get_Source_Info', 'Get_Sink_Cap_Extended',
-  'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'Data_Reset', 'Alert', 'EPR_Mode', 'Extended_Control', 'Vendor_Defined',
+  'Request',
+  'EPR_Request',
+  'Get_Source_Cap',
+  'Get_Sink_Cap',
+  'Get_Source_Cap_Extended',
+  'Get_Status',
+  'Get_PPS_Status',
+  'Get_Country_Codes',
+  'Get_Country_Info',
+  'Get_Manufacturer_Info',
+  'Get_Battery_Cap',
+  'Get_Battery_Status',
+  'Get_Revision',
+  'Get_Source_Info',
+  'Get_Sink_Cap_Extended',
+  'PR_Swap',
+  'DR_Swap',
+  'VCONN_Swap',
+  'Data_Reset',
+  'Alert',
+  'EPR_Mode',
+  'Extended_Control',
+  'Vendor_Defined',
 ]);
 const OFFERS = new Set(['Source_Capabilities', 'EPR_Source_Capabilities']);
 

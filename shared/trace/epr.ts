@@ -86,7 +86,7 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
       if (!ctx.hasContract()) entry(m, 'before any explicit SPR contract: a sink asks for EPR mode only from an explicit contract (EPR_Mode Enter)');
       mode = 'entering';
     } else if (action === 'Enter Succeeded' && m.from === 'source') {
-      if (mode !== 'entering') entry(m, 'saying Enter Succeeded without the sink\'s EPR_Mode (Enter) before it');
+      if (mode !== 'entering') entry(m, "saying Enter Succeeded without the sink's EPR_Mode (Enter) before it");
       const cable = ctx.cable();
       if (cable && (!cable.eprCapable || (cable.currentMa ?? 0) < 5_000)) {
         report('epr.entry', `The source let EPR mode begin at ${seconds(m.t)} over ${cableText(cable)} (Discover Identity at ${seconds(cable.t)}); EPR needs an EPR-capable 50 V, 5 A cable.`, at(m));
@@ -150,7 +150,9 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
     onMessage(m, steady) {
       if (m.sop !== 'SOP') return;
       const type = m.d.messageType;
-      if (mode === 'epr' && m.from === 'sink') restartKeepAlive(m.endUs);
+      // SinkEPRKeepAliveTimer starts on each entry to the sink's Ready state (USB PD R3.1 §8.3.3.3.11,
+      // from memory), which follows every exchange in either direction, not the sink's own message.
+      if (mode === 'epr') restartKeepAlive(m.ackEndUs ?? m.endUs);
       if (type === 'EPR_Mode') onEprMode(m);
       else if (type === 'EPR_Source_Capabilities' && m.from === 'source') onEprCaps(m);
       else if (type === 'EPR_Request' && m.from === 'sink') onEprRequest(m);
@@ -165,13 +167,16 @@ export function createEprTracker(report: Report, ctx: EprContext): EprTracker {
       if (mode !== 'epr') return;
       settle(steady, t);
       if (!steady || keepAlive.reported) return;
-      const { tSinkEPRKeepAlive } = timers();
-      if (t <= aliveUs + tSinkEPRKeepAlive.maxUs) return;
+      // A sink starts its EPR_KeepAlive when the timer expires; the message reaches the line a few
+      // milliseconds later. Allow that latency, bounded by tReceiverResponse (common practice), so a
+      // compliant sink is never reported.
+      const { tSinkEPRKeepAlive, tReceiverResponse } = timers();
+      if (t <= aliveUs + tSinkEPRKeepAlive.maxUs + tReceiverResponse.maxUs) return;
       keepAlive.reported = true;
       keepAlive.finding = report(
         'timing.epr-keepalive',
         `The sink sent no EPR_KeepAlive (nor any other message) within tSinkEPRKeepAlive (${millis(tSinkEPRKeepAlive.maxUs)}) after ${seconds(aliveUs)} while EPR mode held.`,
-        { t: aliveUs + tSinkEPRKeepAlive.maxUs, ref: tSinkEPRKeepAlive.ref },
+        { t: aliveUs + tSinkEPRKeepAlive.maxUs + tReceiverResponse.maxUs, ref: tSinkEPRKeepAlive.ref },
       );
     },
     inEpr: () => mode === 'epr',

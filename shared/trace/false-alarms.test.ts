@@ -7,10 +7,10 @@ import { acked, capture, pdHex, pdoWord, type Exchange } from '../../tests/fixtu
 import { eprScene, fixedRdo, sprCaps, sprContract } from '../../tests/fixtures/traces/spec-scenes.ts';
 import { eprAvsApdo, fixedPdo, paddingPdo } from '../rules/pdo-builders.ts';
 import { checkCaps } from '../rules/index.ts';
-import { analyzeRecords } from './analyzer.ts';
+import { analyseRecords } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
 
-const errors = (records: TraceRecord[]) => analyzeRecords(records).findings.filter((f) => f.severity === 'error');
+const errors = (records: TraceRecord[]) => analyseRecords(records).findings.filter((f) => f.severity === 'error');
 
 describe('false alarms removed (correct captures stay free of errors)', () => {
   // USB PD R3.2 V1.1 §6.7.2 (RetryCounter, nRetryCount = 2) and §6.8.1 / §8.3.3.4 (a transmission
@@ -28,7 +28,7 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
       ...acked(pdHex('Accept', { id: 0, from: 'source' }), 'source', 0, 2_000),
       ...acked(sprCaps(0), 'source', 0, 5_000),
     ]);
-    const found = analyzeRecords(records).findings;
+    const found = analyseRecords(records).findings;
     expect(found.map((f) => f.message).join('\n')).not.toMatch(/more retries than nRetryCount/);
     // The receiver rightly sent no GoodCRC for corrupted copies: the CRC findings say what happened.
     expect(found.filter((f) => f.rule === 'protocol.missing-goodcrc')).toEqual([]);
@@ -40,7 +40,7 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
   it('a source offering to a silent partner after a Hard Reset gets no missing-GoodCRC errors', () => {
     const steps: (Exchange | TraceRecord)[] = [...sprContract(), { t: 700_000, event: 'hard_reset', from: 'sink' }];
     for (let i = 0; i < 20; i++) steps.push({ msg: sprCaps(0), from: 'source', at: 1_600_000 + i * 150_000 });
-    const found = analyzeRecords(capture(steps)).findings;
+    const found = analyseRecords(capture(steps)).findings;
     expect(found.filter((f) => f.rule === 'protocol.missing-goodcrc')).toEqual([]);
   });
 
@@ -82,14 +82,14 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
       ...acked(caps, 'source', 0, 1_150),
       ...acked(pdHex('Request', { id: 0, from: 'sink', objects: [fixedRdo(2, 2_000)] }), 'sink', 0, 3_000),
     ]);
-    const crc = analyzeRecords(records).findings.filter((f) => f.rule === 'decode.crc');
+    const crc = analyseRecords(records).findings.filter((f) => f.rule === 'decode.crc');
     expect(crc).toHaveLength(1);
     expect(crc[0]).toMatchObject({ severity: 'warning' });
     expect(crc[0]!.message).toMatch(/retry/);
   });
   it('a CRC error nobody recovered stays an error', () => {
     const records = capture([...acked(sprCaps(0), 'source', 0), { msg: pdHex('Request', { id: 0, from: 'sink', objects: [fixedRdo(2, 2_000)] }), from: 'sink', gapUs: 3_000, crcOk: false }]);
-    expect(analyzeRecords(records).findings.find((f) => f.rule === 'decode.crc')).toMatchObject({ severity: 'error' });
+    expect(analyseRecords(records).findings.find((f) => f.rule === 'decode.crc')).toMatchObject({ severity: 'error' });
   });
 
   // §10.2.1 Power Rules / Table 10-x: a 7.5 W source at 5 V 1.5 A has PDP 7 W (the PDP is whole
@@ -103,7 +103,17 @@ describe('false alarms removed (correct captures stay free of errors)', () => {
   // USB PD R3.2 V1.1 §6.4.10 / §8.3.3.26 EPR entry needs an EPR-capable 50 V 5 A cable (Type-C R2.3
   // §4.9, e-marker EPR Mode Capable): over a 3 A cable there is no EPR mode, not a 3 A EPR contract.
   it('an EPR 28 V 5 A offer over a 3 A cable is caps.cable-epr, not "at most 3 A (84 W)"', () => {
-    const epr = [fixedPdo(5_000, 3_000, { eprModeCapable: true }), fixedPdo(9_000, 3_000), fixedPdo(15_000, 3_000), fixedPdo(20_000, 5_000), paddingPdo(), paddingPdo(), paddingPdo(), fixedPdo(28_000, 5_000), eprAvsApdo(15_000, 28_000, 140)];
+    const epr = [
+      fixedPdo(5_000, 3_000, { eprModeCapable: true }),
+      fixedPdo(9_000, 3_000),
+      fixedPdo(15_000, 3_000),
+      fixedPdo(20_000, 5_000),
+      paddingPdo(),
+      paddingPdo(),
+      paddingPdo(),
+      fixedPdo(28_000, 5_000),
+      eprAvsApdo(15_000, 28_000, 140),
+    ];
     const findings = checkCaps(epr, { epr: true, cableMa: 3_000, pdpW: 140 }).findings;
     expect(findings.map((f) => f.message).join('\n')).not.toMatch(/84 W/);
     const cable = findings.filter((f) => f.rule === 'caps.cable-epr');
@@ -124,7 +134,7 @@ describe('the summary sentence reads one way', () => {
       ...acked(pdHex('Accept', { id: 1, from: 'source' }), 'source', 1, 2_000),
       { t: 700_000, event: 'hard_reset', from: 'sink' },
     ]);
-    const { summary } = analyzeRecords(records);
+    const { summary } = analyseRecords(records);
     expect(summary).not.toMatch(/no Request was accepted/);
     expect(summary).toBe(
       'No contract: the source accepted a Request but never completed it with PS_RDY; Hard Reset at 0.7 s; 1 error; likely cause of the Hard Reset: the source accepted the Request at 0.005 s but sent no PS_RDY within tPSTransition, which points at the adapter (source).',

@@ -67,7 +67,11 @@ export function createHardResetRecovery(report: Report): HardResetRecovery {
       const { nHardResetCount, ref } = countersFor('3.0');
       if (unanswered > nHardResetCount + 1 && !giveUpReported) {
         giveUpReported = true;
-        report('timing.hard-reset-recovery', `${from ? `The ${from} sent` : 'There came'} Hard Reset number ${unanswered} at ${seconds(t)} though the partner answered none of the ones before; a port gives up after nHardResetCount (${nHardResetCount}) unanswered retries.`, { t, ref });
+        report(
+          'timing.hard-reset-recovery',
+          `${from ? `The ${from} sent` : 'There came'} Hard Reset number ${unanswered} at ${seconds(t)} though the partner answered none of the ones before; a port gives up after nHardResetCount (${nHardResetCount}) unanswered retries.`,
+          { t, ref },
+        );
       }
       phase = 'falling';
       resetUs = t;
@@ -83,7 +87,12 @@ export function createHardResetRecovery(report: Report): HardResetRecovery {
             lastAboveUs = t;
             lastAboveMv = mv;
             const limitUs = resetUs + tPSHardReset.maxUs + tSafe0V.maxUs;
-            if (t > limitUs) fail(t, `VBUS still read ${volts(mv)} at ${seconds(t)}, ${millis(t - resetUs)} after the Hard Reset at ${seconds(resetUs)}; it must reach vSafe0V within tPSHardReset + tSafe0V (${millis(tPSHardReset.maxUs + tSafe0V.maxUs)}).`, tSafe0V.ref);
+            if (t > limitUs)
+              fail(
+                t,
+                `VBUS still read ${volts(mv)} at ${seconds(t)}, ${millis(t - resetUs)} after the Hard Reset at ${seconds(resetUs)}; it must reach vSafe0V within tPSHardReset + tSafe0V (${millis(tPSHardReset.maxUs + tSafe0V.maxUs)}).`,
+                tSafe0V.ref,
+              );
             return;
           }
           phase = 'off';
@@ -93,14 +102,22 @@ export function createHardResetRecovery(report: Report): HardResetRecovery {
             // By now it should have reached vSafe0V, stayed off for tSrcRecover and been turned on again.
             const latestOnUs = tPSHardReset.maxUs + tSafe0V.maxUs + tSrcRecover.maxUs + tSrcTurnOn.maxUs;
             if (t - resetUs > latestOnUs) {
-              fail(t, `VBUS was still off at ${seconds(t)}, ${millis(t - resetUs)} after the Hard Reset at ${seconds(resetUs)}; the source must turn it back on after tSrcRecover (at most ${millis(tSrcRecover.maxUs)}) within tSrcTurnOn (${millis(tSrcTurnOn.maxUs)}).`, tSrcRecover.ref);
+              fail(
+                t,
+                `VBUS was still off at ${seconds(t)}, ${millis(t - resetUs)} after the Hard Reset at ${seconds(resetUs)}; the source must turn it back on after tSrcRecover (at most ${millis(tSrcRecover.maxUs)}) within tSrcTurnOn (${millis(tSrcTurnOn.maxUs)}).`,
+                tSrcRecover.ref,
+              );
             }
             return;
           }
           firstHighUs = t;
           // It reached vSafe0V after the last high reading and came back before this one.
           if (lastAboveUs !== undefined && t - lastAboveUs < tSrcRecover.minUs) {
-            fail(t, `VBUS came back (${volts(mv)} at ${seconds(t)}) only ${millis(t - lastAboveUs)} after it still read ${volts(lastAboveMv)} at ${seconds(lastAboveUs)}; after a Hard Reset it must stay at vSafe0V for tSrcRecover (at least ${millis(tSrcRecover.minUs)}).`, tSrcRecover.ref);
+            fail(
+              t,
+              `VBUS came back (${volts(mv)} at ${seconds(t)}) only ${millis(t - lastAboveUs)} after it still read ${volts(lastAboveMv)} at ${seconds(lastAboveUs)}; after a Hard Reset it must stay at vSafe0V for tSrcRecover (at least ${millis(tSrcRecover.minUs)}).`,
+              tSrcRecover.ref,
+            );
           }
           phase = 'rising';
           if (mv >= VSAFE5V_MIN_MV) powered(t);
@@ -108,7 +125,11 @@ export function createHardResetRecovery(report: Report): HardResetRecovery {
         case 'rising':
           if (mv >= VSAFE5V_MIN_MV) powered(t);
           else if (t - firstHighUs > tSrcTurnOn.maxUs) {
-            fail(t, `VBUS read ${volts(mv)} at ${seconds(t)}, ${millis(t - firstHighUs)} after it started to rise again; it must reach vSafe5V within tSrcTurnOn (${millis(tSrcTurnOn.maxUs)}).`, tSrcTurnOn.ref);
+            fail(
+              t,
+              `VBUS read ${volts(mv)} at ${seconds(t)}, ${millis(t - firstHighUs)} after it started to rise again; it must reach vSafe5V within tSrcTurnOn (${millis(tSrcTurnOn.maxUs)}).`,
+              tSrcTurnOn.ref,
+            );
           }
           return;
         default:
@@ -116,7 +137,11 @@ export function createHardResetRecovery(report: Report): HardResetRecovery {
     },
     onSourceCaps(t) {
       if (phase === 'on' && onAtUs !== undefined && t - onAtUs > tFirstSourceCap.maxUs) {
-        fail(t, `The source's first Source_Capabilities after the Hard Reset at ${seconds(resetUs)} came at ${seconds(t)}, ${millis(t - onAtUs)} after VBUS read vSafe5V; tFirstSourceCap allows ${millis(tFirstSourceCap.maxUs)}.`, tFirstSourceCap.ref);
+        fail(
+          t,
+          `The source's first Source_Capabilities after the Hard Reset at ${seconds(resetUs)} came at ${seconds(t)}, ${millis(t - onAtUs)} after VBUS read vSafe5V; tFirstSourceCap allows ${millis(tFirstSourceCap.maxUs)}.`,
+          tFirstSourceCap.ref,
+        );
       }
       if (phase !== 'idle') phase = 'idle';
       waitingCapsSinceUs = undefined;

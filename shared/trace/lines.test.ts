@@ -12,7 +12,12 @@ function split(chunks: string[]): [string, number][] {
 
 describe('createLineSplitter', () => {
   it('joins lines cut between chunks and numbers them', () => {
-    expect(split(['ab', 'c\nde', 'f\r\n', '\ng'])).toEqual([['abc', 1], ['def', 2], ['', 3], ['g', 4]]);
+    expect(split(['ab', 'c\nde', 'f\r\n', '\ng'])).toEqual([
+      ['abc', 1],
+      ['def', 2],
+      ['', 3],
+      ['g', 4],
+    ]);
   });
   it('gives the same lines however the text is cut', () => {
     fc.assert(

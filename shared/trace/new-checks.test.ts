@@ -7,12 +7,15 @@ import { describe, expect, it } from 'vitest';
 import { acked, capture, pdHex, pdoWord, type Exchange } from '../../tests/fixtures/traces/spec-build.ts';
 import { avsRdo, cableDiscovery, eprOffers, eprScene, fixedRdo, keepAlives, sprCaps, sprContract } from '../../tests/fixtures/traces/spec-scenes.ts';
 import { fixedPdo, ppsApdo } from '../rules/pdo-builders.ts';
-import { analyzeRecords } from './analyzer.ts';
+import { analyseRecords } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
 
-const analyse = (steps: (Exchange | TraceRecord)[]) => analyzeRecords(capture(steps));
+const analyse = (steps: (Exchange | TraceRecord)[]) => analyseRecords(capture(steps));
 const rulesOf = (steps: (Exchange | TraceRecord)[]) => analyse(steps).findings.map((f) => f.rule);
-const errorsOf = (steps: (Exchange | TraceRecord)[]) => analyse(steps).findings.filter((f) => f.severity === 'error').map((f) => `${f.rule}: ${f.message}`);
+const errorsOf = (steps: (Exchange | TraceRecord)[]) =>
+  analyse(steps)
+    .findings.filter((f) => f.severity === 'error')
+    .map((f) => `${f.rule}: ${f.message}`);
 
 describe('timing.receiver-response (tReceiverResponse 15 ms, §6.6.2 / Time Values)', () => {
   it('warns when the sink begins its Request 20 ms after the offers were acknowledged', () => {
@@ -54,10 +57,10 @@ describe('EPR mode (§6.4.9, §8.3.3.26)', () => {
     const steps = [...eprScene(), { t: 3_000_000, vbus: { mv: 28_000 } }];
     expect(rulesOf(steps)).toContain('timing.epr-keepalive');
   });
-  it('names the stopped keep-alives as the cause of the source\'s Hard Reset', () => {
+  it("names the stopped keep-alives as the cause of the source's Hard Reset", () => {
     const scene = capture(eprScene());
     const end = scene[scene.length - 1]!.t;
-    const a = analyzeRecords([...scene, { t: end + 900_000, event: 'hard_reset', from: 'source' }]);
+    const a = analyseRecords([...scene, { t: end + 900_000, event: 'hard_reset', from: 'source' }]);
     expect(a.hardResets[0]?.cause).toMatch(/no EPR_KeepAlive/);
     expect(a.findings.find((f) => f.rule === 'timing.epr-keepalive')?.message).toMatch(/Hard Reset followed/);
   });
@@ -70,7 +73,11 @@ describe('EPR mode (§6.4.9, §8.3.3.26)', () => {
       const scene = eprScene();
       return [...scene.slice(0, 8), ...cableDiscovery(5_000, epr), ...scene.slice(8)];
     };
-    expect(analyse(withCable(false)).findings.filter((f) => f.rule === 'epr.entry').map((f) => f.message)).toEqual([expect.stringMatching(/not|5 A, 50 V passive cable/)]);
+    expect(
+      analyse(withCable(false))
+        .findings.filter((f) => f.rule === 'epr.entry')
+        .map((f) => f.message),
+    ).toEqual([expect.stringMatching(/not|5 A, 50 V passive cable/)]);
     expect(rulesOf(withCable(true))).not.toContain('epr.entry');
   });
   it('checks the reassembled EPR_Source_Capabilities against the EPR Power Rules', () => {
@@ -122,7 +129,10 @@ describe('timing.hard-reset-recovery (§7.1.5, tPSHardReset, tSafe0V, tSrcRecove
     expect(rulesOf(steps.slice(0, 7))).not.toContain('timing.hard-reset-recovery');
   });
   it('names tSinkWaitCap as the cause when a sink resets a source that never offered', () => {
-    const a = analyse([{ t: 0, event: 'attach', cc: 'CC1', rp: '3.0A' }, { t: 700_000, event: 'hard_reset', from: 'sink' }]);
+    const a = analyse([
+      { t: 0, event: 'attach', cc: 'CC1', rp: '3.0A' },
+      { t: 700_000, event: 'hard_reset', from: 'sink' },
+    ]);
     expect(a.hardResets[0]?.cause).toMatch(/tSinkWaitCap/);
   });
 });

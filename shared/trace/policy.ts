@@ -6,15 +6,20 @@
  * i.e. at its EOP — so both ends are message ends, never preamble starts. Without a captured GoodCRC
  * the acknowledged message's own end is used. Limits come from shared/core/timers.ts by the
  * revision in operation (the lower of the two ports' Specification Revision fields, §6.2.1.1.5).
+ * Split along its seams: the offers in force and their checks (offers.ts), the revision in
+ * operation (revision.ts), EPR mode (epr.ts); this module keeps the request → answer → PS_RDY →
+ * contract sequence and its timers.
  */
 import type { Contract } from '../core/contract.ts';
 import type { Finding } from '../core/finding.ts';
-import { timersFor, type TimerRangeUs, type TimerTable } from '../core/timers.ts';
+import type { TimerRangeUs, TimerTable } from '../core/timers.ts';
 import { decodeRdo, decodeSourcePdo } from '../pd/index.ts';
-import type { Rdo, SourcePdo, SpecRevision } from '../pd/types.ts';
-import { checkCaps, checkRequest, contractOf } from '../rules/index.ts';
+import type { Rdo, SourcePdo } from '../pd/types.ts';
+import { checkRequest, contractOf } from '../rules/index.ts';
 import { endedDuring, expire, isOpen, movedOn, pastDeadline, resetDuring, type Awaited, type Watch } from './awaited.ts';
 import { objectAt } from './decode-cache.ts';
+import { createOffersTracker } from './offers.ts';
+import { createRevisionInOperation } from './revision.ts';
 import { contractText, millis, seconds } from './format.ts';
 import type { TraceSide } from './records.ts';
 import type { Report, SeenMessage } from './seen.ts';
@@ -90,9 +95,9 @@ export interface PolicyTracker {
 }
 
 export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
-  let caps: { m: SeenMessage; pdos: SourcePdo[]; key: string } | undefined;
+  const offers = createOffersTracker(report, (f) => events.finding(f));
+  const revision = createRevisionInOperation();
   let capsWaiting: Pending | undefined;
-  let lastUnackedCaps: SeenMessage | undefined;
   let request: PendingRequest | undefined;
   let accepted: Accepted | undefined;
   let other: Pending | undefined;
@@ -103,16 +108,9 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   let waited: SeenMessage | undefined;
   let contract: ActiveContract | undefined;
   let transition = false;
-  const revisions: { source?: SpecRevision; sink?: SpecRevision } = {};
-  const capsChecked = new Set<string>();
   const rdos = new Map<string, Rdo>();
 
-  const timers = (): TimerTable => {
-    const a = revisions.source;
-    const b = revisions.sink;
-    const lowest = a === '2.0' || a === '1.0' || b === '2.0' || b === '1.0' ? '2.0' : '3.0';
-    return timersFor(lowest);
-  };
+  const timers = (): TimerTable => revision.timers();
   const ackEnd = (m: SeenMessage): number => m.ackEndUs ?? m.endUs;
   const at = (m: SeenMessage): { t: number; line: number | undefined } => ({ t: m.t, line: m.line });
   const unexpected = (m: SeenMessage, why: string): void => {
@@ -127,9 +125,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const awaitRequestAfterCaps = (p: Pending): Awaited => {
     const { tSenderResponse } = timers();
     return {
-      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: p.m.ackEndUs, waiter: 'source', line: p.m.line,
+      watch: p,
+      rule: 'timing.sender-response',
+      timerName: 'tSenderResponse',
+      timer: tSenderResponse,
+      startUs: p.m.ackEndUs,
+      waiter: 'source',
+      line: p.m.line,
       missing: `The sink did not answer the source's Source_Capabilities at ${seconds(p.m.t)} with a Request`,
-      since: sinceText(p), none: 'no Request', giveUpAfterUs: tSenderResponse.minUs,
+      since: sinceText(p),
+      none: 'no Request',
+      giveUpAfterUs: tSenderResponse.minUs,
     };
   };
   const awaitAnswerTo = (p: Pending): Awaited => {
@@ -137,9 +143,17 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     const waiter = p.m.from;
     const answerer = waiter === 'sink' ? 'source' : 'sink';
     return {
-      watch: p, rule: 'timing.sender-response', timerName: 'tSenderResponse', timer: tSenderResponse, startUs: requestStart(p), waiter, line: p.m.line,
+      watch: p,
+      rule: 'timing.sender-response',
+      timerName: 'tSenderResponse',
+      timer: tSenderResponse,
+      startUs: requestStart(p),
+      waiter,
+      line: p.m.line,
       missing: `The ${answerer} did not answer the ${waiter}'s ${p.m.d.messageType} at ${seconds(p.m.t)}`,
-      since: sinceText(p), none: 'no answer', giveUpAfterUs: tSenderResponse.minUs,
+      since: sinceText(p),
+      none: 'no answer',
+      giveUpAfterUs: tSenderResponse.minUs,
     };
   };
   /** tPSTransition of the mode the Accept came in (§6.6.4.1, Time Values: SPR and EPR values differ). */
@@ -147,15 +161,32 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   const awaitPsRdyAfter = (p: Accepted): Awaited => {
     const tPSTransition = psTransitionOf(p);
     return {
-      watch: p, rule: 'timing.ps-transition', timerName: 'tPSTransition', timer: tPSTransition, startUs: ackEnd(p.m), waiter: 'sink', line: p.m.line,
+      watch: p,
+      rule: 'timing.ps-transition',
+      timerName: 'tPSTransition',
+      timer: tPSTransition,
+      startUs: ackEnd(p.m),
+      waiter: 'sink',
+      line: p.m.line,
       missing: `The source accepted the Request at ${seconds(p.request.m.t)} but sent no PS_RDY`,
-      since: sinceText(p), none: 'no PS_RDY', giveUpAfterUs: tPSTransition.minUs,
+      since: sinceText(p),
+      none: 'no PS_RDY',
+      giveUpAfterUs: tPSTransition.minUs,
     };
   };
   /** The keep-alive's finding is worded in advance(); this only finishes it (a reset never reports it early). */
   const awaitKeepAlive = (c: ActiveContract): Awaited => ({
-    watch: c.keepAlive, rule: 'timing.pps-keepalive', timerName: 'tPPSRequest', timer: timers().tPPSRequest, startUs: c.lastRequestUs, waiter: 'source', line: undefined,
-    missing: 'The sink sent no new Request', since: 'later', none: 'no new Request', giveUpAfterUs: Number.POSITIVE_INFINITY,
+    watch: c.keepAlive,
+    rule: 'timing.pps-keepalive',
+    timerName: 'tPPSRequest',
+    timer: timers().tPPSRequest,
+    startUs: c.lastRequestUs,
+    waiter: 'source',
+    line: undefined,
+    missing: 'The sink sent no new Request',
+    since: 'later',
+    none: 'no new Request',
+    giveUpAfterUs: Number.POSITIVE_INFINITY,
   });
   /** The waits in force, answers first. */
   const waits = (): Awaited[] => {
@@ -180,7 +211,11 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     if (tookUs <= tSenderResponse.maxUs) {
       const startedUs = response.t - ackEnd(first.m);
       if (startedUs > tReceiverResponse.maxUs) {
-        report('timing.receiver-response', `The ${response.from} began its ${response.d.messageType} ${millis(startedUs)} after the ${first.m.from}'s ${first.m.d.messageType} at ${seconds(first.m.t)} ${first.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}; tReceiverResponse asks for at most ${millis(tReceiverResponse.maxUs)}.`, { ...at(response), ref: tReceiverResponse.ref });
+        report(
+          'timing.receiver-response',
+          `The ${response.from} began its ${response.d.messageType} ${millis(startedUs)} after the ${first.m.from}'s ${first.m.d.messageType} at ${seconds(first.m.t)} ${first.m.ackEndUs !== undefined ? 'was acknowledged' : 'ended'}; tReceiverResponse asks for at most ${millis(tReceiverResponse.maxUs)}.`,
+          { ...at(response), ref: tReceiverResponse.ref },
+        );
       }
       return;
     }
@@ -190,51 +225,33 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   };
 
   const onCaps = (m: SeenMessage): void => {
-    const pdos = m.d.message.objects.filter((o): o is SourcePdo => SOURCE_PDO_KINDS.includes(o.kind));
-    if (pdos.length !== m.d.message.objects.length) return;
-    const { tTypeCSendSourceCap } = timers();
-    if (lastUnackedCaps && lastUnackedCaps.ackEndUs === undefined && !contract) {
-      const gapUs = m.t - lastUnackedCaps.t;
-      if (gapUs < tTypeCSendSourceCap.minUs || gapUs > tTypeCSendSourceCap.maxUs) {
-        report(
-          'timing.caps-interval',
-          `The source repeated Source_Capabilities ${millis(gapUs)} after the unanswered one at ${seconds(lastUnackedCaps.t)}; tTypeCSendSourceCap is ${millis(tTypeCSendSourceCap.minUs)} to ${millis(tTypeCSendSourceCap.maxUs)}.`,
-          { ...at(m), ref: tTypeCSendSourceCap.ref },
-        );
-      }
-    }
-    lastUnackedCaps = m;
+    if (!offers.onCaps(m, contract !== undefined, timers())) return;
     waited = undefined;
-    const key = objectsKey(m);
-    caps = { m, pdos, key };
     capsWaiting = { m, reported: false };
     request = undefined;
-    if (!capsChecked.has(key) && capsChecked.size < CHECKED_LIMIT) {
-      capsChecked.add(key);
-      for (const f of checkCaps(pdos).findings) events.finding(located(f, m));
-      const apdo = pdos.findIndex((p) => p.kind === 'pps' || p.kind === 'epr-avs' || p.kind === 'spr-avs');
-      if (apdo >= 0 && (m.d.revision === '2.0' || m.d.revision === '1.0')) {
-        report('caps.revision', `The source's Source_Capabilities at ${seconds(m.t)} say Specification Revision ${m.d.revision} but object ${apdo + 1} is a programmable (augmented) offer, which exists only from Revision 3.0.`, { ...at(m), object: apdo + 1 });
-      }
-    }
   };
 
   const onRequest = (m: SeenMessage): void => {
     const epr = m.d.messageType === 'EPR_Request';
     const raw = objectAt(m.d.bytes, 1);
     if (raw === undefined) return;
+    const caps = offers.current();
     if (!caps && !epr) unexpected(m, 'before any Source_Capabilities');
     if (waited && m.from === 'sink') {
       const { tSinkRequest } = timers();
       const afterUs = m.t - ackEnd(waited);
       if (afterUs < tSinkRequest.minUs) {
-        report('timing.sink-request', `The sink asked again at ${seconds(m.t)}, ${millis(afterUs)} after the source's Wait at ${seconds(waited.t)}; tSinkRequest asks it to wait at least ${millis(tSinkRequest.minUs)}.`, { ...at(m), ref: tSinkRequest.ref });
+        report(
+          'timing.sink-request',
+          `The sink asked again at ${seconds(m.t)}, ${millis(afterUs)} after the source's Wait at ${seconds(waited.t)}; tSinkRequest asks it to wait at least ${millis(tSinkRequest.minUs)}.`,
+          { ...at(m), ref: tSinkRequest.ref },
+        );
       }
     }
     waited = undefined;
     if (capsWaiting) checkResponse(capsWaiting, m);
     capsWaiting = undefined;
-    lastUnackedCaps = undefined;
+    offers.answered();
     const position = (raw >>> 28) & 0xf;
     let pdo: SourcePdo | undefined = caps?.pdos[position - 1];
     if (epr) {
@@ -316,7 +333,7 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
   return {
     onMessage(m) {
       if (m.sop !== 'SOP') return;
-      if (m.from === 'source' || m.from === 'sink') revisions[m.from] = m.d.revision;
+      revision.note(m);
       const type = m.d.messageType;
       // A wait already reported: the waiting side went on to send something else (Soft_Reset says more below).
       if (type !== 'Soft_Reset' && anyOpen()) for (const a of waits()) if (a.rule !== 'timing.pps-keepalive') movedOn(a, m.t, m.from, type);
@@ -362,7 +379,11 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       if (accepted && pastDeadline(accepted, ackEnd(accepted.m), psTransitionOf(accepted).maxUs, t)) expire(awaitPsRdyAfter(accepted), report);
       if (contract && contract.contract.kind === 'pps' && pastDeadline(contract.keepAlive, contract.lastRequestUs, tPPSRequest.maxUs, t)) {
         contract.keepAlive.reported = true;
-        contract.keepAlive.finding = report('timing.pps-keepalive', `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`, { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref });
+        contract.keepAlive.finding = report(
+          'timing.pps-keepalive',
+          `The sink sent no new Request within tPPSRequest (${seconds(tPPSRequest.maxUs)}) of the one at ${seconds(contract.lastRequestUs)} while its programmable contract (${contractText(contract.contract)}) held.`,
+          { t: contract.lastRequestUs + tPPSRequest.maxUs, ref: tPPSRequest.ref },
+        );
       }
     },
     hardReset(t, from) {
@@ -387,9 +408,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
     },
     reset(t) {
       if (contract) events.contractEnd(t);
-      caps = undefined;
+      offers.reset();
       capsWaiting = undefined;
-      lastUnackedCaps = undefined;
       request = undefined;
       accepted = undefined;
       other = undefined;
@@ -399,8 +419,8 @@ export function createPolicyTracker(report: Report, events: PolicyEvents): Polic
       transition = false;
     },
     steadyContract: () => (transition ? undefined : contract),
-    offers: () => caps?.pdos,
-    offersKey: () => caps?.key ?? '',
+    offers: () => offers.current()?.pdos,
+    offersKey: () => offers.current()?.key ?? '',
     requestCounts: () => ({ requests: requestsSeen, requestsAccepted }),
   };
 }

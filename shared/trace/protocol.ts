@@ -116,12 +116,19 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
           return 'goodcrc';
         }
         if (p.d.messageId !== m.d.messageId) {
-          report('protocol.message-id', `The ${m.from}'s GoodCRC at ${seconds(m.t)} carries MessageID ${m.d.messageId}, but the ${p.d.messageType} it answers carries ${p.d.messageId}.`, { t: m.t, line: m.line });
+          report('protocol.message-id', `The ${m.from}'s GoodCRC at ${seconds(m.t)} carries MessageID ${m.d.messageId}, but the ${p.d.messageType} it answers carries ${p.d.messageId}.`, {
+            t: m.t,
+            line: m.line,
+          });
         }
         const { tReceive } = timersFor(p.d.revision);
         const waitedUs = m.endUs - p.endUs;
         if (waitedUs > tReceive.maxUs && !s.reported) {
-          report('protocol.missing-goodcrc', `The GoodCRC for the ${p.from}'s ${p.d.messageType} at ${seconds(p.t)} ended ${millis(waitedUs)} after it, later than tReceive (${millis(tReceive.maxUs)}) allows.`, { t: m.t, line: m.line, ref: tReceive.ref });
+          report(
+            'protocol.missing-goodcrc',
+            `The GoodCRC for the ${p.from}'s ${p.d.messageType} at ${seconds(p.t)} ended ${millis(waitedUs)} after it, later than tReceive (${millis(tReceive.maxUs)}) allows.`,
+            { t: m.t, line: m.line, ref: tReceive.ref },
+          );
         }
         p.ackEndUs = m.endUs;
         m.acks = p;
@@ -137,7 +144,11 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
         const { nRetryCount, ref } = countersFor(m.d.revision);
         if (s.retries > nRetryCount && !s.reported) {
           s.reported = true;
-          missing(s, `The ${m.from} sent its ${m.d.messageType} at ${seconds(p.firstUs ?? p.t)} ${s.retries + 1} times: more retries than nRetryCount (${nRetryCount}) allows.`, { t: m.t, line: m.line, ref });
+          missing(s, `The ${m.from} sent its ${m.d.messageType} at ${seconds(p.firstUs ?? p.t)} ${s.retries + 1} times: more retries than nRetryCount (${nRetryCount}) allows.`, {
+            t: m.t,
+            line: m.line,
+            ref,
+          });
         }
         m.firstUs = p.firstUs ?? p.t;
         s.pending = m;
@@ -149,7 +160,11 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
         const gapUs = m.t - p.endUs;
         if (gapUs < tReceive.minUs) {
           s.reported = true;
-          missing(s, `The ${m.from} sent ${m.d.messageType} with the next MessageID ${m.d.messageId} at ${seconds(m.t)}, ${millis(gapUs)} after its ${p.d.messageType} ended with no GoodCRC; it must wait tReceive (${millis(tReceive.minUs)}–${millis(tReceive.maxUs)}) for the GoodCRC and otherwise retry the ${p.d.messageType}.`, { t: m.t, line: m.line, ref: tReceive.ref });
+          missing(
+            s,
+            `The ${m.from} sent ${m.d.messageType} with the next MessageID ${m.d.messageId} at ${seconds(m.t)}, ${millis(gapUs)} after its ${p.d.messageType} ended with no GoodCRC; it must wait tReceive (${millis(tReceive.minUs)}–${millis(tReceive.maxUs)}) for the GoodCRC and otherwise retry the ${p.d.messageType}.`,
+            { t: m.t, line: m.line, ref: tReceive.ref },
+          );
         }
       }
       close(s, m.t);
@@ -205,7 +220,10 @@ export function createProtocolTracker(report: Report): ProtocolTracker {
       // The same message again right after its GoodCRC: the sender missed that GoodCRC and retried.
       if (last.d.hex === m.d.hex && (last.ackEndUs === undefined || m.t - last.endUs <= RETRY_WINDOW_US)) return last.ackEndUs === undefined ? 'new' : 'retry';
       if (last.ackEndUs === undefined) return 'new';
-      report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} repeats MessageID ${id} of the ${last.d.messageType} at ${seconds(last.t)} without being a retry of it.`, { t: m.t, line: m.line });
+      report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} repeats MessageID ${id} of the ${last.d.messageType} at ${seconds(last.t)} without being a retry of it.`, {
+        t: m.t,
+        line: m.line,
+      });
     } else if (id !== next) {
       report('protocol.message-id', `The ${m.from}'s ${m.d.messageType} at ${seconds(m.t)} carries MessageID ${id}; after ${lastId} the next is ${next}.`, { t: m.t, line: m.line });
     }

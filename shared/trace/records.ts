@@ -98,18 +98,10 @@ export const measurementRecordSchema = z.looseObject({
 
 export const noteRecordSchema = z.looseObject({ t: time, note: z.string() });
 
-export const traceRecordSchema: z.ZodType<TraceRecord> = z.union([
-  messageRecordSchema,
-  eventRecordSchema,
-  measurementRecordSchema,
-  noteRecordSchema,
-]);
+export const traceRecordSchema: z.ZodType<TraceRecord> = z.union([messageRecordSchema, eventRecordSchema, measurementRecordSchema, noteRecordSchema]);
 
 /** What `checkRecord` found: a record, the header line, or why the value is neither. */
-export type CheckedLine =
-  | { kind: 'record'; record: TraceRecord }
-  | { kind: 'header'; header: TraceHeader }
-  | { kind: 'invalid'; reason: string };
+export type CheckedLine = { kind: 'record'; record: TraceRecord } | { kind: 'header'; header: TraceHeader } | { kind: 'invalid'; reason: string };
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 const isInt = (v: unknown): v is number => typeof v === 'number' && Number.isSafeInteger(v);

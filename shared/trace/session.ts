@@ -4,14 +4,14 @@
  * error). The CLI streams a file through it; the worker and the server pass an upload's text.
  */
 import { fail, type Result } from '../core/result.ts';
-import { createAnalyzer, type Analysis, type AnalyzerOptions } from './analyzer.ts';
+import { createAnalyser, type Analysis, type AnalyserOptions } from './analyser.ts';
 import { detectFormat, type TraceFormat } from './detect-format.ts';
 import { createJsonlReader } from './jsonl-reader.ts';
 import type { TraceReader, TraceSink } from './sink.ts';
 import { createTextReader } from './text-reader.ts';
 import { createVcdReader } from './vcd-reader.ts';
 
-export interface TraceSessionOptions extends Omit<AnalyzerOptions, 'format'> {
+export interface TraceSessionOptions extends Omit<AnalyserOptions, 'format'> {
   format?: TraceFormat | 'auto';
   /** VCD: the signal that carries CC (default the first 1-bit wire). */
   signal?: string;
@@ -33,12 +33,12 @@ export function createReader(format: TraceFormat, sink: TraceSink, options: { si
 
 export function createTraceSession(options: TraceSessionOptions = {}): TraceSession {
   let head = '';
-  let started: { reader: TraceReader; analyzer: ReturnType<typeof createAnalyzer> } | undefined;
+  let started: { reader: TraceReader; analyser: ReturnType<typeof createAnalyser> } | undefined;
   const start = () => {
     const format = options.format === undefined || options.format === 'auto' ? detectFormat(head) : options.format;
-    const analyzer = createAnalyzer({ ...options, format });
-    const reader = createReader(format, analyzer, options);
-    started = { reader, analyzer };
+    const analyser = createAnalyser({ ...options, format });
+    const reader = createReader(format, analyser, options);
+    started = { reader, analyser };
     if (head.length > 0) reader.push(head);
     head = '';
     return started;
@@ -69,16 +69,21 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
       if (broken !== undefined) return fail('trace.internal', `the trace could not be analysed (${broken})`);
       let analysis: Analysis;
       try {
-        const { reader, analyzer } = started ?? start();
+        const { reader, analyser } = started ?? start();
         const end = reader.end();
         if (!end.ok) return fail(end.error.code, end.error.message, end.error);
-        analysis = analyzer.finish();
+        analysis = analyser.finish();
       } catch (error) {
         return fail('trace.internal', `the trace could not be analysed (${error instanceof Error ? error.message : String(error)})`);
       }
       if (analysis.records === 0) {
         const unread = analysis.counts.warning;
-        return fail('trace.empty', unread > 0 ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})` : 'the file holds no trace record (message, event, measurement or note)');
+        return fail(
+          'trace.empty',
+          unread > 0
+            ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})`
+            : 'the file holds no trace record (message, event, measurement or note)',
+        );
       }
       return { ok: true, analysis };
     },
@@ -86,7 +91,7 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
 }
 
 /** A whole trace already in memory, fed through the same streaming path in 64 KiB pieces. */
-export function analyzeTrace(text: string, options: TraceSessionOptions = {}): Result<{ analysis: Analysis }> {
+export function analyseTrace(text: string, options: TraceSessionOptions = {}): Result<{ analysis: Analysis }> {
   const session = createTraceSession(options);
   const piece = 65_536;
   for (let i = 0; i < text.length; i += piece) session.push(text.slice(i, i + piece));

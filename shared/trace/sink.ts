@@ -1,5 +1,6 @@
 /** Where readers put what they read: the analyser implements it. */
 import type { TraceHeader, TraceRecord } from './records.ts';
+import type { Result } from '../core/result.ts';
 
 export interface TraceSink {
   push(record: TraceRecord, line?: number): void;
@@ -12,5 +13,5 @@ export interface TraceSink {
 export interface TraceReader {
   push(chunk: string): void;
   /** Flushes the last line; an error only when the input as a whole cannot be read (VCD). */
-  end(): { ok: true } | { ok: false; error: { code: string; message: string; line?: number; offset?: number } };
+  end(): Result<object>;
 }

@@ -55,7 +55,9 @@ export function summarize(s: SummaryInput): string {
   const first = s.contracts[0];
   // Told in the order it happened: a reset before the first contract comes first.
   const resetFirst = reset !== undefined && first !== undefined && reset.t < first.t;
-  const parts: string[] = [resetFirst ? `Hard Reset at ${seconds(reset.t)}${s.hardResetCount > 1 ? ` (${plural(s.hardResetCount, 'Hard Reset')} in all)` : ''}, then ${lowerFirst(outcome(s))}` : outcome(s)];
+  const parts: string[] = [
+    resetFirst ? `Hard Reset at ${seconds(reset.t)}${s.hardResetCount > 1 ? ` (${plural(s.hardResetCount, 'Hard Reset')} in all)` : ''}, then ${lowerFirst(outcome(s))}` : outcome(s),
+  ];
   if (reset && !resetFirst) parts.push(s.hardResetCount > 1 ? `Hard Reset at ${seconds(reset.t)} (${plural(s.hardResetCount, 'Hard Reset')} in all)` : `Hard Reset at ${seconds(reset.t)}`);
   const { error, warning } = s.counts;
   parts.push(error + warning === 0 ? 'no errors or warnings' : [error > 0 ? plural(error, 'error') : '', warning > 0 ? plural(warning, 'warning') : ''].filter(Boolean).join(' and '));

@@ -38,18 +38,70 @@ describe('readTextLine', () => {
 // The one-pass reader of the common shapes must read every line exactly as the token reader does.
 describe('readTextLine fast path', () => {
   const piece = fc.constantFrom(
-    '0.152000', '152.9ms', '1500us', '3', '.5', '1.', '2S', '4Ms', '7uS', '1e5', 'soon', '1m', '0.1s', '23.004140', '1.0000005', '0.0000015s', '2.5005ms', '0.5us',
-    'SRC', 'snk', 'Cbl', 'VBUS', 'vbus', 'Host', "SOP'", 'HARD_RESET',
-    'a1', '61', '2C', '0x41', '00', 'zz', 'a', 'abc', 'a1612c9101002cd10200', '0x0041',
-    '5030mV', '410mA', '5.03V', '0.41A', '5.V', '.5V', '12mv', '3MA', '#', '# note',
+    '0.152000',
+    '152.9ms',
+    '1500us',
+    '3',
+    '.5',
+    '1.',
+    '2S',
+    '4Ms',
+    '7uS',
+    '1e5',
+    'soon',
+    '1m',
+    '0.1s',
+    '23.004140',
+    '1.0000005',
+    '0.0000015s',
+    '2.5005ms',
+    '0.5us',
+    'SRC',
+    'snk',
+    'Cbl',
+    'VBUS',
+    'vbus',
+    'Host',
+    "SOP'",
+    'HARD_RESET',
+    'a1',
+    '61',
+    '2C',
+    '0x41',
+    '00',
+    'zz',
+    'a',
+    'abc',
+    'a1612c9101002cd10200',
+    '0x0041',
+    '5030mV',
+    '410mA',
+    '5.03V',
+    '0.41A',
+    '5.V',
+    '.5V',
+    '12mv',
+    '3MA',
+    '#',
+    '# note',
   );
   const sep = fc.constantFrom(' ', '  ', '\t', ' \t ');
-  const line = fc.tuple(fc.array(fc.tuple(piece, sep), { maxLength: 8 }), fc.constantFrom('', ' ', '\r')).map(([parts, end]) => parts.map(([p, s]) => p + s).join('').trimEnd() + end);
+  const line = fc.tuple(fc.array(fc.tuple(piece, sep), { maxLength: 8 }), fc.constantFrom('', ' ', '\r')).map(
+    ([parts, end]) =>
+      parts
+        .map(([p, s]) => p + s)
+        .join('')
+        .trimEnd() + end,
+  );
   it('agrees with the token reader on generated lines', () => {
-    fc.assert(fc.property(line, (l) => { expect(readTextLine(l)).toEqual(readAnyLine(l)); }), { numRuns: 3_000, seed: 11 });
+    fc.assert(
+      fc.property(line, (l) => {
+        expect(readTextLine(l)).toEqual(readAnyLine(l));
+      }),
+      { numRuns: 3_000, seed: 11 },
+    );
   });
   it('agrees on the common shapes', () => {
-    for (const l of ['0.152000 SRC a1 61 2c 91', '23.004140 SNK 82 10 28 84 03 51', '1.05 VBUS 8380mV 2100mA', '1 vbus 5.03V', '2 SNK A1 FF'])
-      expect(readTextLine(l)).toEqual(readAnyLine(l));
+    for (const l of ['0.152000 SRC a1 61 2c 91', '23.004140 SNK 82 10 28 84 03 51', '1.05 VBUS 8380mV 2100mA', '1 vbus 5.03V', '2 SNK A1 FF']) expect(readTextLine(l)).toEqual(readAnyLine(l));
   });
 });

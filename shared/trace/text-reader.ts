@@ -14,13 +14,22 @@ import type { TraceRecord, TraceSide } from './records.ts';
 import type { TraceReader, TraceSink } from './sink.ts';
 
 const TIME = /^(\d+(?:\.\d*)?|\.\d+)(s|ms|us|µs)?$/i;
-const UNIT_US: Record<string, number> = { s: 1_000_000, ms: 1_000, us: 1, 'µs': 1 };
+const UNIT_US: Record<string, number> = { s: 1_000_000, ms: 1_000, us: 1, µs: 1 };
 const WHO: Record<string, TraceSide | 'vbus'> = {
-  src: 'source', source: 'source', snk: 'sink', sink: 'sink', cbl: 'cable', cable: 'cable', vbus: 'vbus',
+  src: 'source',
+  source: 'source',
+  snk: 'sink',
+  sink: 'sink',
+  cbl: 'cable',
+  cable: 'cable',
+  vbus: 'vbus',
 };
 const SOP_TOKENS: Record<string, Sop> = { sop: 'SOP', "sop'": "SOP'", "sop''": "SOP''", "sop'_debug": "SOP'_Debug", "sop''_debug": "SOP''_Debug" };
 const EVENTS: Record<string, 'hard_reset' | 'cable_reset' | 'attach' | 'detach'> = {
-  hard_reset: 'hard_reset', cable_reset: 'cable_reset', attach: 'attach', detach: 'detach',
+  hard_reset: 'hard_reset',
+  cable_reset: 'cable_reset',
+  attach: 'attach',
+  detach: 'detach',
 };
 const BYTE = /^(0x)?[0-9a-f]{2}$/i;
 const HEX_RUN = /^(0x)?[0-9a-f]{10,}$/i;

@@ -25,9 +25,22 @@ export interface TimelineMessage {
   line?: number;
 }
 
-export interface TimelineMeasurement { t: number; mv: number; ma?: number }
-export interface TimelineEvent { t: number; event: TraceEventKind | 'note'; from?: TraceSide; text?: string }
-export interface TimelineContract { startUs: number; endUs?: number; contract: Contract }
+export interface TimelineMeasurement {
+  t: number;
+  mv: number;
+  ma?: number;
+}
+export interface TimelineEvent {
+  t: number;
+  event: TraceEventKind | 'note';
+  from?: TraceSide;
+  text?: string;
+}
+export interface TimelineContract {
+  startUs: number;
+  endUs?: number;
+  contract: Contract;
+}
 
 export interface Timeline {
   messages: TimelineMessage[];

@@ -10,7 +10,7 @@
  *   reads a bounded number of points and a sag never disappears from an overview.
  */
 import type { Finding } from '../core/finding.ts';
-import type { Analysis } from './analyzer.ts';
+import type { Analysis } from './analyser.ts';
 import type { Timeline, TimelineContract, TimelineEvent, TimelineMeasurement, TimelineMessage } from './timeline.ts';
 
 export type StoredTimelineMessage = Omit<TimelineMessage, 'decoded'>;
@@ -120,13 +120,39 @@ export function timelineChunks(analysis: StoredAnalysis): TimelineChunk[] {
   const { timeline } = analysis;
   const endUs = endOfTrace(analysis);
   const chunks = [
-    ...chunksOf<StoredTimelineMessage>('message', 0, timeline.messages, (m) => m.t, (m) => m.t + m.durationUs),
-    ...chunksOf<TimelineEvent>('event', 0, timeline.events, (e) => e.t, (e) => e.t),
-    ...chunksOf<TimelineContract>('contract', 0, timeline.contracts, (c) => c.startUs, (c) => c.endUs ?? endUs),
+    ...chunksOf<StoredTimelineMessage>(
+      'message',
+      0,
+      timeline.messages,
+      (m) => m.t,
+      (m) => m.t + m.durationUs,
+    ),
+    ...chunksOf<TimelineEvent>(
+      'event',
+      0,
+      timeline.events,
+      (e) => e.t,
+      (e) => e.t,
+    ),
+    ...chunksOf<TimelineContract>(
+      'contract',
+      0,
+      timeline.contracts,
+      (c) => c.startUs,
+      (c) => c.endUs ?? endUs,
+    ),
   ];
   let readings: readonly TimelineMeasurement[] = timeline.measurements;
   for (let level = 0; ; level++) {
-    chunks.push(...chunksOf<TimelineMeasurement>('measurement', level, readings, (m) => m.t, (m) => m.t));
+    chunks.push(
+      ...chunksOf<TimelineMeasurement>(
+        'measurement',
+        level,
+        readings,
+        (m) => m.t,
+        (m) => m.t,
+      ),
+    );
     if (readings.length <= CHUNK_ITEMS) break;
     readings = coarserReadings(readings);
   }

@@ -25,6 +25,11 @@ describe('lawfulCapsPdos', () => {
   });
 
   it('gives scenarios the simulator accepts', () => {
-    fc.assert(fc.property(scenario({ faults: ['drop-goodcrc'] }), (s) => { expect(scenarioSchema.safeParse(s).success).toBe(true); }), { numRuns: 50, seed: 1 });
+    fc.assert(
+      fc.property(scenario({ faults: ['drop-goodcrc'] }), (s) => {
+        expect(scenarioSchema.safeParse(s).success).toBe(true);
+      }),
+      { numRuns: 50, seed: 1 },
+    );
   });
 });

@@ -62,7 +62,10 @@ export const sourcePdos = (): fc.Arbitrary<string[]> =>
     .record({
       firstMa: fc.integer({ min: 10, max: 300 }).map((n) => n * 10),
       fixed: fc.uniqueArray(fc.constantFrom(9_000, 12_000, 15_000, 20_000), { maxLength: 3 }),
-      currentsMa: fc.array(fc.integer({ min: 50, max: 500 }).map((n) => n * 10), { minLength: 3, maxLength: 3 }),
+      currentsMa: fc.array(
+        fc.integer({ min: 50, max: 500 }).map((n) => n * 10),
+        { minLength: 3, maxLength: 3 },
+      ),
       pps: fc.option(fc.constantFrom([3_300, 5_900], [3_300, 11_000], [3_300, 16_000], [3_300, 21_000]), { nil: undefined }),
       ppsMa: fc.integer({ min: 20, max: 100 }).map((n) => n * 50),
     })
@@ -103,7 +106,10 @@ export const scenario = (options: ScenarioOptions = {}) =>
   fc
     .record({
       caps: lawfulCaps(),
-      policy: fc.oneof(fc.constant({ kind: 'max-power' as const }), fc.record({ kind: fc.constant('fixed' as const), voltageMv: fc.constantFrom(5_000, 9_000, 15_000, 20_000), currentMa: fc.integer({ min: 1, max: 60 }).map((n) => n * 50) })),
+      policy: fc.oneof(
+        fc.constant({ kind: 'max-power' as const }),
+        fc.record({ kind: fc.constant('fixed' as const), voltageMv: fc.constantFrom(5_000, 9_000, 15_000, 20_000), currentMa: fc.integer({ min: 1, max: 60 }).map((n) => n * 50) }),
+      ),
       specRevision: fc.constantFrom('2.0' as const, '3.0' as const),
       cableMa: fc.constantFrom(3_000, 5_000),
       resistanceMohm: fc.integer({ min: 50, max: 300 }),

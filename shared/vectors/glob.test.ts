@@ -30,7 +30,10 @@ describe('matchesGlob', () => {
   it('agrees with globToRegExp on small ids and globs', () => {
     const id = fc.string({ unit: fc.constantFrom('a', 'b', '/', '.'), maxLength: 8 });
     const glob = fc.string({ unit: fc.constantFrom('a', 'b', '/', '.', '*', '?'), maxLength: 8 });
-    fc.assert(fc.property(id, glob, (i, g) => matchesGlob(i, g) === globToRegExp(g).test(i)), { numRuns: 3_000, seed: 20_261_201 });
+    fc.assert(
+      fc.property(id, glob, (i, g) => matchesGlob(i, g) === globToRegExp(g).test(i)),
+      { numRuns: 3_000, seed: 20_261_201 },
+    );
   });
 
   it('answers at once for globs that make a backtracking engine take exponential time', () => {

@@ -24,9 +24,7 @@ export function globToRegExp(glob: string): RegExp {
   return new RegExp(`^${source}$`);
 }
 
-type GlobToken =
-  | { kind: 'char'; ch: string }
-  | { kind: 'one' | 'word' | 'any' | 'dirs' | 'rest' };
+type GlobToken = { kind: 'char'; ch: string } | { kind: 'one' | 'word' | 'any' | 'dirs' | 'rest' };
 
 /** The glob as tokens, with the meanings `globToRegExp` gives them. */
 function tokenize(glob: string): GlobToken[] {

@@ -13,13 +13,15 @@ export interface JunitCase {
 }
 
 function escapeXml(text: string): string {
-  return text
-    // XML 1.0 forbids most control characters even as references.
-    .replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f]/g, '')
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;');
+  return (
+    text
+      // XML 1.0 forbids most control characters even as references.
+      .replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f]/g, '')
+      .replace(/&/g, '&amp;')
+      .replace(/</g, '&lt;')
+      .replace(/>/g, '&gt;')
+      .replace(/"/g, '&quot;')
+  );
 }
 
 function seconds(durationMs: number): string {

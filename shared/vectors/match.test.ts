@@ -17,7 +17,12 @@ describe('matchPartial', () => {
   });
 
   it('matches arrays element by element by index, each element partially', () => {
-    const actual = { objects: [{ kind: 'fixed', voltageMv: 5_000 }, { kind: 'fixed', voltageMv: 9_000 }] };
+    const actual = {
+      objects: [
+        { kind: 'fixed', voltageMv: 5_000 },
+        { kind: 'fixed', voltageMv: 9_000 },
+      ],
+    };
     expect(matchPartial({ objects: [{ voltageMv: 5_000 }, { voltageMv: 9_000 }] }, actual, 'expect')).toEqual([]);
     expect(matchPartial({ objects: [{ voltageMv: 5_000 }] }, actual, 'expect')).toEqual([]);
     const [m] = matchPartial({ objects: [{}, { voltageMv: 12_000 }] }, actual, 'expect');
@@ -47,16 +52,12 @@ describe('matchFindings', () => {
 
   it('include: every listed rule must fire', () => {
     expect(matchFindings({ include: ['caps.power-rules-missing'] }, actual)).toEqual([]);
-    expect(matchFindings({ include: ['caps.order'] }, actual)[0]?.message).toBe(
-      'expect.findings.include: expected rule "caps.order" to fire, got ["caps.power-rules-missing","caps.cable-current"]',
-    );
+    expect(matchFindings({ include: ['caps.order'] }, actual)[0]?.message).toBe('expect.findings.include: expected rule "caps.order" to fire, got ["caps.power-rules-missing","caps.cable-current"]');
   });
 
   it('exclude: no listed rule may fire', () => {
     expect(matchFindings({ exclude: ['caps.order'] }, actual)).toEqual([]);
-    expect(matchFindings({ exclude: ['caps.cable-current'] }, actual)[0]?.message).toBe(
-      'expect.findings.exclude: expected rule "caps.cable-current" not to fire, got it: caps.cable-current fired.',
-    );
+    expect(matchFindings({ exclude: ['caps.cable-current'] }, actual)[0]?.message).toBe('expect.findings.exclude: expected rule "caps.cable-current" not to fire, got it: caps.cable-current fired.');
   });
 
   it('"*error" in exclude means no finding of severity error at all', () => {

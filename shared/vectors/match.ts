@@ -85,7 +85,14 @@ export function matchFindings(expected: FindingsExpectation, actual: readonly Fi
     const first = hits[0];
     if (first) {
       const what = rule === '*error' ? `no finding of severity error, got "${first.rule}"` : `rule "${rule}" not to fire, got it`;
-      out.push(mismatch(`${path}.exclude`, rule, hits.map((f) => f.rule), `${path}.exclude: expected ${what}: ${first.message}`));
+      out.push(
+        mismatch(
+          `${path}.exclude`,
+          rule,
+          hits.map((f) => f.rule),
+          `${path}.exclude: expected ${what}: ${first.message}`,
+        ),
+      );
     }
   }
   return out;

@@ -11,7 +11,7 @@
  */
 import * as fcModule from 'fast-check';
 import { transform } from 'sucrase';
-import type { EngineError } from '../core/result.ts';
+import type { EngineError, Result } from '../core/result.ts';
 import { scenarioSchema } from '../sim/scenario.ts';
 import type { EngineFacade } from './engine-facade.ts';
 
@@ -45,7 +45,7 @@ export interface PropertyOutcome {
 type Factory = (context: PropertyContext) => unknown;
 
 /** Transpiles and evaluates the module, returning its default export. */
-export function compileProperty(code: string): { ok: true; factory: Factory } | { ok: false; error: EngineError } {
+export function compileProperty(code: string): Result<{ factory: Factory }> {
   let js: string;
   try {
     js = transform(code, { transforms: ['typescript', 'imports'], production: true }).code;

@@ -36,7 +36,12 @@ export function runSweepVector(vector: Extract<Vector, { kind: 'sweep' }>, engin
   if (expect.holds !== summary.ok) {
     const first = summary.broken[0];
     const why = first ? `; run ${first.run} breaks ${first.invariant}: ${first.message}` : '';
-    mismatches.push({ path: 'expect.holds', expected: expect.holds, actual: summary.ok, message: `expect.holds: expected ${expect.holds}, got ${summary.ok} (${summary.brokenCount} of ${summary.runs} runs broken)${why}` });
+    mismatches.push({
+      path: 'expect.holds',
+      expected: expect.holds,
+      actual: summary.ok,
+      message: `expect.holds: expected ${expect.holds}, got ${summary.ok} (${summary.brokenCount} of ${summary.runs} runs broken)${why}`,
+    });
   }
   if (expect.minRuns !== undefined && summary.runs < expect.minRuns) {
     mismatches.push({ path: 'expect.minRuns', expected: expect.minRuns, actual: summary.runs, message: `expect.minRuns: expected at least ${expect.minRuns} runs, got ${summary.runs}` });

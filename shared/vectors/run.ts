@@ -18,7 +18,7 @@
  * - sweep: `{ holds, minRuns }` of a whole fault campaign.
  */
 import type { Finding } from '../core/finding.ts';
-import type { EngineError } from '../core/result.ts';
+import type { EngineError, Result } from '../core/result.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
 import { engine as defaultEngine, type EngineFacade } from './engine-facade.ts';
 import { describeMismatches, matchFindings, matchPartial, matchSequence, matchWithin, type Mismatch } from './match.ts';
@@ -64,7 +64,7 @@ interface Outcome {
 }
 
 /** Parses and validates a vector file's text. */
-export function parseVector(text: string): { ok: true; vector: Vector } | { ok: false; error: EngineError } {
+export function parseVector(text: string): Result<{ vector: Vector }> {
   let json: unknown;
   try {
     json = JSON.parse(text);
@@ -77,7 +77,10 @@ export function parseVector(text: string): { ok: true; vector: Vector } | { ok: 
 }
 
 function normaliseHex(text: string): string {
-  return text.replace(/0x/gi, '').replace(/[\s:,_]/g, '').toLowerCase();
+  return text
+    .replace(/0x/gi, '')
+    .replace(/[\s:,_]/g, '')
+    .toLowerCase();
 }
 
 function pdosFrom(engine: EngineFacade, input: { hex?: string; caps?: string; pdos?: string[] }): { pdos: SourcePdo[]; warnings: Finding[]; message?: Message } | { error: string } {
@@ -105,12 +108,19 @@ function runDecode(vector: Extract<Vector, { kind: 'decode' }>, engine: EngineFa
   const mismatches: Mismatch[] = [];
   if (!decoded.ok) {
     const actual = { error: decoded.error.code, errorMessage: decoded.error.message };
-    if (expect.error === undefined) mismatches.push({ path: 'expect.message', expected: expect.message, actual, message: `expect.message: expected a decoded message, got error ${decoded.error.code}: ${decoded.error.message}` });
+    if (expect.error === undefined)
+      mismatches.push({ path: 'expect.message', expected: expect.message, actual, message: `expect.message: expected a decoded message, got error ${decoded.error.code}: ${decoded.error.message}` });
     else matchPartial(expect.error, decoded.error.code, 'expect.error', mismatches);
     return { actual, mismatches };
   }
   const actual = { message: decoded.message, findings: decoded.warnings };
-  if (expect.error !== undefined) mismatches.push({ path: 'expect.error', expected: expect.error, actual: undefined, message: `expect.error: expected error "${expect.error}", got a decoded ${decoded.message.header.messageType}` });
+  if (expect.error !== undefined)
+    mismatches.push({
+      path: 'expect.error',
+      expected: expect.error,
+      actual: undefined,
+      message: `expect.error: expected error "${expect.error}", got a decoded ${decoded.message.header.messageType}`,
+    });
   if (expect.message !== undefined) matchPartial(expect.message, decoded.message, 'expect.message', mismatches);
   if (expect.findings !== undefined) mismatches.push(...matchFindings(expect.findings, decoded.warnings));
   return { actual, mismatches };
@@ -211,9 +221,11 @@ function runNegotiation(vector: Extract<Vector, { kind: 'negotiation' }>, engine
   const actual = { contract: result.contract, sequence: names, findings: result.findings, contractAtMs };
   const mismatches: Mismatch[] = [];
   if (expect.contract === null) {
-    if (result.contract !== null) mismatches.push({ path: 'expect.contract', expected: null, actual: result.contract, message: `expect.contract: expected no contract, got ${JSON.stringify(result.contract)}` });
+    if (result.contract !== null)
+      mismatches.push({ path: 'expect.contract', expected: null, actual: result.contract, message: `expect.contract: expected no contract, got ${JSON.stringify(result.contract)}` });
   } else if (expect.contract !== undefined) {
-    if (result.contract === null) mismatches.push({ path: 'expect.contract', expected: expect.contract, actual: null, message: `expect.contract: expected ${JSON.stringify(expect.contract)}, got no contract` });
+    if (result.contract === null)
+      mismatches.push({ path: 'expect.contract', expected: expect.contract, actual: null, message: `expect.contract: expected ${JSON.stringify(expect.contract)}, got no contract` });
     else matchPartial(expect.contract, result.contract, 'expect.contract', mismatches);
   }
   if (expect.sequence !== undefined) mismatches.push(...matchSequence(expect.sequence, names));
@@ -227,7 +239,7 @@ async function runTrace(vector: Extract<Vector, { kind: 'trace' }>, engine: Engi
   const { input, expect } = vector;
   let analysis: { messages: number; contracts: unknown[]; findings: Finding[] };
   if (input.trace !== undefined) {
-    analysis = engine.trace.analyzeRecords(input.trace);
+    analysis = engine.trace.analyseRecords(input.trace);
   } else {
     const file = input.file ?? '';
     if (!options.readFile) return { actual: undefined, mismatches: [], inputError: `input.file: "${file}" cannot be read here (no file access)` };
@@ -237,7 +249,7 @@ async function runTrace(vector: Extract<Vector, { kind: 'trace' }>, engine: Engi
     } catch (error) {
       return { actual: undefined, mismatches: [], inputError: `input.file: cannot read "${file}": ${error instanceof Error ? error.message : String(error)}` };
     }
-    const analysed = engine.trace.analyzeTrace(text, { format: input.format ?? 'auto' });
+    const analysed = engine.trace.analyseTrace(text, { format: input.format ?? 'auto' });
     if (!analysed.ok) return { actual: undefined, mismatches: [], inputError: `input.file: ${analysed.error.message}` };
     analysis = analysed.analysis;
   }
@@ -283,14 +295,30 @@ export async function runVector(vector: Vector, options: RunOptions = {}): Promi
   let outcome: Outcome;
   try {
     switch (vector.kind) {
-      case 'decode': outcome = runDecode(vector, engine); break;
-      case 'encode': outcome = runEncode(vector, engine); break;
-      case 'caps': outcome = runCaps(vector, engine); break;
-      case 'request': outcome = runRequest(vector, engine); break;
-      case 'negotiation': outcome = runNegotiation(vector, engine); break;
-      case 'trace': outcome = await runTrace(vector, engine, options); break;
-      case 'property': outcome = await runPropertyVector(vector, engine, options); break;
-      case 'sweep': outcome = runSweepVector(vector, engine); break;
+      case 'decode':
+        outcome = runDecode(vector, engine);
+        break;
+      case 'encode':
+        outcome = runEncode(vector, engine);
+        break;
+      case 'caps':
+        outcome = runCaps(vector, engine);
+        break;
+      case 'request':
+        outcome = runRequest(vector, engine);
+        break;
+      case 'negotiation':
+        outcome = runNegotiation(vector, engine);
+        break;
+      case 'trace':
+        outcome = await runTrace(vector, engine, options);
+        break;
+      case 'property':
+        outcome = await runPropertyVector(vector, engine, options);
+        break;
+      case 'sweep':
+        outcome = runSweepVector(vector, engine);
+        break;
     }
   } catch (error) {
     const text = error instanceof Error ? error.message : String(error);

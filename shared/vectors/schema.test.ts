@@ -3,8 +3,16 @@ import { describeZodError, scenarioJsonSchema, traceJsonSchema, vectorJsonSchema
 
 // The vector file of docs/vector.md; the JSON Schemas are generated with zod 4's
 // z.toJSONSchema (draft 2020-12).
-const caps = { vector: 1, id: 'caps/power-rules/45w-without-9v', title: 'A 45 W source must offer 9 V', tags: ['power-rules'], ref: 'USB PD R3.1, §10.2.3', kind: 'caps',
-  input: { pdos: ['0x0001912c', '0x0004b12c', '0x000640e1'], pdpW: 45 }, expect: { findings: { include: ['caps.power-rules-missing'], exclude: [] } } };
+const caps = {
+  vector: 1,
+  id: 'caps/power-rules/45w-without-9v',
+  title: 'A 45 W source must offer 9 V',
+  tags: ['power-rules'],
+  ref: 'USB PD R3.1, §10.2.3',
+  kind: 'caps',
+  input: { pdos: ['0x0001912c', '0x0004b12c', '0x000640e1'], pdpW: 45 },
+  expect: { findings: { include: ['caps.power-rules-missing'], exclude: [] } },
+};
 
 describe('vectorSchema', () => {
   it('accepts the vector.md example', () => {
@@ -25,7 +33,7 @@ describe('vectorSchema', () => {
     expect(bad({ vector: 2 })).toMatch(/^vector: /);
   });
 
-  it('fills a property vector\'s defaults (runs 100, seed 1)', () => {
+  it("fills a property vector's defaults (runs 100, seed 1)", () => {
     const parsed = vectorSchema.parse({ ...caps, kind: 'property', input: { code: 'export default () => 1' }, expect: { holds: true } });
     expect(parsed.kind === 'property' && parsed.input).toMatchObject({ runs: 100, seed: 1 });
   });

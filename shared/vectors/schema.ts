@@ -9,6 +9,7 @@ import { scenarioSchema } from '../sim/scenario.ts';
 import { INVARIANT_IDS } from '../sweep/invariants.ts';
 import { SWEEP_FAULT_KINDS } from '../sweep/placements.ts';
 import { traceHeaderSchema, traceRecordSchema } from '../trace/records.ts';
+import { zodMessage } from '../core/zod-message.ts';
 
 /** Lower-case words of `a-z`, `0-9`, `.`, `_`, `-`, joined by `/`: `caps/power-rules/45w-without-9v`. */
 export const VECTOR_ID_PATTERN = /^[a-z0-9][a-z0-9._-]*(?:\/[a-z0-9][a-z0-9._-]*)*$/;
@@ -38,8 +39,7 @@ const pdosOrHex = {
   pdos: z.array(pdoText).optional().describe('The PDOs as 32-bit hex numbers.'),
 };
 
-const needsCaps = (input: { hex?: string; pdos?: string[]; caps?: string }) =>
-  input.hex !== undefined || input.pdos !== undefined || input.caps !== undefined;
+const needsCaps = (input: { hex?: string; pdos?: string[]; caps?: string }) => input.hex !== undefined || input.pdos !== undefined || input.caps !== undefined;
 
 export const decodeVectorSchema = z
   .object({
@@ -54,9 +54,7 @@ export const decodeVectorSchema = z
         caps: hexText.optional().describe('The Source_Capabilities message a Request refers to.'),
       })
       .strict(),
-    expect: z
-      .object({ message: partial.optional(), error: z.string().optional().describe('The error code when decoding must fail.'), findings: findingsExpectSchema.optional() })
-      .strict(),
+    expect: z.object({ message: partial.optional(), error: z.string().optional().describe('The error code when decoding must fail.'), findings: findingsExpectSchema.optional() }).strict(),
   })
   .strict();
 
@@ -83,9 +81,7 @@ export const capsVectorSchema = z
       })
       .strict()
       .refine(needsCaps, { message: 'give hex or pdos', path: ['pdos'] }),
-    expect: z
-      .object({ findings: findingsExpectSchema.optional(), pdpW: z.number().int().optional(), pdpInferred: z.boolean().optional(), objects: z.array(partial).optional() })
-      .strict(),
+    expect: z.object({ findings: findingsExpectSchema.optional(), pdpW: z.number().int().optional(), pdpInferred: z.boolean().optional(), objects: z.array(partial).optional() }).strict(),
   })
   .strict();
 
@@ -161,9 +157,7 @@ export const traceVectorSchema = z
       })
       .strict()
       .refine((input) => (input.trace === undefined) !== (input.file === undefined), { message: 'give either trace or file', path: ['trace'] }),
-    expect: z
-      .object({ findings: findingsExpectSchema.optional(), contracts: z.array(partial).optional(), messages: z.number().int().min(0).optional() })
-      .strict(),
+    expect: z.object({ findings: findingsExpectSchema.optional(), contracts: z.array(partial).optional(), messages: z.number().int().min(0).optional() }).strict(),
   })
   .strict();
 
@@ -238,12 +232,7 @@ export function traceJsonSchema(): Record<string, unknown> {
   };
 }
 
-/** "field: message" for the first few issues of a failed parse. */
+/** "field: message" for the first few issues of a failed vector parse (shared/core/zod-message.ts). */
 export function describeZodError(error: z.ZodError, limit = 3): string {
-  const lines = error.issues.slice(0, limit).map((issue) => {
-    const path = issue.path.map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`)).join('').replace(/^\./, '');
-    return `${path || '(file)'}: ${issue.message}`;
-  });
-  const more = error.issues.length > limit ? ` (and ${error.issues.length - limit} more)` : '';
-  return lines.join('; ') + more;
+  return zodMessage(error, { where: '(file)', limit });
 }

@@ -5,8 +5,7 @@ import { DATA_SYMBOLS, K_CODES, decode4b5b, decodeSymbol, encode4b5b, symbolAt }
 describe('4b5b symbol table', () => {
   it('codes each nibble as the specification lists it', () => {
     // USB PD R3.2 V1.1 §5.3, "4b5b Symbol Encoding Table" (written b4…b0; table number from memory, values looked up).
-    const table = ['11110', '01001', '10100', '10101', '01010', '01011', '01110', '01111',
-      '10010', '10011', '10110', '10111', '11010', '11011', '11100', '11101'];
+    const table = ['11110', '01001', '10100', '10101', '01010', '01011', '01110', '01111', '10010', '10011', '10110', '10111', '11010', '11011', '11100', '11101'];
     expect(DATA_SYMBOLS.map((s) => s.toString(2).padStart(5, '0'))).toEqual(table);
   });
 

@@ -6,10 +6,7 @@
  */
 
 /** 5-bit symbol of each data nibble 0x0…0xF. */
-export const DATA_SYMBOLS: readonly number[] = [
-  0b11110, 0b01001, 0b10100, 0b10101, 0b01010, 0b01011, 0b01110, 0b01111,
-  0b10010, 0b10011, 0b10110, 0b10111, 0b11010, 0b11011, 0b11100, 0b11101,
-];
+export const DATA_SYMBOLS: readonly number[] = [0b11110, 0b01001, 0b10100, 0b10101, 0b01010, 0b01011, 0b01110, 0b01111, 0b10010, 0b10011, 0b10110, 0b10111, 0b11010, 0b11011, 0b11100, 0b11101];
 
 /** The K-codes (Table 5-1, lower part). */
 export const K_CODES = {

@@ -36,7 +36,9 @@ const packetArb: fc.Arbitrary<WirePacket> = fc.oneof(
 const timescaleArb = fc.constantFrom<VcdTimescale>('1 ps', '10 ps', '100 ps', '1 ns', '10 ns', '100 ns');
 
 function expected(packets: WirePacket[]) {
-  return packets.map((p) => ('orderedSet' in p ? { kind: p.orderedSet === 'Hard_Reset' ? 'hard_reset' : 'cable_reset' } : { kind: 'message', sop: p.sop, bytes: [...p.bytes], crcOk: true, eop: true }));
+  return packets.map((p) =>
+    'orderedSet' in p ? { kind: p.orderedSet === 'Hard_Reset' ? 'hard_reset' : 'cable_reset' } : { kind: 'message', sop: p.sop, bytes: [...p.bytes], crcOk: true, eop: true },
+  );
 }
 
 describe('VCD decoder', () => {
@@ -59,14 +61,20 @@ describe('VCD decoder', () => {
   it('is the identity after encoding, at random bit rates (270–330 kbps) and timescales', () => {
     // fBitRate 270–330 kbps: USB PD R3.2 V1.1 §5.8 BMC common parameters (from memory).
     fc.assert(
-      fc.property(fc.array(packetArb, { minLength: 1, maxLength: 4 }), fc.integer({ min: 270_000, max: 330_000 }), timescaleArb, fc.integer({ min: 30, max: 2_000 }), (packets, bitrate, timescale, gapUs) => {
-        const { vcd } = encodeWaveform(packets, { bitrate, timescale, gapUs });
-        const result = decodeVcd(vcd);
-        expect(result.ok).toBe(true);
-        if (!result.ok) return;
-        expect(summary(result.events)).toEqual(expected(packets));
-        for (const e of result.events) if (e.kind !== 'unreadable') expect(Math.abs(e.bitrateBps - bitrate)).toBeLessThan(bitrate * 0.01);
-      }),
+      fc.property(
+        fc.array(packetArb, { minLength: 1, maxLength: 4 }),
+        fc.integer({ min: 270_000, max: 330_000 }),
+        timescaleArb,
+        fc.integer({ min: 30, max: 2_000 }),
+        (packets, bitrate, timescale, gapUs) => {
+          const { vcd } = encodeWaveform(packets, { bitrate, timescale, gapUs });
+          const result = decodeVcd(vcd);
+          expect(result.ok).toBe(true);
+          if (!result.ok) return;
+          expect(summary(result.events)).toEqual(expected(packets));
+          for (const e of result.events) if (e.kind !== 'unreadable') expect(Math.abs(e.bitrateBps - bitrate)).toBeLessThan(bitrate * 0.01);
+        },
+      ),
       { numRuns: 150 },
     );
   });

@@ -1,6 +1,6 @@
 /**
  * Public entry of the wire level: CRC-32, 4b5b, ordered sets, BMC, the VCD writer and the streaming
- * VCD decoder (notes/interfaces.md, shared/wire).
+ * VCD decoder (README.md beside it).
  */
 // The CRC-32 belongs to the message codec (pd); wire re-exports it so callers of the wire level keep one import.
 export { crc32, crc32Bytes } from '../pd/crc32.ts';

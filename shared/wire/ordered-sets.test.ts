@@ -44,7 +44,7 @@ describe('ordered sets', () => {
     }
   });
 
-  it('reject a set one K-code away from two sets (SOP and SOP\')', () => {
+  it("reject a set one K-code away from two sets (SOP and SOP')", () => {
     const s1 = K_CODES['Sync-1'];
     const s3 = K_CODES['Sync-3'];
     expect(recognizeOrderedSet([s1, s1, s1, s3])).toBeNull();

@@ -21,9 +21,7 @@ export const ORDERED_SETS: Readonly<Record<OrderedSetName, readonly [KCodeName, 
   Cable_Reset: ['RST-1', 'Sync-1', 'RST-1', 'Sync-3'],
 };
 
-const ENTRIES = Object.entries(ORDERED_SETS).map(
-  ([name, codes]) => [name as OrderedSetName, codes.map((code) => K_CODES[code])] as const,
-);
+const ENTRIES = Object.entries(ORDERED_SETS).map(([name, codes]) => [name as OrderedSetName, codes.map((code) => K_CODES[code])] as const);
 
 /** The 20 wire bits of an ordered set, first K-code first, each symbol b0 first. */
 export function orderedSetBits(name: OrderedSetName): number[] {

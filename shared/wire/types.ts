@@ -1,4 +1,4 @@
-/** The wire level's public data types (agreed in notes/interfaces.md; fields may be added, not renamed). */
+/** The wire level's public data types (fields may be added, not renamed). */
 import type { Sop } from '../pd/types.ts';
 
 export type ResetOrderedSet = 'Hard_Reset' | 'Cable_Reset';

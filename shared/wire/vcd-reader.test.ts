@@ -45,19 +45,29 @@ describe('VCD reader', () => {
   it('takes the first 1-bit wire by default, at the declared timescale', () => {
     const { error, changes } = read(TWO_SIGNALS);
     expect(error).toBeNull();
-    expect(changes).toEqual([[0, '0'], [0.15, '1'], [0.2, 'x']]);
+    expect(changes).toEqual([
+      [0, '0'],
+      [0.15, '1'],
+      [0.2, 'x'],
+    ]);
   });
 
   it('takes a signal by name or dotted path', () => {
-    expect(read(TWO_SIGNALS, { signal: 'cc' }).changes).toEqual([[0, '1'], [0.2, '0'], [3, '1']]);
+    expect(read(TWO_SIGNALS, { signal: 'cc' }).changes).toEqual([
+      [0, '1'],
+      [0.2, '0'],
+      [3, '1'],
+    ]);
     expect(read(TWO_SIGNALS, { signal: 'top.pd.cc' }).changes).toHaveLength(3);
   });
 
   it('gives the same changes however the text is cut into chunks', () => {
     const whole = read(TWO_SIGNALS, { signal: 'cc' }).changes;
-    fc.assert(fc.property(fc.integer({ min: 1, max: 40 }), (size) => {
-      expect(read(TWO_SIGNALS, { signal: 'cc' }, size).changes).toEqual(whole);
-    }));
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 40 }), (size) => {
+        expect(read(TWO_SIGNALS, { signal: 'cc' }, size).changes).toEqual(whole);
+      }),
+    );
   });
 
   it('parses every timescale from 1 fs to 100 s', () => {

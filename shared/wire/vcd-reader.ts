@@ -8,7 +8,13 @@ import { parseTimescaleUs } from './vcd-timescale.ts';
 
 export type VcdValue = '0' | '1' | 'x' | 'z';
 
-export interface VcdVar { type: string; width: number; id: string; ref: string; path: string }
+export interface VcdVar {
+  type: string;
+  width: number;
+  id: string;
+  ref: string;
+  path: string;
+}
 
 export interface VcdReader {
   push(chunk: string): Failure | null;
@@ -56,7 +62,10 @@ export function createVcdReader(options: { signal?: string }, onChange: (tUs: nu
     const wanted = options.signal;
     const named = wanted === undefined ? undefined : vars.find((v) => v.ref === wanted || v.path === wanted);
     if (wanted !== undefined && !named) {
-      const names = vars.map((v) => v.path).slice(0, 8).join(', ');
+      const names = vars
+        .map((v) => v.path)
+        .slice(0, 8)
+        .join(', ');
       error = fail('vcd.signal', `no signal named "${wanted}" in this VCD (it has: ${names || 'none'})`, { line: at });
     } else if (named && named.width !== 1) {
       error = fail('vcd.signal', `signal "${wanted}" is ${named.width} bits wide; choose a 1-bit wire`, { line: at });
@@ -91,9 +100,10 @@ export function createVcdReader(options: { signal?: string }, onChange: (tUs: nu
     const first = word[0]!;
     if (!inBody) {
       if (first !== '$') {
-        error = tokens === 1
-          ? fail('vcd.format', 'not a VCD file: it should open with a $ keyword such as $date, $timescale or $var', { line: at })
-          : fail('vcd.syntax', `unexpected "${word.slice(0, 40)}" in the VCD header`, { line: at });
+        error =
+          tokens === 1
+            ? fail('vcd.format', 'not a VCD file: it should open with a $ keyword such as $date, $timescale or $var', { line: at })
+            : fail('vcd.syntax', `unexpected "${word.slice(0, 40)}" in the VCD header`, { line: at });
         return;
       }
       section = { keyword: word, line: at, words: [] };

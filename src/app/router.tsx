@@ -5,6 +5,15 @@ import { redirectIfSignedIn, requireRole, requireSession } from './guards.ts';
 import { RouteError } from './routes/route-error.tsx';
 import { roleGroups } from '../lib/roles.ts';
 
+/** Shown while a route's code and first data arrive (the router's hydrate fallback). */
+function PageLoading() {
+  return (
+    <p className="p-8 text-xs text-slate-500" role="status">
+      Loading…
+    </p>
+  );
+}
+
 /**
  * Every page is a lazy route, so each arrives in its own chunk.
  * To add a page: a route module under src/features/<name>/routes/, one entry below, one line in nav.ts.
@@ -17,6 +26,7 @@ export function createAppRouter(queryClient: QueryClient) {
       loader: requireSession(queryClient),
       lazy: async () => ({ Component: (await import('./routes/app-layout.tsx')).AppLayout }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
       children: [
         {
           // Errors inside a page keep the shell (top bar and nav) around the message.
@@ -45,6 +55,10 @@ export function createAppRouter(queryClient: QueryClient) {
             {
               path: paths.bench.path,
               lazy: async () => ({ Component: (await import('../features/bench/routes/bench.tsx')).BenchRoute }),
+            },
+            {
+              path: paths.sweep.path,
+              lazy: async () => ({ Component: (await import('../features/sweep/routes/fault-sweep.tsx')).FaultSweepRoute }),
             },
             {
               path: paths.traces.index.path,
@@ -114,11 +128,20 @@ export function createAppRouter(queryClient: QueryClient) {
       loader: requireSession(queryClient),
       lazy: async () => ({ Component: (await import('../features/traces/routes/trace-report.tsx')).TraceReportRoute }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
+    },
+    {
+      // A report opened by its read-only link: no session, no shell.
+      path: paths.traces.shared.path,
+      lazy: async () => ({ Component: (await import('../features/traces/routes/shared-report.tsx')).SharedReportRoute }),
+      errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
     },
     {
       id: 'public',
       lazy: async () => ({ Component: (await import('./routes/auth-layout.tsx')).AuthLayout }),
       errorElement: <RouteError />,
+      hydrateFallbackElement: <PageLoading />,
       children: [
         {
           path: paths.auth.signIn.path,
@@ -145,4 +168,4 @@ export function createAppRouter(queryClient: QueryClient) {
 export type AppRouter = ReturnType<typeof createAppRouter>;
 
 /** Routes a signed-out visitor may see; a 401 there is not a reason to redirect. */
-export const publicPathPrefixes = ['/sign-in', '/forgot-password', '/reset/', '/invite/'] as const;
+export const publicPathPrefixes = ['/sign-in', '/forgot-password', '/reset/', '/invite/', '/shared/'] as const;

@@ -36,12 +36,7 @@ export function Badge({ tone = 'neutral', children, dot, mono, className, title 
   return (
     <span
       title={title}
-      className={cn(
-        'inline-flex items-center gap-1.5 rounded px-1.5 py-0.5 text-[11px] leading-4 font-medium ring-1 ring-inset whitespace-nowrap',
-        mono && 'font-mono',
-        tones[tone],
-        className,
-      )}
+      className={cn('inline-flex items-center gap-1.5 rounded px-1.5 py-0.5 text-[11px] leading-4 font-medium ring-1 ring-inset whitespace-nowrap', mono && 'font-mono', tones[tone], className)}
     >
       {dot && <span aria-hidden="true" className={cn('size-1.5 rounded-full', dots[tone])} />}
       {children}

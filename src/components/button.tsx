@@ -11,8 +11,7 @@ const base =
 
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-amber-500 text-slate-950 hover:bg-amber-400 active:bg-amber-600 shadow-sm',
-  secondary:
-    'border border-slate-300 bg-white text-slate-800 hover:bg-slate-50 dark:border-slate-700 dark:bg-slate-900 dark:text-slate-100 dark:hover:bg-slate-800',
+  secondary: 'border border-slate-300 bg-white text-slate-800 hover:bg-slate-50 dark:border-slate-700 dark:bg-slate-900 dark:text-slate-100 dark:hover:bg-slate-800',
   ghost: 'text-slate-700 hover:bg-slate-200/70 dark:text-slate-300 dark:hover:bg-slate-800',
   danger: 'bg-red-600 text-white hover:bg-red-500 active:bg-red-700 shadow-sm',
 };
@@ -36,19 +35,8 @@ export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
 
 export function Button({ variant, size, loading = false, className, children, disabled, type, ...rest }: ButtonProps) {
   return (
-    <button
-      type={type ?? 'button'}
-      className={buttonClasses(variant, size, className)}
-      disabled={disabled || loading}
-      aria-busy={loading || undefined}
-      {...rest}
-    >
-      {loading && (
-        <span
-          aria-hidden="true"
-          className="size-3.5 animate-spin rounded-full border-2 border-current border-r-transparent"
-        />
-      )}
+    <button type={type ?? 'button'} className={buttonClasses(variant, size, className)} disabled={disabled || loading} aria-busy={loading || undefined} {...rest}>
+      {loading && <span aria-hidden="true" className="size-3.5 animate-spin rounded-full border-2 border-current border-r-transparent" />}
       {children}
     </button>
   );

@@ -2,15 +2,7 @@ import type { HTMLAttributes, ReactNode, Ref } from 'react';
 import { cn } from '../lib/cn.ts';
 
 export function Card({ className, ...rest }: HTMLAttributes<HTMLElement> & { ref?: Ref<HTMLElement> }) {
-  return (
-    <section
-      className={cn(
-        'rounded-lg border border-slate-200 bg-white shadow-xs dark:border-slate-800 dark:bg-slate-900',
-        className,
-      )}
-      {...rest}
-    />
-  );
+  return <section className={cn('rounded-lg border border-slate-200 bg-white shadow-xs dark:border-slate-800 dark:bg-slate-900', className)} {...rest} />;
 }
 
 export type CardHeaderProps = {

@@ -11,18 +11,7 @@ function severityOf(value: monaco.MarkerSeverity): CodeEditorProblem['severity']
 }
 
 /** The Monaco half of CodeEditor; loaded lazily by code-editor.tsx. */
-export default function CodeEditorMonaco({
-  value,
-  onChange,
-  language,
-  label,
-  path,
-  jsonSchema,
-  typeDeclarations,
-  readOnly,
-  height,
-  onProblems,
-}: CodeEditorProps) {
+export default function CodeEditorMonaco({ value, onChange, language, label, path, jsonSchema, typeDeclarations, readOnly, height, onProblems }: CodeEditorProps) {
   const dark = useIsDark();
   const modelPath = `file:///${path.replace(/^\/+/, '')}`;
   const onProblemsRef = useRef(onProblems);

@@ -34,11 +34,7 @@ const MonacoCodeEditor = lazy(() => import('./code-editor-monaco.tsx'));
 export function CodeEditor(props: CodeEditorProps) {
   const height = props.height ?? '20rem';
   return (
-    <div
-      className={cn('overflow-hidden rounded-md border border-slate-300 dark:border-slate-700', props.className)}
-      style={{ height }}
-      data-testid="code-editor"
-    >
+    <div className={cn('overflow-hidden rounded-md border border-slate-300 dark:border-slate-700', props.className)} style={{ height }} data-testid="code-editor">
       <Suspense fallback={<EditorFallback value={props.value} label={props.label} />}>
         <MonacoCodeEditor {...props} height={height} />
       </Suspense>
@@ -49,10 +45,7 @@ export function CodeEditor(props: CodeEditorProps) {
 /** While Monaco loads, the text is already readable. */
 function EditorFallback({ value, label }: { value: string; label: string }) {
   return (
-    <pre
-      aria-label={`${label} (loading editor)`}
-      className="h-full overflow-auto bg-white p-3 font-mono text-xs text-slate-600 dark:bg-slate-900 dark:text-slate-400"
-    >
+    <pre aria-label={`${label} (loading editor)`} className="h-full overflow-auto bg-white p-3 font-mono text-xs text-slate-600 dark:bg-slate-900 dark:text-slate-400">
       {value}
     </pre>
   );

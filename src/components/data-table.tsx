@@ -152,10 +152,7 @@ export function DataTable<TData extends RowData>({
                         <button
                           type="button"
                           onClick={header.column.getToggleSortingHandler()}
-                          className={cn(
-                            'inline-flex items-center gap-1 uppercase hover:text-slate-900 dark:hover:text-slate-100',
-                            meta?.align === 'end' && 'flex-row-reverse',
-                          )}
+                          className={cn('inline-flex items-center gap-1 uppercase hover:text-slate-900 dark:hover:text-slate-100', meta?.align === 'end' && 'flex-row-reverse')}
                         >
                           <table.FlexRender header={header} />
                           <SortGlyph direction={sorted} />
@@ -198,15 +195,7 @@ export function DataTable<TData extends RowData>({
                   {row.getAllCells().map((cell) => {
                     const meta = cell.column.columnDef.meta;
                     return (
-                      <td
-                        key={cell.id}
-                        className={cn(
-                          cellPadding,
-                          'text-slate-700 dark:text-slate-300',
-                          meta?.align === 'end' && 'text-right',
-                          meta?.mono && 'font-mono text-xs tabular',
-                        )}
-                      >
+                      <td key={cell.id} className={cn(cellPadding, 'text-slate-700 dark:text-slate-300', meta?.align === 'end' && 'text-right', meta?.mono && 'font-mono text-xs tabular')}>
                         <table.FlexRender cell={cell} />
                       </td>
                     );

@@ -16,13 +16,7 @@ export function Input({ label, error, hint, hideLabel, mono, className, ...rest 
   return (
     <Field label={label} error={error} hint={hint} hideLabel={hideLabel} className={className}>
       {({ id, describedBy, invalid }) => (
-        <input
-          id={id}
-          aria-invalid={invalid || undefined}
-          aria-describedby={describedBy}
-          className={cn(controlClasses, controlBorder(invalid), 'h-9', mono && 'font-mono tabular')}
-          {...rest}
-        />
+        <input id={id} aria-invalid={invalid || undefined} aria-describedby={describedBy} className={cn(controlClasses, controlBorder(invalid), 'h-9', mono && 'font-mono tabular')} {...rest} />
       )}
     </Field>
   );

@@ -29,14 +29,7 @@ export type HexProps = {
 /** Bytes as hex, grouped, selectable, never wrapped mid-byte. */
 export function Hex({ value, groupBytes = 1, className }: HexProps) {
   return (
-    <code
-      className={cn(
-        'rounded bg-slate-100 px-1.5 py-0.5 font-mono text-[0.85em] break-words text-slate-800 dark:bg-slate-800 dark:text-amber-200',
-        className,
-      )}
-    >
-      {formatHex(value, groupBytes)}
-    </code>
+    <code className={cn('rounded bg-slate-100 px-1.5 py-0.5 font-mono text-[0.85em] break-words text-slate-800 dark:bg-slate-800 dark:text-amber-200', className)}>{formatHex(value, groupBytes)}</code>
   );
 }
 

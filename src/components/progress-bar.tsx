@@ -20,10 +20,7 @@ export function ProgressBar({ fraction, label, className }: ProgressBarProps) {
         aria-valuenow={percent}
         className="relative h-1.5 flex-1 overflow-hidden rounded-full bg-slate-200 dark:bg-slate-800"
       >
-        <div
-          className={cn('h-full rounded-full bg-amber-500 transition-[width] duration-200', !known && 'w-1/3 animate-pulse')}
-          style={known ? { width: `${percent}%` } : undefined}
-        />
+        <div className={cn('h-full rounded-full bg-amber-500 transition-[width] duration-200', !known && 'w-1/3 animate-pulse')} style={known ? { width: `${percent}%` } : undefined} />
       </div>
       {known && <span className="w-10 text-right font-mono text-xs text-slate-500 tabular dark:text-slate-400">{percent}%</span>}
     </div>

@@ -18,10 +18,7 @@ export function RuleLink({ rule, withTitle, className }: RuleLinkProps) {
     <Link
       to={paths.rules.detail.getHref(rule)}
       title={title ? `${title}: what it means and what to do` : 'What this rule means'}
-      className={cn(
-        'font-mono text-[0.85em] text-amber-800 underline decoration-amber-500/40 underline-offset-2 hover:decoration-amber-600 dark:text-amber-300',
-        className,
-      )}
+      className={cn('font-mono text-[0.85em] text-amber-800 underline decoration-amber-500/40 underline-offset-2 hover:decoration-amber-600 dark:text-amber-300', className)}
     >
       {rule}
       {withTitle && title && <span className="ml-1.5 font-sans text-slate-600 no-underline dark:text-slate-400">{title}</span>}

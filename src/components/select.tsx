@@ -17,13 +17,7 @@ export function Select({ label, options, error, hint, hideLabel, className, ...r
   return (
     <Field label={label} error={error} hint={hint} hideLabel={hideLabel} className={className}>
       {({ id, describedBy, invalid }) => (
-        <select
-          id={id}
-          aria-invalid={invalid || undefined}
-          aria-describedby={describedBy}
-          className={cn(controlClasses, controlBorder(invalid), 'h-9 pr-8')}
-          {...rest}
-        >
+        <select id={id} aria-invalid={invalid || undefined} aria-describedby={describedBy} className={cn(controlClasses, controlBorder(invalid), 'h-9 pr-8')} {...rest}>
           {options.map((option) => (
             <option key={option.value} value={option.value} disabled={option.disabled}>
               {option.label}

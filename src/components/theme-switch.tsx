@@ -20,10 +20,7 @@ export function ThemeSwitch({ className }: { className?: string }) {
           aria-pressed={current === choice.value}
           title={choice.label}
           onClick={() => setTheme(choice.value)}
-          className={cn(
-            'grid size-7 place-items-center rounded text-slate-400 hover:text-slate-100',
-            current === choice.value && 'bg-slate-700 text-amber-400 hover:text-amber-300',
-          )}
+          className={cn('grid size-7 place-items-center rounded text-slate-400 hover:text-slate-100', current === choice.value && 'bg-slate-700 text-amber-400 hover:text-amber-300')}
         >
           <svg aria-hidden="true" viewBox="0 0 16 16" className="size-3.5" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round">
             <path d={choice.icon} />

@@ -25,8 +25,7 @@ export const paths = {
     signIn: {
       path: '/sign-in',
       /** `next` is where to return after signing in (a path on this site). */
-      getHref: (next?: string | null) =>
-        next && next !== '/' ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in',
+      getHref: (next?: string | null) => (next && next !== '/' ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
     },
     forgotPassword: {
       path: '/forgot-password',
@@ -53,8 +52,11 @@ export const paths = {
   bench: {
     path: '/bench',
     /** `fromTrace` opens a stored trace as a scenario (GET /api/traces/:id). */
-    getHref: (options?: { fromTrace?: string | number }) =>
-      options?.fromTrace !== undefined ? `/bench?fromTrace=${encodeURIComponent(String(options.fromTrace))}` : '/bench',
+    getHref: (options?: { fromTrace?: string | number }) => (options?.fromTrace !== undefined ? `/bench?fromTrace=${encodeURIComponent(String(options.fromTrace))}` : '/bench'),
+  },
+  sweep: {
+    path: '/sweep',
+    getHref: () => '/sweep',
   },
   traces: {
     index: {
@@ -65,8 +67,11 @@ export const paths = {
     detail: {
       path: '/traces/:traceId',
       /** `finding`: the index of a finding to open the timeline at. */
-      getHref: (traceId: string | number, finding?: number) =>
-        `/traces/${encodeURIComponent(String(traceId))}${finding === undefined ? '' : `?finding=${finding}`}`,
+      getHref: (traceId: string | number, finding?: number) => `/traces/${encodeURIComponent(String(traceId))}${finding === undefined ? '' : `?finding=${finding}`}`,
+    },
+    shared: {
+      path: '/shared/reports/:token',
+      getHref: (token: string) => `/shared/reports/${encodeURIComponent(token)}`,
     },
     report: {
       path: '/traces/:traceId/report',
@@ -109,8 +114,7 @@ export const paths = {
     },
     outbox: {
       path: '/admin/outbox',
-      getHref: (mailId?: string | number) =>
-        mailId === undefined ? '/admin/outbox' : `/admin/outbox?mail=${encodeURIComponent(String(mailId))}`,
+      getHref: (mailId?: string | number) => (mailId === undefined ? '/admin/outbox' : `/admin/outbox?mail=${encodeURIComponent(String(mailId))}`),
     },
     audit: {
       path: '/admin/audit',

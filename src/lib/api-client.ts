@@ -57,12 +57,7 @@ export function errorFromBody(status: number, body: unknown, statusText: string)
     const error = (body as { error: unknown }).error;
     if (typeof error === 'object' && error !== null) {
       const { code, message, details } = error as { code?: unknown; message?: unknown; details?: unknown };
-      return new ApiError(
-        status,
-        typeof code === 'string' ? (code as ApiErrorCode) : 'http.failed',
-        typeof message === 'string' ? message : statusText || `Request failed (${status})`,
-        details,
-      );
+      return new ApiError(status, typeof code === 'string' ? (code as ApiErrorCode) : 'http.failed', typeof message === 'string' ? message : statusText || `Request failed (${status})`, details);
     }
   }
   return new ApiError(status, 'http.failed', statusMessage(status, statusText));

@@ -16,14 +16,14 @@ export type UserResponse = { user: User };
 /** Who is signed in, and to which organisation. */
 export type Session = { user: User; organisation: { name: string } | null };
 
-/** The session, or null when signed out (a 401 is an answer here, not an error). */
+/** The session, or null when signed out: `GET /api/session` answers 200 either way, so the probe before sign-in logs no failed request. */
 export async function getMe(signal?: AbortSignal): Promise<Session | null> {
   try {
-    const body = await api.get<{ user: User; organisation?: { name: string } | null }>('/me', {
+    const body = await api.get<{ user: User | null; organisation?: { name: string } | null }>('/session', {
       signal,
       allowUnauthorized: true,
     });
-    return { user: body.user, organisation: body.organisation ?? null };
+    return body.user ? { user: body.user, organisation: body.organisation ?? null } : null;
   } catch (error) {
     if (isApiError(error) && error.status === 401) return null;
     throw error;

@@ -58,7 +58,12 @@ describe('createEngineWorker', () => {
   it('passes progress callbacks by reference', async () => {
     const engine = createEngineWorker<TestApi>(fakeWorker);
     const seen: number[] = [];
-    const total = await engine.run((api) => api.count(4, progress((fraction: number) => seen.push(fraction))));
+    const total = await engine.run((api) =>
+      api.count(
+        4,
+        progress((fraction: number) => seen.push(fraction)),
+      ),
+    );
     expect(total).toBe(4);
     // Callbacks arrive asynchronously; the last one may land just after the result.
     await new Promise((resolve) => setTimeout(resolve, 20));

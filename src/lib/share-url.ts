@@ -3,6 +3,7 @@
  * (`#scenario=…`), so it never reaches a server log and survives copy and paste.
  */
 import { deflateSync, inflateSync, strFromU8, strToU8 } from 'fflate';
+import { fail, type Result } from '../../shared/core/result.ts';
 
 export const SHARE_PARAM = 'scenario';
 
@@ -27,13 +28,13 @@ export function encodeShared(value: unknown): string {
   return toBase64Url(deflateSync(strToU8(JSON.stringify(value)), { level: 9 }));
 }
 
-export type SharedResult = { ok: true; value: unknown } | { ok: false; message: string };
+export type SharedResult = Result<{ value: unknown }>;
 
 export function decodeShared(text: string): SharedResult {
   try {
     return { ok: true, value: JSON.parse(strFromU8(inflateSync(fromBase64Url(text)))) as unknown };
   } catch {
-    return { ok: false, message: 'The shared scenario in this link is damaged or incomplete.' };
+    return fail('share.damaged', 'The shared scenario in this link is damaged or incomplete.');
   }
 }
 

@@ -51,7 +51,11 @@ function subscribe(listener: () => void): () => void {
 
 /** The current choice, re-rendering when it changes. */
 export function useTheme(): ThemeChoice {
-  return useSyncExternalStore(subscribe, () => current, () => 'system');
+  return useSyncExternalStore(
+    subscribe,
+    () => current,
+    () => 'system',
+  );
 }
 
 function subscribeDark(listener: () => void): () => void {

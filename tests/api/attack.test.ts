@@ -57,7 +57,11 @@ describe('sessions and links (item 7)', () => {
   it('does not take X-Forwarded-For from a client when no proxy is configured', async () => {
     const statuses: number[] = [];
     for (let i = 0; i < 6; i++) {
-      const res = await t.request().post('/api/auth/login').set('X-Forwarded-For', `203.0.113.${i}`).send({ email: `flood-${i}@example.com`, password: 'wrong-password' });
+      const res = await t
+        .request()
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', `203.0.113.${i}`)
+        .send({ email: `flood-${i}@example.com`, password: 'wrong-password' });
       statuses.push(res.status);
     }
     expect(statuses.at(-1)).toBe(429);
@@ -69,7 +73,15 @@ describe('sign-in floods (item 4)', () => {
     const app = await createTestApp({ rateLimits: { loginPerAddress: { windowMs: minutes(15), limit: 3 } } });
     try {
       const statuses: number[] = [];
-      for (let i = 0; i < 4; i++) statuses.push((await app.request().post('/api/auth/login').send({ email: `new-${i}@example.com`, password: 'wrong-password' })).status);
+      for (let i = 0; i < 4; i++)
+        statuses.push(
+          (
+            await app
+              .request()
+              .post('/api/auth/login')
+              .send({ email: `new-${i}@example.com`, password: 'wrong-password' })
+          ).status,
+        );
       expect(statuses).toEqual([401, 401, 401, 429]);
     } finally {
       await app.close();
@@ -81,7 +93,15 @@ describe('sign-in floods (item 4)', () => {
     try {
       const statuses: number[] = [];
       for (let i = 0; i < 4; i++) {
-        statuses.push((await app.request().post('/api/auth/login').set('X-Forwarded-For', `198.51.100.${i}`).send({ email: 'admin@kestrel.example', password: `guess-${i}-wrong` })).status);
+        statuses.push(
+          (
+            await app
+              .request()
+              .post('/api/auth/login')
+              .set('X-Forwarded-For', `198.51.100.${i}`)
+              .send({ email: 'admin@kestrel.example', password: `guess-${i}-wrong` })
+          ).status,
+        );
       }
       expect(statuses).toEqual([401, 401, 401, 429]);
     } finally {

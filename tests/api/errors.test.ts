@@ -48,7 +48,10 @@ describe('error replies', () => {
   });
 
   it('answers an oversized body with 413 JSON', async () => {
-    const res = await t.request().post('/api/auth/login').send({ email: 'a@b.example', password: 'x'.repeat(1_100_000) });
+    const res = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: 'a@b.example', password: 'x'.repeat(1_100_000) });
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe('request.too-large');
     expectErrorShape(res.body);

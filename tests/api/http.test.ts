@@ -25,7 +25,7 @@ afterAll(async () => {
 describe('security headers', () => {
   it('sends a CSP that allows only our own origin', async () => {
     const res = await t.request().get('/api/health');
-    expect(res.body).toEqual({ ok: true });
+    expect(res.body).toMatchObject({ ok: true });
     const csp = res.headers['content-security-policy'] as string;
     expect(csp.split(';').sort()).toEqual(
       [
@@ -75,7 +75,7 @@ describe('serving the built client', () => {
   });
 
   it('serves the API alone when dist/ is missing', async () => {
-    expect((await apiOnly.request().get('/api/health')).body).toEqual({ ok: true });
+    expect((await apiOnly.request().get('/api/health')).body).toMatchObject({ ok: true });
     const page = await apiOnly.request().get('/');
     expect(page.status).toBe(404);
     expect(page.text).toContain('client is not built');

@@ -29,7 +29,11 @@ describe('a production server', () => {
     const server = await startServer({ port: 0, dataDir, log: false });
     try {
       expect(await server.orm.em.fork().count(User)).toBe(0);
-      const res = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@kestrel.example', password: 'parley-demo' }) });
+      const res = await fetch(`${server.url}/api/auth/login`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email: 'admin@kestrel.example', password: 'parley-demo' }),
+      });
       expect(res.status).toBe(401);
     } finally {
       await server.close();

@@ -29,14 +29,26 @@ describe('start-up resumes unfinished traces', () => {
       const uploader = await em.findOneOrFail(User, { email: 'support@kestrel.example' });
       mkdirSync(join(dataDir, 'traces'), { recursive: true });
       const ids: number[] = [];
-      for (const [name, status] of [['k65-pps-stops.trace.jsonl', 'queued'], ['k65-late-ps-rdy.trace.jsonl', 'analysing']] as const) {
+      for (const [name, status] of [
+        ['k65-pps-stops.trace.jsonl', 'queued'],
+        ['k65-late-ps-rdy.trace.jsonl', 'analysing'],
+      ] as const) {
         // A trailing newline keeps the bytes (and so the hash) apart from the seeded copy.
         const bytes = Buffer.concat([readFileSync(join(demoTraceFolder, name)), Buffer.from('\n')]);
         const sha256 = createHash('sha256').update(bytes).digest('hex');
         writeFileSync(join(dataDir, 'traces', sha256), bytes);
         const row = createQueuedTrace(em, {
-          title: '', fileName: `left-${name}`, sha256, sizeBytes: bytes.length, format: 'jsonl',
-          uploaderId: uploader.id, uploaderName: uploader.name, deviceId: null, customerRef: '', notes: '', createdAt: new Date(),
+          title: '',
+          fileName: `left-${name}`,
+          sha256,
+          sizeBytes: bytes.length,
+          format: 'jsonl',
+          uploaderId: uploader.id,
+          uploaderName: uploader.name,
+          deviceId: null,
+          customerRef: '',
+          notes: '',
+          createdAt: new Date(),
         });
         row.status = status;
         await em.flush();
@@ -47,7 +59,12 @@ describe('start-up resumes unfinished traces', () => {
       // Second run: nobody requests the traces; start-up alone finishes them.
       const server = await startServer(quiet(dataDir));
       try {
-        expect(await (await fetch(`${server.url}/api/health`)).json()).toEqual({ ok: true });
+        expect(await (await fetch(`${server.url}/api/health`)).json()).toMatchObject({
+          ok: true,
+          database: { ok: true, kind: 'sqlite' },
+          storage: { ok: true, kind: 'local' },
+          queue: { ok: true, kind: 'local' },
+        });
         const deadline = Date.now() + 30_000;
         let statuses: string[] = [];
         while (Date.now() < deadline) {

@@ -20,8 +20,7 @@ afterAll(() => t.close());
 /** Path parameters get a harmless value: ids of nothing, tokens that do not exist. */
 const concretePath = (path: string) => path.replace(/:([A-Za-z]+)/g, (_m, name: string) => (name === 'id' ? '999999' : 'no-such-token-0000'));
 
-const allowed = (def: RouteDef, role: Role | null) =>
-  def.access === 'anyone' || (role !== null && (def.access === 'signed-in' || def.access.includes(role)));
+const allowed = (def: RouteDef, role: Role | null) => def.access === 'anyone' || (role !== null && (def.access === 'signed-in' || def.access.includes(role)));
 
 // Logout ends every session of the account on the server, so after its row each role signs in afresh.
 describe.each(routeTable.map((def) => [`${def.method.toUpperCase()} ${def.path}`, def] as const))('%s', (_name, def) => {

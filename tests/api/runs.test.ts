@@ -40,7 +40,13 @@ let slowPool: RunPool;
 
 /** The real pool, 60 ms slower per vector, so the event stream has progress to show. */
 function slowed(pool: RunPool, delayMs: number): RunPool {
-  return { run: async (task) => { await new Promise((r) => setTimeout(r, delayMs)); return pool.run(task); }, close: () => pool.close() };
+  return {
+    run: async (task) => {
+      await new Promise((r) => setTimeout(r, delayMs));
+      return pool.run(task);
+    },
+    close: () => pool.close(),
+  };
 }
 
 interface SseEvent {
@@ -81,11 +87,14 @@ describe('a run started in the library', () => {
     expect(started.body.run).toMatchObject({ status: 'running', total: 3, project: 'library', source: 'ui', selection: 'all' });
     firstRunId = started.body.run.id as number;
 
-    const stream = await qa.get(`/api/runs/${firstRunId}/events`).buffer(true).parse((res, done) => {
-      let text = '';
-      res.on('data', (c: Buffer) => (text += c.toString('utf8')));
-      res.on('end', () => done(null, text));
-    });
+    const stream = await qa
+      .get(`/api/runs/${firstRunId}/events`)
+      .buffer(true)
+      .parse((res, done) => {
+        let text = '';
+        res.on('data', (c: Buffer) => (text += c.toString('utf8')));
+        res.on('end', () => done(null, text));
+      });
     expect(stream.headers['content-type']).toMatch(/^text\/event-stream/);
     const events = parseSse(stream.body as string);
     const progress = events.filter((e) => e.event === 'progress');
@@ -99,7 +108,14 @@ describe('a run started in the library', () => {
     const detail = await qa.get(`/api/runs/${firstRunId}`);
     expect(detail.body.run).toMatchObject({ status: 'done', passed: 2, failed: 1 });
     const [failure, ...passes] = detail.body.results as Record<string, unknown>[];
-    expect(failure).toMatchObject({ vectorId: 'caps/team/planted-failure', ok: false, newFailure: true, revision: 1, inLibrary: true, expected: { findings: { exclude: ['caps.power-rules-missing'] } } });
+    expect(failure).toMatchObject({
+      vectorId: 'caps/team/planted-failure',
+      ok: false,
+      newFailure: true,
+      revision: 1,
+      inLibrary: true,
+      expected: { findings: { exclude: ['caps.power-rules-missing'] } },
+    });
     expect(String(failure!.message)).toContain('caps.power-rules-missing');
     expect((failure!.actual as { findings: { rule: string }[] }).findings.some((f) => f.rule === 'caps.power-rules-missing')).toBe(true);
     expect(passes.map((r) => r.ok)).toEqual([true, true]);
@@ -164,7 +180,15 @@ describe('results posted by CI', () => {
   });
 
   it('accepts parley run --json and raw XML, and mails the author when a vector newly fails', async () => {
-    const report = { ok: false, passed: 1, failed: 1, results: [{ id: fortyFiveWithout9v.id, ok: false, message: 'expect.findings.include: caps.power-rules-missing did not appear' }, { id: fifteenWatt.id, ok: true }] };
+    const report = {
+      ok: false,
+      passed: 1,
+      failed: 1,
+      results: [
+        { id: fortyFiveWithout9v.id, ok: false, message: 'expect.findings.include: caps.power-rules-missing did not appear' },
+        { id: fifteenWatt.id, ok: true },
+      ],
+    };
     const res = await t.request().post('/api/runs?build=fw-1.4.1').set('Authorization', `Bearer ${token}`).send(report);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.run).toMatchObject({ project, build: 'fw-1.4.1', failed: 1, newFailures: 1 });
@@ -187,12 +211,26 @@ describe('results posted by CI', () => {
     expect((await post().attach('file', Buffer.from('not a report'), 'x.txt')).body.error.message).toBe('file: neither JUnit XML nor a parley run --json result');
     expect((await post().set('Content-Type', 'application/xml').send('<html></html>')).body.error.message).toMatch(/^file: no <testsuite>/);
     expect((await post().send({ results: [{ id: 'x' }] })).body.error.message).toMatch(/^results\.0\.ok: /);
-    expect((await post().query({ project: 'other' }).send({ results: [{ id: 'x', ok: true }] })).body.error.message).toBe(`project: this token posts to "${project}", not "other"`);
+    expect(
+      (
+        await post()
+          .query({ project: 'other' })
+          .send({ results: [{ id: 'x', ok: true }] })
+      ).body.error.message,
+    ).toBe(`project: this token posts to "${project}", not "other"`);
   });
 
   it('lets a token do nothing but post results, and stops working when revoked', async () => {
     const bearer = { Authorization: `Bearer ${token}` };
-    for (const [method, path] of [['get', '/api/vectors'], ['get', '/api/runs'], ['post', '/api/runs/start'], ['get', '/api/me'], ['get', '/api/tokens'], ['post', '/api/vectors'], ['get', '/api/users']] as const) {
+    for (const [method, path] of [
+      ['get', '/api/vectors'],
+      ['get', '/api/runs'],
+      ['post', '/api/runs/start'],
+      ['get', '/api/me'],
+      ['get', '/api/tokens'],
+      ['post', '/api/vectors'],
+      ['get', '/api/users'],
+    ] as const) {
       const res = await t.request()[method](path).set(bearer).send({});
       expect(res.status, `${method} ${path}`).toBe(403);
       expect(res.body.error.code).toBe('token.out-of-scope');
@@ -203,7 +241,11 @@ describe('results posted by CI', () => {
     const admin = await t.signInAs('admin');
     const id = (await admin.get('/api/tokens')).body.items[0].id as number;
     expect((await admin.delete(`/api/tokens/${id}`)).status).toBe(204);
-    const revoked = await t.request().post('/api/runs').set(bearer).send({ results: [{ id: 'x', ok: true }] });
+    const revoked = await t
+      .request()
+      .post('/api/runs')
+      .set(bearer)
+      .send({ results: [{ id: 'x', ok: true }] });
     expect(revoked.status).toBe(401);
     expect(revoked.body.error.code).toBe('token.invalid');
   });

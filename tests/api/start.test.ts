@@ -11,7 +11,12 @@ describe('startServer', () => {
     try {
       expect(server.url).toMatch(/^http:\/\/127\.0\.0\.1:\d+$/);
       expect(server.url).not.toMatch(/:3000$/);
-      expect(await (await fetch(`${server.url}/api/health`)).json()).toEqual({ ok: true });
+      expect(await (await fetch(`${server.url}/api/health`)).json()).toMatchObject({
+        ok: true,
+        database: { ok: true, kind: 'sqlite' },
+        storage: { ok: true, kind: 'local' },
+        queue: { ok: true, kind: 'local' },
+      });
       expect(existsSync(join(dataDir, 'parley.sqlite'))).toBe(true);
       expect(existsSync(join(dataDir, 'secret'))).toBe(true);
 

@@ -163,11 +163,14 @@ describe('analysis progress off the request thread', () => {
     expect(res.body.analysis).toBeNull();
     const id = res.body.trace.id as number;
 
-    const events = support.get(`/api/traces/${id}/events`).buffer(true).parse((response, done) => {
-      let text = '';
-      response.on('data', (chunk: Buffer) => (text += chunk.toString('utf8')));
-      response.on('end', () => done(null, text));
-    });
+    const events = support
+      .get(`/api/traces/${id}/events`)
+      .buffer(true)
+      .parse((response, done) => {
+        let text = '';
+        response.on('data', (chunk: Buffer) => (text += chunk.toString('utf8')));
+        response.on('end', () => done(null, text));
+      });
     const health = await t.request().get('/api/health');
     expect(health.status).toBe(200);
     const during = await support.get(`/api/traces/${id}`);
@@ -235,11 +238,14 @@ describe('reading traces', () => {
     const one = await viewer.get(`/api/traces/${id}`);
     expect(one.body.trace.fileName).toBe('misnamed.trace.jsonl');
     expect(one.body.analysis.summary).toMatch(/^Contract 20 V 3.25 A/);
-    const file = await viewer.get(`/api/traces/${id}/download`).buffer(true).parse((response, done) => {
-      const parts: Buffer[] = [];
-      response.on('data', (c: Buffer) => parts.push(c));
-      response.on('end', () => done(null, Buffer.concat(parts)));
-    });
+    const file = await viewer
+      .get(`/api/traces/${id}/download`)
+      .buffer(true)
+      .parse((response, done) => {
+        const parts: Buffer[] = [];
+        response.on('data', (c: Buffer) => parts.push(c));
+        response.on('end', () => done(null, Buffer.concat(parts)));
+      });
     expect(file.headers['content-disposition']).toContain('misnamed.trace.jsonl');
     expect(file.body).toEqual(demo('wren14-late-request.txt'));
     const missing = await viewer.get('/api/traces/999999');
@@ -251,7 +257,11 @@ describe('reading traces', () => {
 describe('working with a trace', () => {
   let id: number;
   beforeAll(async () => {
-    const res = await support.post('/api/traces').field('title', 'D100 sags').field('deviceId', String(await deviceId('D100'))).attach('file', demo('d100-vbus-sag.trace.jsonl'), 'sag.jsonl');
+    const res = await support
+      .post('/api/traces')
+      .field('title', 'D100 sags')
+      .field('deviceId', String(await deviceId('D100')))
+      .attach('file', demo('d100-vbus-sag.trace.jsonl'), 'sag.jsonl');
     id = res.body.trace.id;
   });
 
@@ -295,11 +305,14 @@ describe('working with a trace', () => {
   });
 
   it('keeps the trace as a byte-stable trace vector that the vector runner passes', async () => {
-    const res = await viewer.get(`/api/traces/${id}/vector`).buffer(true).parse((response, done) => {
-      let text = '';
-      response.on('data', (c: Buffer) => (text += c.toString('utf8')));
-      response.on('end', () => done(null, text));
-    });
+    const res = await viewer
+      .get(`/api/traces/${id}/vector`)
+      .buffer(true)
+      .parse((response, done) => {
+        let text = '';
+        response.on('data', (c: Buffer) => (text += c.toString('utf8')));
+        response.on('end', () => done(null, text));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-disposition']).toMatch(/d100-sags-\d+\.vector\.json/);
     const text = res.body as string;

@@ -61,7 +61,12 @@ describe('POST /api/vectors/import', () => {
     const list = await qa.get('/api/vectors?q=import&pageSize=5&sort=-id');
     expect(list.body.total).toBe(2_000);
     expect(list.body.items[0].id).toBe('caps/import/v01999');
-    expect(list.body.tags).toEqual(expect.arrayContaining([{ tag: 'even', count: 1_000 }, { tag: 'odd', count: 1_000 }]));
+    expect(list.body.tags).toEqual(
+      expect.arrayContaining([
+        { tag: 'even', count: 1_000 },
+        { tag: 'odd', count: 1_000 },
+      ]),
+    );
 
     const changed = { ...vectorFile(7), title: 'Imported 7, retitled' };
     const again = zipSync({ 'a/v7.vector.json': strToU8(JSON.stringify(changed)), 'a/v8.vector.json': strToU8(JSON.stringify(vectorFile(8))) });
@@ -74,11 +79,14 @@ describe('POST /api/vectors/import', () => {
     const qa = await t.signInAs('qa');
     const res = await qa.post('/api/vectors/import?wait=false').attach('file', zipOf(3, 50_000), 'three.zip');
     expect(res.status).toBe(202);
-    const events = await qa.get(res.body.events).buffer(true).parse((stream, done) => {
-      let text = '';
-      stream.on('data', (chunk: Buffer) => (text += chunk.toString('utf8')));
-      stream.on('end', () => done(null, text));
-    });
+    const events = await qa
+      .get(res.body.events)
+      .buffer(true)
+      .parse((stream, done) => {
+        let text = '';
+        stream.on('data', (chunk: Buffer) => (text += chunk.toString('utf8')));
+        stream.on('end', () => done(null, text));
+      });
     expect(String(events.body)).toContain('"created":3');
   });
 });

@@ -135,12 +135,24 @@ describe('a vector and its revisions', () => {
 
   it('lists with search, kind, tag and device filters, sorted and paged', async () => {
     const qa = await t.signInAs('qa');
-    const second = { ...example, id: 'decode/team/accept', title: 'Accept from the source', kind: 'decode', tags: ['control'], input: { hex: '4301' }, expect: { message: { header: { messageType: 'Accept' } } } };
+    const second = {
+      ...example,
+      id: 'decode/team/accept',
+      title: 'Accept from the source',
+      kind: 'decode',
+      tags: ['control'],
+      input: { hex: '4301' },
+      expect: { message: { header: { messageType: 'Accept' } } },
+    };
     expect((await qa.post('/api/vectors').send({ ...second, deviceId: 1 })).status).toBe(201);
     const all = await qa.get('/api/vectors?sort=-id');
     expect(all.body.total).toBe(2);
     expect(all.body.items.map((v: { id: string }) => v.id)).toEqual(['decode/team/accept', example.id]);
-    expect(all.body.tags).toEqual([{ tag: 'control', count: 1 }, { tag: 'power-rules', count: 1 }, { tag: 'team', count: 1 }]);
+    expect(all.body.tags).toEqual([
+      { tag: 'control', count: 1 },
+      { tag: 'power-rules', count: 1 },
+      { tag: 'team', count: 1 },
+    ]);
     expect((await qa.get('/api/vectors?kind=decode')).body.items.map((v: { id: string }) => v.id)).toEqual(['decode/team/accept']);
     expect((await qa.get('/api/vectors?tag=power-rules')).body.total).toBe(1);
     expect((await qa.get('/api/vectors?tag=power')).body.total).toBe(0);

@@ -23,7 +23,7 @@ describe('import boundaries', () => {
       writeFileSync(join(root, path), text);
     };
     plant('src/features/bench/routes/bench.tsx', "import { useTrace } from '../../traces/api/get-trace.ts';\nimport { Button } from '../../../components/button.tsx';\n");
-    plant('src/features/traces/api/get-trace.ts', "export const useTrace = 1;\n");
+    plant('src/features/traces/api/get-trace.ts', 'export const useTrace = 1;\n');
     plant('src/components/button.tsx', "export { runs } from '../features/runs/api/get-runs.ts';\n");
     plant('shared/pd/crc.ts', "import { bmc } from '../wire/bmc.ts';\n");
     plant('shared/wire/bmc.ts', "import { crc } from '../pd/crc.ts';\nexport const bmc = crc;\n");

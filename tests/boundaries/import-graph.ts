@@ -43,7 +43,11 @@ export function importsOf(file: string, text: string): ImportEdge[] {
     const specifier = match[1] ?? match[2];
     if (!specifier) continue;
     const line = code.slice(0, match.index).split('\n').length;
-    const to = specifier.startsWith('.') ? normalize(join(dirname(file), specifier)).split(sep).join('/') : specifier;
+    const to = specifier.startsWith('.')
+      ? normalize(join(dirname(file), specifier))
+          .split(sep)
+          .join('/')
+      : specifier;
     edges.push({ from: file, to, line });
   }
   return edges;
@@ -86,7 +90,8 @@ function ruleBroken(edge: ImportEdge): string | null {
   // Tests may borrow helpers from a higher layer (the sim's properties use the vectors' arbitraries).
   if (fromEngine && toEngine && fromEngine !== toEngine && !isTest(from)) {
     const allowed = engineDirections[fromEngine];
-    if (allowed && !allowed.includes(toEngine)) return `shared/${fromEngine} may import ${allowed.length > 0 ? allowed.map((d) => `shared/${d}`).join(', ') : 'no other engine folder'}; not shared/${toEngine}`;
+    if (allowed && !allowed.includes(toEngine))
+      return `shared/${fromEngine} may import ${allowed.length > 0 ? allowed.map((d) => `shared/${d}`).join(', ') : 'no other engine folder'}; not shared/${toEngine}`;
   }
   if ((from.startsWith('server/') || from.startsWith('cli/')) && to.startsWith('src/')) return 'the server and the CLI do not import the client';
   return null;

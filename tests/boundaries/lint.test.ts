@@ -29,7 +29,7 @@ describe('the linter (biome, with biome.json)', () => {
   writeFileSync(join(dir, 'biome.json'), JSON.stringify(config));
 
   it('passes clean code', () => {
-    writeFileSync(join(dir, 'clean.ts'), "export const voltageMv = 5_000;\n");
+    writeFileSync(join(dir, 'clean.ts'), 'export const voltageMv = 5_000;\n');
     expect(lint(dir).status).toBe(0);
   });
 

@@ -46,7 +46,10 @@ describe('the built client', () => {
 
     const assets = readdirSync(join(distDir, 'assets'));
     for (const worker of ['editor.worker', 'json.worker', 'ts.worker']) {
-      expect(assets.some((name) => name.startsWith(`${worker}-`) && name.endsWith('.js')), worker).toBe(true);
+      expect(
+        assets.some((name) => name.startsWith(`${worker}-`) && name.endsWith('.js')),
+        worker,
+      ).toBe(true);
     }
   });
 

@@ -52,7 +52,11 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await page.getByLabel('Findings that must appear').fill('caps.power-rules-missing');
     // The input's font has no DC symbol (U+2393): the placeholder goes without it, the hint below draws it.
     expect(await page.getByLabel('Printed rating label').getAttribute('placeholder')).not.toContain('\u2393');
-    await page.getByText(/^(For example|As printed:)/).filter({ has: page.locator('svg') }).first().waitFor();
+    await page
+      .getByText(/^(For example|As printed:)/)
+      .filter({ has: page.locator('svg') })
+      .first()
+      .waitFor();
     await page.getByLabel('Revision message').fill('Clearer title');
     await screenshot(page, 'library-vector-edit');
     await page.getByRole('button', { name: 'Save revision 2' }).click();
@@ -125,7 +129,11 @@ describe.skipIf(!hasChromium)('the team library', () => {
     await screenshot(page, 'tokens');
     // The token posts a result; the Runs page lists it.
     const posted = await page.evaluate(async (bearer) => {
-      const res = await fetch('/api/runs?build=fw-2.0.1', { method: 'POST', headers: { Authorization: `Bearer ${bearer}`, 'Content-Type': 'application/json' }, body: JSON.stringify({ results: [{ id: 'caps/power-rules/45w-without-9v', ok: true }] }) });
+      const res = await fetch('/api/runs?build=fw-2.0.1', {
+        method: 'POST',
+        headers: { Authorization: `Bearer ${bearer}`, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ results: [{ id: 'caps/power-rules/45w-without-9v', ok: true }] }),
+      });
       return res.status;
     }, token);
     expect(posted).toBe(201);

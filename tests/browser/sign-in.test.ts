@@ -146,4 +146,3 @@ describe.skipIf(!hasChromium)('signing in through the browser', () => {
     watch.assertClean();
   });
 });
-

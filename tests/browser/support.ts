@@ -38,7 +38,7 @@ export function requireDist(): void {
   }
 }
 
-// Flags from /work/shared/STACK.md; the resolver rule proves nothing leaves the machine.
+// Flags that keep headless Chromium offline and quiet; the resolver rule proves nothing leaves the machine.
 export const chromiumArgs = [
   '--headless',
   '--no-sandbox',

@@ -20,7 +20,12 @@ const guardedExtras = [{ to: '/library/new', roles: ['admin', 'engineer', 'qa'] 
 const crashHeadings = /^(Something went wrong|Parley stopped unexpectedly|The server could not answer|Parley was updated|Page not found)$/;
 
 function slugOf(path: string): string {
-  return path === '/' ? 'home' : path.replace(/^\//, '').replace(/[^a-z0-9]+/gi, '-').toLowerCase();
+  return path === '/'
+    ? 'home'
+    : path
+        .replace(/^\//, '')
+        .replace(/[^a-z0-9]+/gi, '-')
+        .toLowerCase();
 }
 
 /** Waits until no request has been in flight for a moment (event streams excepted), at most `timeoutMs`. */
@@ -104,9 +109,7 @@ describe.skipIf(!hasChromium)('walking through every page as every role', () => 
         await expectPage(current, entry.to === '/' ? /^Welcome,/ : entry.label);
         expect(new URL(current.url()).pathname).toBe(entry.to);
         // The active page is marked for assistive technology as well as by colour.
-        await expect
-          .poll(() => mainNav(current).locator('[aria-current="page"]').allInnerTexts())
-          .toEqual([entry.label]);
+        await expect.poll(() => mainNav(current).locator('[aria-current="page"]').allInnerTexts()).toEqual([entry.label]);
         if (role === 'admin') await photograph(current, slugOf(entry.to));
       }
 

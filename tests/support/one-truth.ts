@@ -9,7 +9,7 @@ import fc from 'fast-check';
 import type { Finding } from '../../shared/core/finding.ts';
 import { CONTRACT_SETTLE_US, parseScenario, simulate } from '../../shared/sim/index.ts';
 import { contractMismatches, type Mismatch } from '../../shared/trace/agreement.ts';
-import { analyzeRecords } from '../../shared/trace/index.ts';
+import { analyseRecords } from '../../shared/trace/index.ts';
 import { arbitraries } from '../../shared/vectors/arbitraries.ts';
 
 /**
@@ -39,7 +39,7 @@ export function judge(input: unknown): Verdict {
   const parsed = parseScenario(input);
   if (!parsed.ok) throw new Error(parsed.error.message);
   const run = simulate(parsed.scenario, { analyze: false });
-  const analysis = analyzeRecords(run.events);
+  const analysis = analyseRecords(run.events);
   const ports = run.ports.changes.map((c) => ({ tUs: c.tUs, side: c.side, contract: c.contract }));
   return {
     errors: analysis.findings.filter((f) => f.severity === 'error'),

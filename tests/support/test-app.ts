@@ -1,4 +1,7 @@
 import supertest from 'supertest';
+import { inject } from 'vitest';
+import pg from 'pg';
+import { randomBytes } from 'node:crypto';
 import type { Express } from 'express';
 import { createApp, type AppOptions } from '../../server/app.ts';
 import { openOrm, type Orm } from '../../server/db/orm.ts';
@@ -42,8 +45,38 @@ export interface TestApp {
  * The app on `:memory:` SQLite with the demo seed and the real SMTP fake on a loopback port,
  * so mail goes through nodemailer exactly as in production and lands in the Outbox.
  */
+/**
+ * The database of a test app: `:memory:` SQLite, or, in the `api-postgres` project, a fresh
+ * PostgreSQL database copied from the migrated template (tests/support/pg-global-setup.ts).
+ */
+async function openTestOrm(): Promise<{ orm: Orm; drop(): Promise<void> }> {
+  const adminUrl = inject('postgresUrl');
+  if (!adminUrl) return { orm: await openOrm({ dbName: ':memory:' }), drop: async () => undefined };
+  const name = `parley_t_${randomBytes(6).toString('hex')}`;
+  const admin = new pg.Client({ connectionString: adminUrl });
+  await admin.connect();
+  try {
+    await admin.query(`create database ${name} template parley_template`);
+  } finally {
+    await admin.end();
+  }
+  const orm = await openOrm({ databaseUrl: adminUrl.replace(/\/postgres$/, `/${name}`) });
+  return {
+    orm,
+    async drop() {
+      const client = new pg.Client({ connectionString: adminUrl });
+      await client.connect();
+      try {
+        await client.query(`drop database if exists ${name} with (force)`);
+      } finally {
+        await client.end();
+      }
+    },
+  };
+}
+
 export async function createTestApp(options: Partial<Omit<AppOptions, 'orm' | 'mailer'>> & { demo?: boolean } = {}): Promise<TestApp> {
-  const orm = await openOrm({ dbName: ':memory:' });
+  const { orm, drop } = await openTestOrm();
   const clock = options.clock ?? createTestClock();
   if (options.demo !== false) await seedDemo(orm.em.fork(), clock);
   const fake = await startMailFake({ orm, clock });
@@ -82,6 +115,7 @@ export async function createTestApp(options: Partial<Omit<AppOptions, 'orm' | 'm
       mailer.close();
       await fake.close();
       await orm.close();
+      await drop();
     },
   };
 }

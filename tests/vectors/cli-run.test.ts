@@ -24,11 +24,25 @@ async function cli(args: string[], cwd = LIBRARY_DIR) {
 const scratch = mkdtempSync(join(tmpdir(), 'parley-run-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 
-const accept = { vector: 1, id: 'mine/accept', title: 'Accept', tags: [], ref: 'USB PD R3.1 V1.8 §6.3 Table 6-5 (from memory)', kind: 'decode', input: { hex: 'a303' }, expect: { message: { header: { messageType: 'Accept' } } } };
+const accept = {
+  vector: 1,
+  id: 'mine/accept',
+  title: 'Accept',
+  tags: [],
+  ref: 'USB PD R3.1 V1.8 §6.3 Table 6-5 (from memory)',
+  kind: 'decode',
+  input: { hex: 'a303' },
+  expect: { message: { header: { messageType: 'Accept' } } },
+};
 const wrong = { ...accept, id: 'mine/wrong', expect: { message: { header: { messageType: 'Reject' } } } };
 // A property that fails, seeded: the same counterexample must come out of the worker pool.
 const failingProperty = {
-  vector: 1, id: 'mine/property', title: 'integers stay below 100', tags: [], ref: 'common practice', kind: 'property',
+  vector: 1,
+  id: 'mine/property',
+  title: 'integers stay below 100',
+  tags: [],
+  ref: 'common practice',
+  kind: 'property',
   input: { code: 'export default ({ fc }) => fc.property(fc.integer({ min: 0, max: 1000 }), (n: number) => { if (n >= 100) throw new Error("too big"); });', runs: 200, seed: 9 },
   expect: { holds: true },
 };

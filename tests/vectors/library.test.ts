@@ -51,7 +51,10 @@ describe('the built-in library', () => {
 
   it('lists only library vectors as known failing, each with a reason', () => {
     for (const [id, reason] of known) {
-      expect(vectors.some((v) => v.vector?.id === id), id).toBe(true);
+      expect(
+        vectors.some((v) => v.vector?.id === id),
+        id,
+      ).toBe(true);
       expect(reason.length).toBeGreaterThan(20);
     }
   });

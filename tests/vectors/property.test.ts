@@ -53,7 +53,16 @@ describe('property vectors', () => {
   it('turn a failing Scenario counterexample into a negotiation vector that validates', async () => {
     // A property that no scenario can satisfy, so the first generated scenario is the counterexample.
     const code = `export default ({ fc, engine }) => fc.property(engine.arbitraries.scenario(), (s) => { throw new Error('always'); });`;
-    const vector = vectorSchema.parse({ vector: 1, id: 'demo/always-fails', title: 'always fails', tags: [], ref: 'common practice', kind: 'property', input: { code, runs: 5, seed: 2 }, expect: { holds: true } });
+    const vector = vectorSchema.parse({
+      vector: 1,
+      id: 'demo/always-fails',
+      title: 'always fails',
+      tags: [],
+      ref: 'common practice',
+      kind: 'property',
+      input: { code, runs: 5, seed: 2 },
+      expect: { holds: true },
+    });
     const result = await runVector(vector);
     expect(result.ok).toBe(false);
     expect(result.counterexampleVector).toMatchObject({ id: 'demo/always-fails/counterexample', kind: 'negotiation' });

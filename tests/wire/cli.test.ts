@@ -30,7 +30,11 @@ describe('parley wire', () => {
 
     const dec = await cli('wire', 'decode', 'out.vcd', '--json');
     expect(dec.code).toBe(0);
-    const out = dec.json() as { ok: boolean; messages: { t: number; sop: string; hex: string; crc: string; crcOk: boolean; message: { header: { messageType: string }; objects: { kind: string }[]; crc: { ok: boolean } } }[]; events: unknown[] };
+    const out = dec.json() as {
+      ok: boolean;
+      messages: { t: number; sop: string; hex: string; crc: string; crcOk: boolean; message: { header: { messageType: string }; objects: { kind: string }[]; crc: { ok: boolean } } }[];
+      events: unknown[];
+    };
     expect(out.ok).toBe(true);
     expect(out.messages.map((m) => m.hex)).toEqual([caps.hex, '8100', request.hex, '8f1001a000ff']);
     expect(out.messages[0]).toMatchObject({ t: 300, sop: 'SOP', crcOk: true, message: { header: { messageType: 'Source_Capabilities' }, crc: { ok: true } } });

@@ -25,7 +25,14 @@ function parley(args: string[]) {
   return spawnSync(process.execPath, [join(ROOT, 'cli/parley.js'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
 }
 
-interface SigrokPacket { sop: string; header?: string; data: string[]; crc?: string; warnings: string[]; text: string[] }
+interface SigrokPacket {
+  sop: string;
+  header?: string;
+  data: string[];
+  crc?: string;
+  warnings: string[];
+  text: string[];
+}
 
 /** `usb_power_delivery-1: <annotation>` lines → packets (a SOP annotation opens each). */
 function sigrok(vcdPath: string): { packets: SigrokPacket[]; resets: string[]; stderr: string } {
@@ -49,7 +56,7 @@ function sigrok(vcdPath: string): { packets: SigrokPacket[]; resets: string[]; s
   return { packets, resets, stderr: run.stderr };
 }
 
-const crcOf = (hex: string) => ((CRC32.buf(Buffer.from(hex, 'hex')) >>> 0).toString(16).padStart(8, '0'));
+const crcOf = (hex: string) => (CRC32.buf(Buffer.from(hex, 'hex')) >>> 0).toString(16).padStart(8, '0');
 const hex32 = (v: number) => (v >>> 0).toString(16).padStart(8, '0');
 const hex16 = (v: number) => v.toString(16).padStart(4, '0');
 
@@ -83,7 +90,10 @@ describe('wire encode, cross-checked with sigrok-cli (usb_power_delivery)', () =
       // And our own decoder, through the CLI as a process, reads the same file back.
       const decoded = parley(['wire', 'decode', vcd, '--json']);
       expect(decoded.status, decoded.stderr).toBe(0);
-      const out = JSON.parse(decoded.stdout) as { messages: { sop: string; hex: string; crc: string; crcOk: boolean; message: { header: { messageType: string } } | null }[]; events: { event: string }[] };
+      const out = JSON.parse(decoded.stdout) as {
+        messages: { sop: string; hex: string; crc: string; crcOk: boolean; message: { header: { messageType: string } } | null }[];
+        events: { event: string }[];
+      };
       expect(out.messages.map((m) => [m.sop, m.hex, m.crc, m.crcOk])).toEqual(WIRE_FIXTURES.map((f) => [f.sop, f.hex, crcOf(f.hex), true]));
       expect(out.messages.map((m) => m.message?.header.messageType)).toEqual(WIRE_FIXTURES.map((f) => f.name.split(' ')[0]));
       expect(out.events.map((e) => e.event)).toEqual(['hard_reset']);
@@ -97,7 +107,10 @@ describe('wire encode, cross-checked with sigrok-cli (usb_power_delivery)', () =
     // Each data row of sigrok's DEC4B5B reads "0xN, # N = bbbb  sssss": symbol sssss decodes to nibble N.
     const rows = [...readFileSync(source, 'utf8').matchAll(/0x0([0-9A-F]),\s+#\s+[0-9A-F] = [01]{4}\s+([01]{5})/g)];
     expect(rows).toHaveLength(16);
-    const symbols = rows.map(([, n, s]) => [parseInt(n!, 16), parseInt(s!, 2)] as const).sort((a, b) => a[0] - b[0]).map(([, s]) => s);
+    const symbols = rows
+      .map(([, n, s]) => [parseInt(n!, 16), parseInt(s!, 2)] as const)
+      .sort((a, b) => a[0] - b[0])
+      .map(([, s]) => s);
     return import('../../shared/wire/4b5b.ts').then(({ DATA_SYMBOLS }) => expect(symbols).toEqual(DATA_SYMBOLS));
   });
 });

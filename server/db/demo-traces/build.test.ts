@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { analyzeTrace } from '../../../shared/trace/index.ts';
+import { analyseTrace } from '../../../shared/trace/index.ts';
 import { openOrm } from '../orm.ts';
 import { seedDemo } from '../seed.ts';
 import { Trace } from '../trace-entities.ts';
@@ -18,7 +18,7 @@ describe('the demo traces', () => {
   });
 
   it.each(traces.map((t) => [t.fileName, t] as const))('%s shows its fault and nothing worse', (_name, trace) => {
-    const result = analyzeTrace(trace.content);
+    const result = analyseTrace(trace.content);
     expect(result.ok).toBe(true);
     if (!result.ok) return;
     const rules = result.analysis.findings.map((f) => f.rule);

@@ -3,13 +3,13 @@
  * demo support account, and analyses them through the same worker pool as uploads.
  */
 import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync, writeFileSync, existsSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { DeviceUnderTest, User } from '../entities.ts';
 import { Trace } from '../trace-entities.ts';
 import type { Clock } from '../../context.ts';
-import { traceStore } from '../../features/traces/store.ts';
+import type { TraceStore } from '../../storage/types.ts';
 import { sniffTrace, SNIFF_BYTES } from '../../features/traces/sniff.ts';
 import { traceAnalysisHandler } from '../../features/traces/analyse.ts';
 import { createAnalysisPool } from '../../analysis/pool.ts';
@@ -20,19 +20,20 @@ import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 /** Uploads a day apart, the newest an hour before the seed. */
 const DAY_MS = 86_400_000;
 
-export async function seedDemoTraces(em: EntityManager, clock: Clock, dataDir: string, folder = demoTraceFolder): Promise<number> {
+export async function seedDemoTraces(em: EntityManager, clock: Clock, store: TraceStore, folder = demoTraceFolder): Promise<number> {
   if ((await em.count(Trace)) > 0) return 0;
   const uploader = await em.findOneOrFail(User, { email: 'support@kestrel.example' });
   const devices = await em.find(DeviceUnderTest, {});
-  const store = traceStore(dataDir);
-  mkdirSync(store.dir, { recursive: true });
   const manifest = readDemoManifest(folder);
-  const rows = manifest.map((entry, index) => {
+  const files = manifest.map((entry) => {
     const bytes = readFileSync(join(folder, entry.fileName));
-    const sha256 = createHash('sha256').update(bytes).digest('hex');
-    if (!existsSync(store.pathOf(sha256))) writeFileSync(store.pathOf(sha256), bytes, { mode: 0o600 });
+    return { bytes, sha256: createHash('sha256').update(bytes).digest('hex') };
+  });
+  for (const { bytes, sha256 } of files) await store.put(sha256, bytes);
+  const rows = manifest.map((entry, index) => {
+    const { bytes, sha256 } = files[index]!;
     const sniffed = sniffTrace(bytes.subarray(0, SNIFF_BYTES), bytes.length <= SNIFF_BYTES);
-    if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.message}`);
+    if (!sniffed.ok) throw new Error(`demo trace ${entry.fileName}: ${sniffed.error.message}`);
     return createQueuedTrace(em, {
       title: entry.title,
       fileName: entry.fileName,

@@ -8,7 +8,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { analyzeTrace } from '../../../shared/trace/index.ts';
+import { analyseTrace } from '../../../shared/trace/index.ts';
 import { demoTraceFolder, readDemoManifest } from './manifest.ts';
 
 const expected: Record<string, string> = {
@@ -24,11 +24,15 @@ const expected: Record<string, string> = {
 
 describe('the summary sentence of every demo trace', () => {
   it('covers every demo trace', () => {
-    expect(readDemoManifest().map((e) => e.fileName).sort()).toEqual(Object.keys(expected).sort());
+    expect(
+      readDemoManifest()
+        .map((e) => e.fileName)
+        .sort(),
+    ).toEqual(Object.keys(expected).sort());
   });
   for (const [file, sentence] of Object.entries(expected)) {
     it(file, () => {
-      const result = analyzeTrace(readFileSync(join(demoTraceFolder, file), 'utf8'));
+      const result = analyseTrace(readFileSync(join(demoTraceFolder, file), 'utf8'));
       expect(result.ok && result.analysis.summary).toBe(sentence);
     });
   }

@@ -1,14 +1,18 @@
 import { Migration20250601000000Initial } from './Migration20250601000000Initial.ts';
 import { Migration20261201183000Traces } from './Migration20261201183000Traces.ts';
 import { Migration20261201200000Library } from './Migration20261201200000Library.ts';
-import { Migration20261204160000TraceViews } from './Migration20261204160000TraceViews.ts';
-import { Migration20261204170000TeamVectorSearch } from './Migration20261204170000TeamVectorSearch.ts';
+import { Migration20261204170000ReportShareLinks } from './Migration20261204170000ReportShareLinks.ts';
+import { Migration20261204173000ImportMappings } from './Migration20261204173000ImportMappings.ts';
+import { Migration20261204190000TraceViews } from './Migration20261204190000TraceViews.ts';
+import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
   { name: 'Migration20250601000000Initial', class: Migration20250601000000Initial },
   { name: 'Migration20261201183000Traces', class: Migration20261201183000Traces },
   { name: 'Migration20261201200000Library', class: Migration20261201200000Library },
-  { name: 'Migration20261204160000TraceViews', class: Migration20261204160000TraceViews },
-  { name: 'Migration20261204170000TeamVectorSearch', class: Migration20261204170000TeamVectorSearch },
+  { name: 'Migration20261204170000ReportShareLinks', class: Migration20261204170000ReportShareLinks },
+  { name: 'Migration20261204173000ImportMappings', class: Migration20261204173000ImportMappings },
+  { name: 'Migration20261204190000TraceViews', class: Migration20261204190000TraceViews },
+  { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
 ];

@@ -17,17 +17,18 @@ export type AuditAction =
   | 'trace.uploaded'
   | 'trace.shared'
   | 'trace.deleted'
+  | 'trace.link_created'
+  | 'trace.link_revoked'
+  | 'vector.created'
+  | 'vector.updated'
+  | 'vector.restored'
   | 'vector.imported'
   | 'vector.deleted'
   | 'token.created'
   | 'token.revoked';
 
 /** Queues an audit event in the unit of work; the caller's flush writes it with the change it records. */
-export function recordAudit(
-  em: EntityManager,
-  clock: Clock,
-  event: { actor: IUser | null; action: AuditAction; target?: string; details?: Record<string, unknown> },
-): void {
+export function recordAudit(em: EntityManager, clock: Clock, event: { actor: IUser | null; action: AuditAction; target?: string; details?: Record<string, unknown> }): void {
   em.create(AuditEvent, {
     at: clock.now(),
     actorId: event.actor?.id ?? null,

@@ -14,10 +14,7 @@ import { z } from 'zod';
 const SCRYPT = { N: 2 ** 15, r: 8, p: 1, maxmem: 64 * 1024 * 1024 } as const;
 const KEY_BYTES = 32;
 
-export const passwordSchema = z
-  .string()
-  .min(10, 'must be at least 10 characters')
-  .max(200, 'must be at most 200 characters');
+export const passwordSchema = z.string().min(10, 'must be at least 10 characters').max(200, 'must be at most 200 characters');
 
 function scrypt(password: string, salt: Buffer, options: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) => scryptCallback(password.normalize('NFKC'), salt, KEY_BYTES, options, (error, key) => (error ? reject(error) : resolve(key))));

@@ -70,6 +70,17 @@ export const authRoutes: RouteDef[] = [
     },
   }),
   route({
+    // The client's session probe: signed out is an answer (user null), not a 401 the browser logs.
+    method: 'get',
+    path: '/api/session',
+    access: 'anyone',
+    async handler(ctx) {
+      if (!ctx.user) return { user: null, organisation: null };
+      const organisation = await findOrganisation(ctx.em);
+      return { user: presentUser(ctx.user), organisation: organisation ? { name: organisation.name } : null };
+    },
+  }),
+  route({
     method: 'get',
     path: '/api/me',
     access: 'signed-in',

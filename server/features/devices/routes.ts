@@ -33,7 +33,10 @@ const createSchema = z.object({
   notes: deviceFields.notes.default(''),
 });
 
-const patchSchema = z.object(deviceFields).partial().refine((b) => Object.keys(b).length > 0, 'give at least one field');
+const patchSchema = z
+  .object(deviceFields)
+  .partial()
+  .refine((b) => Object.keys(b).length > 0, 'give at least one field');
 
 const present = (d: IDeviceUnderTest): Device => ({
   id: d.id,

@@ -1,14 +1,52 @@
 import { route, type RouteDef } from '../../route-def.ts';
+import type { AppDeps } from '../../context.ts';
+import { dialectOf } from '../../db/orm.ts';
 
+interface Part {
+  ok: boolean;
+  kind: string;
+  message?: string;
+}
+
+async function checkParts(deps: AppDeps): Promise<{ database: Part; storage: Part; queue: Part }> {
+  const database = deps.orm.em
+    .fork()
+    .getConnection()
+    .execute('select 1')
+    .then((): Part => ({ ok: true, kind: dialectOf(deps.orm) }))
+    .catch((error: unknown): Part => ({ ok: false, kind: dialectOf(deps.orm), message: error instanceof Error ? error.message : String(error) }));
+  const storage = deps.traceStore.check().then((result): Part => ({ kind: deps.traceStore.kind, ...result }));
+  const queue = deps.jobs.check().then((result): Part => ({ kind: deps.jobs.name, ...result }));
+  const [db, st, q] = await Promise.all([database, storage, queue]);
+  return { database: db, storage: st, queue: q };
+}
+
+/**
+ * `/api/health`: is this instance alive, and how are the database, the trace storage and the job
+ * queue (a part that fails makes it 503). `/api/health/ready`: may a load balancer send requests
+ * here (200) or not (503, e.g. while it shuts down). Neither says more than the kinds in use.
+ */
 export const healthRoutes: RouteDef[] = [
   route({
     method: 'get',
     path: '/api/health',
     access: 'anyone',
-    async handler({ em }) {
-      // A trivial query proves the database answers; the app is built only after migrations ran.
-      await em.getConnection().execute('select 1');
-      return { ok: true };
+    async handler({ deps, res }) {
+      const parts = await checkParts(deps);
+      const ok = parts.database.ok && parts.storage.ok && parts.queue.ok;
+      if (!ok) res.status(503);
+      return { ok, ...parts };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/health/ready',
+    access: 'anyone',
+    async handler({ deps, res }) {
+      const parts = await checkParts(deps);
+      const ready = parts.database.ok && parts.storage.ok && parts.queue.ok;
+      res.status(ready ? 200 : 503);
+      return { ready };
     },
   }),
 ];

@@ -10,11 +10,7 @@ export const outboxRoutes: RouteDef[] = [
     access: ['admin'],
     query: pageQuery,
     async handler({ em, query }) {
-      const [messages, total] = await em.findAndCount(
-        OutboxMessage,
-        {},
-        { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
-      );
+      const [messages, total] = await em.findAndCount(OutboxMessage, {}, { orderBy: { id: 'desc' }, limit: query.pageSize, offset: (query.page - 1) * query.pageSize });
       const items = messages.map((m) => ({ id: m.id, to: m.to, subject: m.subject, sentAt: m.sentAt.toISOString() }));
       return { items, total };
     },

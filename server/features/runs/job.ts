@@ -34,7 +34,17 @@ export function detailOf(result: Pick<VectorResult, 'expected' | 'actual' | 'mis
 /** The run's event as its row tells it: final once it is closed, else its progress. */
 export function runEvent(run: ITestRun): RunEvent {
   if (run.status === 'running') return { type: 'progress', runId: run.id, done: run.done, total: run.total, passed: run.passed, failed: run.failed };
-  return { type: 'done', runId: run.id, status: run.status === 'failed' ? 'failed' : 'done', done: run.done, total: run.total, passed: run.passed, failed: run.failed, newFailures: run.newFailures, ...(run.errorMessage ? { error: run.errorMessage } : {}) };
+  return {
+    type: 'done',
+    runId: run.id,
+    status: run.status === 'failed' ? 'failed' : 'done',
+    done: run.done,
+    total: run.total,
+    passed: run.passed,
+    failed: run.failed,
+    newFailures: run.newFailures,
+    ...(run.errorMessage ? { error: run.errorMessage } : {}),
+  };
 }
 
 type RunDeps = Pick<AppDeps, 'orm' | 'clock' | 'mailer' | 'publicUrl' | 'logger' | 'runPool'>;
@@ -84,13 +94,13 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   if (!run) return;
   if (run.status !== 'running') return job.publish(runEvent(run));
   const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
-  const todo = vectorIds.filter((id) => !stored.has(id));
+  const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
   let passed = await em.count(RunResult, { runId, ok: true });
   let failed = stored.size - passed;
   job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
   // As many batches in flight as the pool has threads, plus one waiting, so no thread idles.
-  const batches = batchesOf(todo, RUN_BATCH_SIZE);
+  const batches = batchesOf(pending, RUN_BATCH_SIZE);
   let next = 0;
   const lane = async () => {
     while (next < batches.length && !job.signal.aborted) {
@@ -99,7 +109,10 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       const rows = await batchEm.find(TeamVector, { vectorId: { $in: ids } }, { fields: ['vectorId', 'revision', 'title', 'kind', 'text'] });
       const byId = new Map(rows.map((r) => [r.vectorId, r]));
       const present = ids.filter((id) => byId.has(id));
-      const results = await runBatch(deps.runPool, present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir })));
+      const results = await runBatch(
+        deps.runPool,
+        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })),
+      );
       if (job.signal.aborted) return;
       const now = deps.clock.now();
       const records: Omit<IRunResult, 'id'>[] = present.map((id, i) => {
@@ -121,15 +134,31 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       });
       // A vector deleted from the library since the run started still gets a result.
       for (const id of ids.filter((x) => !byId.has(x))) {
-        records.push({ runId, vectorId: id, title: null, kind: null, vectorRevision: null, ok: false, message: 'the vector was deleted from the library before it ran', durationMs: 0, newFailure: false, detail: null, createdAt: now });
+        records.push({
+          runId,
+          vectorId: id,
+          title: null,
+          kind: null,
+          vectorRevision: null,
+          ok: false,
+          message: 'the vector was deleted from the library before it ran',
+          durationMs: 0,
+          newFailure: false,
+          detail: null,
+          createdAt: now,
+        });
       }
-      for (const record of records) batchEm.create(RunResult, record);
-      await batchEm.flush();
       for (const record of records) {
         if (record.ok) passed += 1;
         else failed += 1;
       }
-      await batchEm.nativeUpdate(TestRun, { id: runId }, { done: passed + failed, passed, failed });
+      // One transaction per batch: its results and the run's counts.
+      const counts = { done: passed + failed, passed, failed };
+      await batchEm.transactional(async (tx) => {
+        for (const record of records) tx.create(RunResult, record);
+        await tx.flush();
+        await tx.nativeUpdate(TestRun, { id: runId }, counts);
+      });
       const lastRecord = records[records.length - 1]!;
       const last = { id: lastRecord.vectorId, ok: lastRecord.ok, durationMs: lastRecord.durationMs, ...(lastRecord.message ? { message: lastRecord.message } : {}) };
       job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });

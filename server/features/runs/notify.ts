@@ -25,7 +25,10 @@ export function newFailureMail(options: { to: string; name: string; run: ITestRu
   const { run, failures } = options;
   const where = `${run.project}${run.build ? ` build ${run.build}` : ''}`;
   const count = failures.length === 1 ? 'A vector you wrote now fails' : `${failures.length} vectors you wrote now fail`;
-  const intro = [`Hello ${options.name},`, `${count} in run #${run.id} of ${where} (${run.source === 'ci' ? 'posted by CI' : `started by ${run.startedByName}`}). The previous run of this project did not fail them.`];
+  const intro = [
+    `Hello ${options.name},`,
+    `${count} in run #${run.id} of ${where} (${run.source === 'ci' ? 'posted by CI' : `started by ${run.startedByName}`}). The previous run of this project did not fail them.`,
+  ];
   const list = failures.map(([id, message]) => `- ${id}: ${message.split('\n')[0]}`);
   return {
     to: options.to,

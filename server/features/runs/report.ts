@@ -6,6 +6,8 @@
 import { XMLParser } from 'fast-xml-parser';
 import { z } from 'zod';
 import { MAX_REPORT_CASES } from '../../../shared/api/index.ts';
+import { zodMessage } from '../../../shared/core/zod-message.ts';
+import { fail, type Result } from '../../../shared/core/result.ts';
 
 export interface ReportedResult {
   id: string;
@@ -14,16 +16,13 @@ export interface ReportedResult {
   durationMs: number;
 }
 
-export type ReportRead = { ok: true; format: 'junit' | 'json'; results: ReportedResult[] } | { ok: false; message: string };
-
+export type ReportRead = Result<{ format: 'junit' | 'json'; results: ReportedResult[] }>;
 
 const jsonReport = z.object({
   ok: z.boolean().optional(),
   passed: z.number().int().min(0).optional(),
   failed: z.number().int().min(0).optional(),
-  results: z
-    .array(z.object({ id: z.string().min(1).max(300), ok: z.boolean(), message: z.string().max(20_000).optional(), durationMs: z.number().min(0).optional() }))
-    .max(MAX_REPORT_CASES),
+  results: z.array(z.object({ id: z.string().min(1).max(300), ok: z.boolean(), message: z.string().max(20_000).optional(), durationMs: z.number().min(0).optional() })).max(MAX_REPORT_CASES),
 });
 
 function asArray<T>(value: T | T[] | undefined): T[] {
@@ -66,35 +65,34 @@ export function readJunit(xml: string): ReportRead {
     const parser = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '@_', processEntities: true, parseTagValue: false, parseAttributeValue: false });
     root = parser.parse(xml, true) as XmlNode;
   } catch (error) {
-    return { ok: false, message: `file: not well-formed XML (${error instanceof Error ? error.message.split('\n')[0] : String(error)})` };
+    return fail('run.bad-report', `file: not well-formed XML (${error instanceof Error ? error.message.split('\n')[0] : String(error)})`);
   }
   const suites = suitesOf(root);
-  if (suites.length === 0) return { ok: false, message: 'file: no <testsuite> element; this is not a JUnit report' };
+  if (suites.length === 0) return fail('run.bad-report', 'file: no <testsuite> element; this is not a JUnit report');
   const results: ReportedResult[] = [];
   for (const suite of suites) {
     for (const testcase of asArray(suite.testcase as XmlNode | XmlNode[] | undefined)) {
       const id = caseId(testcase);
-      if (id === '') return { ok: false, message: 'file: a <testcase> has no name' };
+      if (id === '') return fail('run.bad-report', 'file: a <testcase> has no name');
       if (testcase.skipped !== undefined) continue;
       const failure = testcase.failure ?? testcase.error;
       const seconds = Number(testcase['@_time'] ?? 0);
       const durationMs = Number.isFinite(seconds) && seconds > 0 ? seconds * 1_000 : 0;
       if (failure === undefined) results.push({ id, ok: true, durationMs });
       else results.push({ id, ok: false, message: asArray(failure).map(textOf).join('\n').trim() || 'failed', durationMs });
-      if (results.length > MAX_REPORT_CASES) return { ok: false, message: `file: more than ${MAX_REPORT_CASES} test cases` };
+      if (results.length > MAX_REPORT_CASES) return fail('run.bad-report', `file: more than ${MAX_REPORT_CASES} test cases`);
     }
   }
-  if (results.length === 0) return { ok: false, message: 'file: the JUnit report holds no test cases' };
+  if (results.length === 0) return fail('run.bad-report', 'file: the JUnit report holds no test cases');
   return { ok: true, format: 'junit', results };
 }
 
 export function readJsonReport(value: unknown): ReportRead {
   const parsed = jsonReport.safeParse(value);
   if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    return { ok: false, message: `${issue && issue.path.length > 0 ? issue.path.join('.') : 'results'}: ${issue?.message ?? 'not a parley run --json result'}` };
+    return fail('run.bad-report', zodMessage(parsed.error, { where: 'results', limit: 1 }));
   }
-  if (parsed.data.results.length === 0) return { ok: false, message: 'results: the report holds no results' };
+  if (parsed.data.results.length === 0) return fail('run.bad-report', 'results: the report holds no results');
   return { ok: true, format: 'json', results: parsed.data.results.map((r) => ({ id: r.id, ok: r.ok, message: r.message, durationMs: r.durationMs ?? 0 })) };
 }
 
@@ -105,9 +103,9 @@ export function readReportText(text: string): ReportRead {
     try {
       return readJsonReport(JSON.parse(trimmed));
     } catch (error) {
-      return { ok: false, message: `file: not valid JSON (${error instanceof Error ? error.message : String(error)})` };
+      return fail('run.bad-report', `file: not valid JSON (${error instanceof Error ? error.message : String(error)})`);
     }
   }
   if (trimmed.startsWith('<')) return readJunit(trimmed);
-  return { ok: false, message: 'file: neither JUnit XML nor a parley run --json result' };
+  return fail('run.bad-report', 'file: neither JUnit XML nor a parley run --json result');
 }

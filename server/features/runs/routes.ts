@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { MAX_REPORT_BYTES, roleGroups, type Run, type RunResult as PresentedResult } from '../../../shared/api/index.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
@@ -13,6 +14,8 @@ import { finishRun, runEvent, vectorRunJob } from './job.ts';
 import { streamJobEvents } from '../../jobs/sse.ts';
 import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
 import { readJsonReport, readReportText, type ReportRead } from './report.ts';
+import { zodMessage } from '../../../shared/core/zod-message.ts';
+import { fail } from '../../../shared/core/result.ts';
 
 /** api.md: engineers and QA run vectors (CI posts with a token, which acts with the qa role). */
 const runStarters = roleGroups.editors;
@@ -100,7 +103,7 @@ function readPosted(req: express.Request): ReportRead {
   if (req.file) return readReportText(req.file.buffer.toString('utf8'));
   if (typeof req.body === 'string') return readReportText(req.body);
   if (req.body && typeof req.body === 'object' && 'results' in req.body) return readJsonReport(req.body);
-  return { ok: false, message: 'file: post a JUnit XML file (multipart field "file", or the body as application/xml) or a parley run --json result' };
+  return fail('run.bad-report', 'file: post a JUnit XML file (multipart field "file", or the body as application/xml) or a parley run --json result');
 }
 
 export const runsRoutes: RouteDef[] = [
@@ -165,8 +168,7 @@ export const runsRoutes: RouteDef[] = [
         build: query.build ?? (typeof req.body === 'object' && req.body ? (req.body as Record<string, unknown>).build : undefined),
       });
       if (!fields.success) {
-        const issue = fields.error.issues[0]!;
-        throw badRequest(`${issue.path.join('.')}: ${issue.message}`, 'input.invalid');
+        throw badRequest(zodMessage(fields.error, { where: 'body', limit: 1 }), 'input.invalid');
       }
       const { build } = fields.data;
       let project = fields.data.project;
@@ -176,7 +178,7 @@ export const runsRoutes: RouteDef[] = [
       }
       if (project === undefined) throw badRequest('project: say which project these results belong to', 'input.invalid');
       const report = readPosted(req);
-      if (!report.ok) throw badRequest(report.message, 'run.bad-report');
+      if (!report.ok) throw badRequest(report.error.message, 'run.bad-report');
 
       // A vector id reported twice counts once: the last report of it wins.
       const results = [...new Map(report.results.map((r) => [r.id, r])).values()];

@@ -5,10 +5,14 @@
  * file go. The job reads everything it needs from the row, so any worker of the queue can run it,
  * and a retried job (its first worker died) simply analyses again.
  */
+import { randomBytes } from 'node:crypto';
+import { mkdirSync } from 'node:fs';
+import { rm } from 'node:fs/promises';
+import { join } from 'node:path';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { Trace, TraceChunk, TraceItem, type ITrace } from '../../db/trace-entities.ts';
 import type { Clock } from '../../context.ts';
-import type { AnalysisPool } from '../../analysis/pool.ts';
+import type { AnalyseAndStoreResult, AnalysisPool } from '../../analysis/pool.ts';
 import type { TraceFormat } from '../../../shared/trace/index.ts';
 import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import type { AnalysisEvent } from '../../../shared/api/index.ts';
@@ -54,7 +58,7 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   // Deleted, or finished by an earlier attempt: nothing to do but tell the subscribers.
   if (!row || row.status === 'done' || row.status === 'failed') return job.publish(traceEvent(row));
   const { sha256, sizeBytes } = row;
-  if (!store.has(sha256)) {
+  if (!(await store.has(sha256))) {
     // The file is gone (data folder copied without it): say so on the row rather than loop.
     const message = 'The analysis failed: the stored file is missing.';
     await em.nativeUpdate(Trace, { id }, { status: 'failed', errorCode: 'trace.file-missing', errorMessage: message, analysedAt: clock.now() });
@@ -62,10 +66,25 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   }
   await em.nativeUpdate(Trace, { id }, { status: 'analysing' });
   job.publish({ type: 'progress', status: 'analysing', bytesRead: 0, totalBytes: sizeBytes });
-  const result = await pool.analyzeAndStore(store.pathOf(sha256), store.analysisPathOf(sha256), {
-    format: row.format as TraceFormat,
-    onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
-  });
+  mkdirSync(store.incomingDir, { recursive: true });
+  // The worker writes the stored analysis here; the store then keeps it beside the file (or in the bucket).
+  const storeTo = join(store.incomingDir, `.incoming-analysis-${randomBytes(8).toString('hex')}`);
+  try {
+    const result = await store.withLocalFile(sha256, (path) =>
+      pool.analyseAndStore(path, storeTo, {
+        format: row.format as TraceFormat,
+        onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
+      }),
+    );
+    if (result.ok && !job.signal.aborted) await store.keepAnalysis(storeTo, sha256);
+    return await record({ em, clock, store }, row, result, job);
+  } finally {
+    await rm(storeTo, { force: true });
+  }
+}
+
+async function record({ em, clock, store }: { em: EntityManager; clock: Clock; store: TraceStore }, row: ITrace, result: AnalyseAndStoreResult, job: JobContext<AnalysisEvent>): Promise<void> {
+  const { id, sha256 } = row;
   // Stopped by a shutdown: the row stays `analysing` for the next worker (or start-up) to take.
   if (job.signal.aborted) return;
   if (!result.ok) {

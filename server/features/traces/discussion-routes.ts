@@ -10,11 +10,14 @@ import { recordAudit } from '../audit/record.ts';
 import { deviceMap, findTrace, idParams, loadAnalysis, text, traceWriters } from './lookup.ts';
 import { presentComment, presentTrace } from './present.ts';
 import { buildReport, diagnosisMail } from './report.ts';
+import { createShareLink, shareLinkDays, shareUrl } from './share-links.ts';
 
 const commentBody = z.object({ text: z.string().trim().min(1, 'write a comment first').max(4000, 'must be at most 4000 characters') });
 const shareBody = z.object({
   to: z.email('must be an e-mail address').max(254),
   message: text(2000).optional(),
+  /** Days a read-only report link in the mail stays valid (share-links.ts); none without it. */
+  linkDays: shareLinkDays.optional(),
 });
 
 /** Share sends mail to any address: a per-user limit (default 30 an hour, `rateLimits.share`). */
@@ -73,7 +76,9 @@ export const discussionRoutes: RouteDef[] = [
       const trace = await findTrace(em, params.id);
       const analysis = await loadAnalysis(deps.traceStore, trace);
       const report = buildReport(presentTrace(trace, await deviceMap(em)), analysis, `${deps.publicUrl}/traces/${trace.id}`);
-      const mail = diagnosisMail({ to: body.to, senderName: me.name, note: body.message, report });
+      const link = body.linkDays === undefined ? null : await createShareLink(em, deps, me, trace, body.linkDays);
+      const shared = link ? { url: shareUrl(deps, link), expiresAt: link.expiresAt } : undefined;
+      const mail = diagnosisMail({ to: body.to, senderName: me.name, note: body.message, report, ...(shared ? { shared } : {}) });
       try {
         await deps.mailer.send(mail);
       } catch (error) {
@@ -82,7 +87,7 @@ export const discussionRoutes: RouteDef[] = [
       }
       recordAudit(em, deps.clock, { actor: me, action: 'trace.shared', target: `trace:${trace.id}`, details: { to: body.to } });
       await em.flush();
-      return { sent: true, to: body.to, subject: mail.subject };
+      return { sent: true, to: body.to, subject: mail.subject, ...(shared ? { link: shared.url } : {}) };
     },
   }),
 ];

@@ -1,6 +1,5 @@
 /** Files of one trace: the original upload, the JSON report and the trace as a `trace` vector. */
-import { existsSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import type { TraceFormat } from '../../../shared/trace/index.ts';
 import { badRequest, notFound } from '../../errors.ts';
 import { route, type RouteDef } from '../../route-def.ts';
@@ -20,11 +19,12 @@ export const exportRoutes: RouteDef[] = [
     params: idParams,
     async handler({ em, params, res, deps }) {
       const trace = await findTrace(em, params.id);
-      const path = resolve(deps.traceStore.pathOf(trace.sha256));
-      if (!existsSync(path)) throw notFound('The stored file of this trace is missing', 'trace.file-missing');
+      if (!(await deps.traceStore.has(trace.sha256))) throw notFound('The stored file of this trace is missing', 'trace.file-missing');
+      const stream = await deps.traceStore.read(trace.sha256);
       res.attachment(trace.fileName);
       res.type('text/plain; charset=utf-8');
-      await new Promise<void>((done, fail) => res.sendFile(path, { dotfiles: 'allow', cacheControl: false }, (error) => (error ? fail(error) : done())));
+      res.setHeader('Content-Length', String(trace.sizeBytes));
+      await pipeline(stream, res);
       return undefined;
     },
   }),
@@ -49,7 +49,7 @@ export const exportRoutes: RouteDef[] = [
       const trace = await findTrace(em, params.id);
       const store = deps.traceStore;
       const analysis = await loadAnalysis(store, trace);
-      const read = await deps.analysisPool.records(store.pathOf(trace.sha256), trace.format as TraceFormat, VECTOR_RECORD_LIMIT);
+      const read = await store.withLocalFile(trace.sha256, (path) => deps.analysisPool.records(path, trace.format as TraceFormat, VECTOR_RECORD_LIMIT));
       if (!read.ok) {
         const code = read.error.code === 'trace.too-many-records' ? 'trace.too-many-records' : 'trace.unreadable';
         throw badRequest(`The trace cannot be kept as a vector: ${read.error.message}`, code, { engineCode: read.error.code });

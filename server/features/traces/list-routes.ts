@@ -2,6 +2,7 @@
 import { raw } from '@mikro-orm/core';
 import { z } from 'zod';
 import { Trace, type ITrace } from '../../db/trace-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import { route, type RouteDef } from '../../route-def.ts';
 import { deviceMap, text } from './lookup.ts';
 import { presentTrace } from './present.ts';
@@ -29,7 +30,10 @@ export const listRoutes: RouteDef[] = [
       const where: Record<string, unknown>[] = [];
       if (query.q) {
         const like = `%${query.q}%`;
-        where.push({ $or: [{ title: { $like: like } }, { fileName: { $like: like } }, { customerRef: { $like: like } }, { notes: { $like: like } }, { summary: { $like: like } }, { rules: { $like: like } }] });
+        const op = likeOperator(em);
+        where.push({
+          $or: [{ title: { [op]: like } }, { fileName: { [op]: like } }, { customerRef: { [op]: like } }, { notes: { [op]: like } }, { summary: { [op]: like } }, { rules: { [op]: like } }],
+        });
       }
       if (query.deviceId) where.push({ deviceId: query.deviceId });
       if (query.uploaderId) where.push({ uploaderId: query.uploaderId });
@@ -48,9 +52,7 @@ export const listRoutes: RouteDef[] = [
         offset: (query.page - 1) * query.pageSize,
       });
       const devices = await deviceMap(em);
-      const uploaders = await em.getConnection().execute<{ id: number; name: string }[]>(
-        'select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name',
-      );
+      const uploaders = await em.getConnection().execute<{ id: number; name: string }[]>('select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name');
       return {
         items: traces.map((t) => presentTrace(t, devices)),
         total,

@@ -1,5 +1,5 @@
 /** What several trace routes share: the id parameter, the row lookup, devices by id, the stored analysis. */
-import { readFile } from 'node:fs/promises';
+import { buffer } from 'node:stream/consumers';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
 import { roleGroups } from '../../../shared/api/index.ts';
@@ -41,11 +41,7 @@ export function analysedOrConflict(trace: ITrace): void {
 /** The whole stored analysis as an object, for the few routes that compute from it (report, share, vector). */
 export async function loadAnalysis(store: TraceStore, trace: ITrace): Promise<StoredAnalysis> {
   analysedOrConflict(trace);
-  let bytes: Buffer;
-  try {
-    bytes = await readFile(store.analysisPathOf(trace.sha256));
-  } catch {
-    throw notFound('The stored analysis of this trace is missing', 'trace.analysis-missing');
-  }
-  return JSON.parse(await inflateStoredFile(bytes)) as StoredAnalysis;
+  const stream = await store.readAnalysis(trace.sha256);
+  if (!stream) throw notFound('The stored analysis of this trace is missing', 'trace.analysis-missing');
+  return JSON.parse(await inflateStoredFile(await buffer(stream))) as StoredAnalysis;
 }

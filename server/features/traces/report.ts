@@ -48,10 +48,9 @@ export function buildReport(trace: PresentedTrace, analysis: Omit<Analysis, 'tim
 
 export type TraceReport = ReturnType<typeof buildReport>;
 
-const escapeHtml = (text: string) =>
-  text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
-export function diagnosisMail(options: { to: string; senderName: string; note?: string; report: TraceReport }): OutgoingMail {
+export function diagnosisMail(options: { to: string; senderName: string; note?: string; report: TraceReport; shared?: { url: string; expiresAt: Date } }): OutgoingMail {
   const { report, senderName, note } = options;
   const t = report.trace;
   const listed = report.findings.slice(0, MAIL_FINDINGS);
@@ -68,7 +67,8 @@ export function diagnosisMail(options: { to: string; senderName: string; note?: 
     `Summary: ${report.summary}`,
     `Contracts:\n${contracts.map((c) => `- ${c}`).join('\n')}`,
     `Findings (${report.counts.error} errors, ${report.counts.warning} warnings, ${report.counts.info} notes):\n${findingLines.length > 0 ? findingLines.map((l) => `- ${l}`).join('\n') : '- none'}${more > 0 ? `\n- … and ${more} more on the trace page` : ''}`,
-    `Open the trace: ${t.link}`,
+    ...(options.shared ? [`Read the report (no account needed, until ${options.shared.expiresAt.toISOString().slice(0, 10)}): ${options.shared.url}`] : []),
+    `Open the trace (for people of your team with a Parley account): ${t.link}`,
     'Parley simulates and analyses; real adapters deliver up to 48 V and 5 A. Defer to the USB PD specification and certified test labs.',
     '— Parley',
   ].join('\n\n');
@@ -93,7 +93,8 @@ export function diagnosisMail(options: { to: string; senderName: string; note?: 
       ? `<table style="border-collapse: collapse; font-size: 0.92em"><thead><tr><th align="left">Severity</th><th align="left">Rule</th><th align="left">Time</th><th align="left">What happened</th></tr></thead><tbody>${rows}</tbody></table>`
       : '<p>No findings.</p>',
     more > 0 ? `<p>… and ${more} more on the trace page.</p>` : '',
-    `<p><a href="${escapeHtml(t.link)}">Open the trace in Parley</a></p>`,
+    options.shared ? `<p><a href="${escapeHtml(options.shared.url)}"><strong>Read the report</strong></a> (no account needed, until ${options.shared.expiresAt.toISOString().slice(0, 10)})</p>` : '',
+    `<p><a href="${escapeHtml(t.link)}">Open the trace in Parley</a> (for people of your team with an account)</p>`,
     '<p style="color: #616e7c; font-size: 0.9em">Parley simulates and analyses; real adapters deliver up to 48 V and 5 A. Defer to the USB PD specification and certified test labs.</p>',
     '<p>— Parley</p>',
     '</body></html>',

@@ -14,11 +14,11 @@ describe('sniffTrace', () => {
     const empty = sniffTrace(new Uint8Array(0), true);
     expect(empty.ok).toBe(false);
     const png = sniffTrace(Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d]), true);
-    expect(png).toMatchObject({ ok: false, message: expect.stringContaining('binary') });
+    expect(png).toMatchObject({ ok: false, error: { code: 'trace.not-a-trace', message: expect.stringContaining('binary') } });
     const prose = sniffTrace(bytes('Dear support,\nmy laptop charges slowly.\n'), true);
-    expect(prose).toMatchObject({ ok: false, message: expect.stringContaining('line 1') });
+    expect(prose).toMatchObject({ ok: false, error: { code: 'trace.not-a-trace', message: expect.stringContaining('line 1') } });
     const json = sniffTrace(bytes('{\n  "name": "not a trace"\n}\n'), true);
-    expect(json).toMatchObject({ ok: false, message: expect.stringContaining('JSON Lines') });
+    expect(json).toMatchObject({ ok: false, error: { code: 'trace.not-a-trace', message: expect.stringContaining('JSON Lines') } });
   });
 
   it('ignores a line cut at the end of the kilobyte and accepts a head of comments only', () => {

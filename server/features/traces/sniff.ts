@@ -6,10 +6,11 @@
  * analysed in full; lines broken further down become `trace.malformed-line` findings.
  */
 import { createReader, detectFormat, type TraceFormat } from '../../../shared/trace/index.ts';
+import { fail, type Result } from '../../../shared/core/result.ts';
 
 export const SNIFF_BYTES = 1024;
 
-export type SniffResult = { ok: true; format: TraceFormat } | { ok: false; message: string };
+export type SniffResult = Result<{ format: TraceFormat }>;
 
 const FORMATS_READ = 'Parley reads JSON Lines (.trace.jsonl), plain-text logs and VCD captures of the CC wire';
 const VCD_KEYWORD = /^\s*\$(date|version|timescale|scope|var|comment|upscope|enddefinitions|dumpvars)\b/;
@@ -26,17 +27,15 @@ function looksBinary(head: Uint8Array): boolean {
 
 /** `head`: the first bytes of the file; `complete`: whether that is the whole file. */
 export function sniffTrace(head: Uint8Array, complete: boolean): SniffResult {
-  if (head.length === 0) return { ok: false, message: `The file is empty. ${FORMATS_READ}.` };
-  if (looksBinary(head)) return { ok: false, message: `This looks like a binary file, not a trace. ${FORMATS_READ}.` };
+  if (head.length === 0) return fail('trace.not-a-trace', `The file is empty. ${FORMATS_READ}.`);
+  if (looksBinary(head)) return fail('trace.not-a-trace', `This looks like a binary file, not a trace. ${FORMATS_READ}.`);
   let text = new TextDecoder('utf-8').decode(head);
   // A multi-byte character cut at the end of the kilobyte decodes to U+FFFD; anything else is not UTF-8.
   const bad = (text.slice(0, -1).match(/\uFFFD/g) ?? []).length;
-  if (bad > 4) return { ok: false, message: `The file is not UTF-8 text, so it is not a trace. ${FORMATS_READ}.` };
+  if (bad > 4) return fail('trace.not-a-trace', `The file is not UTF-8 text, so it is not a trace. ${FORMATS_READ}.`);
   const format = detectFormat(text);
   if (format === 'vcd') {
-    return VCD_KEYWORD.test(text.replace(/^\uFEFF/, ''))
-      ? { ok: true, format }
-      : { ok: false, message: `The file starts with "$" but no VCD declaration ($timescale, $var, …). ${FORMATS_READ}.` };
+    return VCD_KEYWORD.test(text.replace(/^\uFEFF/, '')) ? { ok: true, format } : fail('trace.not-a-trace', `The file starts with "$" but no VCD declaration ($timescale, $var, …). ${FORMATS_READ}.`);
   }
   // Only complete lines: the last one may be cut at the kilobyte.
   if (!complete) {
@@ -56,5 +55,5 @@ export function sniffTrace(head: Uint8Array, complete: boolean): SniffResult {
   reader.end();
   if (records > 0 || headers > 0 || !first) return { ok: true, format };
   const what = format === 'jsonl' ? 'JSON Lines' : 'a plain-text trace';
-  return { ok: false, message: `This is not a trace: no line at the start reads as ${what} (line ${first.line}: ${first.reason}). ${FORMATS_READ}.` };
+  return fail('trace.not-a-trace', `This is not a trace: no line at the start reads as ${what} (line ${first.line}: ${first.reason}). ${FORMATS_READ}.`);
 }

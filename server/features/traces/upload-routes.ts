@@ -21,7 +21,6 @@ import { sendWithStoredAnalysis } from './send-analysis.ts';
 import { sniffTrace } from './sniff.ts';
 import { hashingStorage, type ReceivedTrace } from './store.ts';
 
-
 const uploadBody = z.object({
   title: text(200).default(''),
   /** The device under test; an empty form field means none. */
@@ -76,7 +75,7 @@ type UploadContext = RouteContext<z.infer<typeof uploadBody>, z.infer<typeof upl
 async function answer(ctx: UploadContext, trace: ITrace, extra: Record<string, unknown> = {}) {
   const store = ctx.deps.traceStore;
   const presented = presentTrace(trace, await deviceMap(ctx.em));
-  return sendWithStoredAnalysis(ctx.req, ctx.res, { trace: presented, ...extra }, trace.status === 'done' ? store.analysisPathOf(trace.sha256) : null);
+  return sendWithStoredAnalysis(ctx.req, ctx.res, { trace: presented, ...extra }, trace.status === 'done' ? await store.readAnalysis(trace.sha256) : null);
 }
 
 /** Sniff, dedupe, store, analyse: the upload once multer has the file on disk. */
@@ -84,7 +83,7 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   const { res, body, query, em, deps } = ctx;
   const me = currentUser(ctx);
   const sniffed = sniffTrace(file.head, file.size <= file.head.length);
-  if (!sniffed.ok) throw badRequest(sniffed.message, 'trace.not-a-trace');
+  if (!sniffed.ok) throw badRequest(sniffed.error.message, 'trace.not-a-trace');
   if (body.deviceId !== null && !(await em.findOne(DeviceUnderTest, { id: body.deviceId }))) {
     throw badRequest('deviceId: no device under test has that id', 'input.invalid');
   }
@@ -112,7 +111,12 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
     notes: body.notes,
     createdAt: deps.clock.now(),
   });
-  recordAudit(em, deps.clock, { actor: me, action: 'trace.uploaded', target: `trace:${file.sha256.slice(0, 12)}`, details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format } });
+  recordAudit(em, deps.clock, {
+    actor: me,
+    action: 'trace.uploaded',
+    target: `trace:${file.sha256.slice(0, 12)}`,
+    details: { fileName: trace.fileName, sizeBytes: file.size, format: sniffed.format },
+  });
   try {
     await em.flush();
   } catch (error) {

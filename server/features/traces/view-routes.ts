@@ -47,7 +47,7 @@ export const viewRoutes: RouteDef[] = [
     async handler({ req, res, em, params, deps }) {
       const trace = await findTrace(em, params.id);
       const fields = { trace: presentTrace(trace, await deviceMap(em)), progress: progressOf(deps, trace) };
-      return sendWithStoredAnalysis(req, res, fields, trace.status === 'done' ? deps.traceStore.analysisPathOf(trace.sha256) : null);
+      return sendWithStoredAnalysis(req, res, fields, trace.status === 'done' ? await deps.traceStore.readAnalysis(trace.sha256) : null);
     },
   }),
   route({

@@ -49,10 +49,11 @@ export async function itemPage<T>(
   const params: unknown[] = options.severity === undefined ? [traceId, kind] : [traceId, kind, options.severity];
   const sql = sqlOf(em);
   const [counted] = await sql.execute<{ total: number }[]>(`select count(*) as total from trace_item where trace_id = ? and kind = ?${filter}`, params);
-  const rows = await sql.execute<{ item_index: number; body: string }[]>(
-    `select item_index, body from trace_item where trace_id = ? and kind = ?${filter} order by item_index limit ? offset ?`,
-    [...params, options.pageSize, (options.page - 1) * options.pageSize],
-  );
+  const rows = await sql.execute<{ item_index: number; body: string }[]>(`select item_index, body from trace_item where trace_id = ? and kind = ?${filter} order by item_index limit ? offset ?`, [
+    ...params,
+    options.pageSize,
+    (options.page - 1) * options.pageSize,
+  ]);
   return {
     items: rows.map((row) => ({ ...(JSON.parse(row.body) as T), index: Number(row.item_index) })),
     total: Number(counted?.total ?? 0),
@@ -117,15 +118,8 @@ export async function timelineWindow(em: EntityManager, traceId: number, q: Wind
   const fitting = levels.find((l) => Number(l.total) <= q.points * 1.5 + 2 * 500) ?? levels[levels.length - 1];
   const measurementLevel = fitting ? Number(fitting.level) : 0;
   const inWindow = (t: number) => t >= q.startUs && t <= q.endUs;
-  const measurements = fitting
-    ? collect<TimelineMeasurement>(await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false).items
-    : [];
-  const messages = collect<StoredTimelineMessage & { index: number }>(
-    await overlapping(em, traceId, 'message', 0, q),
-    (m) => m.t + m.durationUs >= q.startUs && m.t <= q.endUs,
-    q.limit,
-    true,
-  );
+  const measurements = fitting ? collect<TimelineMeasurement>(await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false).items : [];
+  const messages = collect<StoredTimelineMessage & { index: number }>(await overlapping(em, traceId, 'message', 0, q), (m) => m.t + m.durationUs >= q.startUs && m.t <= q.endUs, q.limit, true);
   const events = collect<TimelineEvent>(await overlapping(em, traceId, 'event', 0, q), (e) => inWindow(e.t), q.limit, false);
   const contracts = collect<TimelineContract>(await overlapping(em, traceId, 'contract', 0, q), (c) => (c.endUs ?? Number.POSITIVE_INFINITY) >= q.startUs && c.startUs <= q.endUs, q.limit, false);
   const [pinCount] = await sql.execute<{ total: number }[]>("select count(*) as total from trace_item where trace_id = ? and kind = 'finding' and t >= ? and t <= ?", [traceId, q.startUs, q.endUs]);

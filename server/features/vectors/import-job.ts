@@ -59,7 +59,7 @@ export function vectorImportHandler(deps: { fork(): EntityManager; clock: Clock;
 async function importZip(deps: { fork(): EntityManager; clock: Clock }, payload: ImportPayload, job: JobContext<ImportEvent>): Promise<ImportEvent> {
   job.publish({ type: 'progress', phase: 'reading', done: 0, total: 0 });
   const read = await readLibraryZip(new Uint8Array(await readFile(payload.zipPath)));
-  if (!read.ok) return { type: 'failed', error: { code: 'vector.bad-zip', message: read.message } };
+  if (!read.ok) return { type: 'failed', error: { code: 'vector.bad-zip', message: read.error.message } };
 
   const issues: ImportIssue[] = [];
   const checked = new Map<string, { file: string; checked: CheckedVector }>();
@@ -86,7 +86,10 @@ async function importZip(deps: { fork(): EntityManager; clock: Clock }, payload:
     await yieldToLoop();
   }
   if (issues.length > 0) {
-    const first = issues.slice(0, 3).map((i) => `${i.file}: ${i.message}`).join('; ');
+    const first = issues
+      .slice(0, 3)
+      .map((i) => `${i.file}: ${i.message}`)
+      .join('; ');
     return { type: 'failed', error: { code: 'vector.import-invalid', message: `Nothing was imported: ${issues.length} file(s) are not valid vectors. ${first}`, details: issues } };
   }
 

@@ -5,7 +5,6 @@ import { DeviceUnderTest } from '../../db/entities.ts';
 import { RunResult, type ITeamVector, type IVectorRevision } from '../../db/library-entities.ts';
 import { tagsOf } from './store.ts';
 
-
 export async function deviceRefs(em: EntityManager): Promise<Map<number, DeviceRef>> {
   const devices = await em.find(DeviceUnderTest, {}, { fields: ['id', 'name'] });
   return new Map(devices.map((d) => [d.id, { id: d.id, name: d.name ?? '' }]));
@@ -31,17 +30,20 @@ function metaOf(row: ITeamVector, devices: Map<number, DeviceRef>): VectorMeta {
  */
 export function presentVector(row: ITeamVector, devices: Map<number, DeviceRef>): StoredVector {
   return {
-    id: row.vectorId, ...fileOf(row), revision: row.revision, deviceId: row.deviceId ?? null, meta: metaOf(row, devices) };
+    id: row.vectorId,
+    ...fileOf(row),
+    revision: row.revision,
+    deviceId: row.deviceId ?? null,
+    meta: metaOf(row, devices),
+  };
 }
-
 
 /** The newest stored result of each vector id. */
 export async function lastResults(em: EntityManager, vectorIds: readonly string[]): Promise<Map<string, LastResult>> {
   if (vectorIds.length === 0) return new Map();
-  const rows = await em.getConnection().execute<{ id: number }[]>(
-    `select max(id) as id from run_result where vector_id in (${vectorIds.map(() => '?').join(', ')}) group by vector_id`,
-    [...vectorIds],
-  );
+  const rows = await em
+    .getConnection()
+    .execute<{ id: number }[]>(`select max(id) as id from run_result where vector_id in (${vectorIds.map(() => '?').join(', ')}) group by vector_id`, [...vectorIds]);
   const results = await em.find(RunResult, { id: { $in: rows.map((r) => Number(r.id)) } });
   return new Map(results.map((r) => [r.vectorId, { runId: r.runId, ok: r.ok, message: r.message ?? null, at: r.createdAt.toISOString() }]));
 }

@@ -2,13 +2,14 @@
  * The library's filter (search words, tag, kind, device) as SQL, shared by the list, the zip export
  * and "Run filtered". Search words go through the full-text index (SQLite FTS5 `team_vector_search`,
  * kept in step with `team_vector` by triggers; migration TeamVectorSearch): each word matches a
- * token that starts with it, in the id, title, tags or file text. Everything else is an indexed
- * column. The statements are plain SQL apart from `searchCondition`, the one place a PostgreSQL
- * variant (`to_tsvector(...) @@ to_tsquery(...)` over a GIN index) sits beside the FTS5 one.
+ * token that starts with it, in the id, title, tags or file text; on PostgreSQL the same question
+ * goes to a generated tsvector column with a GIN index (`tsQuery`). Everything else is an indexed
+ * column, in SQL both dialects read alike.
  */
 import { z } from 'zod';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { VECTOR_KINDS } from '../../../shared/vectors/index.ts';
+import { likeOperator } from '../../db/orm.ts';
 
 const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
 
@@ -32,24 +33,41 @@ export function ftsQuery(q: string): string | null {
   return words.length === 0 ? null : words.map((w) => `"${w.replace(/"/g, '""')}"*`).join(' AND ');
 }
 
-/** The dialect-specific part: rows whose search document matches. */
-function searchCondition(): string {
-  return 'v.id in (select rowid from team_vector_search where team_vector_search match ?)';
+/**
+ * The same words for PostgreSQL's full-text search (migration TeamVectorSearch there): each word
+ * cut into its letters-and-digits runs as unicode61 cuts it, the runs of one word in sequence
+ * (`<->`, as FTS5 reads a quoted word as a phrase), the last a prefix (`:*`), words joined by `&`.
+ */
+export function tsQuery(q: string): string | null {
+  const words = q
+    .split(/\s+/)
+    .map((w) => w.split(/[^\p{L}\p{N}]+/u).filter((part) => part !== ''))
+    .filter((parts) => parts.length > 0)
+    .slice(0, 8);
+  return words.length === 0 ? null : words.map((parts) => `(${parts.map((part, i) => (i === parts.length - 1 ? `${part}:*` : part)).join(' <-> ')})`).join(' & ');
 }
 
-/** `where` text (with `v` as the team_vector alias) and its parameters. */
-export function vectorWhereSql(filter: VectorFilter): { sql: string; params: unknown[] } {
+type Dialect = 'sqlite' | 'postgresql';
+
+/** Which SQL the filter is written in (server/db/orm.ts opens either). */
+export function dialectOf(em: EntityManager): Dialect {
+  return likeOperator(em) === '$ilike' ? 'postgresql' : 'sqlite';
+}
+
+/** `where` text (with `v` as the team_vector alias) and its parameters; `?` placeholders in both dialects. */
+export function vectorWhereSql(filter: VectorFilter, dialect: Dialect): { sql: string; params: unknown[] } {
   const parts: string[] = [];
   const params: unknown[] = [];
-  const query = filter.q ? ftsQuery(filter.q) : null;
+  const query = filter.q ? (dialect === 'postgresql' ? tsQuery(filter.q) : ftsQuery(filter.q)) : null;
   if (filter.q && query === null) parts.push('1 = 0');
   if (query !== null) {
-    parts.push(searchCondition());
+    // The dialect-specific part: rows whose search document matches.
+    parts.push(dialect === 'postgresql' ? "v.search @@ to_tsquery('simple', ?)" : 'v.id in (select rowid from team_vector_search where team_vector_search match ?)');
     params.push(query);
   }
   if (filter.tag) {
-    // The column holds the tags between spaces: an exact tag, not a part of one.
-    parts.push("v.tags like ? escape '\\'");
+    // The column holds the tags between spaces: an exact tag, not a part of one (any case, as SQLite's LIKE).
+    parts.push(`v.tags ${dialect === 'postgresql' ? 'ilike' : 'like'} ? escape '\\'`);
     params.push(`% ${filter.tag.replace(/[\\%_]/g, (c) => `\\${c}`)} %`);
   }
   if (filter.kind) {
@@ -65,7 +83,7 @@ export function vectorWhereSql(filter: VectorFilter): { sql: string; params: unk
 
 /** Vector ids matching the filter, in id order. */
 export async function matchingVectorIds(em: EntityManager, filter: VectorFilter): Promise<string[]> {
-  const where = vectorWhereSql(filter);
+  const where = vectorWhereSql(filter, dialectOf(em));
   const rows = await em.getConnection().execute<{ vector_id: string }[]>(`select v.vector_id from team_vector v ${where.sql} order by v.vector_id`, where.params);
   return rows.map((r) => r.vector_id);
 }

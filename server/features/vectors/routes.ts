@@ -4,12 +4,13 @@ import { MAX_IMPORT_ZIP_BYTES, roleGroups } from '../../../shared/api/index.ts';
 import { createTwoFilesPatch, diffLines } from 'diff';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-entities.ts';
+import { likeOperator } from '../../db/orm.ts';
 import { badRequest, HttpError, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { deviceRefs, lastResults, presentListItem, presentRevision, presentVector } from './present.ts';
-import { matchingVectorIds, vectorFilterFields, vectorWhereSql } from './query.ts';
+import { dialectOf, matchingVectorIds, vectorFilterFields, vectorWhereSql } from './query.ts';
 import { libraryChanged, libraryTagCounts } from './tag-counts.ts';
 import { checkDevice, checkVectorFile, createVector, findVector, reviseVector, type CheckedVector } from './store.ts';
 import { libraryZip } from './zip.ts';
@@ -79,19 +80,23 @@ export const vectorsRoutes: RouteDef[] = [
       const { sort, page, pageSize, ...filter } = query;
       const direction = sort.startsWith('-') ? 'desc' : 'asc';
       const column = sortSql[sort.replace(/^-/, '') as (typeof sortKeys)[number]];
-      const where = vectorWhereSql(filter);
+      const where = vectorWhereSql(filter, dialectOf(em));
       const sql = em.getConnection();
       // One page of rows and the count, both through the indexes; never every row.
       const [counted] = await sql.execute<{ total: number }[]>(`select count(*) as total from team_vector v ${where.sql}`, where.params);
-      const ids = await sql.execute<{ id: number }[]>(
-        `select v.id from team_vector v ${where.sql} order by ${column} ${direction}, v.vector_id asc limit ? offset ?`,
-        [...where.params, pageSize, (page - 1) * pageSize],
-      );
+      const ids = await sql.execute<{ id: number }[]>(`select v.id from team_vector v ${where.sql} order by ${column} ${direction}, v.vector_id asc limit ? offset ?`, [
+        ...where.params,
+        pageSize,
+        (page - 1) * pageSize,
+      ]);
       const found = await em.find(TeamVector, { id: { $in: ids.map((r) => Number(r.id)) } });
       const byId = new Map(found.map((row) => [row.id, row]));
       const rows = ids.flatMap((r) => byId.get(Number(r.id)) ?? []);
       const devices = await deviceRefs(em);
-      const last = await lastResults(em, rows.map((r) => r.vectorId));
+      const last = await lastResults(
+        em,
+        rows.map((r) => r.vectorId),
+      );
       return {
         items: rows.map((row) => presentListItem(row, devices, last.get(row.vectorId))),
         total: Number(counted?.total ?? 0),
@@ -152,7 +157,8 @@ export const vectorsRoutes: RouteDef[] = [
     async handler({ req, res, params, deps }) {
       await streamJobEvents(req, res, deps.jobs, vectorImportJob, params.key, {
         heartbeat: 'still importing',
-        snapshot: async () => deps.jobs.latest(vectorImportJob, params.key) ?? { type: 'failed', error: { code: 'vector.import-unknown', message: 'No import with that key is running or recently finished.' } },
+        snapshot: async () =>
+          deps.jobs.latest(vectorImportJob, params.key) ?? { type: 'failed', error: { code: 'vector.import-unknown', message: 'No import with that key is running or recently finished.' } },
       });
       return undefined;
     },
@@ -168,6 +174,8 @@ export const vectorsRoutes: RouteDef[] = [
       const checked = checkVectorFile(body);
       await checkDevice(em, body.deviceId);
       const row = await createVector(em, deps.clock, me, { checked, deviceId: body.deviceId ?? null, message: body.message || 'Created' });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.created', target: `vector:${row.vectorId}`, details: { revision: row.revision } });
+      await em.flush();
       res.status(201);
       return presentVector(row, await deviceRefs(em));
     },
@@ -194,6 +202,8 @@ export const vectorsRoutes: RouteDef[] = [
       const checked = checkVectorFile(body);
       await checkDevice(em, body.deviceId);
       const saved = await reviseVector(em, deps.clock, me, row, { checked, deviceId: body.deviceId, message: body.message || `Revision ${body.revision + 1}`, baseRevision: body.revision });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.updated', target: `vector:${saved.vectorId}`, details: { revision: saved.revision } });
+      await em.flush();
       return presentVector(saved, await deviceRefs(em));
     },
   }),
@@ -268,6 +278,8 @@ export const vectorsRoutes: RouteDef[] = [
       const old = await findRevision(em, row, body.revision);
       const checked = checkVectorFile(JSON.parse(old.text), `revision ${body.revision}`);
       const saved = await reviseVector(em, deps.clock, me, row, { checked, message: body.message || `Restored revision ${body.revision}`, baseRevision: row.revision });
+      recordAudit(em, deps.clock, { actor: me, action: 'vector.restored', target: `vector:${saved.vectorId}`, details: { from: body.revision, revision: saved.revision } });
+      await em.flush();
       return presentVector(saved, await deviceRefs(em));
     },
   }),

@@ -104,13 +104,7 @@ export function staleDetails(row: ITeamVector): StaleDetails {
  * revision (a conditional UPDATE), so of two concurrent saves exactly one wins; the other gets
  * 409 `vector.stale` with the stored vector in `details`.
  */
-export async function reviseVector(
-  em: EntityManager,
-  clock: Clock,
-  user: Pick<IUser, 'id' | 'name'>,
-  row: ITeamVector,
-  input: WriteInput & { baseRevision: number },
-): Promise<ITeamVector> {
+export async function reviseVector(em: EntityManager, clock: Clock, user: Pick<IUser, 'id' | 'name'>, row: ITeamVector, input: WriteInput & { baseRevision: number }): Promise<ITeamVector> {
   const { vector, text } = input.checked;
   if (vector.id !== row.vectorId) {
     throw badRequest(`id: a saved vector keeps its id ("${row.vectorId}"); to rename, create a new vector and delete this one`, 'input.invalid');

@@ -5,6 +5,7 @@
  */
 import { MAX_IMPORT_BYTES, MAX_IMPORT_FILES } from '../../../shared/api/index.ts';
 import { strFromU8, strToU8, Unzip, UnzipInflate, UnzipPassThrough, zipSync, type Zippable } from 'fflate';
+import { fail, type Result } from '../../../shared/core/result.ts';
 
 export const ZIP_FOLDER = 'vectors';
 /** DOS time stamps start in 1980; a fixed one keeps exports byte-stable. */
@@ -18,7 +19,7 @@ export function libraryZip(files: readonly { vectorId: string; text: string }[])
   return zipSync(entries, { level: 6, mtime: FIXED_MTIME });
 }
 
-export type ZipRead = { ok: true; files: { name: string; text: string }[] } | { ok: false; message: string };
+export type ZipRead = Result<{ files: { name: string; text: string }[] }>;
 
 /** Compressed bytes handed to the inflater at a time: with DEFLATE's ~1:1032 ceiling, at most ~4 MB comes out of one push. */
 const PUSH_BYTES = 4 * 1024;
@@ -81,9 +82,9 @@ export async function readLibraryZip(bytes: Uint8Array, yieldToLoop: () => Promi
   } catch (error) {
     failure ??= `file: not a readable zip archive (${error instanceof Error ? error.message : String(error)})`;
   }
-  if (failure) return { ok: false, message: failure };
-  if (bytes.length < 22 || !(bytes[0] === 0x50 && bytes[1] === 0x4b)) return { ok: false, message: 'file: not a readable zip archive (no zip signature)' };
-  if (files.length === 0) return { ok: false, message: 'file: the zip holds no *.vector.json files' };
+  if (failure) return fail('vector.bad-zip', failure);
+  if (bytes.length < 22 || !(bytes[0] === 0x50 && bytes[1] === 0x4b)) return fail('vector.bad-zip', 'file: not a readable zip archive (no zip signature)');
+  if (files.length === 0) return fail('vector.bad-zip', 'file: the zip holds no *.vector.json files');
   files.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
   return { ok: true, files };
 }

@@ -58,22 +58,14 @@ export function SideNav({ id, role, open, onClose }: SideNavProps) {
               return (
                 <div key={section.id}>
                   {section.id !== 'home' && (
-                    <p
-                      id={headingId}
-                      className="mb-1.5 px-2.5 font-mono text-[10.5px] font-medium tracking-widest text-slate-500 uppercase dark:text-slate-400"
-                    >
+                    <p id={headingId} className="mb-1.5 px-2.5 font-mono text-[10.5px] font-medium tracking-widest text-slate-500 uppercase dark:text-slate-400">
                       {section.label}
                     </p>
                   )}
                   <ul className="space-y-0.5" aria-labelledby={section.id === 'home' ? undefined : headingId}>
                     {section.entries.map((entry) => (
                       <li key={entry.to}>
-                        <NavLink
-                          to={entry.to}
-                          end={entry.to === paths.home.path}
-                          onClick={onClose}
-                          className={({ isActive }) => cn(linkBase, isActive && linkActive)}
-                        >
+                        <NavLink to={entry.to} end={entry.to === paths.home.path} onClick={onClose} className={({ isActive }) => cn(linkBase, isActive && linkActive)}>
                           {entry.label}
                         </NavLink>
                       </li>

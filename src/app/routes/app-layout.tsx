@@ -52,11 +52,7 @@ export function AppLayout() {
             <Link to={paths.home.getHref()} className="flex min-w-0 shrink-0 items-center gap-2.5 rounded-md px-1" aria-label="Parley home">
               <ParleyMark className="size-7 shrink-0" />
               <span className="text-[15px] font-semibold tracking-tight">Parley</span>
-              {organisation && (
-                <span className="hidden border-l border-slate-700 pl-2.5 font-mono text-[11px] whitespace-nowrap text-slate-400 md:inline">
-                  {organisation.name}
-                </span>
-              )}
+              {organisation && <span className="hidden border-l border-slate-700 pl-2.5 font-mono text-[11px] whitespace-nowrap text-slate-400 md:inline">{organisation.name}</span>}
             </Link>
             <div className="ml-auto flex items-center gap-3">
               <ThemeSwitch />
@@ -66,10 +62,7 @@ export function AppLayout() {
           {/* The signal line: amber while a page loads, a quiet rule otherwise. */}
           <div
             aria-hidden="true"
-            className={cn(
-              'h-0.5 bg-gradient-to-r from-amber-500 via-amber-400/40 to-transparent transition-opacity',
-              navigation.state === 'idle' ? 'opacity-40' : 'animate-pulse opacity-100',
-            )}
+            className={cn('h-0.5 bg-gradient-to-r from-amber-500 via-amber-400/40 to-transparent transition-opacity', navigation.state === 'idle' ? 'opacity-40' : 'animate-pulse opacity-100')}
           />
         </header>
         <div className="flex flex-1">

@@ -12,8 +12,12 @@ function ExchangeSketch() {
   ] as const;
   return (
     <svg viewBox="0 0 280 170" className="w-full max-w-sm" role="img" aria-label="A power negotiation: offer, request, accept, power ready">
-      <text x="24" y="12" className="fill-slate-400 font-mono text-[9px]">SOURCE</text>
-      <text x="226" y="12" className="fill-slate-400 font-mono text-[9px]">SINK</text>
+      <text x="24" y="12" className="fill-slate-400 font-mono text-[9px]">
+        SOURCE
+      </text>
+      <text x="226" y="12" className="fill-slate-400 font-mono text-[9px]">
+        SINK
+      </text>
       <line x1="40" y1="18" x2="40" y2="160" className="stroke-slate-600" strokeDasharray="2 3" />
       <line x1="240" y1="18" x2="240" y2="160" className="stroke-slate-600" strokeDasharray="2 3" />
       {steps.map((step) => {
@@ -48,12 +52,8 @@ export function AuthLayout() {
         </div>
         <div className="relative space-y-6">
           <ExchangeSketch />
-          <p className="max-w-sm text-xl leading-snug font-medium text-white">
-            Replay, check and explain USB Power Delivery negotiations.
-          </p>
-          <p className="max-w-sm text-sm text-slate-400">
-            Decode field logs, keep a library of test vectors, inject faults into simulated exchanges.
-          </p>
+          <p className="max-w-sm text-xl leading-snug font-medium text-white">Replay, check and explain USB Power Delivery negotiations.</p>
+          <p className="max-w-sm text-sm text-slate-400">Decode field logs, keep a library of test vectors, inject faults into simulated exchanges.</p>
         </div>
         <p className="relative font-mono text-[11px] text-slate-500">USB PD · Type-C · simulated, never live</p>
       </aside>

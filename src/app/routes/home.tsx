@@ -23,7 +23,7 @@ const roleSummaries: Record<Role, { lead: string; points: string[]; startWith: s
     lead: 'You build chargers, power banks and devices, and use Parley to see how they negotiate.',
     points: [
       'Simulate a negotiation on the Bench with faults injected, and watch the contract that results.',
-      'Decode single messages, check a source\'s offers and analyse the traces you capture.',
+      "Decode single messages, check a source's offers and analyse the traces you capture.",
       'Write test vectors and properties for your firmware.',
     ],
     startWith: [paths.bench.path, paths.decoder.path],
@@ -41,17 +41,14 @@ const roleSummaries: Record<Role, { lead: string; points: string[]; startWith: s
     lead: 'You help customers whose devices charge slowly or not at all.',
     points: [
       'Upload a log from the field: Parley decodes it, checks it against the USB PD rules and says what went wrong.',
-      'Check an adapter\'s offers, decode a single message, and share a diagnosis by e-mail or as a printable report.',
+      "Check an adapter's offers, decode a single message, and share a diagnosis by e-mail or as a printable report.",
       'Read the vector library to compare a report with known behaviour.',
     ],
     startWith: [paths.traces.index.path, paths.offers.path],
   },
   viewer: {
     lead: 'You can read what the team has stored; nothing you do changes it.',
-    points: [
-      'Read traces and their findings, the vector library and every run.',
-      'Use the Decoder, Offers and the Bench; what you try there is not saved.',
-    ],
+    points: ['Read traces and their findings, the vector library and every run.', 'Use the Decoder, Offers and the Bench; what you try there is not saved.'],
     startWith: [paths.traces.index.path, paths.library.index.path],
   },
 };
@@ -156,8 +153,8 @@ export function HomeRoute() {
           <path d="M10 1.5 19 17.5H1L10 1.5Zm-.9 6v5h1.8v-5H9.1Zm0 6.5v1.8h1.8V14H9.1Z" />
         </svg>
         <p>
-          Parley simulates; it never switches power. Real adapters deliver up to 48 V and 5 A. When you work on hardware, defer to
-          the USB Power Delivery specification, certified test labs and your local electrical codes.
+          Parley simulates; it never switches power. Real adapters deliver up to 48 V and 5 A. When you work on hardware, defer to the USB Power Delivery specification, certified test labs and your
+          local electrical codes.
         </p>
       </aside>
     </>

@@ -45,9 +45,12 @@ export const OverviewBrush = memo(function OverviewBrush({ points, endUs, window
   const frame = useRef<number | null>(null);
   const pending = useRef<TimeWindow | null>(null);
   const [preview, setPreview] = useState<TimeWindow | null>(null);
-  useEffect(() => () => {
-    if (frame.current !== null) cancelAnimationFrame(frame.current);
-  }, []);
+  useEffect(
+    () => () => {
+      if (frame.current !== null) cancelAnimationFrame(frame.current);
+    },
+    [],
+  );
 
   const path = useMemo(() => {
     const endMs = Math.max(1e-3, endUs / 1_000);

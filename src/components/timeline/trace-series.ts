@@ -43,6 +43,65 @@ export function windowSeries(measurements: readonly Measurement[], window: TimeW
   return { vbusV: thin(vbusV, maxPoints), ibusA: thin(ibusA, maxPoints) };
 }
 
+export type StepPoint = { tMs: number; value: number | null };
+export type StepSeries = { vbusV: StepPoint[]; ibusA: StepPoint[]; readings: number };
+
+/**
+ * A stretch without readings longer than this many times the window's median spacing is a gap in
+ * the log, drawn as a break rather than a held value (our own choice: a logger that samples
+ * every 250 ms and then says nothing for 3 s has lost the signal, not seen a flat line).
+ */
+export const GAP_FACTOR = 10;
+
+function medianSpacingUs(times: readonly number[]): number {
+  if (times.length < 2) return Infinity;
+  const step = Math.max(1, Math.floor((times.length - 1) / 512));
+  const spacings: number[] = [];
+  for (let index = step; index < times.length; index += step) spacings.push(times[index]! - times[index - step]!);
+  spacings.sort((a, b) => a - b);
+  return Math.max(1, spacings[spacings.length >> 1]! / step);
+}
+
+/** Thins each run between gaps on its own and joins them with a break (a null point). */
+function stepsWithGaps(points: SeriesPoint[], maxPoints: number): StepPoint[] {
+  if (points.length === 0) return [];
+  const gapMs = (medianSpacingUs(points.map((p) => p.tMs * 1_000)) * GAP_FACTOR) / 1_000;
+  const runs: SeriesPoint[][] = [[]];
+  for (let index = 0; index < points.length; index++) {
+    const p = points[index]!;
+    const before = points[index - 1];
+    if (before && p.tMs - before.tMs > gapMs) runs.push([]);
+    runs[runs.length - 1]!.push(p);
+  }
+  const out: StepPoint[] = [];
+  for (const run of runs) {
+    if (out.length > 0) out.push({ tMs: (out[out.length - 1]!.tMs + run[0]!.tMs) / 2, value: null });
+    out.push(...thin(run, Math.max(2, Math.round((maxPoints * run.length) / points.length))));
+  }
+  return out;
+}
+
+/**
+ * The window's readings as held values: each reading holds until the next one (the chart draws
+ * steps, so nothing is drawn that was never measured), a break where the log has a gap, and
+ * nothing before the first or after the last reading. One reading either side of the window so
+ * the held value reaches its edges; `readings` is how many fall inside it.
+ */
+export function windowSteps(measurements: readonly Measurement[], window: TimeWindow, maxPoints = 800): StepSeries {
+  const inside = firstAtOrAfter(measurements, window.startUs);
+  const after = firstAtOrAfter(measurements, window.endUs + 1);
+  const from = Math.max(0, inside - 1);
+  const to = Math.min(measurements.length, after + 1);
+  const vbusV: SeriesPoint[] = [];
+  const ibusA: SeriesPoint[] = [];
+  for (let index = from; index < to; index++) {
+    const m = measurements[index]!;
+    vbusV.push({ tMs: m.t / 1_000, value: m.mv / 1_000 });
+    if (m.ma !== undefined) ibusA.push({ tMs: m.t / 1_000, value: m.ma / 1_000 });
+  }
+  return { vbusV: stepsWithGaps(vbusV, maxPoints), ibusA: stepsWithGaps(ibusA, maxPoints), readings: after - inside };
+}
+
 /** A zoom window of `spanUs` centred on `tUs`, kept inside [0, endUs]. */
 export function windowAround(tUs: number, spanUs: number, endUs: number): TimeWindow {
   const span = Math.min(Math.max(1, spanUs), Math.max(1, endUs));

@@ -2,7 +2,8 @@ import { memo, startTransition, useDeferredValue, useEffect, useMemo, useState, 
 import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
 import { fittedZeroBasedTicks, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
 import { OverviewBrush } from './overview-brush.tsx';
-import { thin, windowSeries, type Measurement, type SeriesPoint } from './trace-series.ts';
+import { clusterInWindow, indexRange, visibleSpans } from './clusters.ts';
+import { thin, windowSteps, type Measurement, type StepPoint } from './trace-series.ts';
 import type { TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
 
@@ -20,8 +21,18 @@ const HEADROOM = 1.05;
 
 export type ChartPin = { tUs: number; tone: 'error' | 'warning' | 'info'; label: string; selected?: boolean };
 export type ChartBand = { startUs: number; endUs: number; minMv: number; maxMv: number };
+/** Something that happened on the bus (Hard Reset, attach, an injected fault): a solid line with a label. */
+export type ChartEvent = { tUs: number; label: string; tone: 'reset' | 'attach' | 'fault' | 'note' };
 
-const PIN_COLOURS: Record<ChartPin['tone'], string> = { error: '#dc2626', warning: '#ea580c', info: '#0284c7' };
+export const EVENT_COLOURS: Record<ChartEvent['tone'], string> = { reset: '#be123c', attach: '#15803d', fault: '#a21caf', note: '#64748b' };
+/** Marks closer than this on screen fold into one (findings, events). */
+const MARK_GAP_PX = 5;
+/** Each reading gets a dot while there is at least this much room per reading. */
+const DOT_ROOM_PX = 8;
+const READING_DOT = { r: 2, strokeWidth: 0, fill: '#d97706' };
+const CURRENT_DOT = { r: 1.6, strokeWidth: 0, fill: '#0284c7' };
+
+export const PIN_COLOURS: Record<ChartPin['tone'], string> = { error: '#dc2626', warning: '#ea580c', info: '#0284c7' };
 
 export const formatAxisMs = (ms: number) => (Math.abs(ms) >= 1_000 ? `${(ms / 1_000).toFixed(Math.abs(ms) >= 10_000 ? 1 : 2)} s` : `${Number(ms.toFixed(2))} ms`);
 
@@ -31,6 +42,8 @@ export type VbusChartProps = {
   /** The end of the trace (µs): the overview's and the brush's range. */
   endUs: number;
   pins: readonly ChartPin[];
+  /** Events drawn across the plot with their label. */
+  events?: readonly ChartEvent[];
   /** Tolerance bands of the contracts (VBUS must stay inside after PS_RDY). */
   bands?: readonly ChartBand[];
   onWindowChange(window: TimeWindow): void;
@@ -40,17 +53,8 @@ export type VbusChartProps = {
 };
 
 const NO_BANDS: readonly ChartBand[] = [];
-
-type Merged = { tMs: number; v?: number; a?: number; s?: number };
-
-function merge(vbusV: SeriesPoint[], ibusA: SeriesPoint[], sinkV: SeriesPoint[] = []): Merged[] {
-  const byTime = new Map<number, Merged>();
-  for (const p of vbusV) byTime.set(p.tMs, { tMs: p.tMs, v: p.value });
-  for (const p of ibusA) byTime.set(p.tMs, { ...(byTime.get(p.tMs) ?? { tMs: p.tMs }), a: p.value });
-  for (const p of sinkV) byTime.set(p.tMs, { ...(byTime.get(p.tMs) ?? { tMs: p.tMs }), s: p.value });
-  return [...byTime.values()].sort((x, y) => x.tMs - y.tMs);
-}
-
+const NO_EVENTS: readonly ChartEvent[] = [];
+const NO_POINTS: StepPoint[] = [];
 
 /**
  * 1 once `ready`, then one more in each following task up to `stages` (as transitions, so React
@@ -98,16 +102,33 @@ const ampTick = tickRenderer(valueLabel('A'), '0.355em');
 const tooltipLabel = (label: unknown) => formatAxisMs(Number(label));
 const tooltipValue = (value: unknown, name: unknown): [string, string] => [`${Number(value).toFixed(3)} ${name === 'IBUS' ? 'A' : 'V'}`, String(name)];
 
-type PlotMarksProps = { window: TimeWindow; maxV: number; gridV: readonly number[]; gridColour: string; bands: readonly ChartBand[]; pins: readonly ChartPin[] };
+type PlotMarksProps = {
+  window: TimeWindow;
+  maxV: number;
+  gridV: readonly number[];
+  gridColour: string;
+  bands: readonly ChartBand[];
+  pins: readonly ChartPin[];
+  events: readonly ChartEvent[];
+  endUs: number;
+  labelColour: string;
+};
+
+const byTime = <T extends { tUs: number }>(items: readonly T[]) => [...items].sort((a, b) => a.tUs - b.tUs);
+const tOf = (item: { tUs: number }) => item.tUs;
 
 /**
- * The horizontal grid, tolerance bands and finding pins, drawn inside the chart's SVG (so they are
- * in an exported picture) from the plot area and our own axis domains: one small layer instead of
- * recharts' grid (which measures tick labels again) and a reference component, each with its own
- * store entries, per pin and band.
+ * The horizontal grid, tolerance bands, events and finding pins, drawn inside the chart's SVG (so
+ * they are in an exported picture) from the plot area and our own axis domains. Marks closer than a
+ * few pixels fold into one (a count beside it), and bands narrower than two pixels merge, so a
+ * trace with 10,000 contracts and 2,000 findings draws a few hundred shapes, not thousands.
  */
-function PlotMarks({ window, maxV, gridV, gridColour, bands, pins }: PlotMarksProps) {
+function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs, labelColour }: PlotMarksProps) {
   const plot = usePlotArea();
+  const widthPx = plot?.width ?? 0;
+  const pinClusters = useMemo(() => clusterInWindow(pins, indexRange(0, pins.length), tOf, window, widthPx, MARK_GAP_PX), [pins, window, widthPx]);
+  const eventClusters = useMemo(() => clusterInWindow(events, indexRange(0, events.length), tOf, window, widthPx, MARK_GAP_PX * 8), [events, window, widthPx]);
+  const drawnBands = useMemo(() => visibleSpans(bands, window, widthPx, endUs), [bands, window, widthPx, endUs]);
   if (!plot || plot.width <= 0 || plot.height <= 0) return null;
   const spanUs = Math.max(1, window.endUs - window.startUs);
   const xOf = (tUs: number) => plot.x + ((Math.min(Math.max(tUs, window.startUs), window.endUs) - window.startUs) / spanUs) * plot.width;
@@ -117,26 +138,52 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins }: PlotMarksPr
       {gridV.map((volts) => (
         <line key={volts} x1={plot.x} x2={plot.x + plot.width} y1={yOf(volts)} y2={yOf(volts)} stroke={gridColour} strokeDasharray="3 3" />
       ))}
-      {bands.map((band) => {
-        if (band.endUs < window.startUs || band.startUs > window.endUs) return null;
+      {drawnBands.map(({ span: band }) => {
         const x1 = xOf(band.startUs);
         const top = yOf(band.maxMv / 1_000);
         return (
-          <rect key={`${band.startUs}-${band.minMv}`} x={x1} width={Math.max(0, xOf(band.endUs) - x1)} y={top} height={Math.max(0, yOf(band.minMv / 1_000) - top)} fill="#10b981" fillOpacity={0.08} />
+          <rect key={`${band.startUs}-${band.minMv}`} x={x1} width={Math.max(1, xOf(band.endUs) - x1)} y={top} height={Math.max(0, yOf(band.minMv / 1_000) - top)} fill="#10b981" fillOpacity={0.08} />
         );
       })}
-      {pins.map((pin, index) => (
-        <line
-          key={`${pin.tUs}-${index}`}
-          x1={xOf(pin.tUs)}
-          x2={xOf(pin.tUs)}
-          y1={plot.y}
-          y2={plot.y + plot.height}
-          stroke={PIN_COLOURS[pin.tone]}
-          strokeWidth={pin.selected ? 2.5 : 1}
-          strokeDasharray={pin.selected ? undefined : '4 3'}
-        />
-      ))}
+      {pinClusters.map((cluster) => {
+        const pin = pins[cluster.first]!;
+        const selected = pin.selected || (cluster.count > 1 && pins.slice(cluster.first, cluster.first + cluster.count).some((p) => p.selected));
+        return (
+          <line
+            key={`pin-${cluster.first}`}
+            x1={xOf(cluster.startUs)}
+            x2={xOf(cluster.startUs)}
+            y1={plot.y}
+            y2={plot.y + plot.height}
+            stroke={PIN_COLOURS[pin.tone]}
+            strokeWidth={selected ? 2.5 : 1}
+            strokeDasharray={selected ? undefined : '4 3'}
+          />
+        );
+      })}
+      {eventClusters.map((cluster, index) => {
+        const event = events[cluster.first]!;
+        const x = xOf(cluster.startUs);
+        const anchor = x > plot.x + plot.width - 90 ? 'end' : 'start';
+        const label = cluster.count > 1 ? `${event.label} +${cluster.count - 1}` : event.label;
+        return (
+          <g key={`event-${cluster.first}`} data-chart-event={event.label} data-t-us={cluster.startUs}>
+            <line x1={x} x2={x} y1={plot.y} y2={plot.y + plot.height} stroke={EVENT_COLOURS[event.tone]} strokeWidth={1.5} />
+            <text
+              x={anchor === 'start' ? x + 3 : x - 3}
+              y={plot.y + 10 + (index % 2) * 12}
+              fontSize={10}
+              textAnchor={anchor}
+              fill={EVENT_COLOURS[event.tone]}
+              stroke={labelColour}
+              strokeWidth={3}
+              paintOrder="stroke"
+            >
+              {label}
+            </text>
+          </g>
+        );
+      })}
     </g>
   );
 }
@@ -156,7 +203,7 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   const window = useDeferredValue(props.window);
   const measurements = useDeferredValue(props.measurements);
   const sinkMeasurements = useDeferredValue(props.sinkMeasurements);
-  const { endUs, pins, bands = NO_BANDS, onWindowChange, dark = false } = props;
+  const { endUs, pins, events = NO_EVENTS, bands = NO_BANDS, onWindowChange, dark = false } = props;
   const [box, widthPx] = useElementWidth<HTMLDivElement>();
   const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
   const measured = plotWidthPx > 0;
@@ -166,23 +213,32 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   // Our own fixed domains mean a later part adds to the picture without moving the first.
   const stage = useMountStages(measured, 3);
   const budget = pointBudget(plotWidthPx);
-  const data = useMemo(() => {
-    if (!measured) return [];
-    const { vbusV, ibusA } = windowSeries(measurements, window, budget);
-    return merge(vbusV, ibusA, sinkMeasurements ? windowSeries(sinkMeasurements, window, budget).vbusV : undefined);
+  const series = useMemo(() => {
+    if (!measured) return { vbusV: NO_POINTS, ibusA: NO_POINTS, sinkV: NO_POINTS, readings: 0 };
+    const own = windowSteps(measurements, window, budget);
+    return { ...own, sinkV: sinkMeasurements ? windowSteps(sinkMeasurements, window, budget).vbusV : NO_POINTS };
   }, [measurements, window, sinkMeasurements, budget, measured]);
-  const overview = useMemo(() => thin(measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })), 300), [measurements]);
+  // Each reading marked while they have room; a thinned window shows the line alone.
+  const dots = series.readings > 0 && series.readings * DOT_ROOM_PX <= plotWidthPx && series.vbusV.length <= budget;
+  const overview = useMemo(
+    () =>
+      thin(
+        measurements.map((m) => ({ tMs: m.t / 1_000, value: m.mv / 1_000 })),
+        300,
+      ),
+    [measurements],
+  );
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
   const withCurrent = hasCurrent && stage >= 2;
   const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
-  const visiblePins = useMemo(() => pins.filter((p) => p.tUs >= window.startUs && p.tUs <= window.endUs).slice(0, 120), [pins, window]);
+  const sortedPins = useMemo(() => byTime(pins), [pins]);
+  const sortedEvents = useMemo(() => byTime(events), [events]);
   const axes = useMemo(() => {
     let maxV = 0;
     let maxA = 0;
-    for (const row of data) {
-      maxV = Math.max(maxV, row.v ?? 0, row.s ?? 0);
-      maxA = Math.max(maxA, row.a ?? 0);
-    }
+    for (const p of series.vbusV) maxV = Math.max(maxV, p.value ?? 0);
+    for (const p of series.sinkV) maxV = Math.max(maxV, p.value ?? 0);
+    for (const p of series.ibusA) maxA = Math.max(maxA, p.value ?? 0);
     for (const band of visibleBands) maxV = Math.max(maxV, band.maxMv / 1_000);
     const volts = fittedZeroBasedTicks(maxV * HEADROOM);
     const amps = zeroBasedTicks(maxA * HEADROOM, volts.ticks.length - 1);
@@ -193,7 +249,7 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
       volts: { domain: [0, volts.max] as [number, number], ticks: volts.ticks },
       amps: { domain: [0, amps.max] as [number, number], ticks: amps.ticks },
     };
-  }, [data, visibleBands, window, plotWidthPx]);
+  }, [series, visibleBands, window, plotWidthPx]);
   const axis = dark ? '#94a3b8' : '#475569';
   const grid = dark ? '#1e293b' : '#e2e8f0';
   const tooltipStyle = useMemo(() => ({ fontSize: 12, background: dark ? '#0f172a' : '#fff', borderColor: grid }), [dark, grid]);
@@ -234,21 +290,80 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
         )}
       </div>
       {/* data-drawn: every part is on (tests wait for it before judging main-thread tasks). */}
-      <div ref={box} className="h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={stage >= 3 || undefined}>
+      <div ref={box} className="h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={stage >= 3 || undefined} data-readings={series.readings}>
         {measured && (
-          <LineChart width={widthPx} height={CHART_HEIGHT_PX} data={data} margin={withCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
+          <LineChart width={widthPx} height={CHART_HEIGHT_PX} margin={withCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
             <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
             <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
             {withCurrent && (
-              <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" stroke={axis} fontSize={11} domain={axes.amps.domain} ticks={axes.amps.ticks} interval={0} niceTicks="none" allowDataOverflow tick={ampTick} />
+              <YAxis
+                yAxisId="a"
+                width={AXIS_WIDTH_PX}
+                orientation="right"
+                stroke={axis}
+                fontSize={11}
+                domain={axes.amps.domain}
+                ticks={axes.amps.ticks}
+                interval={0}
+                niceTicks="none"
+                allowDataOverflow
+                tick={ampTick}
+              />
             )}
-            <PlotMarks window={window} maxV={axes.volts.domain[1]} gridV={axes.volts.ticks} gridColour={grid} bands={visibleBands} pins={visiblePins} />
+            <PlotMarks
+              window={window}
+              maxV={axes.volts.domain[1]}
+              gridV={axes.volts.ticks}
+              gridColour={grid}
+              bands={visibleBands}
+              pins={sortedPins}
+              events={sortedEvents}
+              endUs={endUs}
+              labelColour={dark ? '#0f172a' : '#ffffff'}
+            />
             {stage >= 3 && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
-            <Line yAxisId="v" dataKey="v" name="VBUS" stroke="#d97706" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.6} isAnimationActive={false} connectNulls />
+            <Line
+              yAxisId="v"
+              data={series.vbusV}
+              dataKey="value"
+              name="VBUS"
+              type="stepAfter"
+              stroke="#d97706"
+              dot={dots ? READING_DOT : false}
+              activeDot={ACTIVE_DOT}
+              strokeWidth={1.6}
+              isAnimationActive={false}
+              className="parley-vbus-line"
+            />
             {sinkMeasurements && stage >= 2 && (
-              <Line yAxisId="v" dataKey="s" name="VBUS at sink" stroke="#7c3aed" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
+              <Line
+                yAxisId="v"
+                data={series.sinkV}
+                dataKey="value"
+                name="VBUS at sink"
+                type="stepAfter"
+                stroke="#7c3aed"
+                dot={false}
+                activeDot={ACTIVE_DOT}
+                strokeWidth={1.2}
+                strokeDasharray="4 2"
+                isAnimationActive={false}
+              />
             )}
-            {withCurrent && <Line yAxisId="a" dataKey="a" name="IBUS" stroke="#0284c7" dot={false} activeDot={ACTIVE_DOT} strokeWidth={1.2} isAnimationActive={false} connectNulls />}
+            {withCurrent && (
+              <Line
+                yAxisId="a"
+                data={series.ibusA}
+                dataKey="value"
+                name="IBUS"
+                type="stepAfter"
+                stroke="#0284c7"
+                dot={dots ? CURRENT_DOT : false}
+                activeDot={ACTIVE_DOT}
+                strokeWidth={1.2}
+                isAnimationActive={false}
+              />
+            )}
           </LineChart>
         )}
       </div>

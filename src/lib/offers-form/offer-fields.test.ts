@@ -8,7 +8,9 @@ describe('offer form fields', () => {
   it('shows every key of every kind of offer, and nothing else', () => {
     expect(offerKindOptions.map((o) => o.value)).toEqual(['fixed', 'variable', 'battery', 'pps', 'spr-avs', 'epr-avs']);
     for (const kind of offerKinds) {
-      const keys = Object.keys(defaultOffer(kind)).filter((key) => key !== 'kind').sort();
+      const keys = Object.keys(defaultOffer(kind))
+        .filter((key) => key !== 'kind')
+        .sort();
       expect(offerFields[kind].map((f) => f.name).sort(), kind).toEqual(keys);
     }
   });
@@ -39,7 +41,11 @@ describe('sink policy form fields', () => {
       expect(policyKindHelp[value].length, value).toBeGreaterThan(20);
       const policy = defaultPolicy(value);
       expect(sinkPolicySchema.safeParse(policy).success, value).toBe(true);
-      expect(policyFields[value].map((f) => f.name).sort()).toEqual(Object.keys(policy).filter((key) => key !== 'kind').sort());
+      expect(policyFields[value].map((f) => f.name).sort()).toEqual(
+        Object.keys(policy)
+          .filter((key) => key !== 'kind')
+          .sort(),
+      );
     }
   });
 });

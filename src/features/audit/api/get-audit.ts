@@ -12,8 +12,8 @@ export type AuditEvent = {
 };
 
 export type AuditResponse = { items: AuditEvent[]; total: number };
-export type AuditParams = { page: number; pageSize: number };
-
+/** `action` is one code or a family ending in "." ("vector." = every vector change); `actor` and `target` match any part. */
+export type AuditParams = { page: number; pageSize: number; action?: string; actor?: string; target?: string };
 
 /** One page of the audit log, newest first; `page` counts from 1. */
 export async function getAudit(params: AuditParams, signal?: AbortSignal): Promise<AuditResponse> {

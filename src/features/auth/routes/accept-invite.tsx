@@ -30,9 +30,7 @@ export function AcceptInviteRoute() {
   if (invite.isError) {
     return (
       <>
-        <AuthHeading title="This invitation cannot be used">
-          The link may have been used already, replaced by a newer invitation, or expired. Ask your Parley admin to invite you again.
-        </AuthHeading>
+        <AuthHeading title="This invitation cannot be used">The link may have been used already, replaced by a newer invitation, or expired. Ask your Parley admin to invite you again.</AuthHeading>
         <ErrorMessage title="Invitation not found" error={invite.error} />
         <Link to={paths.auth.signIn.getHref()} className="mt-6 inline-block text-sm font-medium text-amber-700 hover:underline dark:text-amber-400">
           Go to sign in
@@ -73,14 +71,7 @@ function AcceptInviteForm({ token, invite }: { token: string; invite: Invite }) 
       </dl>
       <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Accept the invitation">
         <Input label="Your name" autoComplete="name" error={errors.name?.message} {...register('name')} />
-        <Input
-          label="Password"
-          type="password"
-          autoComplete="new-password"
-          hint={`At least ${minPasswordLength} characters.`}
-          error={errors.password?.message}
-          {...register('password')}
-        />
+        <Input label="Password" type="password" autoComplete="new-password" hint={`At least ${minPasswordLength} characters.`} error={errors.password?.message} {...register('password')} />
         <Input label="Repeat the password" type="password" autoComplete="new-password" error={errors.confirm?.message} {...register('confirm')} />
         {accept.isError && <ErrorMessage title="The account was not activated" error={accept.error} />}
         <Button type="submit" className="w-full" loading={accept.isPending}>

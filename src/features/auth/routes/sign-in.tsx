@@ -46,10 +46,7 @@ export function SignInRoute() {
         <div className="space-y-1.5">
           <Input label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
           <p className="text-right">
-            <Link
-              to={paths.auth.forgotPassword.getHref()}
-              className="text-xs font-medium text-amber-700 hover:underline dark:text-amber-400"
-            >
+            <Link to={paths.auth.forgotPassword.getHref()} className="text-xs font-medium text-amber-700 hover:underline dark:text-amber-400">
               Forgot password?
             </Link>
           </p>

@@ -1,5 +1,8 @@
 import { useMemo, useState } from 'react';
 import { Button } from '../../../components/button.tsx';
+import { busEventsOf, chartEventsOf, EventLane } from '../../../components/timeline/event-lane.tsx';
+import { MessageList } from '../../../components/timeline/message-list.tsx';
+import { TimelineLegend } from '../../../components/timeline/timeline-legend.tsx';
 import { FindingPins } from '../../../components/timeline/finding-pins.tsx';
 import { MessageLanes } from '../../../components/timeline/message-lanes.tsx';
 import { StateLanes } from '../../../components/timeline/state-lanes.tsx';
@@ -30,10 +33,8 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
   const [foldGoodCrc, setFoldGoodCrc] = useState(false);
   const { lanes, messages } = useMemo(() => laneMessagesOf(run.events), [run]);
   const measurements = useMemo(() => chartMeasurements(run.samples, window), [run, window]);
-  const pins = useMemo<ChartPin[]>(
-    () => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])),
-    [run],
-  );
+  const pins = useMemo<ChartPin[]>(() => run.findings.flatMap((finding) => (finding.t === undefined ? [] : [{ tUs: finding.t, tone: finding.severity, label: finding.rule }])), [run]);
+  const events = useMemo(() => chartEventsOf(busEventsOf(run.events)), [run]);
   const end = Math.max(1, run.endUs);
   const firstContractUs = run.contracts[0]?.t;
   const firstMessageUs = lanes[0]?.t ?? 0;
@@ -58,18 +59,11 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
         )}
       </TimelineToolbar>
       {parts >= 2 && (
-        <VbusChart
-          measurements={measurements.source}
-          sinkMeasurements={measurements.sink}
-          window={window}
-          endUs={end}
-          pins={pins}
-          onWindowChange={onWindowChange}
-          dark={dark}
-        />
+        <VbusChart measurements={measurements.source} sinkMeasurements={measurements.sink} window={window} endUs={end} pins={pins} events={events} onWindowChange={onWindowChange} dark={dark} />
       )}
       {parts >= 3 && (
         <>
+          <EventLane events={events} window={window} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
           <MessageLanes
             messages={lanes}
             window={window}
@@ -81,14 +75,31 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
               const message = messages[index];
               if (message) onSelectMessage(index, message);
             }}
+            onZoomTo={onWindowChange}
           />
-          <FindingPins findings={run.findings} window={window} onSelect={onSelectFinding} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+          <FindingPins findings={run.findings} window={window} onSelect={onSelectFinding} onZoomTo={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
         </>
       )}
       {parts >= 4 && (
         <>
           <StateLanes entries={run.lanes} window={window} endUs={end} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
           <TimerSpans timers={run.timers} window={window} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
+          <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
+            <TimelineLegend sinkVbus timers />
+          </div>
+          <MessageList
+            messages={lanes}
+            foldGoodCrc={foldGoodCrc}
+            selectedIndex={selectedIndex ?? undefined}
+            heightPx={300}
+            onSelect={(index) => {
+              const message = messages[index];
+              if (!message) return;
+              onSelectMessage(index, message);
+              const spanUs = Math.min(window.endUs - window.startUs, 50_000);
+              if (message.t < window.startUs || message.t > window.endUs) onWindowChange({ startUs: Math.max(0, message.t - spanUs / 2), endUs: Math.min(end, message.t + spanUs / 2) });
+            }}
+          />
         </>
       )}
     </div>

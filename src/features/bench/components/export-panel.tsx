@@ -1,14 +1,26 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button.tsx';
-import { Input } from '../../../components/input.tsx';
-import { svgMarkup, pngOfSvg } from '../lib/chart-image.ts';
+import { EVENT_COLOURS, PIN_COLOURS } from '../../../components/timeline/vbus-chart.tsx';
+import { EXPORT_HEADER_PX, svgMarkup, pngOfSvg, type LegendEntry } from '../lib/chart-image.ts';
 import { downloadBlob, downloadText } from '../../../lib/download.ts';
 import { traceJsonl, vectorFromRun, vectorIdOf } from '../lib/run-exports.ts';
 import { samplesCsv } from '../lib/samples.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
 
+const LEGEND: readonly LegendEntry[] = [
+  { label: 'VBUS at the source (V)', colour: '#d97706' },
+  { label: 'VBUS at the sink (V)', colour: '#7c3aed', dash: '4 2' },
+  { label: 'IBUS (A)', colour: '#0284c7' },
+  { label: 'reset', colour: EVENT_COLOURS.reset },
+  { label: 'attach', colour: EVENT_COLOURS.attach },
+  { label: 'fault injected', colour: EVENT_COLOURS.fault },
+  { label: 'finding', colour: PIN_COLOURS.error, dash: '4 3' },
+];
+
 export type ExportPanelProps = {
   run: BenchRun;
+  /** The scenario's title: the picture's heading and the default name of files and vectors. */
+  title: string;
   /** The chart's <svg>, found when an image is asked for. */
   chartSvg(): SVGSVGElement | null;
   dark: boolean;
@@ -19,8 +31,8 @@ function stamp(iso: string): string {
 }
 
 /** Files from the finished run: trace, samples, chart, and the run as a negotiation vector. */
-export function ExportPanel({ run, chartSvg, dark }: ExportPanelProps) {
-  const [name, setName] = useState('my scenario');
+export function ExportPanel({ run, title, chartSvg, dark }: ExportPanelProps) {
+  const name = title;
   const [problem, setProblem] = useState<string | null>(null);
   const base = `bench-${stamp(run.finishedAt)}`;
   const id = vectorIdOf(name);
@@ -32,14 +44,14 @@ export function ExportPanel({ run, chartSvg, dark }: ExportPanelProps) {
       setProblem('The chart is not on screen yet.');
       return;
     }
-    const markup = svgMarkup(svg, { background: dark ? '#0f172a' : '#ffffff', title: `VBUS and IBUS, ${name}` });
+    const markup = svgMarkup(svg, { background: dark ? '#0f172a' : '#ffffff', title: `${name} — VBUS and IBUS`, legend: LEGEND, textColour: dark ? '#e2e8f0' : '#0f172a' });
     if (kind === 'svg') {
       downloadText(`${base}.chart.svg`, markup, 'image/svg+xml');
       return;
     }
     try {
       const { width, height } = svg.getBoundingClientRect();
-      downloadBlob(`${base}.chart.png`, await pngOfSvg(markup, width, height));
+      downloadBlob(`${base}.chart.png`, await pngOfSvg(markup, width, height + EXPORT_HEADER_PX));
     } catch (error) {
       setProblem(error instanceof Error ? error.message : String(error));
     }
@@ -51,7 +63,9 @@ export function ExportPanel({ run, chartSvg, dark }: ExportPanelProps) {
         <Button
           variant="secondary"
           size="sm"
-          onClick={() => downloadText(`${base}.trace.jsonl`, traceJsonl(run.events, { title: `Bench run: ${name}`, seed: run.scenario.seed ?? 1, simulatedAt: run.finishedAt }), 'application/x-ndjson')}
+          onClick={() =>
+            downloadText(`${base}.trace.jsonl`, traceJsonl(run.events, { title: `Bench run: ${name}`, seed: run.scenario.seed ?? 1, simulatedAt: run.finishedAt }), 'application/x-ndjson')
+          }
         >
           Trace (.trace.jsonl)
         </Button>
@@ -65,23 +79,19 @@ export function ExportPanel({ run, chartSvg, dark }: ExportPanelProps) {
           Chart (.png)
         </Button>
       </div>
-      <form
-        aria-label="Save as vector"
-        className="flex flex-wrap items-end gap-2 border-t border-slate-200 pt-4 dark:border-slate-800"
-        onSubmit={(event) => {
-          event.preventDefault();
-          const text = vectorFromRun(run.scenario, run, { id, title: name.trim() || 'Bench scenario' });
-          downloadText(`${id.split('/').pop()}.vector.json`, text, 'application/json');
-        }}
-      >
-        <Input label="Vector title" className="min-w-60 flex-1" value={name} onChange={(event) => setName(event.target.value)} hint={<span className="font-mono">{id}</span>} />
-        <Button type="submit" size="sm" className="mb-5">
-          Save as vector
+      <div className="flex flex-wrap items-center gap-2 border-t border-slate-200 pt-4 dark:border-slate-800">
+        <Button
+          variant="secondary"
+          size="sm"
+          onClick={() => downloadText(`${id.split('/').pop()}.vector.json`, vectorFromRun(run.scenario, run, { id, title: name.trim() || 'Bench scenario', tags: ['bench'] }), 'application/json')}
+        >
+          Download as vector (.vector.json)
         </Button>
-      </form>
-      <p className="-mt-2 text-xs text-slate-500 dark:text-slate-400">
-        The vector expects this run’s contract, its key messages in order, and {run.findings.some((finding) => finding.severity === 'error') ? 'its error findings' : 'no error findings'}.
-        Check each expectation against the specification before adding it to the library.
+        <span className="font-mono text-xs text-slate-500">{id}</span>
+      </div>
+      <p className="text-xs text-slate-500 dark:text-slate-400">
+        The vector expects this run’s contract, its key messages in order, and {run.findings.some((finding) => finding.severity === 'error') ? 'its error findings' : 'no error findings'}. Check each
+        expectation against the specification before adding it to the library.
       </p>
       {problem && (
         <p role="alert" className="text-xs text-red-600 dark:text-red-400">

@@ -17,9 +17,33 @@ const KINDS: { value: Fault['kind']; label: string }[] = [
 ];
 
 const MESSAGE_TYPES = [
-  'GoodCRC', 'Source_Capabilities', 'Request', 'Accept', 'Reject', 'Wait', 'PS_RDY', 'Soft_Reset', 'Get_Source_Cap', 'Get_Sink_Cap', 'Sink_Capabilities',
-  'EPR_Mode', 'EPR_Source_Capabilities', 'EPR_Request', 'EPR_KeepAlive', 'EPR_KeepAlive_Ack', 'EPR_Get_Source_Cap', 'Vendor_Defined',
-  'PR_Swap', 'DR_Swap', 'VCONN_Swap', 'Get_Status', 'Status', 'Get_PPS_Status', 'PPS_Status', 'Get_Source_Cap_Extended', 'Source_Capabilities_Extended',
+  'GoodCRC',
+  'Source_Capabilities',
+  'Request',
+  'Accept',
+  'Reject',
+  'Wait',
+  'PS_RDY',
+  'Soft_Reset',
+  'Get_Source_Cap',
+  'Get_Sink_Cap',
+  'Sink_Capabilities',
+  'EPR_Mode',
+  'EPR_Source_Capabilities',
+  'EPR_Request',
+  'EPR_KeepAlive',
+  'EPR_KeepAlive_Ack',
+  'EPR_Get_Source_Cap',
+  'Vendor_Defined',
+  'PR_Swap',
+  'DR_Swap',
+  'VCONN_Swap',
+  'Get_Status',
+  'Status',
+  'Get_PPS_Status',
+  'PPS_Status',
+  'Get_Source_Cap_Extended',
+  'Source_Capabilities_Extended',
 ];
 
 /** The faults to inject, each selected by side, message type and nth, or by time. */
@@ -42,11 +66,7 @@ export function FaultsEditor() {
       <ol className="flex flex-col gap-2" aria-label="Faults">
         {fields.map((field, index) => {
           return (
-            <li
-              key={field.id}
-              aria-label={`Fault ${index + 1}`}
-              className="flex flex-col gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40"
-            >
+            <li key={field.id} aria-label={`Fault ${index + 1}`} className="flex flex-col gap-2 rounded-md border border-slate-200 bg-slate-50/60 p-2 dark:border-slate-800 dark:bg-slate-950/40">
               <div className="flex items-end gap-2">
                 <Select label="Fault" className="flex-1" options={KINDS} error={errorAt(`faults.${index}.kind`)} {...register(`faults.${index}.kind`)} />
                 <Select
@@ -65,7 +85,14 @@ export function FaultsEditor() {
                 </Button>
               </div>
               <div className="grid grid-cols-[minmax(0,1.6fr)_repeat(3,minmax(0,1fr))] gap-2">
-                <Input label="Message type" list="bench-message-types" placeholder="any" mono error={errorAt(`faults.${index}.messageType`)} {...register(`faults.${index}.messageType`, optionalTextField)} />
+                <Input
+                  label="Message type"
+                  list="bench-message-types"
+                  placeholder="any"
+                  mono
+                  error={errorAt(`faults.${index}.messageType`)}
+                  {...register(`faults.${index}.messageType`, optionalTextField)}
+                />
                 <Input label="nth" type="number" min={1} placeholder="every" mono error={errorAt(`faults.${index}.nth`)} {...register(`faults.${index}.nth`, optionalNumberField)} />
                 <Input label="At (ms)" type="number" min={0} placeholder="—" mono error={errorAt(`faults.${index}.atMs`)} {...register(`faults.${index}.atMs`, optionalNumberField)} />
                 <Input

@@ -41,22 +41,22 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
       {epr && fields.length === 0 && <p className="text-xs text-slate-500 dark:text-slate-400">No EPR offers: the source offers SPR only (up to 20 V).</p>}
       {!epr && (
         <div className="flex flex-wrap items-end gap-3">
-        <Select
-          label="Load offers from a demo device"
-          className="min-w-64 flex-1"
-          value=""
-          options={[
-            { value: '', label: devices.isLoading ? 'Loading devices…' : 'Choose a device…' },
-            ...(devices.data ?? []).map((device) => ({ value: String(device.id), label: `${device.name} (${device.pdpW} W)` })),
-          ]}
-          onChange={(event) => {
-            const device = devices.data?.find((item) => String(item.id) === event.target.value);
-            const offers = device ? offersOfDevice(device.pdos) : null;
-            if (offers) replace(offers);
-          }}
-          hint={devices.isError ? 'The device list could not be loaded; enter the offers by hand.' : undefined}
-        />
-      </div>
+          <Select
+            label="Load offers from a demo device"
+            className="min-w-64 flex-1"
+            value=""
+            options={[
+              { value: '', label: devices.isLoading ? 'Loading devices…' : 'Choose a device…' },
+              ...(devices.data ?? []).map((device) => ({ value: String(device.id), label: `${device.name} (${device.pdpW} W)` })),
+            ]}
+            onChange={(event) => {
+              const device = devices.data?.find((item) => String(item.id) === event.target.value);
+              const offers = device ? offersOfDevice(device.pdos) : null;
+              if (offers) replace(offers);
+            }}
+            hint={devices.isError ? 'The device list could not be loaded; enter the offers by hand.' : undefined}
+          />
+        </div>
       )}
       <ol className="flex flex-col gap-2" aria-label={epr ? 'EPR offers from object position 8' : 'Offers in object-position order'}>
         {fields.map((field, index) => {
@@ -71,24 +71,12 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
                 <span className="w-7 pb-2 font-mono text-xs text-slate-500" title="Object position">
                   #{index + firstPosition}
                 </span>
-                <Select
-                  label="Kind"
-                  className="w-36"
-                  value={kind}
-                  options={offerKindOptions}
-                  onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))}
-                />
+                <Select label="Kind" className="w-36" value={kind} options={offerKindOptions} onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))} />
                 <span className="grow" />
                 <Button variant="ghost" size="sm" aria-label={`Move offer ${index + firstPosition} up`} disabled={index === 0} onClick={() => move(index, index - 1)}>
                   ↑
                 </Button>
-                <Button
-                  variant="ghost"
-                  size="sm"
-                  aria-label={`Move offer ${index + firstPosition} down`}
-                  disabled={index === fields.length - 1}
-                  onClick={() => move(index, index + 1)}
-                >
+                <Button variant="ghost" size="sm" aria-label={`Move offer ${index + firstPosition} down`} disabled={index === fields.length - 1} onClick={() => move(index, index + 1)}>
                   ↓
                 </Button>
                 <Button variant="ghost" size="sm" aria-label={`Remove offer ${index + firstPosition}`} disabled={!epr && fields.length <= 1} onClick={() => remove(index)}>
@@ -122,7 +110,8 @@ export function OffersEditor({ name = 'offers' }: { name?: OfferListName }) {
         <span className="text-xs text-slate-500 dark:text-slate-400">Add:</span>
         {(epr ? offerKinds.filter((kind) => kind === 'fixed' || kind === 'epr-avs') : offerKinds).map((kind) => (
           <Button key={kind} variant="secondary" size="sm" disabled={fields.length >= maxOffers} onClick={() => append(defaultOffer(kind))}>
-            + {epr ? 'EPR ' : ''}{offerKindLabels[kind]}
+            + {epr ? 'EPR ' : ''}
+            {offerKindLabels[kind]}
           </Button>
         ))}
       </div>

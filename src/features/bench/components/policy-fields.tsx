@@ -32,16 +32,7 @@ export function PolicyFields({ name, label }: { name: PolicyPath; label: string 
       {fields.length > 0 && (
         <div className="grid grid-cols-3 gap-2">
           {fields.map(({ name: key, label: fieldLabel, step }) => (
-            <Input
-              key={`${kind}-${key}`}
-              label={fieldLabel}
-              type="number"
-              mono
-              min={0}
-              step={step}
-              error={errorAt(key)}
-              {...register(`${name}.${key}` as 'policy.kind', numberField)}
-            />
+            <Input key={`${kind}-${key}`} label={fieldLabel} type="number" mono min={0} step={step} error={errorAt(key)} {...register(`${name}.${key}` as 'policy.kind', numberField)} />
           ))}
         </div>
       )}

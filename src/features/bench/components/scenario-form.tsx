@@ -39,11 +39,7 @@ function PolicyChanges() {
     <div className="flex flex-col gap-2">
       <ol className="flex flex-col gap-2" aria-label="Policy changes">
         {fields.map((field, index) => (
-          <li
-            key={field.id}
-            aria-label={`Policy change ${index + 1}`}
-            className="grid grid-cols-[6rem_1fr_auto] items-start gap-2 rounded-md border border-slate-200 p-2 dark:border-slate-800"
-          >
+          <li key={field.id} aria-label={`Policy change ${index + 1}`} className="grid grid-cols-[6rem_1fr_auto] items-start gap-2 rounded-md border border-slate-200 p-2 dark:border-slate-800">
             <Input label="At (ms)" type="number" min={0} mono error={formState.errors.changes?.[index]?.atMs?.message} {...register(`changes.${index}.atMs`, numberField)} />
             <PolicyFields name={`changes.${index}.policy`} label="Then" />
             <div className="pt-6">

@@ -6,7 +6,7 @@ import { benchFormResolverSchema, defaultScenario, formOfScenario, parseScenario
 function formOf(input: unknown) {
   const scenario = scenarioSchema.parse(input);
   const form = formOfScenario(scenario);
-  if (!form.ok) throw new Error(form.message);
+  if (!form.ok) throw new Error(form.error.message);
   return form.values;
 }
 
@@ -22,11 +22,15 @@ describe('bench form model', () => {
   });
 
   it('round-trips form → scenario → form and keeps what the form does not show', () => {
-    const base = { ...defaultScenario, sink: { ...defaultScenario.sink, load: { currentMa: 1_200 } }, faults: [{ kind: 'drop' as const, from: 'sink' as const, messageType: 'GoodCRC', nth: 1, count: 2 }] };
+    const base = {
+      ...defaultScenario,
+      sink: { ...defaultScenario.sink, load: { currentMa: 1_200 } },
+      faults: [{ kind: 'drop' as const, from: 'sink' as const, messageType: 'GoodCRC', nth: 1, count: 2 }],
+    };
     const values = formOf(base);
     const changed = { ...values, policy: defaultPolicy('pps'), capsIntervalMs: 150, seed: 9 };
     const mapped = scenarioOfForm(changed, base);
-    if (!mapped.ok) throw new Error(mapped.message);
+    if (!mapped.ok) throw new Error(mapped.error.message);
     expect(mapped.scenario.sink?.load).toEqual({ currentMa: 1_200 });
     expect(mapped.scenario.source.behaviour).toEqual({ capsIntervalMs: 150 });
     expect(mapped.scenario.faults?.[0]).toEqual({ kind: 'drop', from: 'sink', messageType: 'GoodCRC', nth: 1, count: 2 });
@@ -47,9 +51,9 @@ describe('bench form model', () => {
   it('parses JSON text with "field: message" errors', () => {
     expect(parseScenarioText('{').ok).toBe(false);
     const missing = parseScenarioText('{"sink": {}}');
-    expect(missing.ok ? '' : missing.message).toMatch(/^source: /);
+    expect(missing.ok ? '' : missing.error.message).toMatch(/^source: /);
     const wrong = parseScenarioText(JSON.stringify({ ...defaultScenario, durationMs: 0 }));
-    expect(wrong.ok ? '' : wrong.message).toMatch(/^durationMs: /);
+    expect(wrong.ok ? '' : wrong.error.message).toMatch(/^durationMs: /);
     expect(parseScenarioText(JSON.stringify(defaultScenario)).ok).toBe(true);
   });
 });

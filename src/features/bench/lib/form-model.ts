@@ -24,31 +24,32 @@ function eMarkerChoiceOf(marker: { currentMa: number; maxVoltageMv: number; eprC
   if (marker.eprCapable && marker.currentMa === 5_000 && marker.maxVoltageMv === 50_000) return '5a-50v-epr';
   return marker.currentMa === 5_000 ? '5a-20v' : '3a-20v';
 }
+import { zodMessage } from '../../../../shared/core/zod-message.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 const revisionSchema = z.enum(['2.0', '3.0']);
 const msSchema = z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(0, 'must be at least 0 ms');
 
-export const benchFormSchema = z
-  .object({
-    offers: offerListSchema.max(7, 'a Source_Capabilities message carries at most 7 offers'),
-    /** EPR offers from object position 8 (empty: an SPR-only source). */
-    eprOffers: z.array(offerListSchema.element).max(4, 'at most 4 EPR offers (positions 8–11)'),
-    /** Empty: the sink is not EPR capable. */
-    sinkEprPdpW: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 W').max(240, 'must be at most 240 W').optional(),
-    eMarker: z.enum(['none', '3a-20v', '5a-20v', '5a-50v-epr']),
-    actions: z.array(actionSchema),
-    sourceSpecRevision: revisionSchema,
-    /** Empty: the simulator's jitter within tTypeCSendSourceCap. */
-    capsIntervalMs: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 ms').max(10_000, 'must be at most 10 000 ms').optional(),
-    sinkSpecRevision: revisionSchema,
-    policy: sinkPolicySchema,
-    changes: z.array(z.object({ atMs: msSchema, policy: sinkPolicySchema })),
-    cableCurrentMa: z.union([z.literal(3_000), z.literal(5_000)]),
-    cableResistanceMohm: z.number({ error: 'enter a number' }).int('must be a whole number of mΩ').min(0, 'must be at least 0 mΩ').max(2_000, 'must be at most 2000 mΩ'),
-    faults: z.array(faultSchema),
-    durationMs: z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(1, 'must be at least 1 ms').max(600_000, 'must be at most 600 000 ms (10 minutes)'),
-    seed: z.number({ error: 'enter a number' }).int('must be a whole number'),
-  });
+export const benchFormSchema = z.object({
+  offers: offerListSchema.max(7, 'a Source_Capabilities message carries at most 7 offers'),
+  /** EPR offers from object position 8 (empty: an SPR-only source). */
+  eprOffers: z.array(offerListSchema.element).max(4, 'at most 4 EPR offers (positions 8–11)'),
+  /** Empty: the sink is not EPR capable. */
+  sinkEprPdpW: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 W').max(240, 'must be at most 240 W').optional(),
+  eMarker: z.enum(['none', '3a-20v', '5a-20v', '5a-50v-epr']),
+  actions: z.array(actionSchema),
+  sourceSpecRevision: revisionSchema,
+  /** Empty: the simulator's jitter within tTypeCSendSourceCap. */
+  capsIntervalMs: z.number({ error: 'enter a number' }).int().min(1, 'must be at least 1 ms').max(10_000, 'must be at most 10 000 ms').optional(),
+  sinkSpecRevision: revisionSchema,
+  policy: sinkPolicySchema,
+  changes: z.array(z.object({ atMs: msSchema, policy: sinkPolicySchema })),
+  cableCurrentMa: z.union([z.literal(3_000), z.literal(5_000)]),
+  cableResistanceMohm: z.number({ error: 'enter a number' }).int('must be a whole number of mΩ').min(0, 'must be at least 0 mΩ').max(2_000, 'must be at most 2000 mΩ'),
+  faults: z.array(faultSchema),
+  durationMs: z.number({ error: 'enter a number' }).int('must be a whole number of ms').min(1, 'must be at least 1 ms').max(600_000, 'must be at most 600 000 ms (10 minutes)'),
+  seed: z.number({ error: 'enter a number' }).int('must be a whole number'),
+});
 
 export type BenchFormValues = z.infer<typeof benchFormSchema>;
 /** The Kestrel K65's offers (demo data): 5, 9, 15 V at 3 A, 20 V at 3.25 A, PPS 3.3–21 V at 3 A. */
@@ -67,11 +68,11 @@ function compact<T extends object>(value: T): T {
 }
 
 /** Form values → a scenario input (not yet validated), laid over `base`. */
-export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = defaultScenario): { ok: true; scenario: ScenarioInput } | { ok: false; message: string } {
+export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = defaultScenario): Result<{ scenario: ScenarioInput }> {
   const built = buildOffers(values.offers);
-  if (!built.ok) return { ok: false, message: built.error.message };
+  if (!built.ok) return built;
   const builtEpr = values.eprOffers.length > 0 ? buildOffers(values.eprOffers) : null;
-  if (builtEpr && !builtEpr.ok) return { ok: false, message: `EPR offers: ${builtEpr.error.message}` };
+  if (builtEpr && !builtEpr.ok) return fail(builtEpr.error.code, `EPR offers: ${builtEpr.error.message}`);
   const behaviour = compact({ ...base.source.behaviour, capsIntervalMs: values.capsIntervalMs });
   const eMarker = eMarkerChoices[values.eMarker];
   const source = compact({
@@ -84,7 +85,13 @@ export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = de
   const scenario: ScenarioInput = {
     ...base,
     source,
-    sink: compact({ ...base.sink, specRevision: values.sinkSpecRevision, policy: values.policy, changes: values.changes, epr: values.sinkEprPdpW === undefined ? undefined : { pdpW: values.sinkEprPdpW } }),
+    sink: compact({
+      ...base.sink,
+      specRevision: values.sinkSpecRevision,
+      policy: values.policy,
+      changes: values.changes,
+      epr: values.sinkEprPdpW === undefined ? undefined : { pdpW: values.sinkEprPdpW },
+    }),
     cable: compact({ ...base.cable, currentRatingMa: values.cableCurrentMa, resistanceMohm: values.cableResistanceMohm, eMarker: eMarker ? { ...eMarker } : undefined }),
     actions: values.actions,
     faults: values.faults.map((fault) => compact(fault)),
@@ -95,13 +102,13 @@ export function scenarioOfForm(values: BenchFormValues, base: ScenarioInput = de
 }
 
 /** A validated scenario → form values. Offers the form cannot hold (reserved types) fail. */
-export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFormValues } | { ok: false; message: string } {
+export function formOfScenario(scenario: Scenario): Result<{ values: BenchFormValues }> {
   const caps = resolveCaps(scenario.source.caps);
-  if (!caps.ok) return { ok: false, message: `source.caps: ${caps.error.message}` };
+  if (!caps.ok) return fail('scenario.invalid', `source.caps: ${caps.error.message}`);
   const offers: OfferInput[] = [];
   for (const [index, pdo] of caps.pdos.entries()) {
     if (!['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'].includes(pdo.kind)) {
-      return { ok: false, message: `source.caps: offer ${index + 1} is of a reserved type the form cannot show` };
+      return fail('scenario.invalid', `source.caps: offer ${index + 1} is of a reserved type the form cannot show`);
     }
     offers.push(offerInputOf(pdo));
   }
@@ -109,7 +116,7 @@ export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFor
   const eprOffers: OfferInput[] = [];
   if (scenario.source.eprCaps) {
     const epr = resolveCaps(scenario.source.eprCaps);
-    if (!epr.ok) return { ok: false, message: `source.eprCaps: ${epr.error.message}` };
+    if (!epr.ok) return fail(epr.error.code, `source.eprCaps: ${epr.error.message}`);
     eprOffers.push(...epr.pdos.map(offerInputOf));
   }
   return {
@@ -138,7 +145,7 @@ export function formOfScenario(scenario: Scenario): { ok: true; values: BenchFor
 export const benchFormResolverSchema = benchFormSchema.superRefine((values, context) => {
   const mapped = scenarioOfForm(values);
   if (!mapped.ok) {
-    context.addIssue({ code: 'custom', path: ['offers'], message: mapped.message });
+    context.addIssue({ code: 'custom', path: ['offers'], message: mapped.error.message });
     return;
   }
   const parsed = scenarioSchema.safeParse(mapped.scenario);
@@ -158,18 +165,16 @@ function formPathOf(path: readonly PropertyKey[]): (string | number)[] {
 }
 
 /** JSON text → a validated scenario, with "field: message" errors. */
-export function parseScenarioText(text: string): { ok: true; scenario: Scenario; input: ScenarioInput } | { ok: false; message: string } {
+export function parseScenarioText(text: string): Result<{ scenario: Scenario; input: ScenarioInput }> {
   let json: unknown;
   try {
     json = JSON.parse(text);
   } catch (error) {
-    return { ok: false, message: `JSON: ${error instanceof Error ? error.message : String(error)}` };
+    return fail('scenario.json', `JSON: ${error instanceof Error ? error.message : String(error)}`);
   }
   const parsed = scenarioSchema.safeParse(json);
   if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    const field = issue && issue.path.length > 0 ? issue.path.join('.') : 'scenario';
-    return { ok: false, message: `${field}: ${issue?.message ?? 'invalid scenario'}` };
+    return fail('scenario.invalid', zodMessage(parsed.error, { where: 'scenario', limit: 1 }));
   }
   return { ok: true, scenario: parsed.data, input: json as ScenarioInput };
 }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { parseScenario, simulate } from '../../../../shared/sim/index.ts';
 import { parseVector, runVector } from '../../../../shared/vectors/index.ts';
 import { traceRecordSchema } from '../../../../shared/trace/records.ts';
-import { analyzeRecords } from '../../../../shared/trace/index.ts';
+import { analyseRecords } from '../../../../shared/trace/index.ts';
 import { defaultScenario } from './form-model.ts';
 import { keySequence, traceJsonl, vectorFromRun, vectorIdOf } from './run-exports.ts';
 
@@ -20,7 +20,7 @@ describe('run exports', () => {
     expect(JSON.parse(header!)).toMatchObject({ trace: 1, title: 'K65 bench run' });
     const records = lines.map((line) => traceRecordSchema.parse(JSON.parse(line)));
     expect(records).toHaveLength(result.events.length);
-    expect(analyzeRecords(records).contracts.at(-1)).toMatchObject(result.contract ?? {});
+    expect(analyseRecords(records).contracts.at(-1)).toMatchObject(result.contract ?? {});
   });
 
   it('saves a negotiation vector that the vector runner passes', async () => {

@@ -17,8 +17,19 @@ export function traceJsonl(records: readonly TraceRecord[], header: { title: str
 
 /** Message types a negotiation is told apart by; GoodCRC and retries add nothing to a sequence. */
 const KEY_TYPES = new Set([
-  'Source_Capabilities', 'Request', 'Accept', 'Reject', 'Wait', 'PS_RDY', 'Soft_Reset', 'Get_Source_Cap', 'Get_Sink_Cap', 'Sink_Capabilities',
-  'Not_Supported', 'EPR_Request', 'EPR_Mode',
+  'Source_Capabilities',
+  'Request',
+  'Accept',
+  'Reject',
+  'Wait',
+  'PS_RDY',
+  'Soft_Reset',
+  'Get_Source_Cap',
+  'Get_Sink_Cap',
+  'Sink_Capabilities',
+  'Not_Supported',
+  'EPR_Request',
+  'EPR_Mode',
 ]);
 const MAX_SEQUENCE = 12;
 
@@ -45,18 +56,22 @@ export type RunOutcome = {
 
 /** A vector id from free text: lower-case words joined by "-", under `negotiation/bench/`. */
 export function vectorIdOf(name: string): string {
-  const slug = name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60);
+  const slug = name
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 60);
   return `negotiation/bench/${slug || 'scenario'}`;
 }
 
-export function vectorFromRun(scenario: ScenarioInput, outcome: RunOutcome, meta: { id: string; title: string }): string {
+export function vectorFromRun(scenario: ScenarioInput, outcome: RunOutcome, meta: { id: string; title: string; tags?: readonly string[] }): string {
   const errors = [...new Set(outcome.findings.filter((finding) => finding.severity === 'error').map((finding) => finding.rule))];
   const first = outcome.contracts[0];
   const vector = {
     vector: 1,
     id: meta.id,
     title: meta.title,
-    tags: ['bench'],
+    tags: [...new Set(['bench', ...(meta.tags ?? [])])],
     ref: 'from memory: recorded from a Parley Bench run; check each expectation against the USB PD specification before relying on it',
     kind: 'negotiation',
     input: { scenario },

@@ -14,9 +14,15 @@ function captured(input: unknown): CapturedMessage[] {
 describe('scenarioFromMessages', () => {
   it('derives offers, a fixed policy and the timing from a simulated capture', () => {
     // A 5 A cable: the source offers its 3.25 A object as it is (over a 3 A cable it would cap it at 3 A).
-    const messages = captured({ ...defaultScenario, cable: { currentRatingMa: 5_000 }, sink: { policy: { kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 } }, source: { ...defaultScenario.source, behaviour: { capsIntervalMs: 150 } }, faults: [{ kind: 'drop', from: 'sink', messageType: 'Request', nth: 1 }] });
+    const messages = captured({
+      ...defaultScenario,
+      cable: { currentRatingMa: 5_000 },
+      sink: { policy: { kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 } },
+      source: { ...defaultScenario.source, behaviour: { capsIntervalMs: 150 } },
+      faults: [{ kind: 'drop', from: 'sink', messageType: 'Request', nth: 1 }],
+    });
     const derived = scenarioFromMessages(messages);
-    if (!derived.ok) throw new Error(derived.message);
+    if (!derived.ok) throw new Error(derived.error.message);
     expect(derived.scenario.source.caps).toEqual(defaultScenario.source.caps);
     expect(derived.scenario.sink?.policy).toEqual({ kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 });
     expect(derived.scenario.sink?.changes).toEqual([]);
@@ -30,7 +36,7 @@ describe('scenarioFromMessages', () => {
       durationMs: 3_000,
     });
     const derived = scenarioFromMessages(messages);
-    if (!derived.ok) throw new Error(derived.message);
+    if (!derived.ok) throw new Error(derived.error.message);
     expect(derived.scenario.sink?.policy).toEqual({ kind: 'pps', voltageMv: 8_400, currentMa: 2_500 });
     expect(derived.scenario.sink?.changes).toHaveLength(1);
     expect(derived.scenario.sink?.changes?.[0]?.policy).toEqual({ kind: 'fixed', voltageMv: 5_000, currentMa: 1_500 });
@@ -40,13 +46,13 @@ describe('scenarioFromMessages', () => {
   it('takes a 5 A cable when the sink asked for more than 3 A', () => {
     const messages = captured({ ...defaultScenario, sink: { policy: { kind: 'fixed', voltageMv: 20_000, currentMa: 3_250 } }, cable: { currentRatingMa: 5_000 } });
     const derived = scenarioFromMessages(messages);
-    if (!derived.ok) throw new Error(derived.message);
+    if (!derived.ok) throw new Error(derived.error.message);
     expect(derived.scenario.sink?.policy).toEqual({ kind: 'fixed', voltageMv: 20_000, currentMa: 3_250 });
     expect(derived.scenario.cable).toEqual({ currentRatingMa: 5_000 });
   });
 
   it('explains a trace without offers', () => {
-    expect(scenarioFromMessages([])).toEqual({ ok: false, message: expect.stringContaining('Source_Capabilities') });
+    expect(scenarioFromMessages([])).toEqual({ ok: false, error: { code: 'trace.no-offers', message: expect.stringContaining('Source_Capabilities') } });
   });
 
   it('finds the messages in an analysis body, wrapped or not', () => {
@@ -65,7 +71,7 @@ describe('scenarioFromMessages', () => {
     const found = capturedMessagesOf({ trace: {}, analysis: { timeline: { messages: stored } } });
     expect(found?.messages.map((m) => m.decoded.header.messageType)).toEqual(stored.filter((m) => m.messageType === 'Source_Capabilities' || m.messageType === 'Request').map((m) => m.messageType));
     const derived = scenarioFromMessages(found?.messages ?? []);
-    if (!derived.ok) throw new Error(derived.message);
+    if (!derived.ok) throw new Error(derived.error.message);
     expect(derived.scenario.sink?.policy).toEqual({ kind: 'fixed', voltageMv: 15_000, currentMa: 2_000 });
   });
 });

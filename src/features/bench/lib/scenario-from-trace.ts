@@ -8,10 +8,11 @@ import { decodeMessage, parseHex } from '../../../../shared/pd/index.ts';
 import type { Message, Rdo, SourcePdo, Sop } from '../../../../shared/pd/types.ts';
 import type { SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
 import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 export type CapturedMessage = { t: number; from?: string; decoded: Message; crcOk?: boolean };
 
-export type DerivedScenario = { ok: true; scenario: ScenarioInput; notes: string[] } | { ok: false; message: string };
+export type DerivedScenario = Result<{ scenario: ScenarioInput; notes: string[] }>;
 
 const REVISIONS = new Set(['2.0', '3.0']);
 
@@ -41,7 +42,7 @@ export function scenarioFromMessages(messages: readonly CapturedMessage[], optio
   const good = messages.filter((item) => item.crcOk !== false && (item.decoded.sop ?? 'SOP') === 'SOP');
   const capsList = good.filter((item) => item.decoded.header.messageType === 'Source_Capabilities');
   const lastCaps = capsList[capsList.length - 1];
-  if (!lastCaps) return { ok: false, message: 'The trace has no Source_Capabilities message, so there are no offers to start from.' };
+  if (!lastCaps) return fail('trace.no-offers', 'The trace has no Source_Capabilities message, so there are no offers to start from.');
   const offers = lastCaps.decoded.objects as SourcePdo[];
   const notes: string[] = [`Offers from the Source_Capabilities at ${(lastCaps.t / 1_000).toFixed(1)} ms.`];
 

@@ -24,7 +24,7 @@ describe('share-url', () => {
   });
 
   it('reports a damaged payload instead of throwing', () => {
-    expect(decodeShared('not!valid')).toEqual({ ok: false, message: expect.stringContaining('damaged') });
+    expect(decodeShared('not!valid')).toEqual({ ok: false, error: { code: 'share.damaged', message: expect.stringContaining('damaged') } });
     expect(sharedFromHash('#other=1')).toBeNull();
     expect(sharedFromHash('')).toBeNull();
   });

@@ -15,12 +15,7 @@ export type BenchRun = Omit<Extract<SimRunOutput, { ok: true }>, 'ok' | 'samples
   finishedAt: string;
 };
 
-export type SimulationState =
-  | { status: 'idle' }
-  | { status: 'running'; fraction: number }
-  | { status: 'done'; run: BenchRun }
-  | { status: 'cancelled' }
-  | { status: 'failed'; message: string };
+export type SimulationState = { status: 'idle' } | { status: 'running'; fraction: number } | { status: 'done'; run: BenchRun } | { status: 'cancelled' } | { status: 'failed'; message: string };
 
 export function useSimulation() {
   const workerRef = useRef<EngineWorker<SimApi> | null>(null);
@@ -28,9 +23,7 @@ export function useSimulation() {
   const [lastRun, setLastRun] = useState<BenchRun | null>(null);
 
   useEffect(() => {
-    const worker = createEngineWorker<SimApi>(
-      () => new Worker(new URL('../../../../workers/sim.worker.ts', import.meta.url), { type: 'module', name: 'parley-sim' }),
-    );
+    const worker = createEngineWorker<SimApi>(() => new Worker(new URL('../../../../workers/sim.worker.ts', import.meta.url), { type: 'module', name: 'parley-sim' }));
     workerRef.current = worker;
     return () => {
       worker.terminate();

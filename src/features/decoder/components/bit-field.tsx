@@ -74,7 +74,9 @@ export function BitField({ raw, layout, caption }: BitFieldProps) {
                 className={cn(
                   'flex min-w-0 flex-col items-stretch rounded-sm border px-0.5 py-1 text-left transition-colors',
                   'focus-visible:outline-2 focus-visible:outline-amber-500',
-                  f.type === 'reserved' ? 'border-dashed border-slate-300 bg-slate-50 dark:border-slate-700 dark:bg-slate-900' : cn('border-slate-300 dark:border-slate-700', TONES[index % TONES.length]),
+                  f.type === 'reserved'
+                    ? 'border-dashed border-slate-300 bg-slate-50 dark:border-slate-700 dark:bg-slate-900'
+                    : cn('border-slate-300 dark:border-slate-700', TONES[index % TONES.length]),
                   reservedSet && 'border-red-500 bg-red-50 dark:bg-red-500/10',
                   active === index && 'ring-2 ring-amber-500',
                 )}

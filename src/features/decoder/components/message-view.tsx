@@ -30,7 +30,11 @@ export function MessageView({ message, warnings, hex }: MessageViewProps) {
     <div className="space-y-6">
       <Card>
         <CardHeader
-          title={<span className="font-mono text-base" data-testid="message-type">{h.messageType}</span>}
+          title={
+            <span className="font-mono text-base" data-testid="message-type">
+              {h.messageType}
+            </span>
+          }
           description={`${h.category} message on ${message.sop}, ${who} · revision ${h.specRevision} · MessageID ${h.messageId}`}
           actions={
             <>
@@ -45,22 +49,33 @@ export function MessageView({ message, warnings, hex }: MessageViewProps) {
         />
         <CardBody className="space-y-3 text-sm">
           <div className="flex flex-wrap gap-2">
-            <Badge tone="accent" mono>header {h.raw}</Badge>
+            <Badge tone="accent" mono>
+              header {h.raw}
+            </Badge>
             {message.extendedHeader && <Badge mono>extended header {message.extendedHeader.raw}</Badge>}
             {message.crc && (
               <Badge tone={message.crc.ok ? 'success' : 'error'} dot mono>
                 CRC {message.crc.value} {message.crc.ok ? 'ok' : 'wrong'}
               </Badge>
             )}
-            {warnings.length === 0 && <Badge tone="success" dot>No findings</Badge>}
+            {warnings.length === 0 && (
+              <Badge tone="success" dot>
+                No findings
+              </Badge>
+            )}
           </div>
           {warnings.length > 0 && (
             <ul className="space-y-1" aria-label="Findings">
               {warnings.map((w, i) => (
                 <li key={i} className="flex flex-wrap items-baseline gap-2">
-                  <Badge tone={w.severity} dot>{w.severity}</Badge>
+                  <Badge tone={w.severity} dot>
+                    {w.severity}
+                  </Badge>
                   <span className="font-mono text-xs">{w.rule}</span>
-                  <span>{w.object ? `Object ${w.object}: ` : ''}{w.message}</span>
+                  <span>
+                    {w.object ? `Object ${w.object}: ` : ''}
+                    {w.message}
+                  </span>
                   <span className="text-xs text-slate-500 dark:text-slate-400">{w.ref}</span>
                 </li>
               ))}

@@ -57,7 +57,10 @@ export function VcdDrop({ onPick }: { onPick(entry: Extract<VcdEntry, { kind: 'm
         </p>
       )}
       {state?.entries && (
-        <ol className="max-h-72 divide-y divide-slate-100 overflow-y-auto rounded-md border border-slate-200 text-sm dark:divide-slate-800 dark:border-slate-800" aria-label={`Messages in ${state.name}`}>
+        <ol
+          className="max-h-72 divide-y divide-slate-100 overflow-y-auto rounded-md border border-slate-200 text-sm dark:divide-slate-800 dark:border-slate-800"
+          aria-label={`Messages in ${state.name}`}
+        >
           {state.entries.length === 0 && <li className="px-3 py-2 text-slate-500">No messages found in {state.name}.</li>}
           {state.entries.map((entry, i) => (
             <li key={i}>
@@ -67,7 +70,11 @@ export function VcdDrop({ onPick }: { onPick(entry: Extract<VcdEntry, { kind: 'm
                   <span className="font-mono text-xs">{entry.sop}</span>
                   <span className="font-medium">{entry.messageType}</span>
                   <span className="text-xs text-slate-500">{entry.summary}</span>
-                  {!entry.crcOk && <Badge tone="error" dot>CRC wrong</Badge>}
+                  {!entry.crcOk && (
+                    <Badge tone="error" dot>
+                      CRC wrong
+                    </Badge>
+                  )}
                 </button>
               ) : (
                 <p className="px-3 py-1.5">

@@ -45,7 +45,14 @@ export function DecoderRoute() {
       <div className="grid items-start gap-6 xl:grid-cols-[24rem_minmax(0,1fr)]">
         <div className="space-y-6">
           <Card>
-            <CardHeader title="Message" description={<button type="button" className="underline decoration-dotted" onClick={() => update({ text: EXAMPLE, mode: 'bytes' })}>Load an example Source_Capabilities</button>} />
+            <CardHeader
+              title="Message"
+              description={
+                <button type="button" className="underline decoration-dotted" onClick={() => update({ text: EXAMPLE, mode: 'bytes' })}>
+                  Load an example Source_Capabilities
+                </button>
+              }
+            />
             <CardBody className="space-y-4">
               <Textarea
                 label="Message"
@@ -83,13 +90,20 @@ export function DecoderRoute() {
             </CardBody>
           </Card>
           <p className="text-xs text-slate-500 dark:text-slate-400">
-            Parley decodes and simulates; it does not drive hardware. Real adapters deliver up to 48 V and 5 A: when you probe one, defer to the USB PD specification, certified test labs and your local electrical codes.
+            Parley decodes and simulates; it does not drive hardware. Real adapters deliver up to 48 V and 5 A: when you probe one, defer to the USB PD specification, certified test labs and your
+            local electrical codes.
           </p>
         </div>
         <section aria-label="Decoded message" aria-busy={decoded.status === 'pending'}>
-          {decoded.status === 'idle' && <p className="rounded-lg border border-dashed border-slate-300 px-4 py-10 text-center text-sm text-slate-500 dark:border-slate-700">Paste a message to decode it.</p>}
+          {decoded.status === 'idle' && (
+            <p className="rounded-lg border border-dashed border-slate-300 px-4 py-10 text-center text-sm text-slate-500 dark:border-slate-700">Paste a message to decode it.</p>
+          )}
           {decoded.status === 'pending' && <p className="text-sm text-slate-500">Decoding…</p>}
-          {decoded.status === 'failed' && <p role="alert" className="text-sm text-red-700">The decoder stopped: {decoded.message}</p>}
+          {decoded.status === 'failed' && (
+            <p role="alert" className="text-sm text-red-700">
+              The decoder stopped: {decoded.message}
+            </p>
+          )}
           {decoded.status === 'done' &&
             (decoded.outcome.ok ? (
               <MessageView message={decoded.outcome.message} warnings={decoded.outcome.warnings} hex={decoded.outcome.hex} />

@@ -5,6 +5,18 @@ import { ErrorMessage } from '../../../components/error-message.tsx';
 import { Hex, Mono, RatingText } from '../../../components/mono.tsx';
 import type { Device } from '../../../../shared/api/index.ts';
 import { useDevices } from '../../../lib/api/get-devices.ts';
+import { decodeSinkPdo, decodeSourcePdo, summarizeObject } from '../../../../shared/pd/index.ts';
+import type { SourcePdo } from '../../../../shared/pd/types.ts';
+import { describePdo } from '../../../../shared/rules/index.ts';
+
+/** A PDO word in volts and amps ("fixed 9 V 3 A"), read as an offer (source) or a need (sink). */
+export function pdoInWords(word: string, role: string): string {
+  const raw = Number.parseInt(word.replace(/^0x/i, ''), 16);
+  if (!Number.isFinite(raw)) return word;
+  if (role === 'sink') return summarizeObject(decodeSinkPdo(raw));
+  const pdo = decodeSourcePdo(raw);
+  return pdo.kind === 'raw' ? word : describePdo(pdo as SourcePdo);
+}
 
 const col = dataColumnHelper<Device>();
 const columns = col.columns([
@@ -37,17 +49,18 @@ const columns = col.columns([
     cell: ({ getValue }) => (getValue() ? <RatingText value={getValue()} /> : <span className="text-slate-400">—</span>),
   }),
   col.accessor('pdos', {
-    header: 'PDO words',
+    header: 'Offers (object position order)',
     enableSorting: false,
-    cell: ({ getValue }) => {
+    cell: ({ getValue, row }) => {
       const pdos = getValue();
       if (pdos.length === 0) return <span className="text-slate-400">—</span>;
       return (
-        <ol className="flex max-w-72 flex-wrap gap-1" aria-label="PDO words, object position order">
+        <ol className="flex max-w-80 flex-col gap-0.5" aria-label="Offers, object position order">
           {pdos.map((pdo, index) => (
-            <li key={`${index}-${pdo}`} className="flex items-center gap-1">
+            <li key={`${index}-${pdo}`} className="flex items-baseline gap-1.5" title={`PDO word ${pdo}`}>
               <span className="font-mono text-[10px] text-slate-400">{index + 1}</span>
-              <Hex value={pdo} groupBytes={4} />
+              <span className="text-xs whitespace-nowrap text-slate-800 dark:text-slate-200">{pdoInWords(pdo, row.original.role)}</span>
+              <Hex value={pdo} groupBytes={4} className="text-[10px] text-slate-400" />
             </li>
           ))}
         </ol>

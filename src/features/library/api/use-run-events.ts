@@ -30,7 +30,9 @@ export function useRunEvents(runId: number | null): RunProgress | null {
     });
     source.onerror = () => {
       // The stream ends after "done"; a broken stream before that shows as an error.
-      setProgress((before) => (before?.finished ? before : { ...(before ?? { done: 0, total: 0, passed: 0, failed: 0 }), finished: true, error: 'Lost the connection to the run; open it on the Runs page.' }));
+      setProgress((before) =>
+        before?.finished ? before : { ...(before ?? { done: 0, total: 0, passed: 0, failed: 0 }), finished: true, error: 'Lost the connection to the run; open it on the Runs page.' },
+      );
       source.close();
     };
     return () => source.close();

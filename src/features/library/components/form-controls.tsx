@@ -20,7 +20,16 @@ function useDraft(canonical: string, same: (draft: string, canonical: string) =>
 
 type Common = { label: string; hint?: ReactNode; className?: string; disabled?: boolean };
 
-export function TextInput({ label, hint, className, disabled, value, onChange, mono, placeholder }: Common & { value: unknown; onChange: (next: string | undefined) => void; mono?: boolean; placeholder?: string }) {
+export function TextInput({
+  label,
+  hint,
+  className,
+  disabled,
+  value,
+  onChange,
+  mono,
+  placeholder,
+}: Common & { value: unknown; onChange: (next: string | undefined) => void; mono?: boolean; placeholder?: string }) {
   return (
     <Input
       label={label}

@@ -39,7 +39,14 @@ export function HistoryPanel({ vectorId, canWrite, onRestored }: { vectorId: str
           {(revisions.data?.items ?? []).map((r) => (
             <tr key={r.revision} className="align-top">
               <td className="py-2 pr-2">
-                <input type="radio" name="diff-from" aria-label={`Diff from revision ${r.revision}`} className={radio} checked={from === r.revision} onChange={() => setPicked({ from: r.revision, to })} />
+                <input
+                  type="radio"
+                  name="diff-from"
+                  aria-label={`Diff from revision ${r.revision}`}
+                  className={radio}
+                  checked={from === r.revision}
+                  onChange={() => setPicked({ from: r.revision, to })}
+                />
               </td>
               <td className="py-2 pr-2">
                 <input type="radio" name="diff-to" aria-label={`Diff to revision ${r.revision}`} className={radio} checked={to === r.revision} onChange={() => setPicked({ from, to: r.revision })} />

@@ -34,7 +34,14 @@ function FindingsFields({ v, set, disabled, path = ['expect', 'findings'] }: Fie
   return (
     <>
       <ListInput label="Findings that must appear" disabled={disabled} value={getIn(v, [...path, 'include'])} onChange={(x) => set([...path, 'include'], x)} placeholder="caps.power-rules-missing" />
-      <ListInput label="Findings that must not appear" hint='Rule ids; "*error" means no error at all.' disabled={disabled} value={getIn(v, [...path, 'exclude'])} onChange={(x) => set([...path, 'exclude'], x)} placeholder="*error" />
+      <ListInput
+        label="Findings that must not appear"
+        hint='Rule ids; "*error" means no error at all.'
+        disabled={disabled}
+        value={getIn(v, [...path, 'exclude'])}
+        onChange={(x) => set([...path, 'exclude'], x)}
+        placeholder="*error"
+      />
     </>
   );
 }
@@ -42,7 +49,14 @@ function FindingsFields({ v, set, disabled, path = ['expect', 'findings'] }: Fie
 function CapsSource({ v, set, disabled, hexKey }: FieldsProps & { hexKey: 'hex' | 'caps' }) {
   return (
     <>
-      <ListInput label="PDOs (32-bit hex)" className="sm:col-span-2" hint="The offers as numbers, e.g. 0x0001912c; or give the message hex instead." disabled={disabled} value={getIn(v, ['input', 'pdos'])} onChange={(x) => set(['input', 'pdos'], x)} />
+      <ListInput
+        label="PDOs (32-bit hex)"
+        className="sm:col-span-2"
+        hint="The offers as numbers, e.g. 0x0001912c; or give the message hex instead."
+        disabled={disabled}
+        value={getIn(v, ['input', 'pdos'])}
+        onChange={(x) => set(['input', 'pdos'], x)}
+      />
       <TextInput label="Source_Capabilities message (hex)" className="sm:col-span-2" mono disabled={disabled} value={getIn(v, ['input', hexKey])} onChange={(x) => set(['input', hexKey], x)} />
     </>
   );
@@ -50,7 +64,15 @@ function CapsSource({ v, set, disabled, hexKey }: FieldsProps & { hexKey: 'hex' 
 
 function CableSelect({ v, set, disabled }: FieldsProps) {
   const value = getIn(v, ['input', 'cableMa']);
-  return <Select label="Cable rating" disabled={disabled} options={cableOptions} value={typeof value === 'number' ? String(value) : ''} onChange={(e) => set(['input', 'cableMa'], e.target.value === '' ? undefined : Number(e.target.value))} />;
+  return (
+    <Select
+      label="Cable rating"
+      disabled={disabled}
+      options={cableOptions}
+      value={typeof value === 'number' ? String(value) : ''}
+      onChange={(e) => set(['input', 'cableMa'], e.target.value === '' ? undefined : Number(e.target.value))}
+    />
+  );
 }
 
 function DecodeFields(props: FieldsProps) {
@@ -58,16 +80,49 @@ function DecodeFields(props: FieldsProps) {
   return (
     <>
       <Section title="Input">
-        <TextInput label="Message (hex)" mono className="sm:col-span-2" disabled={disabled} value={getIn(v, ['input', 'hex'])} onChange={(x) => set(['input', 'hex'], x)} placeholder="a1 61 2c 91 01 08" />
+        <TextInput
+          label="Message (hex)"
+          mono
+          className="sm:col-span-2"
+          disabled={disabled}
+          value={getIn(v, ['input', 'hex'])}
+          onChange={(x) => set(['input', 'hex'], x)}
+          placeholder="a1 61 2c 91 01 08"
+        />
         <Select label="SOP" disabled={disabled} options={sopOptions} value={String(getIn(v, ['input', 'sop']) ?? '')} onChange={(e) => set(['input', 'sop'], e.target.value || undefined)} />
-        <TextInput label="Caps in force (hex)" hint="The Source_Capabilities a Request refers to." mono disabled={disabled} value={getIn(v, ['input', 'caps'])} onChange={(x) => set(['input', 'caps'], x)} />
-        <Checkbox label="Words: a 16-bit header then 32-bit objects as numbers" disabled={disabled} checked={getIn(v, ['input', 'words']) === true} onChange={(x) => set(['input', 'words'], x || undefined)} />
+        <TextInput
+          label="Caps in force (hex)"
+          hint="The Source_Capabilities a Request refers to."
+          mono
+          disabled={disabled}
+          value={getIn(v, ['input', 'caps'])}
+          onChange={(x) => set(['input', 'caps'], x)}
+        />
+        <Checkbox
+          label="Words: a 16-bit header then 32-bit objects as numbers"
+          disabled={disabled}
+          checked={getIn(v, ['input', 'words']) === true}
+          onChange={(x) => set(['input', 'words'], x || undefined)}
+        />
         <Checkbox label="The last 4 bytes are the CRC-32" disabled={disabled} checked={getIn(v, ['input', 'crc']) === true} onChange={(x) => set(['input', 'crc'], x || undefined)} />
       </Section>
       <Section title="Expected">
-        <TextInput label="Message type" disabled={disabled} value={getIn(v, ['expect', 'message', 'header', 'messageType'])} onChange={(x) => set(['expect', 'message', 'header', 'messageType'], x)} placeholder="Source_Capabilities" />
+        <TextInput
+          label="Message type"
+          disabled={disabled}
+          value={getIn(v, ['expect', 'message', 'header', 'messageType'])}
+          onChange={(x) => set(['expect', 'message', 'header', 'messageType'], x)}
+          placeholder="Source_Capabilities"
+        />
         <TextInput label="Error code (when decoding must fail)" mono disabled={disabled} value={getIn(v, ['expect', 'error'])} onChange={(x) => set(['expect', 'error'], x)} />
-        <JsonArea label="Expected message fields (partial Message, JSON)" className="sm:col-span-2" rows={6} disabled={disabled} value={getIn(v, ['expect', 'message'])} onChange={(x) => set(['expect', 'message'], x)} />
+        <JsonArea
+          label="Expected message fields (partial Message, JSON)"
+          className="sm:col-span-2"
+          rows={6}
+          disabled={disabled}
+          value={getIn(v, ['expect', 'message'])}
+          onChange={(x) => set(['expect', 'message'], x)}
+        />
       </Section>
     </>
   );
@@ -77,7 +132,14 @@ function EncodeFields({ v, set, disabled }: FieldsProps) {
   return (
     <>
       <Section title="Input">
-        <JsonArea label="Message (JSON, as decode prints it; raw fields may be left out)" className="sm:col-span-2" rows={8} disabled={disabled} value={getIn(v, ['input', 'message'])} onChange={(x) => set(['input', 'message'], x)} />
+        <JsonArea
+          label="Message (JSON, as decode prints it; raw fields may be left out)"
+          className="sm:col-span-2"
+          rows={8}
+          disabled={disabled}
+          value={getIn(v, ['input', 'message'])}
+          onChange={(x) => set(['input', 'message'], x)}
+        />
       </Section>
       <Section title="Expected">
         <TextInput label="Wire hex" mono className="sm:col-span-2" disabled={disabled} value={getIn(v, ['expect', 'hex'])} onChange={(x) => set(['expect', 'hex'], x)} />
@@ -172,18 +234,45 @@ function RequestFields(props: FieldsProps) {
         <Select
           label="Capability Mismatch"
           disabled={disabled}
-          options={[{ value: '', label: 'Not checked' }, { value: 'false', label: 'Clear' }, { value: 'true', label: 'Set' }]}
+          options={[
+            { value: '', label: 'Not checked' },
+            { value: 'false', label: 'Clear' },
+            { value: 'true', label: 'Set' },
+          ]}
           value={String(getIn(v, ['expect', 'request', 'capabilityMismatch']) ?? '')}
           onChange={(e) => set(['expect', 'request', 'capabilityMismatch'], e.target.value === '' ? undefined : e.target.value === 'true')}
         />
-        <JsonArea label="Expected request (partial, as parley request prints it)" className="sm:col-span-2" rows={6} disabled={disabled} value={getIn(v, ['expect', 'request'])} onChange={(x) => set(['expect', 'request'], x)} />
+        <JsonArea
+          label="Expected request (partial, as parley request prints it)"
+          className="sm:col-span-2"
+          rows={6}
+          disabled={disabled}
+          value={getIn(v, ['expect', 'request'])}
+          onChange={(x) => set(['expect', 'request'], x)}
+        />
       </Section>
     </>
   );
 }
 
 /** JSON in Monaco with a schema; the vector changes only while it parses. */
-function JsonEditorField({ label, path, schema, value, onChange, disabled, height = '16rem' }: { label: string; path: string; schema: object; value: unknown; onChange: (next: unknown) => void; disabled?: boolean; height?: string }) {
+function JsonEditorField({
+  label,
+  path,
+  schema,
+  value,
+  onChange,
+  disabled,
+  height = '16rem',
+}: {
+  label: string;
+  path: string;
+  schema: object;
+  value: unknown;
+  onChange: (next: unknown) => void;
+  disabled?: boolean;
+  height?: string;
+}) {
   const canonical = JSON.stringify(value ?? null, null, 2);
   const [draft, setDraft] = useState(canonical);
   const [seen, setSeen] = useState(canonical);
@@ -231,12 +320,21 @@ function NegotiationFields(props: FieldsProps) {
   return (
     <>
       <Section title="Scenario">
-        <JsonEditorField label="Scenario (JSON)" path="vector-scenario.json" schema={schema} disabled={disabled} value={getIn(v, ['input', 'scenario'])} onChange={(x) => set(['input', 'scenario'], x)} />
+        <JsonEditorField
+          label="Scenario (JSON)"
+          path="vector-scenario.json"
+          schema={schema}
+          disabled={disabled}
+          value={getIn(v, ['input', 'scenario'])}
+          onChange={(x) => set(['input', 'scenario'], x)}
+        />
       </Section>
       <Section title="Expected">
         <Checkbox label="No contract at the end" disabled={disabled} checked={noContract} onChange={(x) => set(['expect', 'contract'], x ? null : undefined)} />
         <NumberInput label="Contract within (ms)" disabled={disabled} value={getIn(v, ['expect', 'contractWithinMs'])} onChange={(x) => set(['expect', 'contractWithinMs'], x)} />
-        {!noContract && <JsonArea label="Contract (partial, JSON)" className="sm:col-span-2" rows={4} disabled={disabled} value={getIn(v, ['expect', 'contract'])} onChange={(x) => set(['expect', 'contract'], x)} />}
+        {!noContract && (
+          <JsonArea label="Contract (partial, JSON)" className="sm:col-span-2" rows={4} disabled={disabled} value={getIn(v, ['expect', 'contract'])} onChange={(x) => set(['expect', 'contract'], x)} />
+        )}
         <ListInput label="Message sequence (in this order)" className="sm:col-span-2" disabled={disabled} value={getIn(v, ['expect', 'sequence'])} onChange={(x) => set(['expect', 'sequence'], x)} />
         <FindingsFields {...props} />
       </Section>
@@ -254,20 +352,37 @@ function TraceFields(props: FieldsProps) {
         <Select
           label="Records"
           disabled={disabled}
-          options={[{ value: 'inline', label: 'In the vector' }, { value: 'file', label: 'A file beside the vector' }]}
+          options={[
+            { value: 'inline', label: 'In the vector' },
+            { value: 'file', label: 'A file beside the vector' },
+          ]}
           value={usesFile ? 'file' : 'inline'}
           onChange={(e) => set(['input'], e.target.value === 'file' ? { file: 'capture.trace.jsonl' } : { trace: [] })}
         />
         {usesFile ? (
           <TextInput label="File (relative to the vector file)" mono disabled={disabled} value={getIn(v, ['input', 'file'])} onChange={(x) => set(['input', 'file'], x ?? '')} />
         ) : (
-          <JsonEditorField label="Trace records (JSON)" path="vector-trace.json" schema={schema} disabled={disabled} value={getIn(v, ['input', 'trace'])} onChange={(x) => set(['input', 'trace'], x)} />
+          <JsonEditorField
+            label="Trace records (JSON)"
+            path="vector-trace.json"
+            schema={schema}
+            disabled={disabled}
+            value={getIn(v, ['input', 'trace'])}
+            onChange={(x) => set(['input', 'trace'], x)}
+          />
         )}
       </Section>
       <Section title="Expected">
         <NumberInput label="Messages" disabled={disabled} value={getIn(v, ['expect', 'messages'])} onChange={(x) => set(['expect', 'messages'], x)} />
         <FindingsFields {...props} />
-        <JsonArea label="Contracts (partial, by index, JSON)" className="sm:col-span-2" rows={4} disabled={disabled} value={getIn(v, ['expect', 'contracts'])} onChange={(x) => set(['expect', 'contracts'], x)} />
+        <JsonArea
+          label="Contracts (partial, by index, JSON)"
+          className="sm:col-span-2"
+          rows={4}
+          disabled={disabled}
+          value={getIn(v, ['expect', 'contracts'])}
+          onChange={(x) => set(['expect', 'contracts'], x)}
+        />
       </Section>
     </>
   );
@@ -280,7 +395,15 @@ function PropertyFields({ v, set, disabled }: FieldsProps) {
       <Section title="Property">
         <div className="flex flex-col gap-1.5 sm:col-span-2">
           <span className="text-xs font-medium text-slate-700 dark:text-slate-300">Code (TypeScript: export default ({'{ fc, engine }'}) =&gt; fc.property(…))</span>
-          <CodeEditor language="typescript" label="Property code" path="vector-property.ts" readOnly={disabled} height="14rem" value={typeof code === 'string' ? code : ''} onChange={(x) => set(['input', 'code'], x)} />
+          <CodeEditor
+            language="typescript"
+            label="Property code"
+            path="vector-property.ts"
+            readOnly={disabled}
+            height="14rem"
+            value={typeof code === 'string' ? code : ''}
+            onChange={(x) => set(['input', 'code'], x)}
+          />
         </div>
         <NumberInput label="Runs" disabled={disabled} value={getIn(v, ['input', 'runs'])} onChange={(x) => set(['input', 'runs'], x)} />
         <NumberInput label="Seed" disabled={disabled} value={getIn(v, ['input', 'seed'])} onChange={(x) => set(['input', 'seed'], x)} />

@@ -14,7 +14,19 @@ import { DiffLines } from './diff-lines.tsx';
 
 export type MergeChoice = { text: string; baseRevision: number };
 
-export function MergeView({ mine, theirs, schema, onResolve, onCancel }: { mine: string; theirs: StaleDetails; schema: object; onResolve: (choice: MergeChoice & { save: boolean }) => void; onCancel: () => void }) {
+export function MergeView({
+  mine,
+  theirs,
+  schema,
+  onResolve,
+  onCancel,
+}: {
+  mine: string;
+  theirs: StaleDetails;
+  schema: object;
+  onResolve: (choice: MergeChoice & { save: boolean }) => void;
+  onCancel: () => void;
+}) {
   const changes = useMemo(() => diffLines(theirs.text, mine), [mine, theirs.text]);
   const [merged, setMerged] = useState<string | null>(null);
   const pre = 'max-h-80 overflow-auto rounded-md border border-slate-200 bg-slate-50 p-3 font-mono text-xs whitespace-pre text-slate-700 dark:border-slate-800 dark:bg-slate-950 dark:text-slate-300';

@@ -30,9 +30,7 @@ export function RunPanel({ runId, selection }: { runId: number; selection: strin
       </div>
       <ProgressBar label="Vectors run" fraction={fraction} />
       <div className="flex flex-wrap items-center justify-between gap-2 text-xs text-slate-500 dark:text-slate-400">
-        <p className="min-w-0 truncate font-mono">
-          {progress?.last ? `${progress.last.ok ? 'PASS' : 'FAIL'} ${progress.last.id}${progress.last.message ? ` — ${progress.last.message}` : ''}` : ' '}
-        </p>
+        <p className="min-w-0 truncate font-mono">{progress?.last ? `${progress.last.ok ? 'PASS' : 'FAIL'} ${progress.last.id}${progress.last.message ? ` — ${progress.last.message}` : ''}` : ' '}</p>
         {progress?.error && <p className="text-red-700 dark:text-red-300">{progress.error}</p>}
         {progress?.finished && (
           <ButtonLink size="sm" to={paths.runs.detail.getHref(runId)}>

@@ -23,7 +23,14 @@ export function VectorForm({ value, onChange, isNew, devices, deviceId, onDevice
   return (
     <div className="flex flex-col gap-4">
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextInput label="Id" hint={isNew ? 'Lower-case words separated by "/"; it cannot change once saved.' : 'Fixed once saved.'} mono disabled={disabled || !isNew} value={value.id} onChange={(x) => set(['id'], x ?? '')} />
+        <TextInput
+          label="Id"
+          hint={isNew ? 'Lower-case words separated by "/"; it cannot change once saved.' : 'Fixed once saved.'}
+          mono
+          disabled={disabled || !isNew}
+          value={value.id}
+          onChange={(x) => set(['id'], x ?? '')}
+        />
         <Select
           label="Kind"
           disabled={disabled || !isNew}
@@ -31,12 +38,24 @@ export function VectorForm({ value, onChange, isNew, devices, deviceId, onDevice
           value={String(value.kind ?? 'caps')}
           onChange={(event) => {
             const kind = event.target.value as VectorKindName;
-            const base = { id: typeof value.id === 'string' ? value.id : undefined, title: typeof value.title === 'string' ? value.title : undefined, ref: typeof value.ref === 'string' ? value.ref : undefined, tags: Array.isArray(value.tags) ? (value.tags as string[]) : [] };
+            const base = {
+              id: typeof value.id === 'string' ? value.id : undefined,
+              title: typeof value.title === 'string' ? value.title : undefined,
+              ref: typeof value.ref === 'string' ? value.ref : undefined,
+              tags: Array.isArray(value.tags) ? (value.tags as string[]) : [],
+            };
             onChange(templateFor(kind, base));
           }}
         />
         <TextInput label="Title" className="sm:col-span-2" disabled={disabled} value={value.title} onChange={(x) => set(['title'], x ?? '')} />
-        <TextInput label="Where the expected value comes from" hint='A specification with revision and section, "common practice" or "from memory: …".' className="sm:col-span-2" disabled={disabled} value={value.ref} onChange={(x) => set(['ref'], x ?? '')} />
+        <TextInput
+          label="Where the expected value comes from"
+          hint='A specification with revision and section, "common practice" or "from memory: …".'
+          className="sm:col-span-2"
+          disabled={disabled}
+          value={value.ref}
+          onChange={(x) => set(['ref'], x ?? '')}
+        />
         <ListInput label="Tags" disabled={disabled} value={getIn(value, ['tags'])} onChange={(x) => set(['tags'], x ?? [])} />
         <Select
           label="Device under test"

@@ -4,6 +4,7 @@
  * form and editor never disagree and the saved file is the byte-stable one.
  */
 import { formatVector } from '../../../../shared/vectors/format.ts';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 
 export type VectorObject = Record<string, unknown>;
 export type Path = readonly (string | number)[];
@@ -34,21 +35,21 @@ export function templateFor(kind: VectorKindName, base: { id?: string; title?: s
     case 'property':
       return {
         ...head,
-        input: { code: "export default ({ fc, engine }) =>\n  fc.property(engine.arbitraries.lawfulCaps(), (pdos) => {\n    return pdos.length > 0;\n  });\n", runs: 100, seed: 1 },
+        input: { code: 'export default ({ fc, engine }) =>\n  fc.property(engine.arbitraries.lawfulCaps(), (pdos) => {\n    return pdos.length > 0;\n  });\n', runs: 100, seed: 1 },
         expect: { holds: true },
       };
   }
 }
 
-export type Parsed = { ok: true; value: VectorObject } | { ok: false; message: string };
+export type Parsed = Result<{ value: VectorObject }>;
 
 export function parseText(text: string): Parsed {
   try {
     const value = JSON.parse(text) as unknown;
-    if (typeof value !== 'object' || value === null || Array.isArray(value)) return { ok: false, message: 'A vector file is one JSON object { … }.' };
+    if (typeof value !== 'object' || value === null || Array.isArray(value)) return fail('vector.json', 'A vector file is one JSON object { … }.');
     return { ok: true, value: value as VectorObject };
   } catch (error) {
-    return { ok: false, message: `The JSON does not parse: ${error instanceof Error ? error.message : String(error)}` };
+    return fail('vector.json', `The JSON does not parse: ${error instanceof Error ? error.message : String(error)}`);
   }
 }
 
@@ -97,7 +98,10 @@ function setAt(value: VectorObject, path: Path, next: unknown, depth: number): V
 
 /** "a, b c" → ["a", "b", "c"]; empty → undefined (the key goes). */
 export function listFromText(text: string): string[] | undefined {
-  const items = text.split(/[\s,]+/).map((s) => s.trim()).filter((s) => s !== '');
+  const items = text
+    .split(/[\s,]+/)
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
   return items.length > 0 ? items : undefined;
 }
 

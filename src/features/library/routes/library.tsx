@@ -30,16 +30,7 @@ const SelectionContext = createContext<{ selected: ReadonlySet<string>; toggle(i
 
 function SelectCell({ id }: { id: string }) {
   const { selected, toggle } = useContext(SelectionContext);
-  return (
-    <input
-      type="checkbox"
-      aria-label={`Select ${id}`}
-      className="size-4 accent-amber-500"
-      checked={selected.has(id)}
-      onClick={(event) => event.stopPropagation()}
-      onChange={() => toggle(id)}
-    />
-  );
+  return <input type="checkbox" aria-label={`Select ${id}`} className="size-4 accent-amber-500" checked={selected.has(id)} onClick={(event) => event.stopPropagation()} onChange={() => toggle(id)} />;
 }
 
 const col = dataColumnHelper<VectorListItem>();
@@ -152,8 +143,7 @@ export function LibraryRoute() {
       return next;
     });
 
-  const start = (input: StartRunInput, selection: string) =>
-    startRun.mutate(input, { onSuccess: ({ run: started }) => setRun({ id: started.id, selection }) });
+  const start = (input: StartRunInput, selection: string) => startRun.mutate(input, { onSuccess: ({ run: started }) => setRun({ id: started.id, selection }) });
 
   const filterActive = Boolean(filter.q || filter.kind || filter.tag || filter.deviceId);
   const total = vectors.data?.total ?? 0;
@@ -174,19 +164,38 @@ export function LibraryRoute() {
       />
       <div className="mb-4 grid gap-3 md:grid-cols-[minmax(0,2fr)_repeat(3,minmax(0,1fr))]">
         <Input label="Search" placeholder="id, title, tag or any text in the file" value={search} onChange={(event) => setSearch(event.target.value)} type="search" />
-        <Select label="Kind" value={filter.kind ?? ''} onChange={(e) => update({ kind: e.target.value })} options={[{ value: '', label: 'Every kind' }, ...vectorKinds.map((k) => ({ value: k, label: k }))]} />
+        <Select
+          label="Kind"
+          value={filter.kind ?? ''}
+          onChange={(e) => update({ kind: e.target.value })}
+          options={[{ value: '', label: 'Every kind' }, ...vectorKinds.map((k) => ({ value: k, label: k }))]}
+        />
         <Select
           label="Tag"
           value={filter.tag ?? ''}
           onChange={(e) => update({ tag: e.target.value })}
-          options={[{ value: '', label: 'Every tag' }, ...(vectors.data?.tags ?? []).map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` })), ...(filter.tag && !(vectors.data?.tags ?? []).some((t) => t.tag === filter.tag) ? [{ value: filter.tag, label: filter.tag }] : [])]}
+          options={[
+            { value: '', label: 'Every tag' },
+            ...(vectors.data?.tags ?? []).map((t) => ({ value: t.tag, label: `${t.tag} (${t.count})` })),
+            ...(filter.tag && !(vectors.data?.tags ?? []).some((t) => t.tag === filter.tag) ? [{ value: filter.tag, label: filter.tag }] : []),
+          ]}
         />
-        <Select label="Device" value={filter.deviceId ? String(filter.deviceId) : ''} onChange={(e) => update({ device: e.target.value })} options={[{ value: '', label: 'Any device' }, ...(devices.data?.items ?? []).map((d) => ({ value: String(d.id), label: d.name }))]} />
+        <Select
+          label="Device"
+          value={filter.deviceId ? String(filter.deviceId) : ''}
+          onChange={(e) => update({ device: e.target.value })}
+          options={[{ value: '', label: 'Any device' }, ...(devices.data?.items ?? []).map((d) => ({ value: String(d.id), label: d.name }))]}
+        />
       </div>
       <div className="mb-4 flex flex-wrap items-center gap-2">
         {canWrite && (
           <>
-            <Button size="sm" onClick={() => start({ ids: [...selected] }, `${selected.size} selected`)} disabled={selected.size === 0} loading={startRun.isPending && 'ids' in (startRun.variables ?? {})}>
+            <Button
+              size="sm"
+              onClick={() => start({ ids: [...selected] }, `${selected.size} selected`)}
+              disabled={selected.size === 0}
+              loading={startRun.isPending && 'ids' in (startRun.variables ?? {})}
+            >
               Run selected{selected.size > 0 ? ` (${selected.size})` : ''}
             </Button>
             <Button size="sm" variant="secondary" onClick={() => start({ filter: { ...filter } }, 'filtered')} disabled={!filterActive || total === 0}>
@@ -248,7 +257,12 @@ export function LibraryRoute() {
             onRowClick={(v) => navigate(paths.library.vector.getHref(v.id))}
             serverSorting={{ sorting: sortingOf(sort), onSortingChange: (next) => update({ sort: sortParam(next) === 'id' ? null : sortParam(next) }) }}
             pagination={{ pageIndex: page - 1, pageSize, rowCount: total, onPageChange: (index) => update({ page: index > 0 ? String(index + 1) : null }) }}
-            empty={<EmptyState title={filterActive ? 'No vector matches' : 'The library is empty'} description={filterActive ? 'Change the search or the filters.' : canWrite ? 'Create a vector or import a zip of vector files.' : undefined} />}
+            empty={
+              <EmptyState
+                title={filterActive ? 'No vector matches' : 'The library is empty'}
+                description={filterActive ? 'Change the search or the filters.' : canWrite ? 'Create a vector or import a zip of vector files.' : undefined}
+              />
+            }
           />
         </SelectionContext.Provider>
       )}

@@ -48,7 +48,12 @@ function VectorEditor({ vectorId }: { vectorId: string | null }) {
   const user = useUser();
   const canWrite = writers.includes(user.role);
   const query = useVector(vectorId);
-  if (vectorId !== null && query.isPending) return <p className="text-sm text-slate-500" role="status">Loading the vector…</p>;
+  if (vectorId !== null && query.isPending)
+    return (
+      <p className="text-sm text-slate-500" role="status">
+        Loading the vector…
+      </p>
+    );
   if (vectorId !== null && query.isError) {
     return (
       <>
@@ -109,7 +114,10 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
   };
 
   const tabClass = (active: boolean) =>
-    cn('rounded-md px-3 py-1.5 text-sm font-medium', active ? 'bg-slate-900 text-white dark:bg-slate-100 dark:text-slate-900' : 'text-slate-600 hover:bg-slate-200/70 dark:text-slate-300 dark:hover:bg-slate-800');
+    cn(
+      'rounded-md px-3 py-1.5 text-sm font-medium',
+      active ? 'bg-slate-900 text-white dark:bg-slate-100 dark:text-slate-900' : 'text-slate-600 hover:bg-slate-200/70 dark:text-slate-300 dark:hover:bg-slate-800',
+    );
   const saveError = save.isError && !(isApiError(save.error) && save.error.code === 'vector.stale') ? save.error : null;
 
   return (
@@ -117,6 +125,7 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
       <PageHeader
         eyebrow="Library"
         title={isNew ? 'New vector' : id}
+        documentTitle={isNew ? 'New vector' : `Vector ${id}${typeof stored?.title === 'string' ? ` — ${stored.title}` : ''}`}
         description={
           stored && !isNew ? (
             <>
@@ -177,10 +186,19 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
               <CardHeader title="Form" description="One field per part of the file." />
               <CardBody>
                 {parsed.ok ? (
-                  <VectorForm value={parsed.value} onChange={(next) => setText(toText(next))} isNew={isNew} devices={devices.data?.items ?? []} deviceId={deviceId} onDeviceChange={setDeviceId} disabled={!canWrite} setIn={setIn} />
+                  <VectorForm
+                    value={parsed.value}
+                    onChange={(next) => setText(toText(next))}
+                    isNew={isNew}
+                    devices={devices.data?.items ?? []}
+                    deviceId={deviceId}
+                    onDeviceChange={setDeviceId}
+                    disabled={!canWrite}
+                    setIn={setIn}
+                  />
                 ) : (
                   <p role="alert" className="text-sm text-orange-700 dark:text-orange-300">
-                    {parsed.message} Fix the file on the right to use the form again.
+                    {parsed.error.message} Fix the file on the right to use the form again.
                   </p>
                 )}
               </CardBody>
@@ -195,7 +213,14 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
           {canWrite && (
             <Card>
               <CardBody className="flex flex-wrap items-end gap-3">
-                <Input label="Revision message" className="min-w-64 flex-1" placeholder={isNew ? 'Created' : 'What changed and why'} value={message} onChange={(event) => setMessage(event.target.value)} maxLength={500} />
+                <Input
+                  label="Revision message"
+                  className="min-w-64 flex-1"
+                  placeholder={isNew ? 'Created' : 'What changed and why'}
+                  value={message}
+                  onChange={(event) => setMessage(event.target.value)}
+                  maxLength={500}
+                />
                 <Button onClick={() => doSave(text, baseRevision)} disabled={!parsed.ok || (!dirty && !isNew)} loading={save.isPending}>
                   {isNew ? 'Create vector' : `Save revision ${(baseRevision ?? 0) + 1}`}
                 </Button>
@@ -220,7 +245,17 @@ function EditorBody({ stored, canWrite }: { stored: StoredVector | null; canWrit
           )}
           {(runOne.data || runOne.isError) && (
             <Card>
-              <CardHeader title="Result of this vector" description={runOne.data ? `Run #${runOne.data.run.id} of revision ${baseRevision}` : undefined} actions={runOne.data && <ButtonLink size="sm" to={paths.runs.detail.getHref(runOne.data.run.id)}>Open the run</ButtonLink>} />
+              <CardHeader
+                title="Result of this vector"
+                description={runOne.data ? `Run #${runOne.data.run.id} of revision ${baseRevision}` : undefined}
+                actions={
+                  runOne.data && (
+                    <ButtonLink size="sm" to={paths.runs.detail.getHref(runOne.data.run.id)}>
+                      Open the run
+                    </ButtonLink>
+                  )
+                }
+              />
               <CardBody>
                 {runOne.isError && <ErrorMessage title="The vector did not run" error={runOne.error} />}
                 {runOne.data?.results[0] && <RunResultView result={runOne.data.results[0]} />}

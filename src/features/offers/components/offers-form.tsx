@@ -33,13 +33,7 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
             <li key={field.id} className="rounded-md border border-slate-200 p-3 dark:border-slate-800" aria-label={`Offer ${index + 1}`}>
               <div className="flex flex-wrap items-end gap-3">
                 <span className="mb-2 w-6 font-mono text-xs text-slate-500 tabular">{index + 1}</span>
-                <Select
-                  label="Kind"
-                  className="w-32"
-                  options={offerKindOptions}
-                  value={field.kind}
-                  onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))}
-                />
+                <Select label="Kind" className="w-32" options={offerKindOptions} value={field.kind} onChange={(event) => update(index, defaultOffer(event.target.value as OfferKind))} />
                 {offerFields[field.kind].map((f) => (
                   <Input
                     key={f.name}
@@ -67,7 +61,11 @@ export function OffersForm({ form }: { form: UseFormReturn<OffersFormValues> }) 
             </li>
           ))}
         </ol>
-        {errors.offers?.root?.message && <p role="alert" className="text-xs font-medium text-red-600">{errors.offers.root.message}</p>}
+        {errors.offers?.root?.message && (
+          <p role="alert" className="text-xs font-medium text-red-600">
+            {errors.offers.root.message}
+          </p>
+        )}
         <div className="flex flex-wrap items-end gap-2">
           <Select label="New offer" className="w-36" options={offerKindOptions} value={kindToAdd} onChange={(event) => setKindToAdd(event.target.value as OfferKind)} />
           <Button variant="secondary" disabled={fields.length >= 13} onClick={() => append(defaultOffer(kindToAdd))}>

@@ -14,6 +14,7 @@ import { OffersForm } from '../components/offers-form.tsx';
 import { SourceLoader } from '../components/source-loader.tsx';
 import { initialFormValues, offersFormSchema, type OffersFormValues } from '../lib/offers-form.ts';
 import { analyseInWorker, readInWorker, useRulesWorker } from '../lib/rules-worker.ts';
+import { zodMessage } from '../../../../shared/core/zod-message.ts';
 
 // recharts is large: the chart arrives in its own chunk.
 const EnvelopeChart = lazy(() => import('../components/envelope-chart.tsx'));
@@ -21,8 +22,7 @@ const EnvelopeChart = lazy(() => import('../components/envelope-chart.tsx'));
 function policyError(draft: PolicyDraft): string | undefined {
   const parsed = sinkPolicySchema.safeParse(policyOf(draft));
   if (parsed.success) return undefined;
-  const issue = parsed.error.issues[0]!;
-  return `${issue.path.join('.') || 'policy'}: ${issue.message}`;
+  return zodMessage(parsed.error, { where: 'policy', limit: 1 });
 }
 
 export function OffersRoute() {
@@ -90,8 +90,8 @@ export function OffersRoute() {
         description="Build or load a source's Source_Capabilities, check them against the structural rules and the Power Rules, and see the contract a sink takes."
       />
       <p className="mb-6 max-w-4xl rounded-md border border-amber-300/60 bg-amber-50 px-4 py-2.5 text-xs text-amber-900 dark:border-amber-400/30 dark:bg-amber-400/10 dark:text-amber-200">
-        Parley checks and simulates; it does not drive hardware. Real adapters deliver up to 48 V and 5 A: when you test one, follow the USB PD specification,
-        a certified test lab's procedures and your local electrical codes.
+        Parley checks and simulates; it does not drive hardware. Real adapters deliver up to 48 V and 5 A: when you test one, follow the USB PD specification, a certified test lab's procedures and
+        your local electrical codes.
       </p>
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,7fr)_minmax(0,5fr)]">
         <div className="space-y-6">
@@ -113,7 +113,10 @@ export function OffersRoute() {
             </Card>
           )}
           <Card aria-labelledby="envelope-heading">
-            <CardHeader title={<span id="envelope-heading">Power envelope</span>} description="Current and power of each fixed offer by voltage; programmable ranges as bands; the cable's limit dashed." />
+            <CardHeader
+              title={<span id="envelope-heading">Power envelope</span>}
+              description="Current and power of each fixed offer by voltage; programmable ranges as bands; the cable's limit dashed."
+            />
             <CardBody>
               <Suspense fallback={<div className="h-80" />}>{analysis && <EnvelopeChart pdos={analysis.pdos} cableMa={cable} />}</Suspense>
             </CardBody>

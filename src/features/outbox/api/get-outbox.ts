@@ -6,7 +6,6 @@ export type OutboxItem = { id: number | string; to: string; subject: string; sen
 export type OutboxResponse = { items: OutboxItem[]; total: number };
 export type OutboxParams = { page: number; pageSize: number };
 
-
 /** Stored mails, newest first; `page` counts from 1. */
 export async function getOutbox(params: OutboxParams, signal?: AbortSignal): Promise<OutboxResponse> {
   return api.get<OutboxResponse>('/outbox', { query: params, signal });

@@ -55,9 +55,7 @@ function MailBody({ mail }: { mail: OutboxMail }) {
               onClick={() => setView(tab.id)}
               className={cn(
                 '-mb-px border-b-2 px-3 py-2 text-xs font-medium',
-                view === tab.id
-                  ? 'border-amber-500 text-slate-900 dark:text-slate-100'
-                  : 'border-transparent text-slate-500 hover:text-slate-800 dark:hover:text-slate-200',
+                view === tab.id ? 'border-amber-500 text-slate-900 dark:text-slate-100' : 'border-transparent text-slate-500 hover:text-slate-800 dark:hover:text-slate-200',
               )}
             >
               {tab.label}
@@ -67,12 +65,7 @@ function MailBody({ mail }: { mail: OutboxMail }) {
       <div role="tabpanel">
         {view === 'formatted' && mail.html ? (
           // No allow-scripts and no allow-same-origin: the mail cannot run code or reach the app.
-          <iframe
-            title={`Mail: ${mail.subject}`}
-            sandbox="allow-popups allow-popups-to-escape-sandbox"
-            srcDoc={mailSrcDoc(mail.html)}
-            className="h-[26rem] w-full bg-white"
-          />
+          <iframe title={`Mail: ${mail.subject}`} sandbox="allow-popups allow-popups-to-escape-sandbox" srcDoc={mailSrcDoc(mail.html)} className="h-[26rem] w-full bg-white" />
         ) : (
           <MailText text={mail.text} />
         )}

@@ -3,7 +3,7 @@ import { Badge } from '../../../components/badge.tsx';
 import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import type { CounterexampleRun } from '../../../../workers/property.worker.ts';
-import { downloadVector, saveVector } from '../lib/save-vector.ts';
+import { downloadVector, saveVector } from '../../../lib/save-vector.ts';
 import { MessageList } from './message-list.tsx';
 import { SaveStatus, type SaveState } from './save-status.tsx';
 
@@ -52,7 +52,10 @@ export function CounterexamplePanel({ run, vector }: CounterexamplePanelProps) {
       <CardBody className="space-y-4">
         <div className="flex flex-wrap items-center gap-2 text-sm text-slate-700 dark:text-slate-300">
           <span>
-            Contract: <span className="font-mono" data-testid="counterexample-contract">{contractText(run)}</span>
+            Contract:{' '}
+            <span className="font-mono" data-testid="counterexample-contract">
+              {contractText(run)}
+            </span>
           </span>
           <Badge tone={errors > 0 ? 'error' : 'success'} dot>
             {errors === 1 ? '1 error finding' : `${errors} error findings`}

@@ -67,8 +67,7 @@ export function RunControls({ settings, onSettings, running, progress, onRun, on
         </Button>
       </div>
       <p className="basis-full text-xs text-slate-500 dark:text-slate-400">
-        {disabledReason && !running ? `${disabledReason} ` : ''}fast-check runs the property with this many generated inputs from this seed; the same seed gives the same inputs
-        everywhere.
+        {disabledReason && !running ? `${disabledReason} ` : ''}fast-check runs the property with this many generated inputs from this seed; the same seed gives the same inputs everywhere.
       </p>
       {running && (
         <div className="basis-full space-y-1.5" aria-live="polite">

@@ -4,7 +4,7 @@ import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Select } from '../../../components/select.tsx';
 import { describeZodError, vectorSchema } from '../../../../shared/vectors/schema.ts';
-import { downloadVector, saveVector } from '../lib/save-vector.ts';
+import { downloadVector, saveVector } from '../../../lib/save-vector.ts';
 import { SaveStatus, type SaveState } from './save-status.tsx';
 
 export type PropertyMeta = { id: string; title: string; ref: string; tags: string[]; holds: boolean };

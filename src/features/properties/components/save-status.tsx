@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
 import { errorText } from '../../../components/error-message.tsx';
 import { paths } from '../../../config/paths.ts';
-import type { SaveOutcome } from '../lib/save-vector.ts';
+import type { SaveOutcome } from '../../../lib/save-vector.ts';
 
 export type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'done'; outcome: SaveOutcome } | { kind: 'failed'; error: unknown };
 

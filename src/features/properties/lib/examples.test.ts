@@ -25,7 +25,16 @@ describe('property examples', () => {
 
   it('planted bug: fails and shrinks to a 28 W source at 15 V with a max-power sink', async () => {
     const planted = examples.at(-1)!;
-    const vector = vectorSchema.parse({ vector: 1, id: planted.id, title: planted.title, tags: planted.tags, ref: planted.ref, kind: 'property', input: { code: planted.code, runs: planted.runs, seed: planted.seed }, expect: { holds: planted.holds } });
+    const vector = vectorSchema.parse({
+      vector: 1,
+      id: planted.id,
+      title: planted.title,
+      tags: planted.tags,
+      ref: planted.ref,
+      kind: 'property',
+      input: { code: planted.code, runs: planted.runs, seed: planted.seed },
+      expect: { holds: planted.holds },
+    });
     const result = await runVector(vector);
     expect(result.ok).toBe(true); // it is expected not to hold
     expect(result.property?.holds).toBe(false);
@@ -46,7 +55,16 @@ describe('property examples', () => {
 describe('the blank template', () => {
   it('holds on the real engine', async () => {
     const { blankExample } = await import('./examples.ts');
-    const vector = vectorSchema.parse({ vector: 1, id: blankExample.id, title: blankExample.title, tags: [], ref: blankExample.ref, kind: 'property', input: { code: blankExample.code, runs: 100, seed: 1 }, expect: { holds: true } });
+    const vector = vectorSchema.parse({
+      vector: 1,
+      id: blankExample.id,
+      title: blankExample.title,
+      tags: [],
+      ref: blankExample.ref,
+      kind: 'property',
+      input: { code: blankExample.code, runs: 100, seed: 1 },
+      expect: { holds: true },
+    });
     const result = await runVector(vector);
     expect(result.message).toBeUndefined();
     expect(result.property?.holds).toBe(true);

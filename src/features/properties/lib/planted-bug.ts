@@ -9,7 +9,7 @@ export const plantedBugExample = {
   id: 'property/demo/planted-bug-contract-above-offer',
   title: 'Planted bug: a simulator copy that contracts 50 mA above the offer from 15 V up (fails and shrinks)',
   tags: ['demo', 'planted-bug'],
-  ref: 'USB PD R3.1 V1.8 §6.4.2 (the RDO\'s operating current is within the referenced PDO) (from memory)',
+  ref: "USB PD R3.1 V1.8 §6.4.2 (the RDO's operating current is within the referenced PDO) (from memory)",
   kind: 'property',
   input: {
     code: `export default ({ fc, engine }: PropertyContext) => {

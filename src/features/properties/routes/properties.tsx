@@ -14,10 +14,7 @@ import { checkInWorker, usePropertyWorker, type PropertyProgress } from '../lib/
 
 const BLANK_ID = '__new__';
 
-const exampleOptions = [
-  ...examples.map((example) => ({ value: example.id, label: example.title })),
-  { value: BLANK_ID, label: 'A new property (template)' },
-];
+const exampleOptions = [...examples.map((example) => ({ value: example.id, label: example.title })), { value: BLANK_ID, label: 'A new property (template)' }];
 
 function metaOf(example: PropertyExample): PropertyMeta {
   return { id: example.id, title: example.title, ref: example.ref, tags: example.tags, holds: example.holds };
@@ -29,12 +26,15 @@ const scratchMeta: PropertyMeta = { id: 'property/scratch', title: 'Scratch prop
 function ProblemsLine({ problems, typesReady }: { problems: CodeEditorProblem[]; typesReady: boolean }) {
   if (!typesReady) return <p className="text-xs text-slate-500">Loading the engine and fast-check types…</p>;
   const errors = problems.filter((p) => p.severity === 'error');
-  if (errors.length === 0) return <p className="text-xs text-emerald-700 dark:text-emerald-400" data-testid="type-problems">Type check: no problems.</p>;
+  if (errors.length === 0)
+    return (
+      <p className="text-xs text-emerald-700 dark:text-emerald-400" data-testid="type-problems">
+        Type check: no problems.
+      </p>
+    );
   return (
     <div className="text-xs text-amber-800 dark:text-amber-300" data-testid="type-problems">
-      <p>
-        Type check: {errors.length === 1 ? '1 problem' : `${errors.length} problems`} (the property still runs; types are a help, not a gate).
-      </p>
+      <p>Type check: {errors.length === 1 ? '1 problem' : `${errors.length} problems`} (the property still runs; types are a help, not a gate).</p>
       <ul className="mt-1 list-disc pl-5 font-mono">
         {errors.slice(0, 3).map((p) => (
           <li key={`${p.line}:${p.column}:${p.message}`}>
@@ -126,16 +126,7 @@ export function PropertiesRoute() {
               disabledReason={worker ? (code.trim() === '' ? 'Write a property first.' : undefined) : 'Starting the worker…'}
             />
           </div>
-          <CodeEditor
-            language="typescript"
-            label="Property code"
-            path="property.ts"
-            value={code}
-            onChange={setCode}
-            typeDeclarations={typeDeclarations}
-            onProblems={setProblems}
-            height="28rem"
-          />
+          <CodeEditor language="typescript" label="Property code" path="property.ts" value={code} onChange={setCode} typeDeclarations={typeDeclarations} onProblems={setProblems} height="28rem" />
           <ProblemsLine problems={problems} typesReady={typeDeclarations !== undefined} />
         </CardBody>
       </Card>

@@ -18,11 +18,7 @@ const groups: { group: RuleGroup; title: string; description: string }[] = [
 export function RulesIndexRoute() {
   return (
     <>
-      <PageHeader
-        eyebrow="Analyse"
-        title="Rules"
-        description="Every check Parley reports as a finding, with what it means, why it matters and where it comes from. Findings everywhere link here."
-      />
+      <PageHeader eyebrow="Analyse" title="Rules" description="Every check Parley reports as a finding, with what it means, why it matters and where it comes from. Findings everywhere link here." />
       <div className="space-y-6">
         {groups.map(({ group, title, description }) => {
           const ids = ruleIds.filter((id) => ruleGroup(id) === group);

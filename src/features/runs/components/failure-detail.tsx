@@ -54,9 +54,7 @@ export function FailureDetail({ result }: { result: RunResult | null }) {
             ))}
           </ul>
         )}
-        {!result.ok && (result.expected !== undefined || result.actual !== undefined) && (
-          <ExpectedActual expected={result.expected} actual={result.actual} />
-        )}
+        {!result.ok && (result.expected !== undefined || result.actual !== undefined) && <ExpectedActual expected={result.expected} actual={result.actual} />}
         {!result.ok && result.expected === undefined && result.actual === undefined && <p className="text-xs text-slate-500">CI reported this failure; the report carries the message only.</p>}
         {result.counterexampleVector !== undefined && (
           <section aria-label="Counterexample">

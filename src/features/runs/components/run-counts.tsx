@@ -2,7 +2,12 @@ import { Badge } from '../../../components/badge.tsx';
 import type { Run } from '../../../../shared/api/index.ts';
 
 export function RunCounts({ run }: { run: Run }) {
-  if (run.status === 'running') return <Badge tone="accent">running {run.done}/{run.total}</Badge>;
+  if (run.status === 'running')
+    return (
+      <Badge tone="accent">
+        running {run.done}/{run.total}
+      </Badge>
+    );
   return (
     <span className="flex flex-wrap items-center gap-1.5">
       <Badge tone="success" dot>

@@ -50,7 +50,12 @@ export function RunDetailRoute() {
   const selectedId = params.get('result');
   const [onlyFailures, setOnlyFailures] = useState(false);
   const [page, setPage] = useState(0);
-  if (run.isPending) return <p className="text-sm text-slate-500" role="status">Loading the run…</p>;
+  if (run.isPending)
+    return (
+      <p className="text-sm text-slate-500" role="status">
+        Loading the run…
+      </p>
+    );
   if (run.isError) return <ErrorMessage title="The run could not be loaded" error={run.error} action={<ButtonLink to={paths.runs.index.getHref()}>All runs</ButtonLink>} />;
   const { run: summary, results } = run.data;
   const selected = results.find((r) => r.vectorId === selectedId) ?? results.find((r) => !r.ok) ?? null;

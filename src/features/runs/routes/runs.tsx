@@ -52,8 +52,24 @@ export function RunsRoute() {
     <>
       <PageHeader eyebrow="Test" title="Runs" description="Every run of the library, started here or posted by CI for a firmware build, newest first." />
       <div className="mb-4 flex flex-wrap gap-3">
-        <Select label="Project" className="w-56" value={project} onChange={(e) => update('project', e.target.value)} options={[{ value: '', label: 'Every project' }, ...(runs.data?.projects ?? []).map((p) => ({ value: p, label: p }))]} />
-        <Select label="From" className="w-40" value={source} onChange={(e) => update('source', e.target.value)} options={[{ value: '', label: 'Library and CI' }, { value: 'ui', label: 'Library' }, { value: 'ci', label: 'CI' }]} />
+        <Select
+          label="Project"
+          className="w-56"
+          value={project}
+          onChange={(e) => update('project', e.target.value)}
+          options={[{ value: '', label: 'Every project' }, ...(runs.data?.projects ?? []).map((p) => ({ value: p, label: p }))]}
+        />
+        <Select
+          label="From"
+          className="w-40"
+          value={source}
+          onChange={(e) => update('source', e.target.value)}
+          options={[
+            { value: '', label: 'Library and CI' },
+            { value: 'ui', label: 'Library' },
+            { value: 'ci', label: 'CI' },
+          ]}
+        />
       </div>
       {runs.isError ? (
         <ErrorMessage title="The runs could not be loaded" error={runs.error} />

@@ -46,7 +46,12 @@ const columns = col.columns([
   col.accessor('project', { header: 'Project', enableSorting: false, meta: { mono: true } }),
   col.accessor('name', { header: 'Name', enableSorting: false }),
   col.accessor('prefix', { header: 'Token', enableSorting: false, meta: { mono: true }, cell: ({ getValue }) => `${getValue()}…` }),
-  col.accessor('createdAt', { header: 'Created', enableSorting: false, meta: { mono: true }, cell: ({ row }) => <span title={`by ${row.original.createdBy}`}>{formatDateTime(row.original.createdAt)}</span> }),
+  col.accessor('createdAt', {
+    header: 'Created',
+    enableSorting: false,
+    meta: { mono: true },
+    cell: ({ row }) => <span title={`by ${row.original.createdBy}`}>{formatDateTime(row.original.createdAt)}</span>,
+  }),
   col.accessor('lastUsedAt', { header: 'Last used', enableSorting: false, meta: { mono: true }, cell: ({ getValue }) => (getValue() ? formatDateTime(getValue()) : 'never') }),
   col.display({ id: 'actions', header: () => <span className="sr-only">Actions</span>, meta: { align: 'end' }, cell: ({ row }) => <RevokeButton token={row.original} /> }),
 ]);
@@ -100,10 +105,15 @@ export function TokensRoute() {
                     {copied ? 'Copied' : 'Copy token'}
                   </Button>
                 </div>
-                <p className="mt-2 text-xs text-slate-700 dark:text-slate-300">In CI, after <code className="font-mono">parley run vectors --junit junit.xml</code>:</p>
-                <pre className="overflow-x-auto rounded bg-white p-2 font-mono text-[11px] whitespace-pre-wrap text-slate-800 dark:bg-slate-950 dark:text-slate-200">{curlFor(shown.token, shown.item.project)}</pre>
+                <p className="mt-2 text-xs text-slate-700 dark:text-slate-300">
+                  In CI, after <code className="font-mono">parley run vectors --junit junit.xml</code>:
+                </p>
+                <pre className="overflow-x-auto rounded bg-white p-2 font-mono text-[11px] whitespace-pre-wrap text-slate-800 dark:bg-slate-950 dark:text-slate-200">
+                  {curlFor(shown.token, shown.item.project)}
+                </pre>
                 <p className="text-xs text-slate-600 dark:text-slate-400">
-                  Raw XML works too (<code className="font-mono">-H "Content-Type: application/xml" --data-binary @junit.xml "…/api/runs?project=…&amp;build=…"</code>), and so does the JSON of <code className="font-mono">parley run --json</code>.
+                  Raw XML works too (<code className="font-mono">-H "Content-Type: application/xml" --data-binary @junit.xml "…/api/runs?project=…&amp;build=…"</code>), and so does the JSON of{' '}
+                  <code className="font-mono">parley run --json</code>.
                 </p>
               </div>
             )}
@@ -112,7 +122,15 @@ export function TokensRoute() {
         {tokens.isError ? (
           <ErrorMessage title="The tokens could not be loaded" error={tokens.error} />
         ) : (
-          <DataTable label="API tokens" dense columns={columns} data={tokens.data?.items ?? noTokens} getRowId={(t) => String(t.id)} isLoading={tokens.isPending} empty={<EmptyState title="No tokens" description="Create one per project that posts results." />} />
+          <DataTable
+            label="API tokens"
+            dense
+            columns={columns}
+            data={tokens.data?.items ?? noTokens}
+            getRowId={(t) => String(t.id)}
+            isLoading={tokens.isPending}
+            empty={<EmptyState title="No tokens" description="Create one per project that posts results." />}
+          />
         )}
       </div>
     </>

@@ -3,7 +3,6 @@ import { api } from '../../../lib/api-client.ts';
 import { traceKeys } from '../../../lib/query-keys.ts';
 import type { TraceItem } from '../../../../shared/api/index.ts';
 
-
 export type TraceSort = 'createdAt' | '-createdAt' | 'title' | '-title' | 'sizeBytes' | '-sizeBytes' | 'errors' | '-errors';
 export type TraceListParams = {
   q?: string;

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 
-export type ShareInput = { to: string; message?: string };
-export type ShareResult = { sent: true; to: string; subject: string };
+export type ShareInput = { to: string; message?: string /** Put a read-only report link valid this many days in the mail. */; linkDays?: number };
+export type ShareResult = { sent: true; to: string; subject: string; link?: string };
 
 /** E-mails the diagnosis (summary, contracts, findings, link) through the server's mailer. */
 export async function shareTrace(traceId: string | number, input: ShareInput): Promise<ShareResult> {
@@ -17,4 +17,3 @@ export function useShareTrace(traceId: string | number) {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['outbox'] }),
   });
 }
-

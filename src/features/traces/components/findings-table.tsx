@@ -33,7 +33,11 @@ export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: 
         meta: { mono: true },
         cell: ({ row }) =>
           row.original.t === undefined ? (
-            row.original.line !== undefined ? <span className="whitespace-nowrap">line {row.original.line}</span> : '—'
+            row.original.line !== undefined ? (
+              <span className="whitespace-nowrap">line {row.original.line}</span>
+            ) : (
+              '—'
+            )
           ) : (
             <button
               type="button"

@@ -11,7 +11,12 @@ export function FindingCounts({ item }: { item: Pick<TraceItem, 'status' | 'coun
   if (item.status === 'queued' || item.status === 'analysing') return <Badge tone="accent">analysing</Badge>;
   if (item.status === 'failed') return <Badge tone="error">analysis failed</Badge>;
   const { error, warning } = item.counts;
-  if (error + warning === 0) return <Badge tone="success" dot>clean</Badge>;
+  if (error + warning === 0)
+    return (
+      <Badge tone="success" dot>
+        clean
+      </Badge>
+    );
   return (
     <span className="inline-flex flex-wrap gap-1">
       {error > 0 && (

@@ -19,6 +19,10 @@ import type { TraceDetail } from '../../../../shared/api/index.ts';
 import { uploadTrace } from '../api/upload-trace.ts';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { formatBytes } from '../lib/format.ts';
+import { mappedTextToJsonl } from '../../../../shared/trace/mapped-text-reader.ts';
+import { useImportMappings } from '../api/import-mappings.ts';
+import { ImportMappingForm } from './import-mapping-form.tsx';
+import { plural } from '../../../lib/plural.ts';
 
 type Phase =
   | { kind: 'idle' }
@@ -53,6 +57,10 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
   const [title, setTitle] = useState('');
   const [notes, setNotes] = useState('');
   const [phase, setPhase] = useState<Phase>({ kind: 'idle' });
+  const mappings = useImportMappings();
+  const [mappingId, setMappingId] = useState('');
+  const [mappingOpen, setMappingOpen] = useState(false);
+  const [mappedNote, setMappedNote] = useState<string | null>(null);
   const stopWatching = useRef<(() => void) | null>(null);
   useEffect(() => () => stopWatching.current?.(), []);
   const panel = useRef<HTMLElement>(null);
@@ -73,11 +81,29 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
     setPhase({ kind: 'done', detail, duplicate });
   };
 
+  /** With a mapping chosen, the log is read in the browser and uploaded as the JSON Lines trace it maps to. */
+  const fileToSend = async (chosen: File): Promise<File | null> => {
+    setMappedNote(null);
+    const saved = mappings.data?.items.find((m) => String(m.id) === mappingId);
+    if (!saved) return chosen;
+    const mapped = mappedTextToJsonl(await chosen.text(), saved.mapping, title.trim() || chosen.name);
+    if (!mapped.ok) {
+      setPhase({ kind: 'error', title: 'The log could not be read with this mapping', message: mapped.error.message });
+      return null;
+    }
+    setMappedNote(
+      `Read with “${saved.name}”: ${plural(mapped.messages, 'message')}${mapped.skipped.length > 0 ? `, ${plural(mapped.skipped.length, 'line')} without a message left out (first: line ${mapped.skipped[0]!.line}, ${mapped.skipped[0]!.reason})` : ''}.`,
+    );
+    return new File([mapped.jsonl], `${chosen.name.replace(/\.[^.]*$/, '')}.trace.jsonl`, { type: 'application/x-ndjson' });
+  };
+
   const start = async () => {
     if (!file) return;
+    const sending = await fileToSend(file);
+    if (!sending) return;
     setPhase({ kind: 'uploading', fraction: 0 });
     try {
-      const stored = await uploadTrace({ file, title, deviceId, customerRef, notes }, { onProgress: (fraction) => setPhase({ kind: 'uploading', fraction }) });
+      const stored = await uploadTrace({ file: sending, title, deviceId, customerRef, notes }, { onProgress: (fraction) => setPhase({ kind: 'uploading', fraction }) });
       if (stored.duplicate || stored.trace.status === 'done' || stored.trace.status === 'failed') {
         await finish(stored.trace.id, Boolean(stored.duplicate));
         return;
@@ -152,23 +178,49 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
             <span className="text-sm text-slate-700 dark:text-slate-200">Drop a trace here, or click to choose one</span>
           )}
           <span className="text-xs text-slate-500 dark:text-slate-400">The format is read from the content, not the file name.</span>
-          <input
-            ref={fileInput}
-            id={inputId}
-            type="file"
-            className="sr-only"
-            disabled={busy}
-            data-testid="trace-file-input"
-            onChange={(event) => choose(event.target.files?.[0])}
-          />
+          <input ref={fileInput} id={inputId} type="file" className="sr-only" disabled={busy} data-testid="trace-file-input" onChange={(event) => choose(event.target.files?.[0])} />
         </label>
 
+        <div className="space-y-1">
+          <Select
+            label="Read the file as"
+            value={mappingId}
+            onChange={(event) => setMappingId(event.target.value)}
+            disabled={busy}
+            options={[
+              { value: '', label: 'Detected from the content (JSON Lines, text, VCD)' },
+              ...(mappings.data?.items ?? []).map((m) => ({ value: String(m.id), label: `Console log: ${m.name}` })),
+            ]}
+            hint="A saved import mapping reads a firmware console log without editing it."
+          />
+          <button type="button" className="text-xs text-amber-800 underline underline-offset-2 dark:text-amber-300" onClick={() => setMappingOpen((open) => !open)} aria-expanded={mappingOpen}>
+            {mappingOpen ? 'Close the new mapping' : 'New import mapping…'}
+          </button>
+          {mappingOpen && (
+            <div className="rounded-md border border-slate-200 p-3 dark:border-slate-800">
+              <ImportMappingForm
+                onSaved={(saved) => {
+                  setMappingId(String(saved.id));
+                  setMappingOpen(false);
+                }}
+              />
+            </div>
+          )}
+        </div>
         <Select label="Device under test" options={deviceOptions} value={deviceId} onChange={(event) => setDeviceId(event.target.value)} disabled={busy} />
         <div className="grid gap-3 sm:grid-cols-2">
           <Input label="Customer reference" value={customerRef} maxLength={120} onChange={(event) => setCustomerRef(event.target.value)} disabled={busy} placeholder="e.g. KD-CASE-2291" />
           <Input label="Title" value={title} maxLength={200} onChange={(event) => setTitle(event.target.value)} disabled={busy} hint="Default: the trace's own title or its file name" />
         </div>
-        <Textarea label="Notes" rows={3} value={notes} maxLength={4000} onChange={(event) => setNotes(event.target.value)} disabled={busy} placeholder="What the customer saw, which cable, which firmware…" />
+        <Textarea
+          label="Notes"
+          rows={3}
+          value={notes}
+          maxLength={4000}
+          onChange={(event) => setNotes(event.target.value)}
+          disabled={busy}
+          placeholder="What the customer saw, which cable, which firmware…"
+        />
 
         {phase.kind === 'uploading' && <ProgressBar label="Upload" fraction={phase.fraction} />}
         {phase.kind === 'uploading' && <p className="text-xs text-slate-500">Uploading…</p>}
@@ -178,7 +230,16 @@ export function UploadPanel({ ref }: { ref?: Ref<UploadPanelHandle> }) {
             <p className="text-xs text-slate-500">Analysing on the server: decoding messages, checking timers, contracts and VBUS…</p>
           </div>
         )}
-        {phase.kind === 'error' && <ErrorMessage title={phase.title}><p className="mt-0.5">{phase.message}</p></ErrorMessage>}
+        {phase.kind === 'error' && (
+          <ErrorMessage title={phase.title}>
+            <p className="mt-0.5">{phase.message}</p>
+          </ErrorMessage>
+        )}
+        {mappedNote && phase.kind !== 'idle' && phase.kind !== 'error' && (
+          <p className="text-xs text-slate-600 dark:text-slate-400" data-testid="mapped-note">
+            {mappedNote}
+          </p>
+        )}
         {phase.kind === 'done' && <UploadResult detail={phase.detail} duplicate={phase.duplicate} />}
 
         <div className="flex justify-end gap-2">
@@ -200,7 +261,10 @@ function UploadResult({ detail, duplicate }: { detail: TraceDetail; duplicate: b
   const { trace, analysis } = detail;
   const malformed = analysis?.findings.filter((f) => f.rule === 'trace.malformed-line') ?? [];
   return (
-    <div role="status" className="space-y-2 rounded-md border border-emerald-200 bg-emerald-50 px-4 py-3 text-sm text-emerald-950 dark:border-emerald-500/30 dark:bg-emerald-500/10 dark:text-emerald-100">
+    <div
+      role="status"
+      className="space-y-2 rounded-md border border-emerald-200 bg-emerald-50 px-4 py-3 text-sm text-emerald-950 dark:border-emerald-500/30 dark:bg-emerald-500/10 dark:text-emerald-100"
+    >
       <p className="font-medium">{duplicate ? `This file was uploaded before, as “${trace.title}”.` : 'Analysed.'}</p>
       {trace.summary && <p data-testid="upload-summary">{trace.summary}</p>}
       {malformed.length > 0 && (

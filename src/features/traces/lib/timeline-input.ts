@@ -8,12 +8,14 @@ import type { ChartBand } from '../../../components/timeline/vbus-chart.tsx';
 import type { TimelineSpan } from '../../../components/timeline/trace-timeline.tsx';
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
-import type { AnalysisSummary, TimelineWindow } from '../../../../shared/api/index.ts';
+import type { BusEvent } from '../../../components/timeline/event-lane.tsx';
+import type { Analysis } from '../../../../shared/api/index.ts';
 import { contractLabel } from './format.ts';
 
 export type TimelineInput = {
   measurements: Measurement[];
   messages: LaneMessage[];
+  events: BusEvent[];
   contracts: TimelineSpan[];
   bands: ChartBand[];
   endUs: number;
@@ -29,23 +31,28 @@ function limitsMv(kind: string, voltageMv: number): [number, number] | null {
   return null;
 }
 
-/** The chart's input from a window of the timeline (the server reads only that window) and the analysis summary. */
-export function timelineInput(summary: AnalysisSummary, window: TimelineWindow): TimelineInput {
-  const { endUs, timeline } = summary;
-  const contracts = window.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
-  const bands = window.contracts.flatMap((c) => {
+export function timelineInput(analysis: Analysis): TimelineInput {
+  const { timeline } = analysis;
+  const lastMessage = timeline.messages[timeline.messages.length - 1];
+  const lastMeasurement = timeline.measurements[timeline.measurements.length - 1];
+  const lastEvent = timeline.events[timeline.events.length - 1];
+  let lastFinding = 0;
+  for (const f of analysis.findings) lastFinding = Math.max(lastFinding, f.t ?? 0);
+  const endUs = Math.max(1, lastMessage ? lastMessage.t + lastMessage.durationUs : 0, lastMeasurement?.t ?? 0, lastEvent?.t ?? 0, lastFinding);
+  const contracts = timeline.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
+  const bands = timeline.contracts.flatMap((c) => {
     const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
     return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
   });
   const { omitted, measurementStride } = timeline;
   const parts = [
-    omitted.messages > 0 ? `the first ${timeline.messages} messages (${omitted.messages} later ones are left out)` : '',
-    window.messagesOmitted > 0 ? `the first ${window.messages.length} messages of this window (${window.messagesOmitted} more)` : '',
-    measurementStride > 1 || window.measurementLevel > 0 ? 'a thinned series of VBUS readings that keeps every low and high' : '',
+    omitted.messages > 0 ? `the first ${timeline.messages.length} messages (${omitted.messages} later ones are left out)` : '',
+    measurementStride > 1 ? `one VBUS reading in every ${measurementStride}` : '',
   ].filter(Boolean);
   return {
-    measurements: window.measurements,
-    messages: window.messages,
+    measurements: timeline.measurements,
+    messages: timeline.messages,
+    events: timeline.events,
     contracts,
     bands,
     endUs,

@@ -11,12 +11,9 @@ import { paths } from '../../../config/paths.ts';
 import { useUser } from '../../../lib/auth.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { traceDownloads } from '../api/downloads.ts';
+import { useTrace } from '../../../lib/api/get-trace.ts';
 import { traceKeys } from '../../../lib/query-keys.ts';
-import { useTraceContracts } from '../api/get-trace-contracts.ts';
-import { useTraceFindings } from '../api/get-trace-findings.ts';
-import { useTraceSummary } from '../api/get-trace-summary.ts';
-import { useTraceTimeline } from '../api/get-trace-timeline.ts';
-import type { AnalysisEvent, AnalysisSummary, TraceItem } from '../../../../shared/api/index.ts';
+import type { Analysis, AnalysisEvent, TraceItem } from '../../../../shared/api/index.ts';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { CommentThread } from '../components/comment-thread.tsx';
 import { ContractsTable } from '../components/contracts-table.tsx';
@@ -24,18 +21,45 @@ import { FindingsTable } from '../components/findings-table.tsx';
 import { ShareDialog } from '../components/share-dialog.tsx';
 import { FindingCounts } from '../components/traces-table.tsx';
 import { timelineInput } from '../lib/timeline-input.ts';
+import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { formatBytes } from '../lib/format.ts';
 import { mayWriteTraces } from '../lib/roles.ts';
 
 // recharts is large: the timeline arrives in its own chunk.
 const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
 
-const NO_FINDINGS: never[] = [];
-const NO_CONTRACTS: never[] = [];
+function windowFromParams(params: URLSearchParams): TimeWindow | null {
+  const from = Number(params.get('from'));
+  const to = Number(params.get('to'));
+  return params.has('from') && params.has('to') && Number.isFinite(from) && Number.isFinite(to) && to > from && from >= 0 ? { startUs: from, endUs: to } : null;
+}
+
+/** Writes the window into the URL a moment after it settles (a brush drag is many windows). */
+function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1]) {
+  const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  useEffect(() => () => clearTimeout(timer.current), []);
+  return useCallback(
+    (next: TimeWindow) => {
+      clearTimeout(timer.current);
+      timer.current = setTimeout(() => {
+        setParams(
+          (current) => {
+            const params = new URLSearchParams(current);
+            params.set('from', String(Math.round(next.startUs)));
+            params.set('to', String(Math.round(next.endUs)));
+            return params;
+          },
+          { replace: true, preventScrollReset: true },
+        );
+      }, 300);
+    },
+    [setParams],
+  );
+}
 
 export function TraceRoute() {
   const { traceId = '' } = useParams();
-  const trace = useTraceSummary(traceId);
+  const trace = useTrace(traceId);
   // Arriving from a scrolled list, start at the top of the trace.
   useEffect(() => {
     window.scrollTo(0, 0);
@@ -67,47 +91,42 @@ function AnalysisProgress({ item }: { item: TraceItem }) {
   );
 }
 
-/** Findings and contracts the page reads at once (the tables page them on the client). */
-const LIST_PAGE = { page: 1, pageSize: 500 };
-/** The whole-trace window: about this many VBUS readings, and at most this many messages, spans and pins. */
-const WHOLE_TRACE = { points: 2_000, limit: 5_000 };
-
-function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSummary | null }) {
+function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | null }) {
   const user = useUser();
-  const done = item.status === 'done' && analysis !== null;
-  const findingsPage = useTraceFindings(item.id, LIST_PAGE, done);
-  const contractsPage = useTraceContracts(item.id, LIST_PAGE, done);
-  const timelineWindow = useTraceTimeline(item.id, WHOLE_TRACE, done);
-  const findings = findingsPage.data?.items;
-  const findingsOmitted = (analysis?.findingsOmitted ?? 0) + Math.max(0, (findingsPage.data?.total ?? 0) - (findings?.length ?? 0));
   const [params, setParams] = useSearchParams();
   const [shareOpen, setShareOpen] = useState(false);
   const selected = params.get('finding') === null ? undefined : Number(params.get('finding'));
   const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
   const canWrite = mayWriteTraces(user.role);
-  const input = useMemo(() => (analysis && timelineWindow.data ? timelineInput(analysis, timelineWindow.data) : null), [analysis, timelineWindow.data]);
+  const input = useMemo(() => (analysis ? timelineInput(analysis) : null), [analysis]);
+  // The zoom is in the URL (?from=&to=, µs), so a copied link opens the same moment.
+  const [initialWindow] = useState(() => windowFromParams(params));
+  const saveWindow = useDebouncedWindow(setParams);
 
   const show = useCallback(
     (index: number) => {
-      const t = findings?.[index]?.t;
-      setParams((current) => {
-        const next = new URLSearchParams(current);
-        next.set('finding', String(index));
-        return next;
-      }, { replace: true });
+      const t = analysis?.findings[index]?.t;
+      setParams(
+        (current) => {
+          const next = new URLSearchParams(current);
+          next.set('finding', String(index));
+          return next;
+        },
+        { replace: true },
+      );
       if (t !== undefined) setFocus({ tUs: t, key: Date.now() });
     },
-    [findings, setParams],
+    [analysis, setParams],
   );
 
   // A link with ?finding= opens the timeline at that finding, once, when the analysis arrives.
   const arrived = useRef(false);
   useEffect(() => {
-    if (arrived.current || !findings) return;
+    if (arrived.current || !analysis) return;
     arrived.current = true;
-    const t = selected === undefined ? undefined : findings[selected]?.t;
+    const t = selected === undefined ? undefined : analysis.findings[selected]?.t;
     if (t !== undefined) setFocus({ tUs: t, key: 0 });
-  }, [findings, selected]);
+  }, [analysis, selected]);
 
   const meta = [
     item.device?.name,
@@ -116,6 +135,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
     `uploaded by ${item.uploader.name} ${formatDateTime(item.createdAt)}`,
   ].filter(Boolean);
 
+  const done = item.status === 'done' && analysis !== null;
   const actions = (
     <div className="flex flex-wrap gap-2" data-testid="trace-actions">
       {canWrite && done && (
@@ -144,7 +164,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
 
   return (
     <>
-      <PageHeader eyebrow="Trace" title={item.title} description={meta.join(' · ')} actions={actions} />
+      <PageHeader eyebrow="Trace" title={item.title} documentTitle={`Trace ${item.id} — ${item.title}`} description={meta.join(' · ')} actions={actions} />
       <div className="space-y-6">
         {(item.status === 'queued' || item.status === 'analysing') && <AnalysisProgress item={item} />}
         {item.status === 'failed' && <ErrorMessage title="The analysis failed">{item.error?.message}</ErrorMessage>}
@@ -180,7 +200,10 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
                 <TraceTimeline
                   measurements={input.measurements}
                   messages={input.messages}
-                  findings={findings ?? NO_FINDINGS}
+                  findings={analysis.findings}
+                  events={input.events}
+                  initialWindow={initialWindow}
+                  onWindowChange={saveWindow}
                   contracts={input.contracts}
                   bands={input.bands}
                   endUs={input.endUs}
@@ -196,15 +219,15 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
         {done && (
           <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
             <Card>
-              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findingsListed}</Badge>} />
+              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findings.length}</Badge>} />
               <CardBody>
-                <FindingsTable findings={findings ?? NO_FINDINGS} selectedIndex={selected} onShow={show} omitted={findingsOmitted} />
+                <FindingsTable findings={analysis.findings} selectedIndex={selected} onShow={show} omitted={analysis.findingsOmitted} />
               </CardBody>
             </Card>
             <Card>
               <CardHeader title="Contracts over time" />
               <CardBody>
-                <ContractsTable contracts={contractsPage.data?.items ?? NO_CONTRACTS} endUs={analysis.endUs} />
+                <ContractsTable contracts={analysis.contracts} endUs={input?.endUs ?? 0} />
               </CardBody>
             </Card>
           </div>

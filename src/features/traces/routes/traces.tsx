@@ -129,7 +129,9 @@ export function TracesRoute() {
         {mayUpload ? (
           <UploadPanel ref={uploadPanel} />
         ) : (
-          <p className="rounded-md border border-slate-200 px-4 py-3 text-xs text-slate-500 dark:border-slate-800">Your role can read traces; uploading needs the support, QA, engineer or admin role.</p>
+          <p className="rounded-md border border-slate-200 px-4 py-3 text-xs text-slate-500 dark:border-slate-800">
+            Your role can read traces; uploading needs the support, QA, engineer or admin role.
+          </p>
         )}
       </div>
     </>

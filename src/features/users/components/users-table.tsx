@@ -39,9 +39,23 @@ function RoleCell({ user }: { user: AdminUser }) {
 }
 
 function StatusCell({ user }: { user: AdminUser }) {
-  if (!user.active) return <Badge tone="neutral" dot>deactivated</Badge>;
-  if (user.invitePending) return <Badge tone="warning" dot>invite pending</Badge>;
-  return <Badge tone="success" dot>active</Badge>;
+  if (!user.active)
+    return (
+      <Badge tone="neutral" dot>
+        deactivated
+      </Badge>
+    );
+  if (user.invitePending)
+    return (
+      <Badge tone="warning" dot>
+        invite pending
+      </Badge>
+    );
+  return (
+    <Badge tone="success" dot>
+      active
+    </Badge>
+  );
 }
 
 function ActionsCell({ user }: { user: AdminUser }) {

@@ -5,7 +5,7 @@ import { Migration } from '@mikro-orm/migrations';
  * reads in rows of their own. Analysed traces go back to `queued`, so start-up re-analyses them from
  * their stored files into the new form (the analysis is a pure function of the file).
  */
-export class Migration20261204160000TraceViews extends Migration {
+export class Migration20261204190000TraceViews extends Migration {
   override async up(): Promise<void> {
     this.addSql('create table `trace_chunk` (`id` integer not null primary key autoincrement, `trace_id` integer not null, `kind` text not null, `level` integer not null, `seq` integer not null, `first_index` integer not null, `start_us` bigint not null, `end_us` bigint not null, `count` integer not null, `body` text not null);');
     this.addSql('create index `trace_chunk_trace_id_kind_level_start_us_index` on `trace_chunk` (`trace_id`, `kind`, `level`, `start_us`);');

@@ -1,9 +1,9 @@
-import { fieldCount, fieldValue, formatValue, headerLayout, objectLayout, type FieldLayout, type WordLayout } from '../../../../shared/pd/index.ts';
-import type { Message } from '../../../../shared/pd/types.ts';
-import { Badge } from '../../../components/badge.tsx';
-import { Button } from '../../../components/button.tsx';
-import { Hex, Mono } from '../../../components/mono.tsx';
-import { formatTimeUs } from '../../../components/timeline/time-window.ts';
+import { fieldCount, fieldValue, formatValue, headerLayout, objectLayout, type FieldLayout, type WordLayout } from '../../../shared/pd/index.ts';
+import type { Message } from '../../../shared/pd/types.ts';
+import { Badge } from '../badge.tsx';
+import { Button } from '../button.tsx';
+import { Hex, Mono } from '../mono.tsx';
+import { formatTimeUs } from './time-window.ts';
 
 export type SelectedMessage = { t: number; from?: string; hex: string; crcOk: boolean; message: Message };
 

@@ -3,13 +3,11 @@
  * server has it, else as a download; and a download on request in any case. The file is always
  * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
  */
-import { api, isApiError } from '../../../lib/api-client.ts';
-import { downloadText } from '../../../lib/download.ts';
-import { formatVector } from '../../../../shared/vectors/format.ts';
+import { api, isApiError } from './api-client.ts';
+import { downloadText } from './download.ts';
+import { formatVector } from '../../shared/vectors/format.ts';
 
-export type SaveOutcome =
-  | { kind: 'library'; id: string; revision?: number }
-  | { kind: 'downloaded'; fileName: string; reason: string };
+export type SaveOutcome = { kind: 'library'; id: string; revision?: number } | { kind: 'downloaded'; fileName: string; reason: string };
 
 /** `property/demo/x/counterexample` → `property-demo-x-counterexample.vector.json`. */
 export function vectorFileName(id: string): string {

@@ -5,12 +5,12 @@ import { describe, expect, it } from 'vitest';
 import { HEX, negotiation, sequence } from '../../tests/fixtures/traces/build.ts';
 import { parseHex } from '../pd/index.ts';
 import { encodeWaveform, type WirePacket } from '../wire/index.ts';
-import { analyzeRecords, createAnalyzer } from './analyzer.ts';
+import { analyseRecords, createAnalyser } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
-import { analyzeTrace } from './session.ts';
+import { analyseTrace } from './session.ts';
 
 const FIXTURES = join(import.meta.dirname, '../../tests/fixtures/traces');
-const rules = (records: TraceRecord[]) => analyzeRecords(records).findings.map((f) => f.rule);
+const rules = (records: TraceRecord[]) => analyseRecords(records).findings.map((f) => f.rule);
 
 interface Expectation {
   include: string[];
@@ -29,14 +29,18 @@ describe('trace fixtures', () => {
     it(file, () => {
       const text = readFileSync(join(FIXTURES, file), 'utf8');
       const header = JSON.parse(text.slice(0, text.indexOf('\n'))) as { expect: Expectation; ref: string };
-      const result = analyzeTrace(text);
+      const result = analyseTrace(text);
       expect(result.ok).toBe(true);
       if (!result.ok) return;
       const { findings, contracts } = result.analysis;
       const fired = findings.map((f) => f.rule);
       for (const rule of header.expect.include) expect(fired, `${file} must report ${rule}`).toContain(rule);
       for (const rule of header.expect.exclude) {
-        if (rule.startsWith('*')) expect(findings.filter((f) => f.severity === rule.slice(1)), `${file}: no ${rule.slice(1)}`).toEqual([]);
+        if (rule.startsWith('*'))
+          expect(
+            findings.filter((f) => f.severity === rule.slice(1)),
+            `${file}: no ${rule.slice(1)}`,
+          ).toEqual([]);
         else expect(fired).not.toContain(rule);
       }
       header.expect.contracts?.forEach((c, i) => expect(contracts[i]).toMatchObject(c));
@@ -59,7 +63,7 @@ describe('one negotiation in three formats', () => {
       if (parsed.ok) packets.push({ sop: 'SOP', bytes: parsed.bytes });
     }
     const { vcd } = encodeWaveform(packets);
-    const results = [analyzeTrace(jsonl), analyzeTrace(text), analyzeTrace(vcd)];
+    const results = [analyseTrace(jsonl), analyseTrace(text), analyseTrace(vcd)];
     const formats = results.map((r) => (r.ok ? r.analysis.format : r.error.code));
     expect(formats).toEqual(['jsonl', 'text', 'vcd']);
     const shapes = results.map((r) => (r.ok ? r.analysis.contracts.map(({ t: _t, ...c }) => c) : []));
@@ -75,7 +79,7 @@ describe('wire durations', () => {
   // The wire writer leaves 500 µs idle between packets (its default gapUs); the decoder's preamble
   // starts minus our computed durations (USB PD R3.2 V1.1 §5.6 bit counts) must give back that gap.
   it('agree with the wire encoder of clean.vcd', () => {
-    const result = analyzeTrace(readFileSync(join(FIXTURES, 'clean.vcd'), 'utf8'));
+    const result = analyseTrace(readFileSync(join(FIXTURES, 'clean.vcd'), 'utf8'));
     expect(result.ok).toBe(true);
     if (!result.ok) return;
     const messages = result.analysis.timeline.messages;
@@ -106,7 +110,7 @@ describe('timers by revision', () => {
   // (497 µs on the wire).
   it('allows PS_RDY 540 ms after Accept and flags 560 ms', () => {
     expect(rules(negotiation({ psRdy: 539_503 }).records)).not.toContain('timing.ps-transition');
-    const late = analyzeRecords(negotiation({ psRdy: 559_503 }).records).findings.find((f) => f.rule === 'timing.ps-transition');
+    const late = analyseRecords(negotiation({ psRdy: 559_503 }).records).findings.find((f) => f.rule === 'timing.ps-transition');
     expect(late?.message).toContain('560 ms');
   });
   // nRetryCount: 2 in R3.x, 3 in R2.0 (USB PD R3.2 V1.1 §6.7 Counter Values; R2.0 V1.3 §6.7).
@@ -144,17 +148,17 @@ describe('timers by revision', () => {
 
 describe('analysis', () => {
   it('heads the analysis with a summary sentence', () => {
-    const result = analyzeTrace(readFileSync(join(FIXTURES, 'timing-pps-keepalive.trace.jsonl'), 'utf8'));
+    const result = analyseTrace(readFileSync(join(FIXTURES, 'timing-pps-keepalive.trace.jsonl'), 'utf8'));
     expect(result.ok && result.analysis.summary).toBe(
       'Contract PPS 8.4 V 2.5 A at 0.361 s; Hard Reset at 13.5 s; 1 error; likely cause of the Hard Reset: the sink stopped re-requesting its programmable contract, which points at the device (sink).',
     );
   });
   it('names the earliest error in the summary when no Hard Reset explains it', () => {
-    const result = analyzeTrace(readFileSync(join(FIXTURES, 'vbus-out-of-range.trace.jsonl'), 'utf8'));
+    const result = analyseTrace(readFileSync(join(FIXTURES, 'vbus-out-of-range.trace.jsonl'), 'utf8'));
     expect(result.ok && result.analysis.summary).toBe("Contract 9 V 2 A at 0.361 s; 1 error; likely cause: VBUS outside the contract's tolerance at 0.5 s, which points at the adapter (source).");
   });
   it('builds a timeline with wire durations and acknowledgements', () => {
-    const { timeline } = analyzeRecords(negotiation().records);
+    const { timeline } = analyseRecords(negotiation().records);
     const [caps, goodCrc] = timeline.messages;
     // 18 bytes: 64 + 20 + 180 + 40 + 5 = 309 bits at 300 kbps = 1030 µs (USB PD R3.2 V1.1 §5.6).
     expect(caps).toMatchObject({ t: 150_000, durationUs: 1_030, from: 'source', sop: 'SOP', messageType: 'Source_Capabilities', messageId: 0, hex: HEX.caps });
@@ -163,15 +167,15 @@ describe('analysis', () => {
   });
   it('takes the direction from the header when a record has none', () => {
     const records = negotiation().records.map((r) => ('msg' in r ? { t: r.t, msg: r.msg } : r));
-    const analysis = analyzeRecords(records);
+    const analysis = analyseRecords(records);
     expect(analysis.timeline.messages.map((m) => m.from).slice(0, 3)).toEqual(['source', 'sink', 'sink']);
     expect(analysis.contracts).toHaveLength(1);
   });
   it('keeps the timeline and the findings bounded', () => {
-    const analyzer = createAnalyzer({ timelineLimit: 10, findingsLimit: 5 });
-    for (let i = 0; i < 1_000; i++) analyzer.push({ t: i * 1_000, vbus: { mv: 5_000 } });
-    for (let i = 0; i < 50; i++) analyzer.malformed(i + 1, 'not valid JSON');
-    const analysis = analyzer.finish();
+    const analyser = createAnalyser({ timelineLimit: 10, findingsLimit: 5 });
+    for (let i = 0; i < 1_000; i++) analyser.push({ t: i * 1_000, vbus: { mv: 5_000 } });
+    for (let i = 0; i < 50; i++) analyser.malformed(i + 1, 'not valid JSON');
+    const analysis = analyser.finish();
     expect(analysis.timeline.measurements.length).toBeLessThanOrEqual(10);
     expect(analysis.timeline.measurements.length + analysis.timeline.omitted.measurements).toBe(1_000);
     const ts = analysis.timeline.measurements.map((m) => m.t);
@@ -181,9 +185,9 @@ describe('analysis', () => {
     expect(analysis.findingsOmitted).toBe(45);
   });
   it('reports an empty trace as an input error', () => {
-    const result = analyzeTrace('not a trace\n');
+    const result = analyseTrace('not a trace\n');
     expect(result).toMatchObject({ ok: false, error: { code: 'trace.empty' } });
-    expect(analyzeTrace('')).toMatchObject({ ok: false, error: { code: 'trace.empty' } });
+    expect(analyseTrace('')).toMatchObject({ ok: false, error: { code: 'trace.empty' } });
   });
 });
 
@@ -197,8 +201,12 @@ describe('repeated offers', () => {
   // The four objects of HEX.caps: 5 V, 9 V, 15 V 3 A fixed and PPS 3.3–11 V 3 A (§6.4.1, Tables 6.9 and 6.14).
   const objects = ['2c910100', '2cd10200', '2cb10400', '3c21dcc0'];
   // An unanswered source repeats its offers every tTypeCSendSourceCap, 100–200 ms (USB PD R3.2 V1.1 §6.6, Table 6.68, from memory).
-  const repeated = (lists: string[][]) => sequence(150_000, lists.map((list, i) => ({ msg: capsHex(i % 8, list), from: 'source' as const, gapUs: i === 0 ? 0 : 150_000 }))).records;
-  const count = (records: TraceRecord[], rule: string) => analyzeRecords(records).findings.filter((f) => f.rule === rule).length;
+  const repeated = (lists: string[][]) =>
+    sequence(
+      150_000,
+      lists.map((list, i) => ({ msg: capsHex(i % 8, list), from: 'source' as const, gapUs: i === 0 ? 0 : 150_000 })),
+    ).records;
+  const count = (records: TraceRecord[], rule: string) => analyseRecords(records).findings.filter((f) => f.rule === rule).length;
 
   it('checks five copies that differ only in MessageID once', () => {
     const records = repeated([objects, objects, objects, objects, objects]);
@@ -213,23 +221,35 @@ describe('repeated offers', () => {
 });
 
 describe('robustness', () => {
-  const noInternalFault = (result: ReturnType<typeof analyzeTrace>) => {
+  const noInternalFault = (result: ReturnType<typeof analyseTrace>) => {
     if (!result.ok) expect(result.error.code).not.toBe('trace.internal');
   };
   it('never fails inside on random text in any format', () => {
     fc.assert(
       fc.property(fc.string({ maxLength: 400 }), fc.constantFrom('auto', 'jsonl', 'text', 'vcd'), (text, format) => {
-        noInternalFault(analyzeTrace(text, { format }));
+        noInternalFault(analyseTrace(text, { format }));
       }),
       { numRuns: 300 },
     );
   });
   it('never fails inside on VCD-like noise', () => {
-    const token = fc.constantFrom('$timescale 1 ns $end', '$timescale 10us $end', '$var wire 1 ! cc $end', '$var wire 4 # bus $end', '$enddefinitions $end', '$dumpvars', '$end', '0!', '1!', 'x!', 'b101 #');
+    const token = fc.constantFrom(
+      '$timescale 1 ns $end',
+      '$timescale 10us $end',
+      '$var wire 1 ! cc $end',
+      '$var wire 4 # bus $end',
+      '$enddefinitions $end',
+      '$dumpvars',
+      '$end',
+      '0!',
+      '1!',
+      'x!',
+      'b101 #',
+    );
     const time = fc.nat(5_000_000).map((n) => `#${n}`);
     fc.assert(
       fc.property(fc.array(fc.oneof(token, time, fc.string({ maxLength: 8 })), { maxLength: 200 }), (tokens) => {
-        noInternalFault(analyzeTrace(tokens.join('\n'), { format: 'vcd' }));
+        noInternalFault(analyseTrace(tokens.join('\n'), { format: 'vcd' }));
       }),
       { numRuns: 200 },
     );
@@ -237,15 +257,17 @@ describe('robustness', () => {
   it('never fails inside on random lines of half-valid records', () => {
     const line = fc.oneof(
       fc.string(),
-      fc.record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') }).map((r) => JSON.stringify(r)),
+      fc
+        .record({ t: fc.integer({ min: -10, max: 2_000_000 }), msg: fc.constantFrom(HEX.caps, HEX.request9v2a, '8100', 'a101', 'a303', 'a605', '8102', '8d00', 'ff', '1f00') })
+        .map((r) => JSON.stringify(r)),
       fc.record({ t: fc.nat(2_000_000), event: fc.constantFrom('attach', 'detach', 'hard_reset', 'cable_reset') }).map((r) => JSON.stringify(r)),
       fc.record({ t: fc.nat(2_000_000), vbus: fc.record({ mv: fc.nat(25_000), ma: fc.nat(6_000) }) }).map((r) => JSON.stringify(r)),
       fc.uint8Array({ maxLength: 30 }).map((b) => JSON.stringify({ t: 1, msg: [...b].map((x) => x.toString(16).padStart(2, '0')).join('') || '00' })),
     );
     fc.assert(
       fc.property(fc.array(line, { maxLength: 60 }), (lines) => {
-        noInternalFault(analyzeTrace(lines.join('\n')));
-        noInternalFault(analyzeTrace(lines.join('\n'), { format: 'text' }));
+        noInternalFault(analyseTrace(lines.join('\n')));
+        noInternalFault(analyseTrace(lines.join('\n'), { format: 'text' }));
       }),
       { numRuns: 300 },
     );
@@ -259,7 +281,7 @@ describe('robustness', () => {
     );
     fc.assert(
       fc.property(fc.array(record, { maxLength: 80 }), (records) => {
-        analyzeRecords([...negotiation().records, ...records]);
+        analyseRecords([...negotiation().records, ...records]);
       }),
       { numRuns: 300 },
     );

@@ -29,7 +29,7 @@ import { summarize, type SummaryInput } from './summary.ts';
 import { createTimeline, type Timeline } from './timeline.ts';
 import { vbusLimits, voltageOutside } from './vbus.ts';
 
-export interface AnalyzerOptions {
+export interface AnalyserOptions {
   format?: TraceFormat;
   /** Most messages, events and measurements kept in the timeline (default 20 000 each). */
   timelineLimit?: number;
@@ -54,7 +54,7 @@ export interface Analysis {
   timeline: Timeline;
 }
 
-export interface Analyzer extends TraceSink {
+export interface Analyser extends TraceSink {
   push(record: TraceRecord, line?: number): void;
   malformed(line: number, reason: string): void;
   header(header: TraceHeader, line: number): void;
@@ -75,7 +75,7 @@ interface VbusProblem {
   range: string;
 }
 
-export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
+export function createAnalyser(options: AnalyserOptions = {}): Analyser {
   const store = createFindingStore(options.findingsLimit ?? 5_000);
   const timeline = createTimeline(options.timelineLimit ?? 20_000);
   const cache = createDecodeCache();
@@ -132,7 +132,10 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
     inEpr: () => epr.inEpr(),
     softReset(m) {
       const cause = recentProblem(m.t);
-      report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, { t: m.t, line: m.line });
+      report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, {
+        t: m.t,
+        line: m.line,
+      });
     },
   });
 
@@ -150,7 +153,11 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
   function checkCableCurrent(contract: Contract, t: number): void {
     if (!cable || cable.currentMa === undefined || cableReported || contract.currentMa <= cable.currentMa) return;
     cableReported = true;
-    report('request.cable-current', `The ${contractText(contract)} contract at ${seconds(t)} draws ${amps(contract.currentMa)} over ${cableText(cable)} (its Discover Identity at ${seconds(cable.t)}), which carries at most ${amps(cable.currentMa)}.`, { t });
+    report(
+      'request.cable-current',
+      `The ${contractText(contract)} contract at ${seconds(t)} draws ${amps(contract.currentMa)} over ${cableText(cable)} (its Discover Identity at ${seconds(cable.t)}), which carries at most ${amps(cable.currentMa)}.`,
+      { t },
+    );
   }
 
   function closeVbusProblems(): void {
@@ -290,7 +297,10 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
         p.extremeMv = Math.max(p.extremeMv, ma);
       } else {
         const range = amps(limits.maxMa);
-        const finding = report('vbus.over-current', `IBUS read ${amps(ma)} at ${seconds(t)}, above the ${amps(active.contract.currentMa)} the ${contractText(active.contract)} contract allows.`, { t, ref: limits.ref });
+        const finding = report('vbus.over-current', `IBUS read ${amps(ma)} at ${seconds(t)}, above the ${amps(active.contract.currentMa)} the ${contractText(active.contract)} contract allows.`, {
+          t,
+          ref: limits.ref,
+        });
         currentProblem = { finding, active, count: 1, firstUs: t, lastUs: t, extremeMv: ma, range };
       }
     }
@@ -307,7 +317,11 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
       records++;
       let t = record.t;
       if (t < lastT) {
-        report('trace.time-order', `The time ${seconds(t)}${line !== undefined ? ` on line ${line}` : ''} is earlier than ${seconds(lastT)} before it; it was read as ${seconds(lastT)}.`, line !== undefined ? { t: lastT, line } : { t: lastT });
+        report(
+          'trace.time-order',
+          `The time ${seconds(t)}${line !== undefined ? ` on line ${line}` : ''} is earlier than ${seconds(lastT)} before it; it was read as ${seconds(lastT)}.`,
+          line !== undefined ? { t: lastT, line } : { t: lastT },
+        );
         t = lastT;
       }
       lastT = t;
@@ -335,7 +349,16 @@ export function createAnalyzer(options: AnalyzerOptions = {}): Analyzer {
         findingsOmitted: store.omitted(),
         hardResets,
         summary: summarize({
-          records, messages, measurements, contracts, contractCount, sourceCapabilities, hardResets, hardResetCount, counts, goodCrcSeen: protocol.goodCrcSeen(),
+          records,
+          messages,
+          measurements,
+          contracts,
+          contractCount,
+          sourceCapabilities,
+          hardResets,
+          hardResetCount,
+          counts,
+          goodCrcSeen: protocol.goodCrcSeen(),
           ...policy.requestCounts(),
           ...(hardResets[0]?.cause !== undefined ? { hardResetSide: sideOfClause(hardResets[0].cause) } : {}),
           ...firstProblemOf(store.list()),
@@ -363,8 +386,8 @@ function firstProblemOf(findings: readonly Finding[]): { firstProblem?: SummaryI
 }
 
 /** Analyses records already in memory (vectors, the simulator's output, tests). */
-export function analyzeRecords(records: Iterable<TraceRecord>, options: AnalyzerOptions = {}): Analysis {
-  const analyzer = createAnalyzer(options);
-  for (const record of records) analyzer.push(record);
-  return analyzer.finish();
+export function analyseRecords(records: Iterable<TraceRecord>, options: AnalyserOptions = {}): Analysis {
+  const analyser = createAnalyser(options);
+  for (const record of records) analyser.push(record);
+  return analyser.finish();
 }

@@ -5,7 +5,7 @@ import { Migration } from '@mikro-orm/migrations';
  * by triggers) over each vector's id, title, tags and file text, and indexes for the sort columns.
  * A PostgreSQL database takes a tsvector column with a GIN index instead (server/features/vectors/query.ts).
  */
-export class Migration20261204170000TeamVectorSearch extends Migration {
+export class Migration20261204190100TeamVectorSearch extends Migration {
   override async up(): Promise<void> {
     this.addSql("create virtual table `team_vector_search` using fts5(`vector_id`, `title`, `tags`, `text`, content='team_vector', content_rowid='id', tokenize='unicode61');");
     this.addSql("create trigger `team_vector_search_insert` after insert on `team_vector` begin insert into `team_vector_search`(rowid, `vector_id`, `title`, `tags`, `text`) values (new.`id`, new.`vector_id`, new.`title`, new.`tags`, new.`text`); end;");

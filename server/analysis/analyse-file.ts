@@ -3,16 +3,15 @@
  * the request thread. Progress (bytes read of the total) goes to the main thread through the
  * MessagePort that came with the task, at most every `progressEveryMs`.
  */
-import { randomBytes } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { rename, stat, writeFile } from 'node:fs/promises';
-import { dirname, join } from 'node:path';
+import { stat, writeFile } from 'node:fs/promises';
 import type { MessagePort } from 'node:worker_threads';
 import { createReader, createTraceSession, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
 import { summaryOf, timelineChunks, withoutDecodedMessages, type AnalysisSummary, type ChunkKind } from '../../shared/trace/views.ts';
+import type { Result } from '../../shared/core/result.ts';
 import { deflateJson, storedFileBytes } from './deflated-json.ts';
 
-export interface AnalyzeFileTask {
+export interface AnalyseFileTask {
   path: string;
   /** The reader to use; default: detected from the content. */
   format?: TraceFormat;
@@ -55,13 +54,11 @@ export interface StoredParts {
   storedBytes: number;
 }
 
-export type AnalyzeFileResult =
-  | { ok: true; analysis: Analysis; bytesRead: number }
-  | { ok: false; error: { code: string; message: string; line?: number } };
+export type AnalyseFileResult = Result<{ analysis: Analysis; bytesRead: number }>;
 
 const CHUNK_BYTES = 256 * 1024;
 
-export async function analyzeFile(task: AnalyzeFileTask): Promise<AnalyzeFileResult> {
+export async function analyseFile(task: AnalyseFileTask): Promise<AnalyseFileResult> {
   const totalBytes = (await stat(task.path)).size;
   const session = createTraceSession({ format: task.format ?? 'auto' });
   const everyMs = task.progressEveryMs ?? 100;
@@ -91,30 +88,28 @@ export async function analyzeFile(task: AnalyzeFileTask): Promise<AnalyzeFileRes
   return { ok: true, analysis: result.analysis, bytesRead: totalBytes };
 }
 
-export interface AnalyzeAndStoreTask extends AnalyzeFileTask {
-  /** Where to write the stored analysis (deflated-json.ts). */
+export interface AnalyseAndStoreTask extends AnalyseFileTask {
+  /**
+   * A new file to write the stored analysis to (deflated-json.ts): a temporary name in the trace
+   * store's incoming folder, which the caller then keeps in the store (server/storage).
+   */
   storeTo: string;
 }
 
-export type AnalyzeAndStoreResult = { ok: true; stored: StoredParts; bytesRead: number } | Extract<AnalyzeFileResult, { ok: false }>;
+export type AnalyseAndStoreResult = Result<{ stored: StoredParts; bytesRead: number }>;
 
 /** The pool's task for uploads: analyse, store, and hand back only the parts (never the object graph). */
-export async function analyzeAndStore(task: AnalyzeAndStoreTask): Promise<AnalyzeAndStoreResult> {
-  const result = await analyzeFile(task);
+export async function analyseAndStore(task: AnalyseAndStoreTask): Promise<AnalyseAndStoreResult> {
+  const result = await analyseFile(task);
   if (!result.ok) return result;
   return { ok: true, stored: await storeAnalysis(result.analysis, task.storeTo), bytesRead: result.bytesRead };
 }
 
-/**
- * Writes the analysis without the decoded messages, compressed (atomically: a temporary name in the
- * same folder, then a rename), and cuts the parts the trace page reads into rows.
- */
+/** Writes the analysis without the decoded messages, compressed, and cuts the parts the trace page reads into rows. */
 export async function storeAnalysis(analysis: Analysis, path: string): Promise<StoredParts> {
   const stored = withoutDecodedMessages(analysis);
   const bytes = storedFileBytes(deflateJson(JSON.stringify(stored)));
-  const temporary = join(dirname(path), `.incoming-${randomBytes(8).toString('hex')}`);
-  await writeFile(temporary, bytes, { mode: 0o600 });
-  await rename(temporary, path);
+  await writeFile(path, bytes, { mode: 0o600, flag: 'wx' });
   return {
     summary: summaryOf(stored),
     findings: stored.findings.map((f, index) => ({ index, t: f.t ?? null, severity: f.severity, rule: f.rule, body: JSON.stringify(f) })),
@@ -131,7 +126,7 @@ export interface ReadRecordsTask {
   limit: number;
 }
 
-export type ReadRecordsResult = { ok: true; records: TraceRecord[] } | { ok: false; error: { code: string; message: string } };
+export type ReadRecordsResult = Result<{ records: TraceRecord[] }>;
 
 /** Trace record fields of trace.md; anything else a file carries is left out. */
 const RECORD_KEYS = ['t', 'msg', 'from', 'sop', 'crc', 'crcOk', 'event', 'cc', 'rp', 'vbus', 'note'] as const;
@@ -168,4 +163,4 @@ export async function readRecords(task: ReadRecordsTask): Promise<ReadRecordsRes
   return { ok: true, records };
 }
 
-export default analyzeFile;
+export default analyseFile;
