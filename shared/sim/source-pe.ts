@@ -137,19 +137,44 @@ function enterReady(pe: SourcePe, context: SourceContext, effects: PeEffect[]): 
   return [ready, effects];
 }
 
-/** §8.3.3.2.5 PE_SRC_Negotiate_Capability: the Request must name an offer and stay within it. */
-function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, context: SourceContext, effects: PeEffect[]): Step {
-  const rdoRaw = event.objects[0] ?? 0;
-  const offered = pe.offered ?? context.offers(pe.cable ?? null, pe.eprMode);
+type Accepted = NonNullable<SourcePe['accepted']>;
+
+/** What the source makes of one RDO against its offers: null when it must Reject. */
+function evaluateRdo(offered: Offers, type: string, rdoRaw: number, copyWord: number | undefined, eprMode: boolean): Accepted | null {
   const position = (rdoRaw >>> 28) & 0b1111;
   const pdo = offered.pdos[position - 1];
   const rdo = pdo ? decodeRdo(rdoRaw, pdo) : undefined;
   // EPR_Request carries a copy of the PDO it names (§6.4.9); in EPR mode only EPR_Request is valid.
-  const copyOk = event.type !== 'EPR_Request' || event.objects[1] === offered.words[position - 1];
-  const modeOk = pe.eprMode === (event.type === 'EPR_Request');
-  const valid = pdo !== undefined && rdo !== undefined && copyOk && modeOk && !checkRequest(rdo, offered.pdos).some((finding) => finding.severity === 'error');
+  const copyOk = type !== 'EPR_Request' || copyWord === offered.words[position - 1];
+  const modeOk = eprMode === (type === 'EPR_Request');
+  if (!pdo || !rdo || !copyOk || !modeOk || checkRequest(rdo, offered.pdos).some((finding) => finding.severity === 'error')) return null;
+  const contract = contractOf(rdo, pdo);
+  // A PPS supply limits its current (§7.1.4.4); AVS does not (§7.1.4.5, from memory).
+  const limited = rdo.kind === 'rdo-pps';
+  return { contract, voltageMv: contract.voltageMv, limitMa: limited ? contract.currentMa : null, ...(limited && pdo.kind === 'pps' ? { floorMv: pdo.minVoltageMv } : {}) };
+}
+
+const verdicts = new WeakMap<Offers, Map<number, Accepted | null>>();
+/** A plain SPR Request's verdict, memoised by the offers object and the RDO (the same question every run); frozen, runs share it. */
+function evaluateSprRequest(offered: Offers, rdoRaw: number): Accepted | null {
+  let byRdo = verdicts.get(offered);
+  if (!byRdo) verdicts.set(offered, (byRdo = new Map()));
+  let verdict = byRdo.get(rdoRaw);
+  if (verdict === undefined) {
+    verdict = evaluateRdo(offered, 'Request', rdoRaw, undefined, false);
+    if (verdict) Object.freeze(Object.freeze(verdict).contract);
+    byRdo.set(rdoRaw, verdict);
+  }
+  return verdict;
+}
+
+/** §8.3.3.2.5 PE_SRC_Negotiate_Capability: the Request must name an offer and stay within it. */
+function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, context: SourceContext, effects: PeEffect[]): Step {
+  const rdoRaw = event.objects[0] ?? 0;
+  const offered = pe.offered ?? context.offers(pe.cable ?? null, pe.eprMode);
+  const accepted = event.type === 'Request' && !pe.eprMode ? evaluateSprRequest(offered, rdoRaw) : evaluateRdo(offered, event.type, rdoRaw, event.objects[1], pe.eprMode);
   const next: SourcePe = { ...pe, sinkEprCapable: ((rdoRaw >>> 22) & 1) === 1 };
-  if (!valid || event.reject || !pdo || !rdo) {
+  if (!accepted || event.reject) {
     send(effects, 'Reject');
     return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
   }
@@ -157,10 +182,6 @@ function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, c
     send(effects, 'Wait');
     return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
   }
-  const contract = contractOf(rdo, pdo);
-  // A PPS supply limits its current (§7.1.4.4); AVS does not (§7.1.4.5, from memory).
-  const limited = rdo.kind === 'rdo-pps';
-  const accepted = { contract, voltageMv: contract.voltageMv, limitMa: limited ? contract.currentMa : null, ...(limited && pdo.kind === 'pps' ? { floorMv: pdo.minVoltageMv } : {}) };
   send(effects, 'Accept');
   return [{ ...next, state: 'PE_SRC_Transition_Accept', accepted }, effects];
 }
