@@ -197,7 +197,15 @@ class Run implements LineHooks {
     const swapOffers = offersFor(swapWords, null);
     const behaviour = scenario.source.behaviour;
     this.sourceContext = {
-      source: new PortSourceContext(offers, eprWords !== null, eprWords !== null || needsFiveAmps(caps.pdos), behaviour.swapAnswer, pdpW(caps.pdos), eprWords ? pdpW(offers(this.marker, true).pdos) : 0, this.vbus),
+      source: new PortSourceContext(
+        offers,
+        eprWords !== null,
+        eprWords !== null || needsFiveAmps(caps.pdos),
+        behaviour.swapAnswer,
+        pdpW(caps.pdos),
+        eprWords ? pdpW(offers(this.marker, true).pdos) : 0,
+        this.vbus,
+      ),
       sink: new PortSourceContext(swapOffers, false, false, scenario.sink.behaviour.swapAnswer, pdpW(swapOffers(null, false).pdos), 0, this.vbus),
     };
     this.offersOf = offers;
