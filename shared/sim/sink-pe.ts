@@ -195,7 +195,7 @@ function enterReady(pe: SinkPe, context: SinkContext, effects: PeEffect[]): Step
     return [{ ...pe, state: 'PE_SNK_Send_EPR_Mode_Entry', eprTried: true }, effects];
   }
   const [next, ...rest] = pe.pending;
-  if (next !== undefined) return startAction({ ...pe, state: 'PE_SNK_Ready', pending: rest }, next, context, effects);
+  if (next !== undefined) return startAction({ ...pe, state: 'PE_SNK_Ready', pending: rest }, next, effects);
   return [{ ...pe, state: 'PE_SNK_Ready' }, effects];
 }
 
@@ -206,7 +206,7 @@ function askForOffers(pe: SinkPe, effects: PeEffect[]): Step {
   return [{ ...pe, state: 'PE_SNK_Get_Source_Cap' }, effects];
 }
 
-function startAction(pe: SinkPe, action: ActionName, context: SinkContext, effects: PeEffect[]): Step {
+function startAction(pe: SinkPe, action: ActionName, effects: PeEffect[]): Step {
   if (pe.state !== 'PE_SNK_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
   const ask = (type: MessageType, state: string): Step => {
     effects.push({ kind: 'stop-timer', name: 'tSinkEPRKeepAlive' });
@@ -324,7 +324,7 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
     if (pe.state !== 'PE_SNK_Ready') return [next, effects];
     return askForOffers(next, effects);
   }
-  if (event.kind === 'action') return startAction(pe, event.action, context, effects);
+  if (event.kind === 'action') return startAction(pe, event.action, effects);
   if (event.kind === 'hard-reset-received') {
     effects.push(...stopAll);
     return toDefault(pe, effects);

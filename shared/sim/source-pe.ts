@@ -127,13 +127,13 @@ function softReset(pe: SourcePe, effects: PeEffect[], initiate = false): Step {
   return [{ ...pe, state: 'PE_SRC_Send_Soft_Reset' }, effects];
 }
 
-function enterReady(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
+function enterReady(pe: SourcePe, effects: PeEffect[]): Step {
   if (pe.contract?.kind === 'pps') effects.push({ kind: 'start-timer', name: 'tPPSTimeout' });
   // §8.3.3.26.3: in EPR mode the SourceEPRKeepAliveTimer runs while in PE_SRC_Ready.
   if (pe.eprMode) effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
   const ready: SourcePe = { ...pe, state: 'PE_SRC_Ready' };
   const [next, ...rest] = pe.pending;
-  if (next !== undefined) return startAction({ ...ready, pending: rest }, next, context, effects);
+  if (next !== undefined) return startAction({ ...ready, pending: rest }, next, effects);
   return [ready, effects];
 }
 
@@ -200,7 +200,7 @@ function answerSwap(pe: SourcePe, type: MessageType, context: SourceContext, eff
   return [pe, effects];
 }
 
-function startAction(pe: SourcePe, action: ActionName, context: SourceContext, effects: PeEffect[]): Step {
+function startAction(pe: SourcePe, action: ActionName, effects: PeEffect[]): Step {
   if (pe.state !== 'PE_SRC_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
   const ask = (type: MessageType, state: string): Step => {
     effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
@@ -237,14 +237,14 @@ function startAction(pe: SourcePe, action: ActionName, context: SourceContext, e
 }
 
 /** After a swap request of ours was answered (or not). */
-function swapAnswered(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+function swapAnswered(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
   if (event.kind === 'sent') {
     effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
     return [pe, effects];
   }
   const back = () => {
     effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-    return enterReady(pe, context, effects);
+    return enterReady(pe, effects);
   };
   if (event.kind === 'timer' && event.name === 'tSenderResponse') return back();
   if (event.kind === 'failed') return back();
@@ -253,7 +253,7 @@ function swapAnswered(pe: SourcePe, event: PeEvent, context: SourceContext, effe
     effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
     if (pe.state === 'PE_DRS_Send_Swap') {
       effects.push({ kind: 'data-role-swap' });
-      return enterReady(pe, context, effects);
+      return enterReady(pe, effects);
     }
     if (pe.state === 'PE_VCS_Send_Swap') {
       // §8.3.3.20: the VCONN source hands over; the partner turns VCONN on and says PS_RDY.
@@ -284,7 +284,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
   }
   // §8.3.3.26.3: any message from the sink restarts the SourceEPRKeepAliveTimer.
   if (pe.eprMode && event.kind === 'message' && pe.state === 'PE_SRC_Ready') effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
-  if (event.kind === 'action') return startAction(pe, event.action, context, effects);
+  if (event.kind === 'action') return startAction(pe, event.action, effects);
   if (event.kind === 'overload' && pe.contract !== null) return hardReset(pe, effects, 'current limit would pull VBUS below the offer’s minimum voltage');
 
   switch (pe.state) {
@@ -355,14 +355,14 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       }
       if (event.kind === 'sent' && event.type === 'PS_RDY' && pe.accepted) {
         effects.push({ kind: 'contract', contract: pe.accepted.contract });
-        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, context, effects);
+        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, effects);
       }
       // A failure during a power transition is a Hard Reset, not a Soft_Reset (§6.8.1).
       if (event.kind === 'failed') return hardReset(pe, effects, 'PS_RDY not acknowledged');
       break;
     case 'PE_SRC_Capability_Response':
       if (event.kind === 'sent' && (event.type === 'Reject' || event.type === 'Wait')) {
-        if (pe.contract) return enterReady(pe, context, effects);
+        if (pe.contract) return enterReady(pe, effects);
         return [{ ...pe, state: 'PE_SRC_Wait_New_Capabilities' }, effects];
       }
       if (event.kind === 'failed') return softReset(pe, effects);
@@ -394,7 +394,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       if (event.kind === 'failed') return hardReset(pe, effects, 'Enter_Succeeded not acknowledged');
       break;
     case 'PE_SRC_EPR_Mode_Entry_Failed':
-      if (event.kind === 'sent' || event.kind === 'failed') return enterReady(pe, context, effects);
+      if (event.kind === 'sent' || event.kind === 'failed') return enterReady(pe, effects);
       break;
     case 'PE_SRC_Send_EPR_Mode_Exit':
       if (event.kind === 'sent' && event.type === 'EPR_Mode') return sendCaps({ ...pe, eprMode: false }, context, effects);
@@ -436,7 +436,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       if (event.kind === 'supply-ready' && pe.phase === 'on') return sourceStep({ ...pe, state: 'PE_SRC_Startup', phase: null }, { kind: 'start' }, context);
       break;
     default: {
-      const swap = swapStep(pe, event, context, effects);
+      const swap = swapStep(pe, event, effects);
       if (swap) return swap;
       break;
     }
@@ -557,7 +557,7 @@ function cableAnswer(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>,
 }
 
 /** The swap state machines from the source's side (§8.3.3.18–20). */
-function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+function swapStep(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
   switch (pe.state) {
     case 'PE_DRS_Send_Swap':
     case 'PE_VCS_Send_Swap':
@@ -570,14 +570,14 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
       const asking = !pe.state.includes('Swap');
       if (asking && event.kind === 'message' && event.type !== 'GoodCRC') {
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
-      return swapAnswered(pe, event, context, effects);
+      return swapAnswered(pe, event, effects);
     }
     case 'PE_DRS_Accept_Swap':
       if (event.kind === 'sent' && event.type === 'Accept') {
         effects.push({ kind: 'data-role-swap' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
       break;
     case 'PE_VCS_Accept_Swap':
@@ -590,7 +590,7 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
     case 'PE_VCS_Wait_For_VCONN':
       if (event.kind === 'message' && event.type === 'PS_RDY') {
         effects.push({ kind: 'stop-timer', name: 'tVCONNSourceTimeout' }, { kind: 'vconn-swap' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
       if (event.kind === 'timer' && event.name === 'tVCONNSourceTimeout') return hardReset(pe, effects, 'no PS_RDY within tVCONNSourceTimeout after VCONN_Swap');
       break;

@@ -34,7 +34,7 @@ function drawRangeUs(name: SimTimerName, revision: Revision): [number, number] {
   }
 }
 
-export function timerDurationUs(name: SimTimerName, side: Side, revision: Revision, scenario: Scenario, random: Random): number {
+export function timerDurationUs(name: SimTimerName, _side: Side, revision: Revision, scenario: Scenario, random: Random): number {
   const source = scenario.source.behaviour;
   const fixedMs =
     name === 'tTypeCSendSourceCap'

@@ -8,7 +8,7 @@ import { rateLimit } from 'express-rate-limit';
 import { raw, UniqueConstraintViolationException } from '@mikro-orm/core';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
-import { MAX_TRACE_BYTES, roleGroups, type AnalysisEvent } from '../../../shared/api/index.ts';
+import { MAX_TRACE_BYTES, roleGroups } from '../../../shared/api/index.ts';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, TraceComment, type ITrace } from '../../db/trace-entities.ts';
 import { likeOperator } from '../../db/orm.ts';

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { Mono } from '../../../components/mono.tsx';
 import { formatTimeUs } from '../../../components/timeline/time-window.ts';
 import type { CounterexampleMessage } from '../../../../workers/property.worker.ts';
