@@ -39,7 +39,7 @@ export function OfferListEditor({ offers, onChange, errorOf, listError, disabled
     <div className="space-y-3">
       <ol className="space-y-3" aria-label="Power data objects">
         {offers.map((offer, index) => (
-          // Rows are positions: the key is the position, the values are controlled.
+          // biome-ignore lint/suspicious/noArrayIndexKey: rows are object positions; every field is controlled, so a move or a removal redraws the values
           <li key={index} className="rounded-md border border-slate-200 p-3 dark:border-slate-800" aria-label={`Offer ${index + 1}`}>
             <div className="flex flex-wrap items-end gap-3">
               <span className="mb-2 w-6 font-mono text-xs text-slate-500 tabular">{index + 1}</span>
