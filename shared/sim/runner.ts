@@ -509,7 +509,8 @@ class Run implements LineHooks {
       this.resetLayers(port);
       this.timers.stopLayer(port, nowUs);
       this.role[port] = port;
-      this.typec[port] = initialTypec(port);
+      // Both ports still see the VBUS the source drove until it has discharged to vSafe0V.
+      this.typec[port] = initialTypec(port, this.vbus.sinkVbusPresent);
       this.lane(port, this.typec[port].state);
     }
     this.prl.cable = initialProtocol;
@@ -590,6 +591,8 @@ class Run implements LineHooks {
         this.vbus.sinkVbusPresent = entry.present;
         const sinkPort = this.portWithRole('sink');
         this.runTypec(sinkPort, { kind: 'vbus', present: entry.present });
+        // The source waits in AttachWait.SRC for vSafe0V after ErrorRecovery (typec.ts).
+        this.runTypec(otherSide(sinkPort), { kind: 'vbus', present: entry.present });
         if (this.pe[sinkPort].state !== 'idle' && this.role[sinkPort] === 'sink') this.runPe(sinkPort, { kind: 'vbus', present: entry.present });
         return;
       }
