@@ -135,7 +135,10 @@ function policyFor(pe: SinkPe, context: SinkContext): SinkPolicy {
   if (eprVoltage && !pe.eprMode) return EPR_MAX_POWER;
   // One object per policy, so the choice memo below recognises it run after run.
   let capable = eprCapablePolicies.get(pe.policy);
-  if (!capable) eprCapablePolicies.set(pe.policy, (capable = Object.freeze({ ...pe.policy, eprModeCapable: true })));
+  if (!capable) {
+    capable = Object.freeze({ ...pe.policy, eprModeCapable: true });
+    eprCapablePolicies.set(pe.policy, capable);
+  }
   return capable;
 }
 
@@ -147,15 +150,22 @@ const choices = new WeakMap<readonly SourcePdo[], WeakMap<SinkPolicy, Map<number
  */
 function choose(offers: readonly SourcePdo[], policy: SinkPolicy, cableMa: number, epr: boolean): ChosenRequest {
   let byPolicy = choices.get(offers);
-  if (!byPolicy) choices.set(offers, (byPolicy = new WeakMap()));
+  if (!byPolicy) {
+    byPolicy = new WeakMap();
+    choices.set(offers, byPolicy);
+  }
   let byOptions = byPolicy.get(policy);
-  if (!byOptions) byPolicy.set(policy, (byOptions = new Map()));
+  if (!byOptions) {
+    byOptions = new Map();
+    byPolicy.set(policy, byOptions);
+  }
   const key = epr ? -cableMa - 1 : cableMa;
   let choice = byOptions.get(key);
   if (!choice) {
     choice = chooseRequest(offers, policy, { cableMa, epr });
     Object.freeze(choice.contract);
-    byOptions.set(key, (choice = Object.freeze(choice)));
+    choice = Object.freeze(choice);
+    byOptions.set(key, choice);
   }
   return choice;
 }

@@ -158,7 +158,10 @@ const verdicts = new WeakMap<Offers, Map<number, Accepted | null>>();
 /** A plain SPR Request's verdict, memoised by the offers object and the RDO (the same question every run); frozen, runs share it. */
 function evaluateSprRequest(offered: Offers, rdoRaw: number): Accepted | null {
   let byRdo = verdicts.get(offered);
-  if (!byRdo) verdicts.set(offered, (byRdo = new Map()));
+  if (!byRdo) {
+    byRdo = new Map();
+    verdicts.set(offered, byRdo);
+  }
   let verdict = byRdo.get(rdoRaw);
   if (verdict === undefined) {
     verdict = evaluateRdo(offered, 'Request', rdoRaw, undefined, false);
