@@ -16,7 +16,7 @@ describe('typecStep', () => {
   it('a source with VBUS still above vSafe0V waits in AttachWait.SRC after tCCDebounce', () => {
     let [state] = typecStep(initialTypec('source', true), { kind: 'cc' });
     expect(state.state).toBe('AttachWait.SRC');
-    let effects;
+    let effects: ReturnType<typeof typecStep>[1];
     [state, effects] = typecStep(state, { kind: 'debounced' });
     expect(state.state).toBe('AttachWait.SRC');
     expect(effects).toEqual([]);
