@@ -34,7 +34,9 @@ function timeOnceMs(args: string[]): number {
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!;
 
 const times = subjects.map(() => [] as number[]);
-for (let run = 0; run < RUNS; run += 1) subjects.forEach((subject, i) => times[i]!.push(timeOnceMs(subject.args)));
+for (let run = 0; run < RUNS; run += 1) {
+  for (const [i, subject] of subjects.entries()) times[i]!.push(timeOnceMs(subject.args));
+}
 const medians = times.map(median);
 const [nodeMs, builtMs, sourceMs] = medians as [number, number, number];
 

@@ -52,7 +52,17 @@ afterAll(() => {
 
 function fakeIo() {
   const out = { stdout: '', stderr: '' };
-  const io: CliIo = { stdout: (t) => void (out.stdout += t), stderr: (t) => void (out.stderr += t), isTty: false, cwd: dir, readStdin: async () => '' };
+  const io: CliIo = {
+    stdout: (t) => {
+      out.stdout += t;
+    },
+    stderr: (t) => {
+      out.stderr += t;
+    },
+    isTty: false,
+    cwd: dir,
+    readStdin: async () => '',
+  };
   return { io, out };
 }
 

@@ -16,6 +16,7 @@ import type { Finding } from '../shared/core/finding.ts';
 import { parseScenario, SAMPLE_FIELDS, simulate } from '../shared/sim/index.ts';
 import { runVector, type VectorResult } from '../shared/vectors/run.ts';
 import { describeZodError, vectorSchema } from '../shared/vectors/schema.ts';
+import type { MessageRecord } from '../shared/trace/records.ts';
 
 export type PropertyProgress = {
   /** Runs of the predicate before the first failure (at most `totalRuns`). */
@@ -35,6 +36,8 @@ export type CounterexampleRun = {
   /** Interleaved `[tUs, vbusMv, ibusMa, sinkMv, …]`. */
   samples: number[];
   messages: CounterexampleMessage[];
+  /** The message records with their decoded messages, for the timeline's message list and bit-field view. */
+  messageRecords: MessageRecord[];
   events: { t: number; event: string; from?: string }[];
   lanes: { t: number; side: 'source' | 'sink'; state: string }[];
   endUs: number;
@@ -89,9 +92,11 @@ function simulateCounterexample(scenario: unknown): CounterexampleRun | undefine
   const sampleEveryUs = Math.max(100, Math.ceil((parsed.scenario.durationMs * 1_000) / 2_000));
   const result = simulate(parsed.scenario, { samples: true, sampleEveryUs });
   const messages: CounterexampleMessage[] = [];
+  const messageRecords: MessageRecord[] = [];
   const events: CounterexampleRun['events'] = [];
   for (const record of result.events) {
     if ('msg' in record) {
+      messageRecords.push(record);
       messages.push({ t: record.t, from: record.from ?? 'source', messageType: record.message?.header.messageType ?? 'Unreadable', hex: record.msg, crcOk: record.crcOk !== false });
     } else if ('event' in record) {
       events.push({ t: record.t, event: record.event, ...(record.from ? { from: record.from } : {}) });
@@ -102,6 +107,7 @@ function simulateCounterexample(scenario: unknown): CounterexampleRun | undefine
     findings: result.findings,
     samples: result.samples ? Array.from(result.samples.data.subarray(0, result.samples.count * SAMPLE_FIELDS)) : [],
     messages,
+    messageRecords,
     events,
     lanes: result.lanes.filter((lane): lane is CounterexampleRun['lanes'][number] => lane.side === 'source' || lane.side === 'sink'),
     endUs: result.endUs,

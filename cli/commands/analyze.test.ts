@@ -13,7 +13,17 @@ afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 async function cli(...argv: string[]) {
   let stdout = '';
   let stderr = '';
-  const io: CliIo = { stdout: (t) => void (stdout += t), stderr: (t) => void (stderr += t), isTty: false, cwd: FIXTURES, readStdin: async () => '' };
+  const io: CliIo = {
+    stdout: (t) => {
+      stdout += t;
+    },
+    stderr: (t) => {
+      stderr += t;
+    },
+    isTty: false,
+    cwd: FIXTURES,
+    readStdin: async () => '',
+  };
   const code = await runCli(argv, io);
   return { code, stdout, stderr, json: () => JSON.parse(stdout) as Json };
 }

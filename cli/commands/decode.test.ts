@@ -4,7 +4,17 @@ import { runCli } from '../main.ts';
 
 function fakeIo(stdin = '', cwd = process.cwd()) {
   const out = { stdout: '', stderr: '' };
-  const io: CliIo = { stdout: (t) => void (out.stdout += t), stderr: (t) => void (out.stderr += t), isTty: false, cwd, readStdin: async () => stdin };
+  const io: CliIo = {
+    stdout: (t) => {
+      out.stdout += t;
+    },
+    stderr: (t) => {
+      out.stderr += t;
+    },
+    isTty: false,
+    cwd,
+    readStdin: async () => stdin,
+  };
   return { io, out };
 }
 

@@ -75,7 +75,7 @@ export function describeMessage(io: CliIo, message: Message, warnings: Finding[]
   let out = lines.join('\n') + '\n';
   if (message.objects.length > 0) {
     const rows = [['#', 'kind', 'raw', 'fields'].map((c) => paint(io, 'dim', c))];
-    message.objects.forEach((o, i) => rows.push([String(i + 1), o.kind, o.raw, summarizeObject(o)]));
+    for (const [i, o] of message.objects.entries()) rows.push([String(i + 1), o.kind, o.raw, summarizeObject(o)]);
     out += formatTable(rows);
   }
   if (message.data) {

@@ -12,13 +12,16 @@ import { CliError, EXIT_OK, printJson, type CliIo } from '../io.ts';
 
 const USAGE = 'encode <file.json|-> [--json]';
 
-export async function run(args: string[], io: CliIo): Promise<number> {
-  let parsed;
+function parseUsage(args: string[]) {
   try {
-    parsed = parseArgs({ args, allowPositionals: true, options: { json: { type: 'boolean' }, help: { type: 'boolean', short: 'h' } } });
+    return parseArgs({ args, allowPositionals: true, options: { json: { type: 'boolean' }, help: { type: 'boolean', short: 'h' } } });
   } catch (error) {
     throw new CliError('usage', `${error instanceof Error ? error.message : String(error)}; usage: parley ${USAGE}`);
   }
+}
+
+export async function run(args: string[], io: CliIo): Promise<number> {
+  const parsed = parseUsage(args);
   if (parsed.values.help) {
     io.stdout(`Usage: parley ${USAGE}\n`);
     return EXIT_OK;

@@ -10,7 +10,7 @@ const loadEngine =
 const ready = loadEngine();
 ready.then(
   () => parentPort.postMessage({ ready: true }),
-  (error) => parentPort.postMessage({ fatal: String((error && error.stack) || error) }),
+  (error) => parentPort.postMessage({ fatal: String(error?.stack || error) }),
 );
 parentPort.on('message', async (job) => {
   const engine = await ready;

@@ -30,7 +30,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const chosen = chooseRequest(offers.pdos, policy, { cableMa, epr: parsed.flags.has('--epr') || undefined });
   const pdo = offers.pdos[chosen.objectPosition - 1];
   const message = pdo ? requestMessageHex(chosen.rdo, pdo, { specRevision: offers.message?.header.specRevision === '2.0' ? '2.0' : '3.0' }) : undefined;
-  if (!message || !message.ok) throw new CliError('input.caps', '--caps: the offers leave nothing a sink could request');
+  if (!message?.ok) throw new CliError('input.caps', '--caps: the offers leave nothing a sink could request');
   const findings = checkRequest(chosen.rdo, offers.pdos);
   const request = { hex: message.hex, rdo: chosen.rdo.raw, objectPosition: chosen.objectPosition, capabilityMismatch: chosen.capabilityMismatch, contract: chosen.contract };
 

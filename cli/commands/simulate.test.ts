@@ -12,7 +12,17 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 async function cli(argv: string[], stdin = '') {
   let stdout = '';
   let stderr = '';
-  const io: CliIo = { stdout: (t) => void (stdout += t), stderr: (t) => void (stderr += t), isTty: false, cwd: dir, readStdin: async () => stdin };
+  const io: CliIo = {
+    stdout: (t) => {
+      stdout += t;
+    },
+    stderr: (t) => {
+      stderr += t;
+    },
+    isTty: false,
+    cwd: dir,
+    readStdin: async () => stdin,
+  };
   const code = await runCli(argv, io);
   return { code, stdout, stderr };
 }

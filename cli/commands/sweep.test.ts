@@ -20,7 +20,17 @@ afterAll(() => {
 
 async function cli(...argv: string[]) {
   const out = { stdout: '', stderr: '' };
-  const io: CliIo = { stdout: (t) => void (out.stdout += t), stderr: (t) => void (out.stderr += t), isTty: false, cwd: dir, readStdin: async () => '' };
+  const io: CliIo = {
+    stdout: (t) => {
+      out.stdout += t;
+    },
+    stderr: (t) => {
+      out.stderr += t;
+    },
+    isTty: false,
+    cwd: dir,
+    readStdin: async () => '',
+  };
   const code = await runCli(argv, io);
   return { code, ...out };
 }

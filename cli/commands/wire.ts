@@ -250,7 +250,7 @@ async function decode(positionals: string[], values: ReturnType<typeof parse>['v
   if (values.json && values.jsonl) throw new CliError('usage', `wire decode: give --json or --jsonl, not both; ${USAGE}`);
   const path = resolve(io.cwd, file);
   const info = await stat(path).catch(() => undefined);
-  if (!info || !info.isFile()) throw new CliError('input.file', `no such file: ${file}`);
+  if (!info?.isFile()) throw new CliError('input.file', `no such file: ${file}`);
 
   const writer = values.jsonl ? jsonlWriter(io) : values.json ? jsonWriter(io) : tableWriter(io);
   const describe = createDescriber();

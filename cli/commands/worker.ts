@@ -21,7 +21,7 @@ async function loadWorker(): Promise<typeof import('../../server/worker.ts')> {
 export async function run(args: string[], io: CliIo): Promise<number> {
   if (args.some((a) => a !== '--json')) throw new CliError('usage', `worker takes no arguments (got ${args.join(' ')}); it reads DATABASE_URL and the other server settings from the environment`);
   const { startWorker } = await loadWorker();
-  let worker;
+  let worker: Awaited<ReturnType<typeof startWorker>>;
   try {
     worker = await startWorker();
   } catch (error) {

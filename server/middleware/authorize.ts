@@ -16,13 +16,13 @@ async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise
   if (bearer) {
     if (!deps.verifyBearer) throw unauthorized('This server does not accept API tokens; sign in instead', 'token.not-accepted');
     const user = await deps.verifyBearer(bearer[1]!, em, req);
-    if (!user || !user.active) throw unauthorized('The API token is not valid', 'token.invalid');
+    if (!user?.active) throw unauthorized('The API token is not valid', 'token.invalid');
     return user;
   }
   const session = readSession(req, deps);
   if (!session) return null;
   const user = await em.findOne(User, { id: session.userId });
-  if (!user || !user.active || user.invitePending || user.sessionVersion !== session.version) return null;
+  if (!user?.active || user.invitePending || user.sessionVersion !== session.version) return null;
   return user;
 }
 

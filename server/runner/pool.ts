@@ -94,7 +94,7 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
             inThreads.map((x) => x.task),
             { name: 'runVectorBatch', signal: AbortSignal.timeout(timeoutMs) },
           )) as VectorResult[];
-          out.forEach((result, i) => (results[inThreads[i]!.index] = result));
+          for (const [i, result] of out.entries()) results[inThreads[i]!.index] = result;
         } catch {
           // One vector stuck or crashing its worker: run that batch one by one, each with its own limit.
           await Promise.all(inThreads.map(async ({ task, index }) => (results[index] = await run(task))));

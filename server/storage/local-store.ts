@@ -15,8 +15,12 @@ export function createLocalTraceStore(dataDir: string): TraceStore {
     has: async (sha256) => existsSync(pathOf(sha256)),
     async keep(tempPath, sha256) {
       const target = pathOf(sha256);
-      if (existsSync(target)) await rm(tempPath, { force: true });
-      else await rename(tempPath, target);
+      try {
+        if (!existsSync(target)) await rename(tempPath, target);
+      } finally {
+        // Renamed away, a duplicate, or a failed rename: the temporary file goes in every case.
+        await rm(tempPath, { force: true });
+      }
     },
     async put(sha256, bytes) {
       mkdirSync(dir, { recursive: true });

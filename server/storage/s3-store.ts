@@ -24,7 +24,11 @@ export interface S3StoreOptions {
   incomingDir?: string;
   /** Tests pass fixed credentials; otherwise the SDK's default chain. */
   credentials?: S3ClientConfig['credentials'];
+  /** Bytes per uploaded part (S3's minimum is 5 MiB); the file never sits in memory whole. */
+  partSizeBytes?: number;
 }
+
+export const DEFAULT_PART_SIZE_BYTES = 8 * 1024 * 1024;
 
 function isNotFound(error: unknown): boolean {
   const e = error as { name?: string; $metadata?: { httpStatusCode?: number } };
@@ -63,7 +67,7 @@ export function createS3TraceStore(options: S3StoreOptions): TraceStore {
       client,
       params: { Bucket, Key, Body: createReadStream(tempPath), ContentType: 'application/octet-stream' },
       queueSize: 2,
-      partSize: 8 * 1024 * 1024,
+      partSize: options.partSizeBytes ?? DEFAULT_PART_SIZE_BYTES,
       leavePartsOnError: false,
     });
     await parts.done();

@@ -59,7 +59,7 @@ export function createChunkAssembler(): ChunkAssembler {
     reset: () => open.clear(),
     push(message) {
       const ext = message.extendedHeader;
-      if (!message.header.extended || !ext || !ext.chunked || ext.requestChunk) return { state: 'passthrough', message };
+      if (!message.header.extended || !ext?.chunked || ext.requestChunk) return { state: 'passthrough', message };
       const key = `${message.sop}|${message.header.powerRole ?? String(message.header.cablePlug)}|${message.header.messageType}`;
       let entry = open.get(key);
       if (ext.chunkNumber === 0) {

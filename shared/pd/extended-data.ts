@@ -336,7 +336,7 @@ export function encodeDataBlock(messageType: string, data: Record<string, unknow
   if (VARIABLE.has(messageType)) return encodeVariable(messageType, data);
   const layout = BLOCKS[messageType];
   if (!layout) throw new RangeError(`data: ${messageType} has no data block the codec writes; give "payload" instead`);
-  const present = layout.fields.filter((f, i) => layout.fields.slice(0, i + 1).every((g) => data[g.name] !== undefined));
+  const present = layout.fields.filter((_, i) => layout.fields.slice(0, i + 1).every((g) => data[g.name] !== undefined));
   const trailing = bytesOf(data.trailing, 'data.trailing');
   const size = present.reduce((n, f) => n + f.size, 0);
   const out = new Uint8Array(size + trailing.length);

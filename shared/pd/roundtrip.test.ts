@@ -47,7 +47,7 @@ describe('codec round trip', () => {
         const bytes = new Uint8Array(2 + 4 * words.length);
         const view = new DataView(bytes.buffer);
         view.setUint16(0, h & 0x7fff, true);
-        words.forEach((w, i) => view.setUint32(2 + 4 * i, w, true));
+        for (const [i, w] of words.entries()) view.setUint32(2 + 4 * i, w, true);
         const r = decodeMessage(bytes);
         expect(r.ok).toBe(true);
         if (!r.ok) return;

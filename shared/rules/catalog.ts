@@ -407,7 +407,7 @@ export type RuleId = keyof typeof ruleCatalog;
 export const ruleIds = Object.keys(ruleCatalog) as RuleId[];
 
 export function isRuleId(value: string): value is RuleId {
-  return Object.prototype.hasOwnProperty.call(ruleCatalog, value);
+  return Object.hasOwn(ruleCatalog, value);
 }
 
 export function ruleGroup(rule: RuleId): RuleGroup {

@@ -41,7 +41,7 @@ export function checkStructure(pdos: readonly SourcePdo[], options: { epr?: bool
   if (real.length === 0) return [makeFinding('caps.empty', 'The message offers no power data objects at all.')];
 
   const first = pdos[0];
-  if (!first || first.kind !== 'fixed' || first.voltageMv !== 5_000) {
+  if (first?.kind !== 'fixed' || first.voltageMv !== 5_000) {
     const what = first ? describePdo(first) : 'nothing';
     findings.push(makeFinding('caps.first-not-vsafe5v', `Object 1 is ${what}, but the first offer must be the 5 V fixed supply.`, { object: 1 }));
   }

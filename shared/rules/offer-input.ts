@@ -101,6 +101,8 @@ export function buildOffers(input: unknown): Result<{ pdos: SourcePdo[] }> {
           return eprAvsApdo(o.minVoltageMv, o.maxVoltageMv, o.pdpW);
         case 'spr-avs':
           return sprAvsApdo(o.maxCurrent15vMa, o.maxCurrent20vMa);
+        default:
+          return o satisfies never;
       }
     });
     return { ok: true, pdos };

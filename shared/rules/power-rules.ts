@@ -74,7 +74,7 @@ export function checkPowerRules(pdos: readonly SourcePdo[], pdpW: number, option
     const volts = required.voltageMv / 1_000;
     const amps = required.currentMa / 1_000;
     const offer = pdos[index];
-    if (!offer || offer.kind !== 'fixed') {
+    if (offer?.kind !== 'fixed') {
       findings.push(makeFinding('caps.power-rules-missing', `The Power Rules require ${who} to offer ${volts} V at ${amps} A, and no ${volts} V fixed supply is offered.`));
     } else if (offer.maxCurrentMa < required.currentMa) {
       findings.push(

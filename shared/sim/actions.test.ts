@@ -20,7 +20,7 @@ const list = (result: SimulationResult) =>
   result.events.flatMap((r) =>
     'msg' in r && r.message && r.message.header.messageType !== 'GoodCRC' ? [{ t: r.t, from: r.from ?? '', type: r.message.header.messageType, bytes: r.msg.length / 2 }] : [],
   );
-const after = (result: SimulationResult, tUs: number) =>
+const messagesAfter = (result: SimulationResult, tUs: number) =>
   list(result)
     .filter((m) => m.t >= tUs)
     .map((m) => `${m.from} ${m.type}`);
@@ -36,7 +36,7 @@ describe('asking the partner', () => {
         { atMs: 1_400, by: 'sink', action: 'get_pps_status' },
       ],
     });
-    expect(after(result, 1_000_000).slice(0, 6)).toEqual([
+    expect(messagesAfter(result, 1_000_000).slice(0, 6)).toEqual([
       'sink Get_Source_Cap_Extended',
       'source Source_Capabilities_Extended',
       'sink Get_Status',
@@ -55,7 +55,7 @@ describe('asking the partner', () => {
         { atMs: 1_200, by: 'source', action: 'get_sink_cap' },
       ],
     });
-    expect(after(result, 1_000_000).slice(0, 4)).toEqual(['sink Get_Sink_Cap', 'source Not_Supported', 'source Get_Sink_Cap', 'sink Sink_Capabilities']);
+    expect(messagesAfter(result, 1_000_000).slice(0, 4)).toEqual(['sink Get_Sink_Cap', 'source Not_Supported', 'source Get_Sink_Cap', 'sink Sink_Capabilities']);
   });
 });
 
@@ -101,12 +101,12 @@ describe('swaps', () => {
       ],
       source: { caps: { pdos: CAPS }, behaviour: { swapAnswer: 'accept' } },
     });
-    expect(after(accept, 1_000_000).slice(0, 5)).toEqual(['source DR_Swap', 'sink Accept', 'sink VCONN_Swap', 'source Accept', 'sink PS_RDY']);
+    expect(messagesAfter(accept, 1_000_000).slice(0, 5)).toEqual(['source DR_Swap', 'sink Accept', 'sink VCONN_Swap', 'source Accept', 'sink PS_RDY']);
     // After DR_Swap the source is the UFP: its headers carry Port Data Role 0 (§6.2.1.1.6).
     const later = accept.events.filter((r) => 'msg' in r && r.from === 'source' && r.t > 1_300_000 && r.message?.header.messageType !== 'GoodCRC');
     expect(later.every((r) => 'msg' in r && r.message?.header.dataRole === 'ufp')).toBe(true);
     const refused = run({ actions: [{ atMs: 1_000, by: 'sink', action: 'pr_swap' }], sink: { behaviour: { swapAnswer: 'not_supported' } } });
-    expect(after(refused, 1_000_000).slice(0, 2)).toEqual(['sink PR_Swap', 'source Reject']);
+    expect(messagesAfter(refused, 1_000_000).slice(0, 2)).toEqual(['sink PR_Swap', 'source Reject']);
   });
 
   // §7.3.9 / §8.3.3.19: Accept, the source's supply off then PS_RDY, the new source's supply on then PS_RDY,
@@ -116,7 +116,7 @@ describe('swaps', () => {
       source: { caps: { pdos: CAPS }, behaviour: { swapAnswer: 'accept' } },
       actions: [{ atMs: 1_000, by: 'sink', action: 'pr_swap' }],
     });
-    const seq = after(result, 1_000_000);
+    const seq = messagesAfter(result, 1_000_000);
     expect(seq.slice(0, 8)).toEqual(['sink PR_Swap', 'source Accept', 'source PS_RDY', 'sink PS_RDY', 'source Source_Capabilities', 'sink Request', 'source Accept', 'source PS_RDY']);
     const msgs = list(result).filter((m) => m.t >= 1_000_000);
     const newSourcePsRdy = msgs[3]!;
@@ -146,7 +146,7 @@ describe('Wait, Soft_Reset and Hard_Reset on demand', () => {
   });
   it('soft_reset and hard_reset actions renegotiate', () => {
     const soft = run({ actions: [{ atMs: 1_000, by: 'sink', action: 'soft_reset' }] });
-    expect(after(soft, 1_000_000).slice(0, 3)).toEqual(['sink Soft_Reset', 'source Accept', 'source Source_Capabilities']);
+    expect(messagesAfter(soft, 1_000_000).slice(0, 3)).toEqual(['sink Soft_Reset', 'source Accept', 'source Source_Capabilities']);
     expect(soft.contract).not.toBeNull();
     const hard = run({ actions: [{ atMs: 1_000, by: 'source', action: 'hard_reset' }] });
     expect(hard.events.some((r) => 'event' in r && r.event === 'hard_reset' && r.from === 'source' && r.t >= 1_000_000)).toBe(true);

@@ -63,5 +63,6 @@ export const UNMARKED_CABLE: EMarker = { currentMa: 3_000, maxVoltageMv: 20_000,
 
 /** EPR needs a 50 V, 5 A, EPR-capable cable (USB PD R3.2 V1.1 §6.4.10, from memory). */
 export function cableAllowsEpr(marker: EMarker | null): boolean {
-  return marker !== null && marker.eprCapable && marker.maxVoltageMv >= 50_000 && marker.currentMa >= 5_000;
+  if (marker === null) return false;
+  return marker.eprCapable && marker.maxVoltageMv >= 50_000 && marker.currentMa >= 5_000;
 }

@@ -21,7 +21,10 @@ const memo = new WeakMap<object, Result<ResolvedCaps>>();
 /** Memoised by the caps object: repeated runs of one scenario decode its offers once. */
 export function resolveCaps(caps: CapsInput): Result<ResolvedCaps> {
   let resolved = memo.get(caps);
-  if (!resolved) memo.set(caps, (resolved = resolveUncached(caps)));
+  if (!resolved) {
+    resolved = resolveUncached(caps);
+    memo.set(caps, resolved);
+  }
   return resolved;
 }
 

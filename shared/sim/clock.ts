@@ -8,15 +8,14 @@ export interface SimClock {
   advanceTo(tUs: number): number;
 }
 
+class ForwardClock implements SimClock {
+  constructor(public nowUs: number) {}
+  advanceTo(tUs: number): number {
+    if (tUs > this.nowUs) this.nowUs = tUs;
+    return this.nowUs;
+  }
+}
+
 export function createClock(startUs = 0): SimClock {
-  let nowUs = startUs;
-  return {
-    get nowUs() {
-      return nowUs;
-    },
-    advanceTo(tUs) {
-      if (tUs > nowUs) nowUs = tUs;
-      return nowUs;
-    },
-  };
+  return new ForwardClock(startUs);
 }

@@ -44,7 +44,8 @@ export function faultsFor(book: FaultBook, kinds: readonly Fault['kind'][], from
     const type = typeOf(fault);
     if (type !== undefined && type !== messageType) return;
     if (fault.atMs !== undefined && tUs < fault.atMs * 1_000) return;
-    const nth = (book.seen[index] = (book.seen[index] ?? 0) + 1);
+    const nth = (book.seen[index] ?? 0) + 1;
+    book.seen[index] = nth;
     if (fault.nth === undefined ? fault.count === undefined || nth <= fault.count : nth >= fault.nth && nth < fault.nth + (fault.count ?? 1)) {
       hits.push(fault);
     }

@@ -10,7 +10,9 @@ describe('createHeap', () => {
       { tUs: 20, seq: 2, name: 'b' },
       { tUs: 10, seq: 3, name: 'a2' },
       { tUs: 5, seq: 4, name: 'first' },
-    ].forEach((entry) => heap.push(entry));
+    ].forEach((entry) => {
+      heap.push(entry);
+    });
     const order: string[] = [];
     while (heap.size > 0) order.push(heap.pop()!.name);
     expect(order).toEqual(['first', 'a1', 'a2', 'b', 'c']);
@@ -21,7 +23,10 @@ describe('createHeap', () => {
     const heap = createHeap<Scheduled>();
     let seq = 0;
     let x = 12_345;
-    const rand = () => (x = (x * 1_103_515_245 + 12_345) % 2_147_483_648) % 1_000;
+    const rand = () => {
+      x = (x * 1_103_515_245 + 12_345) % 2_147_483_648;
+      return x % 1_000;
+    };
     for (let i = 0; i < 500; i++) heap.push({ tUs: rand(), seq: seq++ });
     let last = -1;
     for (let i = 0; i < 250; i++) {

@@ -20,10 +20,33 @@ function before(a: Scheduled, b: Scheduled): boolean {
   return a.tUs < b.tUs || (a.tUs === b.tUs && a.seq < b.seq);
 }
 
-export function createHeap<T extends Scheduled>(): Heap<T> {
-  const items: T[] = [];
+/** A class, not closures: every run creates one (the hot path). */
+class BinaryHeap<T extends Scheduled> implements Heap<T> {
+  private readonly items: T[] = [];
 
-  function siftUp(index: number): void {
+  get size(): number {
+    return this.items.length;
+  }
+  push(entry: T): void {
+    this.items.push(entry);
+    this.siftUp(this.items.length - 1);
+  }
+  peek(): T | undefined {
+    return this.items[0];
+  }
+  pop(): T | undefined {
+    const items = this.items;
+    const top = items[0];
+    const last = items.pop();
+    if (items.length > 0 && last !== undefined) {
+      items[0] = last;
+      this.siftDown(0);
+    }
+    return top;
+  }
+
+  private siftUp(index: number): void {
+    const items = this.items;
     const entry = items[index] as T;
     while (index > 0) {
       const parent = (index - 1) >> 1;
@@ -35,7 +58,8 @@ export function createHeap<T extends Scheduled>(): Heap<T> {
     items[index] = entry;
   }
 
-  function siftDown(index: number): void {
+  private siftDown(index: number): void {
+    const items = this.items;
     const length = items.length;
     const entry = items[index] as T;
     for (;;) {
@@ -51,26 +75,8 @@ export function createHeap<T extends Scheduled>(): Heap<T> {
     }
     items[index] = entry;
   }
+}
 
-  return {
-    get size() {
-      return items.length;
-    },
-    push(entry) {
-      items.push(entry);
-      siftUp(items.length - 1);
-    },
-    peek() {
-      return items[0];
-    },
-    pop() {
-      const top = items[0];
-      const last = items.pop();
-      if (items.length > 0 && last !== undefined) {
-        items[0] = last;
-        siftDown(0);
-      }
-      return top;
-    },
-  };
+export function createHeap<T extends Scheduled>(): Heap<T> {
+  return new BinaryHeap<T>();
 }

@@ -39,9 +39,15 @@ const byCaps = new WeakMap<readonly number[], Map<readonly number[] | null, Offe
  */
 export function offersFor(sprWords: readonly number[], eprWords: readonly number[] | null, sprPdos?: readonly SourcePdo[]): OffersFor {
   let byEpr = byCaps.get(sprWords);
-  if (!byEpr) byCaps.set(sprWords, (byEpr = new Map()));
+  if (!byEpr) {
+    byEpr = new Map();
+    byCaps.set(sprWords, byEpr);
+  }
   let offers = byEpr.get(eprWords);
-  if (!offers) byEpr.set(eprWords, (offers = createOffers(sprWords, eprWords, sprPdos)));
+  if (!offers) {
+    offers = createOffers(sprWords, eprWords, sprPdos);
+    byEpr.set(eprWords, offers);
+  }
   return offers;
 }
 

@@ -13,12 +13,12 @@ import type { TraceRecord } from '../trace/records.ts';
 import { identityAck, UNMARKED_CABLE, vdmCommandType, type EMarker } from './cable-identity.ts';
 import { chunkStep, initialChunks, type ChunkEffect, type ChunkEvent, type ChunkState } from './chunking.ts';
 import { createClock } from './clock.ts';
-import type { Entry, EntryBody, Frame, LayerKey } from './entries.ts';
+import type { Entry, EntryBody, Frame, LayerKey, Scheduler } from './entries.ts';
 import { createFaultBook, faultsFor, type FaultBook } from './faults.ts';
 import { createHeap } from './heap.ts';
-import { Line } from './line.ts';
+import { Line, type LineHooks } from './line.ts';
 import { VbusPath } from './vbus-path.ts';
-import { offersFor } from './offers.ts';
+import { offersFor, type OffersFor } from './offers.ts';
 import type { PeEffect, PeEvent } from './pe-types.ts';
 import { derivedSinkCaps } from './port-answers.ts';
 import type { PortView, PortViews } from './port-views.ts';
@@ -28,7 +28,7 @@ import { createRandom, type Random } from './random.ts';
 import { createSampleBuffer, type PackedSamples, type SampleBuffer } from './sample-buffer.ts';
 import type { Scenario } from './scenario.ts';
 import { initialSinkPe, sinkStep, type SinkContext, type SinkPe } from './sink-pe.ts';
-import { initialSourcePe, sourceStep, type SourceContext, type SourcePe } from './source-pe.ts';
+import { initialSourcePe, sourceStep, type SourceContext, type SourcePe, type SwapAnswer } from './source-pe.ts';
 import { responseDelayUs, timerDurationUs } from './timing.ts';
 import { TimerBook } from './timer-book.ts';
 import { initialTypec, typecStep, type TypecEvent, type TypecState } from './typec.ts';
@@ -80,8 +80,54 @@ function hexWords(pdos: readonly string[] | undefined): number[] | undefined {
 }
 const VSAFE5V_1A5 = [0x0001_9096];
 
+const pdpMemo = new WeakMap<readonly SourcePdo[], number>();
+/** A source's PDP (W): its strongest fixed offer, memoised by the offers array (runs of one scenario share it). */
+function pdpW(pdos: readonly SourcePdo[]): number {
+  let watts = pdpMemo.get(pdos);
+  if (watts === undefined) {
+    watts = 0;
+    for (const pdo of pdos) if (pdo.kind === 'fixed') watts = Math.max(watts, (pdo.voltageMv * pdo.maxCurrentMa) / 1e6);
+    pdpMemo.set(pdos, (watts = Math.round(watts)));
+  }
+  return watts;
+}
+
+/** Some offer needs a 5 A cable: the source discovers the cable before its first offers. */
+function needsFiveAmps(pdos: readonly SourcePdo[]): boolean {
+  return pdos.some((pdo) => (pdo.kind === 'fixed' || pdo.kind === 'variable' || pdo.kind === 'pps') && pdo.maxCurrentMa > 3_000);
+}
+
+const sinkCapsMemo = new WeakMap<SinkPolicy, number[]>();
+function sinkCapsOf(policy: SinkPolicy): number[] {
+  let words = sinkCapsMemo.get(policy);
+  if (!words) sinkCapsMemo.set(policy, (words = derivedSinkCaps(policy)));
+  return words;
+}
+
+/** What a port's source policy engine may ask of the run (a class: no closures per run). */
+class PortSourceContext implements SourceContext {
+  private readonly pdp: { spr: number; epr: number };
+  constructor(
+    readonly offers: OffersFor,
+    readonly eprCapable: boolean,
+    readonly discoverCable: boolean,
+    readonly swapAnswer: SwapAnswer,
+    sprPdpW: number,
+    eprPdpW: number,
+    private readonly vbus: VbusPath,
+  ) {
+    this.pdp = { spr: sprPdpW, epr: eprPdpW };
+  }
+  pdpW(): { spr: number; epr: number } {
+    return this.pdp;
+  }
+  vbusMv(): number {
+    return this.vbus.vbusMv();
+  }
+}
+
 /** One run's world. A class so that a run allocates its state, not a set of closures (hot path). */
-class Run {
+class Run implements LineHooks {
   readonly durationUs: number;
   readonly clock = createClock();
   readonly random: Random;
@@ -117,7 +163,7 @@ class Run {
   awaitingTxOk: { port: Side; effect: SendEffect }[] = [];
   sendGen = 0;
   nextSampleUs = 0;
-  private readonly offersOf: (cable: EMarker | null, epr: boolean) => { words: readonly number[]; pdos: readonly SourcePdo[] };
+  private readonly offersOf: OffersFor;
 
   constructor(
     readonly scenario: Scenario,
@@ -128,11 +174,9 @@ class Run {
     this.random = createRandom(scenario.seed);
     this.book = createFaultBook(scenario.faults);
     this.rp = scenario.source.behaviour.rp;
-    const schedule = (tUs: number, body: EntryBody) => this.schedule(tUs, body);
-    this.line = new Line(this.clock, schedule, this.records, this.book, {
-      pending: (layer) => this.prl[layer].pending,
-      startReceiveTimer: (layer, endUs) => this.startTimer(layer, this.portOfLayer(layer), 'tReceive', endUs),
-    });
+    // Bound methods and classes, not closures: a run is built thousands of times a second.
+    const schedule: Scheduler = this.schedule.bind(this);
+    this.line = new Line(this.clock, schedule, this.records, this.book, this);
     this.vbus = new VbusPath(
       this.clock,
       schedule,
@@ -149,40 +193,40 @@ class Run {
     const cableMa = (this.marker ?? UNMARKED_CABLE).currentMa === 5_000 ? Math.max(currentRatingMa, 5_000) : currentRatingMa;
     const eprWords = hexWords(scenario.source.eprCaps?.pdos) ?? null;
     const offers = offersFor(caps.words, eprWords, caps.pdos);
-    const pdpOf = (pdos: readonly SourcePdo[]) => Math.round(Math.max(0, ...pdos.map((pdo) => (pdo.kind === 'fixed' ? (pdo.voltageMv * pdo.maxCurrentMa) / 1e6 : 0))));
-    const mainSource: SourceContext = {
-      offers,
-      eprCapable: eprWords !== null,
-      discoverCable: eprWords !== null || caps.pdos.some((pdo) => (pdo.kind === 'fixed' || pdo.kind === 'variable' || pdo.kind === 'pps') && pdo.maxCurrentMa > 3_000),
-      swapAnswer: scenario.source.behaviour.swapAnswer,
-      pdpW: () => ({ spr: pdpOf(caps.pdos), epr: eprWords ? pdpOf(offers(this.marker, true).pdos) : 0 }),
-      vbusMv: () => this.vbus.vbusMv(),
-    };
     const swapWords = hexWords(scenario.sink.swapCaps?.pdos) ?? VSAFE5V_1A5; // 5 V 1.5 A
     const swapOffers = offersFor(swapWords, null);
+    const behaviour = scenario.source.behaviour;
     this.sourceContext = {
-      source: mainSource,
-      sink: {
-        ...mainSource,
-        offers: swapOffers,
-        eprCapable: false,
-        discoverCable: false,
-        swapAnswer: scenario.sink.behaviour.swapAnswer,
-        pdpW: () => ({ spr: pdpOf(swapOffers(null, false).pdos), epr: 0 }),
-      },
+      source: new PortSourceContext(
+        offers,
+        eprWords !== null,
+        eprWords !== null || needsFiveAmps(caps.pdos),
+        behaviour.swapAnswer,
+        pdpW(caps.pdos),
+        eprWords ? pdpW(offers(this.marker, true).pdos) : 0,
+        this.vbus,
+      ),
+      sink: new PortSourceContext(swapOffers, false, false, scenario.sink.behaviour.swapAnswer, pdpW(swapOffers(null, false).pdos), 0, this.vbus),
     };
-    const decodeOffers = (words: readonly number[]) => this.decodedOffers(words);
     this.offersOf = offers;
     const mainSink: SinkContext = {
       cableMa,
       ownRevision: scenario.sink.specRevision,
-      decodeOffers,
+      decodeOffers: this.decodedOffers.bind(this),
       eprPdpW: scenario.sink.epr?.pdpW ?? null,
-      sinkCaps: hexWords(scenario.sink.caps?.pdos) ?? derivedSinkCaps(scenario.sink.policy),
+      sinkCaps: hexWords(scenario.sink.caps?.pdos) ?? sinkCapsOf(scenario.sink.policy),
       swapAnswer: scenario.sink.behaviour.swapAnswer,
     };
-    this.sinkContext = { sink: mainSink, source: { ...mainSink, ownRevision: scenario.source.specRevision, eprPdpW: null, sinkCaps: VSAFE5V_1A5, swapAnswer: scenario.source.behaviour.swapAnswer } };
+    this.sinkContext = { sink: mainSink, source: { ...mainSink, ownRevision: scenario.source.specRevision, eprPdpW: null, sinkCaps: VSAFE5V_1A5, swapAnswer: behaviour.swapAnswer } };
     this.pe = { source: initialSourcePe(scenario.source.specRevision), sink: initialSinkPe(scenario.sink.specRevision, scenario.sink.policy) };
+  }
+
+  // ---- the line's hooks ----
+  pending(layer: LayerKey) {
+    return this.prl[layer].pending;
+  }
+  startReceiveTimer(layer: LayerKey, endUs: number): void {
+    this.startTimer(layer, this.portOfLayer(layer), 'tReceive', endUs);
   }
 
   /** The sink's decode memo: the source's own offer arrays come back decoded (same result, no work). */
@@ -465,7 +509,8 @@ class Run {
       this.resetLayers(port);
       this.timers.stopLayer(port, nowUs);
       this.role[port] = port;
-      this.typec[port] = initialTypec(port);
+      // Both ports still see the VBUS the source drove until it has discharged to vSafe0V.
+      this.typec[port] = initialTypec(port, this.vbus.sinkVbusPresent);
       this.lane(port, this.typec[port].state);
     }
     this.prl.cable = initialProtocol;
@@ -546,6 +591,8 @@ class Run {
         this.vbus.sinkVbusPresent = entry.present;
         const sinkPort = this.portWithRole('sink');
         this.runTypec(sinkPort, { kind: 'vbus', present: entry.present });
+        // The source waits in AttachWait.SRC for vSafe0V after ErrorRecovery (typec.ts).
+        this.runTypec(otherSide(sinkPort), { kind: 'vbus', present: entry.present });
         if (this.pe[sinkPort].state !== 'idle' && this.role[sinkPort] === 'sink') this.runPe(sinkPort, { kind: 'vbus', present: entry.present });
         return;
       }
@@ -645,13 +692,13 @@ class Run {
     return output;
   }
 
+  finalView(port: Side): PortView {
+    const pe = this.pe[port];
+    const state = pe.state === 'idle' ? this.typec[port].state : pe.state;
+    return { tUs: this.clock.nowUs, side: port, state, contract: pe.contract, eprMode: pe.eprMode };
+  }
   portViews(): PortViews {
-    const finalOf = (port: Side): PortView => {
-      const pe = this.pe[port];
-      const state = pe.state === 'idle' ? this.typec[port].state : pe.state;
-      return { tUs: this.clock.nowUs, side: port, state, contract: pe.contract, eprMode: pe.eprMode };
-    };
-    return { changes: this.portChanges, final: { source: finalOf('source'), sink: finalOf('sink') } };
+    return { changes: this.portChanges, final: { source: this.finalView('source'), sink: this.finalView('sink') } };
   }
 }
 

@@ -12,7 +12,7 @@ import { decodeSourcePdo } from '../pd/source-pdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { chooseRequest } from '../rules/choose-request.ts';
 import { SPR_MAX_VOLTAGE_MV } from '../rules/pdo-facts.ts';
-import type { SinkPolicy } from '../rules/sink-policy.ts';
+import type { ChosenRequest, SinkPolicy } from '../rules/sink-policy.ts';
 import { ECDB, eprModeAction, eprModeObject, eprModeOf, isEcdb, minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
 import { statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
@@ -97,6 +97,9 @@ const stopAll: PeEffect[] = [
   { kind: 'stop-timer', name: 'tEnterEPR' },
 ];
 
+/** New offers stop the sink's timers, except those of a transition or an EPR entry in progress. */
+const stopOnOffers = stopAll.filter((e) => e.kind === 'stop-timer' && e.name !== 'tPSTransition' && e.name !== 'tPSTransitionEpr' && e.name !== 'tEnterEPR');
+
 function hardReset(pe: SinkPe, effects: PeEffect[], why: string): Step {
   const counters = countersFor(pe.revision);
   effects.push(...stopAll);
@@ -120,14 +123,55 @@ function toDefault(pe: SinkPe, effects: PeEffect[]): Step {
   return [{ ...pe, state: 'PE_SNK_Discovery', contract: null, requested: null, eprMode: false, eprTried: false, pending: NONE }, effects];
 }
 
+const EPR_MAX_POWER: SinkPolicy = Object.freeze({ kind: 'max-power', eprModeCapable: true });
+const eprCapablePolicies = new WeakMap<SinkPolicy, SinkPolicy>();
+
 function policyFor(pe: SinkPe, context: SinkContext): SinkPolicy {
   if (!context.eprPdpW) return pe.policy;
   // An EPR capable sink says so in every RDO (§6.4.2 EPR Mode Capable). Before EPR mode, a policy that
   // names an EPR voltage takes the most SPR power meanwhile (common practice), so a sink that cannot
   // enter EPR mode still gets what SPR gives.
   const eprVoltage = (pe.policy.kind === 'fixed' || pe.policy.kind === 'avs') && pe.policy.voltageMv > SPR_MAX_VOLTAGE_MV;
-  if (eprVoltage && !pe.eprMode) return { kind: 'max-power', eprModeCapable: true };
-  return { ...pe.policy, eprModeCapable: true };
+  if (eprVoltage && !pe.eprMode) return EPR_MAX_POWER;
+  // One object per policy, so the choice memo below recognises it run after run.
+  let capable = eprCapablePolicies.get(pe.policy);
+  if (!capable) {
+    capable = Object.freeze({ ...pe.policy, eprModeCapable: true });
+    eprCapablePolicies.set(pe.policy, capable);
+  }
+  return capable;
+}
+
+const choices = new WeakMap<readonly SourcePdo[], WeakMap<SinkPolicy, Map<number, ChosenRequest>>>();
+/**
+ * `chooseRequest`, memoised by the offers array and the policy object (runs of one scenario share
+ * both) and the cable and mode: a pure function asked the same question in every run. The answer
+ * is frozen, since runs share it.
+ */
+function choose(offers: readonly SourcePdo[], policy: SinkPolicy, cableMa: number, epr: boolean): ChosenRequest {
+  let byPolicy = choices.get(offers);
+  if (!byPolicy) {
+    byPolicy = new WeakMap();
+    choices.set(offers, byPolicy);
+  }
+  let byOptions = byPolicy.get(policy);
+  if (!byOptions) {
+    byOptions = new Map();
+    byPolicy.set(policy, byOptions);
+  }
+  const key = epr ? -cableMa - 1 : cableMa;
+  let choice = byOptions.get(key);
+  if (!choice) {
+    choice = chooseRequest(offers, policy, { cableMa, epr });
+    Object.freeze(choice.contract);
+    choice = Object.freeze(choice);
+    byOptions.set(key, choice);
+  }
+  return choice;
+}
+
+function programmable(contract: Contract | null | undefined): boolean {
+  return contract?.kind === 'pps' || contract?.kind === 'avs';
 }
 
 /** §8.3.3.3.4–5 Evaluate_Capability and Select_Capability: the sink policy picks a Request. */
@@ -135,7 +179,7 @@ function select(pe: SinkPe, context: SinkContext, effects: PeEffect[]): Step {
   // A revision 2.0 contract has no programmable offers: drop the trailing APDOs (positions stay).
   const firstApdo = pe.pdos.findIndex((pdo) => APDO.has(pdo.kind));
   const offers = pe.revision === '2.0' && firstApdo >= 0 ? pe.pdos.slice(0, Math.max(1, firstApdo)) : pe.pdos;
-  const choice = chooseRequest(offers, policyFor(pe, context), { cableMa: context.cableMa, epr: pe.eprMode });
+  const choice = choose(offers, policyFor(pe, context), context.cableMa, pe.eprMode);
   const rdoRaw = choice.rdoRaw >>> 0;
   // In EPR mode every request is an EPR_Request with a copy of the PDO it names (§6.4.9).
   if (pe.eprMode) send(effects, 'EPR_Request', [rdoRaw, pe.words[choice.objectPosition - 1] ?? 0]);
@@ -161,7 +205,7 @@ function enterReady(pe: SinkPe, context: SinkContext, effects: PeEffect[]): Step
     return [{ ...pe, state: 'PE_SNK_Send_EPR_Mode_Entry', eprTried: true }, effects];
   }
   const [next, ...rest] = pe.pending;
-  if (next !== undefined) return startAction({ ...pe, state: 'PE_SNK_Ready', pending: rest }, next, context, effects);
+  if (next !== undefined) return startAction({ ...pe, state: 'PE_SNK_Ready', pending: rest }, next, effects);
   return [{ ...pe, state: 'PE_SNK_Ready' }, effects];
 }
 
@@ -172,7 +216,7 @@ function askForOffers(pe: SinkPe, effects: PeEffect[]): Step {
   return [{ ...pe, state: 'PE_SNK_Get_Source_Cap' }, effects];
 }
 
-function startAction(pe: SinkPe, action: ActionName, context: SinkContext, effects: PeEffect[]): Step {
+function startAction(pe: SinkPe, action: ActionName, effects: PeEffect[]): Step {
   if (pe.state !== 'PE_SNK_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
   const ask = (type: MessageType, state: string): Step => {
     effects.push({ kind: 'stop-timer', name: 'tSinkEPRKeepAlive' });
@@ -290,7 +334,7 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
     if (pe.state !== 'PE_SNK_Ready') return [next, effects];
     return askForOffers(next, effects);
   }
-  if (event.kind === 'action') return startAction(pe, event.action, context, effects);
+  if (event.kind === 'action') return startAction(pe, event.action, effects);
   if (event.kind === 'hard-reset-received') {
     effects.push(...stopAll);
     return toDefault(pe, effects);
@@ -303,7 +347,7 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
   const offers = event.kind === 'message' && (event.type === 'Source_Capabilities' || (event.type === 'EPR_Source_Capabilities' && pe.eprMode));
   if (offers && pe.state !== 'idle' && pe.state !== 'PE_SNK_Discovery' && !pe.state.startsWith('PE_PRS_')) {
     // §8.3.3.3.3 / .7: offers arriving while waiting, in Ready, or asked for: evaluate them.
-    effects.push(...stopAll.filter((e) => e.kind === 'stop-timer' && e.name !== 'tPSTransition' && e.name !== 'tPSTransitionEpr' && e.name !== 'tEnterEPR'));
+    effects.push(...stopOnOffers);
     const words = event.type === 'EPR_Source_Capabilities' ? bytesToWords(event.bytes ?? []) : event.objects;
     const pdos = context.decodeOffers?.(words) ?? words.map((word) => decodeSourcePdo(word) as SourcePdo);
     // Plain Source_Capabilities in EPR mode means the source left EPR mode (§8.3.3.26.4).
@@ -337,7 +381,6 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
         // it runs for tPSTransition's EPR value (§6.6.4.1).
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' }, { kind: 'start-timer', name: pe.eprMode ? 'tPSTransitionEpr' : 'tPSTransition', afterGoodCrc: true });
         // §7.2.3: Sink Standby (pSnkStdby) during the transition, except between programmable levels.
-        const programmable = (c: Contract | null | undefined) => c?.kind === 'pps' || c?.kind === 'avs';
         if (!(programmable(pe.contract) && programmable(pe.requested?.contract))) effects.push({ kind: 'sink-mode', mode: 'standby' });
         return [{ ...pe, state: 'PE_SNK_Transition_Sink' }, effects];
       }

@@ -127,29 +127,57 @@ function softReset(pe: SourcePe, effects: PeEffect[], initiate = false): Step {
   return [{ ...pe, state: 'PE_SRC_Send_Soft_Reset' }, effects];
 }
 
-function enterReady(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
+function enterReady(pe: SourcePe, effects: PeEffect[]): Step {
   if (pe.contract?.kind === 'pps') effects.push({ kind: 'start-timer', name: 'tPPSTimeout' });
   // §8.3.3.26.3: in EPR mode the SourceEPRKeepAliveTimer runs while in PE_SRC_Ready.
   if (pe.eprMode) effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
   const ready: SourcePe = { ...pe, state: 'PE_SRC_Ready' };
   const [next, ...rest] = pe.pending;
-  if (next !== undefined) return startAction({ ...ready, pending: rest }, next, context, effects);
+  if (next !== undefined) return startAction({ ...ready, pending: rest }, next, effects);
   return [ready, effects];
+}
+
+type Accepted = NonNullable<SourcePe['accepted']>;
+
+/** What the source makes of one RDO against its offers: null when it must Reject. */
+function evaluateRdo(offered: Offers, type: string, rdoRaw: number, copyWord: number | undefined, eprMode: boolean): Accepted | null {
+  const position = (rdoRaw >>> 28) & 0b1111;
+  const pdo = offered.pdos[position - 1];
+  const rdo = pdo ? decodeRdo(rdoRaw, pdo) : undefined;
+  // EPR_Request carries a copy of the PDO it names (§6.4.9); in EPR mode only EPR_Request is valid.
+  const copyOk = type !== 'EPR_Request' || copyWord === offered.words[position - 1];
+  const modeOk = eprMode === (type === 'EPR_Request');
+  if (!pdo || !rdo || !copyOk || !modeOk || checkRequest(rdo, offered.pdos).some((finding) => finding.severity === 'error')) return null;
+  const contract = contractOf(rdo, pdo);
+  // A PPS supply limits its current (§7.1.4.4); AVS does not (§7.1.4.5, from memory).
+  const limited = rdo.kind === 'rdo-pps';
+  return { contract, voltageMv: contract.voltageMv, limitMa: limited ? contract.currentMa : null, ...(limited && pdo.kind === 'pps' ? { floorMv: pdo.minVoltageMv } : {}) };
+}
+
+const verdicts = new WeakMap<Offers, Map<number, Accepted | null>>();
+/** A plain SPR Request's verdict, memoised by the offers object and the RDO (the same question every run); frozen, runs share it. */
+function evaluateSprRequest(offered: Offers, rdoRaw: number): Accepted | null {
+  let byRdo = verdicts.get(offered);
+  if (!byRdo) {
+    byRdo = new Map();
+    verdicts.set(offered, byRdo);
+  }
+  let verdict = byRdo.get(rdoRaw);
+  if (verdict === undefined) {
+    verdict = evaluateRdo(offered, 'Request', rdoRaw, undefined, false);
+    if (verdict) Object.freeze(Object.freeze(verdict).contract);
+    byRdo.set(rdoRaw, verdict);
+  }
+  return verdict;
 }
 
 /** §8.3.3.2.5 PE_SRC_Negotiate_Capability: the Request must name an offer and stay within it. */
 function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, context: SourceContext, effects: PeEffect[]): Step {
   const rdoRaw = event.objects[0] ?? 0;
   const offered = pe.offered ?? context.offers(pe.cable ?? null, pe.eprMode);
-  const position = (rdoRaw >>> 28) & 0b1111;
-  const pdo = offered.pdos[position - 1];
-  const rdo = pdo ? decodeRdo(rdoRaw, pdo) : undefined;
-  // EPR_Request carries a copy of the PDO it names (§6.4.9); in EPR mode only EPR_Request is valid.
-  const copyOk = event.type !== 'EPR_Request' || event.objects[1] === offered.words[position - 1];
-  const modeOk = pe.eprMode === (event.type === 'EPR_Request');
-  const valid = pdo !== undefined && rdo !== undefined && copyOk && modeOk && !checkRequest(rdo, offered.pdos).some((finding) => finding.severity === 'error');
+  const accepted = event.type === 'Request' && !pe.eprMode ? evaluateSprRequest(offered, rdoRaw) : evaluateRdo(offered, event.type, rdoRaw, event.objects[1], pe.eprMode);
   const next: SourcePe = { ...pe, sinkEprCapable: ((rdoRaw >>> 22) & 1) === 1 };
-  if (!valid || event.reject || !pdo || !rdo) {
+  if (!accepted || event.reject) {
     send(effects, 'Reject');
     return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
   }
@@ -157,10 +185,6 @@ function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, c
     send(effects, 'Wait');
     return [{ ...next, state: 'PE_SRC_Capability_Response' }, effects];
   }
-  const contract = contractOf(rdo, pdo);
-  // A PPS supply limits its current (§7.1.4.4); AVS does not (§7.1.4.5, from memory).
-  const limited = rdo.kind === 'rdo-pps';
-  const accepted = { contract, voltageMv: contract.voltageMv, limitMa: limited ? contract.currentMa : null, ...(limited && pdo.kind === 'pps' ? { floorMv: pdo.minVoltageMv } : {}) };
   send(effects, 'Accept');
   return [{ ...next, state: 'PE_SRC_Transition_Accept', accepted }, effects];
 }
@@ -179,7 +203,7 @@ function answerSwap(pe: SourcePe, type: MessageType, context: SourceContext, eff
   return [pe, effects];
 }
 
-function startAction(pe: SourcePe, action: ActionName, context: SourceContext, effects: PeEffect[]): Step {
+function startAction(pe: SourcePe, action: ActionName, effects: PeEffect[]): Step {
   if (pe.state !== 'PE_SRC_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
   const ask = (type: MessageType, state: string): Step => {
     effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' });
@@ -216,14 +240,14 @@ function startAction(pe: SourcePe, action: ActionName, context: SourceContext, e
 }
 
 /** After a swap request of ours was answered (or not). */
-function swapAnswered(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+function swapAnswered(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
   if (event.kind === 'sent') {
     effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
     return [pe, effects];
   }
   const back = () => {
     effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-    return enterReady(pe, context, effects);
+    return enterReady(pe, effects);
   };
   if (event.kind === 'timer' && event.name === 'tSenderResponse') return back();
   if (event.kind === 'failed') return back();
@@ -232,7 +256,7 @@ function swapAnswered(pe: SourcePe, event: PeEvent, context: SourceContext, effe
     effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
     if (pe.state === 'PE_DRS_Send_Swap') {
       effects.push({ kind: 'data-role-swap' });
-      return enterReady(pe, context, effects);
+      return enterReady(pe, effects);
     }
     if (pe.state === 'PE_VCS_Send_Swap') {
       // §8.3.3.20: the VCONN source hands over; the partner turns VCONN on and says PS_RDY.
@@ -263,7 +287,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
   }
   // §8.3.3.26.3: any message from the sink restarts the SourceEPRKeepAliveTimer.
   if (pe.eprMode && event.kind === 'message' && pe.state === 'PE_SRC_Ready') effects.push({ kind: 'start-timer', name: 'tSourceEPRKeepAlive' });
-  if (event.kind === 'action') return startAction(pe, event.action, context, effects);
+  if (event.kind === 'action') return startAction(pe, event.action, effects);
   if (event.kind === 'overload' && pe.contract !== null) return hardReset(pe, effects, 'current limit would pull VBUS below the offer’s minimum voltage');
 
   switch (pe.state) {
@@ -334,14 +358,14 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       }
       if (event.kind === 'sent' && event.type === 'PS_RDY' && pe.accepted) {
         effects.push({ kind: 'contract', contract: pe.accepted.contract });
-        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, context, effects);
+        return enterReady({ ...pe, contract: pe.accepted.contract, accepted: null }, effects);
       }
       // A failure during a power transition is a Hard Reset, not a Soft_Reset (§6.8.1).
       if (event.kind === 'failed') return hardReset(pe, effects, 'PS_RDY not acknowledged');
       break;
     case 'PE_SRC_Capability_Response':
       if (event.kind === 'sent' && (event.type === 'Reject' || event.type === 'Wait')) {
-        if (pe.contract) return enterReady(pe, context, effects);
+        if (pe.contract) return enterReady(pe, effects);
         return [{ ...pe, state: 'PE_SRC_Wait_New_Capabilities' }, effects];
       }
       if (event.kind === 'failed') return softReset(pe, effects);
@@ -373,7 +397,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       if (event.kind === 'failed') return hardReset(pe, effects, 'Enter_Succeeded not acknowledged');
       break;
     case 'PE_SRC_EPR_Mode_Entry_Failed':
-      if (event.kind === 'sent' || event.kind === 'failed') return enterReady(pe, context, effects);
+      if (event.kind === 'sent' || event.kind === 'failed') return enterReady(pe, effects);
       break;
     case 'PE_SRC_Send_EPR_Mode_Exit':
       if (event.kind === 'sent' && event.type === 'EPR_Mode') return sendCaps({ ...pe, eprMode: false }, context, effects);
@@ -415,7 +439,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
       if (event.kind === 'supply-ready' && pe.phase === 'on') return sourceStep({ ...pe, state: 'PE_SRC_Startup', phase: null }, { kind: 'start' }, context);
       break;
     default: {
-      const swap = swapStep(pe, event, context, effects);
+      const swap = swapStep(pe, event, effects);
       if (swap) return swap;
       break;
     }
@@ -536,7 +560,7 @@ function cableAnswer(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>,
 }
 
 /** The swap state machines from the source's side (§8.3.3.18–20). */
-function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects: PeEffect[]): Step | null {
+function swapStep(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
   switch (pe.state) {
     case 'PE_DRS_Send_Swap':
     case 'PE_VCS_Send_Swap':
@@ -549,14 +573,14 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
       const asking = !pe.state.includes('Swap');
       if (asking && event.kind === 'message' && event.type !== 'GoodCRC') {
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
-      return swapAnswered(pe, event, context, effects);
+      return swapAnswered(pe, event, effects);
     }
     case 'PE_DRS_Accept_Swap':
       if (event.kind === 'sent' && event.type === 'Accept') {
         effects.push({ kind: 'data-role-swap' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
       break;
     case 'PE_VCS_Accept_Swap':
@@ -569,7 +593,7 @@ function swapStep(pe: SourcePe, event: PeEvent, context: SourceContext, effects:
     case 'PE_VCS_Wait_For_VCONN':
       if (event.kind === 'message' && event.type === 'PS_RDY') {
         effects.push({ kind: 'stop-timer', name: 'tVCONNSourceTimeout' }, { kind: 'vconn-swap' });
-        return enterReady(pe, context, effects);
+        return enterReady(pe, effects);
       }
       if (event.kind === 'timer' && event.name === 'tVCONNSourceTimeout') return hardReset(pe, effects, 'no PS_RDY within tVCONNSourceTimeout after VCONN_Swap');
       break;

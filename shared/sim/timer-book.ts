@@ -17,7 +17,9 @@ export class TimerBook {
   private gen = 0;
 
   private layer(layer: string): Partial<Record<TimerName, Running>> {
-    return (this.running[layer] ??= {});
+    const running = this.running[layer] ?? {};
+    this.running[layer] = running;
+    return running;
   }
 
   /** Starts (or restarts) a timer; returns the generation its expiry entry must carry. */

@@ -24,12 +24,17 @@ function drawRangeUs(name: SimTimerName, revision: Revision): [number, number] {
       return [range.maxUs - 5_000_000, range.maxUs - 1_000_000];
     case 'tSinkRequest':
       return [range.minUs, range.minUs];
+    case 'tEPRSourceCableDiscovery':
+      // A maximum only: the source shall finish cable discovery within it (USB PD R3.1 V1.8 §6.4.10.1,
+      // §8.3.3.26.2.2, from memory). As the source's own give-up deadline it runs in full; a draw from
+      // 0 ms gave Enter_Failed on a good EPR cable whenever it fell before the cable's answer.
+      return [range.maxUs, range.maxUs];
     default:
       return [range.minUs, range.maxUs];
   }
 }
 
-export function timerDurationUs(name: SimTimerName, side: Side, revision: Revision, scenario: Scenario, random: Random): number {
+export function timerDurationUs(name: SimTimerName, _side: Side, revision: Revision, scenario: Scenario, random: Random): number {
   const source = scenario.source.behaviour;
   const fixedMs =
     name === 'tTypeCSendSourceCap'

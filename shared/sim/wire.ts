@@ -162,7 +162,7 @@ export function frameBytes(header: number, objects: readonly number[]): Uint8Arr
   const bytes = new Uint8Array(2 + 4 * objects.length);
   const view = new DataView(bytes.buffer);
   view.setUint16(0, header, true);
-  objects.forEach((word, index) => view.setUint32(2 + 4 * index, word >>> 0, true));
+  for (let index = 0; index < objects.length; index++) view.setUint32(2 + 4 * index, objects[index]! >>> 0, true);
   return bytes;
 }
 

@@ -63,7 +63,10 @@ export function sweepMatrix(runs: readonly SweepRun[]): Map<number, Map<string, 
   for (const run of runs) {
     if (!run.cell) continue;
     let row = rows.get(run.cell.messageIndex);
-    if (!row) rows.set(run.cell.messageIndex, (row = new Map()));
+    if (!row) {
+      row = new Map();
+      rows.set(run.cell.messageIndex, row);
+    }
     row.set(run.cell.column, { run: run.placement, outcome: run.outcome, broken: run.broken.length > 0 });
   }
   return rows;

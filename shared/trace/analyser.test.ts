@@ -43,7 +43,7 @@ describe('trace fixtures', () => {
           ).toEqual([]);
         else expect(fired).not.toContain(rule);
       }
-      header.expect.contracts?.forEach((c, i) => expect(contracts[i]).toMatchObject(c));
+      for (const [i, c] of (header.expect.contracts ?? []).entries()) expect(contracts[i]).toMatchObject(c);
       for (const f of findings) {
         expect(f.ref.length).toBeGreaterThan(0);
         expect(f.message).toMatch(/^[A-Z].*\.$/);

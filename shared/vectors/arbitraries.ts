@@ -71,7 +71,7 @@ export const sourcePdos = (): fc.Arbitrary<string[]> =>
     })
     .map(({ firstMa, fixed, currentsMa, pps, ppsMa }) => {
       const pdos = [fixedPdoRaw(5_000, firstMa)];
-      [...fixed].sort((a, b) => a - b).forEach((voltageMv, i) => pdos.push(fixedPdoRaw(voltageMv, currentsMa[i] ?? 3_000)));
+      for (const [i, voltageMv] of [...fixed].sort((a, b) => a - b).entries()) pdos.push(fixedPdoRaw(voltageMv, currentsMa[i] ?? 3_000));
       if (pps) pdos.push(ppsApdoRaw(pps[0], pps[1], ppsMa));
       return pdos.map(pdoHex);
     });

@@ -18,7 +18,7 @@
  * - sweep: `{ holds, minRuns }` of a whole fault campaign.
  */
 import type { Finding } from '../core/finding.ts';
-import type { EngineError, Result } from '../core/result.ts';
+import type { Result } from '../core/result.ts';
 import type { Message, SourcePdo } from '../pd/types.ts';
 import { engine as defaultEngine, type EngineFacade } from './engine-facade.ts';
 import { describeMismatches, matchFindings, matchPartial, matchSequence, matchWithin, type Mismatch } from './match.ts';

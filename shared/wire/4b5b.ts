@@ -24,7 +24,7 @@ export type Symbol5 = { kind: 'data'; nibble: number } | { kind: 'k'; name: KCod
 
 const DECODE: readonly Symbol5[] = (() => {
   const table: Symbol5[] = Array.from({ length: 32 }, () => ({ kind: 'invalid' }) as Symbol5);
-  DATA_SYMBOLS.forEach((symbol, nibble) => (table[symbol] = { kind: 'data', nibble }));
+  for (const [nibble, symbol] of DATA_SYMBOLS.entries()) table[symbol] = { kind: 'data', nibble };
   for (const [name, symbol] of Object.entries(K_CODES)) table[symbol] = { kind: 'k', name: name as KCodeName };
   return table;
 })();

@@ -25,7 +25,9 @@ export default function CodeEditorMonaco({ value, onChange, language, label, pat
   useEffect(() => {
     if (language !== 'typescript' || !typeDeclarations?.length) return;
     const undo = typeDeclarations.map((lib) => addTypeDeclarations(lib.filePath, lib.content));
-    return () => undo.forEach((fn) => fn());
+    return () => {
+      for (const fn of undo) fn();
+    };
   }, [language, typeDeclarations]);
 
   useEffect(() => {

@@ -45,7 +45,7 @@ export function CodeEditor(props: CodeEditorProps) {
 /** While Monaco loads, the text is already readable. */
 function EditorFallback({ value, label }: { value: string; label: string }) {
   return (
-    <pre aria-label={`${label} (loading editor)`} className="h-full overflow-auto bg-white p-3 font-mono text-xs text-slate-600 dark:bg-slate-900 dark:text-slate-400">
+    <pre role="region" aria-label={`${label} (loading editor)`} className="h-full overflow-auto bg-white p-3 font-mono text-xs text-slate-600 dark:bg-slate-900 dark:text-slate-400">
       {value}
     </pre>
   );

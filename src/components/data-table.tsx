@@ -45,8 +45,7 @@ export function dataColumnHelper<TData extends RowData>() {
   return createColumnHelper<DataTableFeatures, TData>();
 }
 
-// Cell values differ per column; the helper's `columns([...])` keeps each accessor's own type.
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
+// biome-ignore lint/suspicious/noExplicitAny: cell values differ per column; the helper's `columns([...])` keeps each accessor's own type
 export type DataColumns<TData extends RowData> = Array<ColumnDef<DataTableFeatures, TData, any>>;
 
 /** Server-side pages: the table shows `data` as the current page of `rowCount` rows. */

@@ -125,7 +125,7 @@ export const paths = {
 
 /** A return path is honoured only when it stays on this site (no `//host` or absolute URL). */
 export function safeReturnPath(next: string | null | undefined): string {
-  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return paths.home.getHref();
+  if (!next?.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return paths.home.getHref();
   if (next.startsWith(paths.auth.signIn.path)) return paths.home.getHref();
   return next;
 }

@@ -19,11 +19,12 @@ function lint(dir: string): { status: number; output: string } {
   }
 }
 
-describe('the linter (biome, with biome.json)', () => {
+describe('the linter (biome, with biome.jsonc)', () => {
   const dir = mkdtempSync(join(tmpdir(), 'parley-lint-'));
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
-  // The repository's rules, without the git ignore file the temporary folder does not have.
-  const config = JSON.parse(readFileSync(join(repo, 'biome.json'), 'utf8')) as { vcs?: unknown; $schema?: string };
+  // The repository's rules (its whole-line comments dropped), without the git ignore file the temporary folder does not have.
+  const text = readFileSync(join(repo, 'biome.jsonc'), 'utf8').replace(/^\s*\/\/.*$/gm, '');
+  const config = JSON.parse(text) as { vcs?: unknown; $schema?: string };
   delete config.vcs;
   delete config.$schema;
   writeFileSync(join(dir, 'biome.json'), JSON.stringify(config));
@@ -39,5 +40,15 @@ describe('the linter (biome, with biome.json)', () => {
     expect(status).not.toBe(0);
     expect(output).toContain('lint/suspicious/noFocusedTests');
     expect(output).toContain('lint/suspicious/noDebugger');
+  });
+
+  it('fails on an unused import, an untyped `let`, an `any` outside tests and an assignment inside an expression', () => {
+    writeFileSync(
+      join(dir, 'planted-house.ts'),
+      "import { join } from 'node:path';\n\nexport function last(values: any[]): number {\n  let found;\n  let count = 0;\n  while ((count = values.length) > 0) found = values.pop();\n  return found ?? count;\n}\n",
+    );
+    const { status, output } = lint(dir);
+    expect(status).not.toBe(0);
+    for (const rule of ['correctness/noUnusedImports', 'suspicious/noImplicitAnyLet', 'suspicious/noExplicitAny', 'suspicious/noAssignInExpressions']) expect(output).toContain(`lint/${rule}`);
   });
 });

@@ -143,4 +143,39 @@ describe.skipIf(!hasChromium)('the team library', () => {
     watch.assertClean();
     await adminBrowser.close();
   }, 60_000);
+
+  it('edits the offers of a caps and a request vector with the Offers page editor, writing the PDO words', async () => {
+    const { page, watch } = await suite.newPage();
+    await signIn(page, suite.url, 'qa');
+    // A caps vector given as a whole message (5, 9, 15 V at 3 A): the editor reads its offers.
+    await page.goto(`${suite.url}/library/${encodeURIComponent('caps/hex/source-caps-message')}`);
+    await page.getByRole('heading', { level: 1, name: 'caps/hex/source-caps-message' }).waitFor();
+    const offers = page.getByRole('list', { name: 'Power data objects' });
+    await expect.poll(() => offers.getByRole('listitem').count()).toBe(3);
+    expect(await offers.getByLabel('Offer 3').getByLabel('Voltage (mV)').inputValue()).toBe('15000');
+    await page.getByRole('button', { name: 'Add offer' }).click();
+    await offers.getByLabel('Offer 4').getByLabel('Voltage (mV)').fill('20000');
+    // 20 V 3 A fixed: 400 × 50 mV in bits 19…10, 300 × 10 mA in bits 9…0 (USB PD R3.2 Table 6-9, from memory).
+    const words = page.getByLabel('PDOs (32-bit hex)');
+    await expect.poll(() => words.inputValue()).toBe('0x0001912c, 0x0002d12c, 0x0004b12c, 0x0006412c');
+    expect(await page.getByLabel('Source_Capabilities message (hex)').inputValue()).toBe('');
+    // A value off the PDO's 50 mV step is refused beside the field and writes nothing.
+    await offers.getByLabel('Offer 4').getByLabel('Voltage (mV)').fill('20010');
+    await offers.getByLabel('Offer 4').getByText('must be a multiple of 50 mV').waitFor();
+    expect(await words.inputValue()).toBe('0x0001912c, 0x0002d12c, 0x0004b12c, 0x0006412c');
+    await offers.getByLabel('Offer 4').getByLabel('Voltage (mV)').fill('20000');
+    await screenshot(page, 'library-caps-offers-editor');
+    await page.getByLabel('Revision message').fill('Offer 20 V as well');
+    await page.getByRole('button', { name: 'Save revision 2' }).click();
+    await page.getByRole('status').filter({ hasText: 'Saved revision 2.' }).waitFor();
+
+    // A request vector: 9 V offered at 2 A; raise it to 3 A and the word follows.
+    await page.goto(`${suite.url}/library/${encodeURIComponent('request/fixed/less-current')}`);
+    await page.getByRole('heading', { level: 1, name: 'request/fixed/less-current' }).waitFor();
+    await expect.poll(() => offers.getByLabel('Offer 2').getByLabel('Max current (mA)').inputValue()).toBe('2000');
+    await offers.getByLabel('Offer 2').getByLabel('Max current (mA)').fill('3000');
+    await expect.poll(() => page.getByLabel('PDOs (32-bit hex)').inputValue()).toBe('0x0001912c, 0x0002d12c');
+    await screenshot(page, 'library-request-offers-editor');
+    watch.assertClean();
+  });
 });

@@ -51,4 +51,52 @@ describe.skipIf(!hasChromium)('the Offers page', () => {
     expect(await page.getByRole('link', { name: 'caps.pps-range' }).count()).toBe(1);
     watch.assertClean();
   });
+
+  it('keeps its offers, cable and policy in the URL: a reload and a copied link open the same page', async () => {
+    const { page: opened, watch } = await suite.newPage();
+    page = opened;
+    await signIn(page, suite.url, 'engineer');
+    await page.goto(`${suite.url}/offers`);
+    await page.getByRole('heading', { level: 1, name: 'Offers' }).waitFor();
+    await page.getByRole('button', { name: 'Remove offer 2' }).click();
+    await page.getByLabel('Offer 3').getByLabel('Max current (mA)').fill('3000');
+    await page.getByLabel('Cable', { exact: true }).selectOption('5000');
+    const contract = page.getByRole('region', { name: 'Contract' });
+    await contract.getByLabel('Sink policy').selectOption('fixed');
+    await contract.getByLabel('Voltage (mV)').fill('15000');
+    await contract.getByLabel('Current (mA)').fill('1500');
+    await expect.poll(() => contract.getByLabel('Over a 5 A cable').textContent()).toContain('fixed 15 V · 1.5 A · 22.5 W');
+    await expect.poll(() => new URL(page.url()).searchParams.get('page')?.length ?? 0).toBeGreaterThan(10);
+    // The URL follows the last change (written a moment after the form settles).
+    await page.waitForTimeout(400);
+    const link = page.url();
+
+    const sameAsBefore = async (tab: Page) => {
+      await tab.getByRole('heading', { level: 1, name: 'Offers' }).waitFor();
+      expect(await tab.getByRole('list', { name: 'Power data objects' }).getByRole('listitem').count()).toBe(3);
+      expect(await tab.getByLabel('Offer 2').getByLabel('Voltage (mV)').inputValue()).toBe('15000');
+      expect(await tab.getByLabel('Offer 3').getByLabel('Max current (mA)').inputValue()).toBe('3000');
+      expect(await tab.getByLabel('Cable', { exact: true }).inputValue()).toBe('5000');
+      const panel = tab.getByRole('region', { name: 'Contract' });
+      expect(await panel.getByLabel('Sink policy').inputValue()).toBe('fixed');
+      expect(await panel.getByLabel('Voltage (mV)').inputValue()).toBe('15000');
+      await expect.poll(() => panel.getByLabel('Over a 5 A cable').textContent()).toContain('fixed 15 V · 1.5 A · 22.5 W');
+    };
+    await page.reload();
+    await sameAsBefore(page);
+    await expect.poll(() => page.locator('.recharts-scatter-symbol').count()).toBeGreaterThan(0);
+    await screenshot(page, 'offers-from-url-reloaded');
+
+    const { page: colleague, watch: colleagueWatch } = await suite.newPage();
+    await colleague.goto(link);
+    await sameAsBefore(colleague);
+    await expect.poll(() => colleague.locator('.recharts-scatter-symbol').count()).toBeGreaterThan(0);
+    await screenshot(colleague, 'offers-from-url-copied');
+
+    await colleague.goto(`${suite.url}/offers?page=damaged`);
+    await expect.poll(() => colleague.getByRole('alert').first().textContent()).toContain('damaged or incomplete');
+    expect(await colleague.getByRole('list', { name: 'Power data objects' }).getByRole('listitem').count()).toBe(4);
+    watch.assertClean();
+    colleagueWatch.assertClean();
+  });
 });

@@ -50,6 +50,26 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     expect(await result().locator('dd').first().textContent()).toBe('200');
     expect(workers.some((url) => /\/assets\/property\.worker-[\w-]+\.js$/.test(url))).toBe(true);
 
+    // The save panel's id and title follow the code: the example's while unchanged, a new name once edited,
+    // and what the user types wins.
+    const savePanel = page.getByRole('region', { name: 'Save as property vector' });
+    const shippedId = await savePanel.getByLabel('Vector id').inputValue();
+    const shippedTitle = await savePanel.getByLabel('Title').inputValue();
+    expect(shippedId).toMatch(/^property\//);
+    await page.getByTestId('code-editor').locator('.monaco-editor .view-lines').click();
+    await page.keyboard.press('Control+End');
+    await page.keyboard.insertText('\n// tried with a second policy');
+    await expect.poll(() => savePanel.getByLabel('Vector id').inputValue()).toBe(`${shippedId}-edited`);
+    expect(await savePanel.getByLabel('Title').inputValue()).toBe(`${shippedTitle} (edited)`);
+    await savePanel.getByLabel('Vector id').fill('property/rules/second-policy');
+    await page.getByTestId('code-editor').locator('.monaco-editor .view-lines').click();
+    await page.keyboard.press('Control+End');
+    await page.keyboard.insertText('\n// and a third');
+    await page.waitForTimeout(200);
+    expect(await savePanel.getByLabel('Vector id').inputValue()).toBe('property/rules/second-policy');
+    expect(await savePanel.getByLabel('Title').inputValue()).toBe(`${shippedTitle} (edited)`);
+    await shoot('properties-save-follows-code');
+
     // The editor knows the engine and fast-check: completion offers the codec's functions, and a
     // misspelt one is a type problem (the template itself type-checks clean: exactly one problem).
     await pick(/^A new property/);
@@ -95,8 +115,19 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     // Simulated by the real engine: 15 V at the offer's 1.87 A (PDO 0x0004b0bb: 300 × 50 mV, 187 × 10 mA; Table 6-9).
     expect(await scenario.getByTestId('counterexample-contract').textContent()).toBe('fixed 15.00 V · 1.87 A · 28.1 W (object 3)');
     await scenario.getByRole('figure', { name: 'Counterexample timeline' }).locator('.recharts-line').first().waitFor();
-    const messages = await scenario.getByRole('table', { name: 'Counterexample messages' }).locator('tbody tr td:nth-child(4)').allInnerTexts();
-    expect(messages.filter((m) => m !== 'GoodCRC')).toEqual(['Source_Capabilities', 'Request', 'Accept', 'PS_RDY']);
+    // The messages as the trace page lists them, decoded: the offers and the request in words, not hex.
+    const list = scenario.getByRole('listbox', { name: 'Messages' });
+    const labels = await list.getByRole('option').evaluateAll((rows) => rows.map((row) => row.getAttribute('aria-label') ?? ''));
+    expect(labels.map((label) => label.split(' ')[0]).filter((type) => type !== 'GoodCRC')).toEqual(['Source_Capabilities', 'Request', 'Accept', 'PS_RDY']);
+    const caps = list.getByRole('option', { name: /^Source_Capabilities/ });
+    expect(await caps.textContent()).toContain('#3');
+    expect(await caps.textContent()).toMatch(/15(\.0+)? V/);
+    expect(await caps.textContent()).not.toContain('0x0004b0bb');
+    expect(await caps.textContent()).toContain('GoodCRC');
+    await list.getByRole('option', { name: /^Request/ }).click();
+    const details = scenario.getByRole('complementary', { name: 'Message details' });
+    await details.getByRole('heading', { name: 'Request' }).waitFor();
+    expect(await details.textContent()).toContain('Object 1');
     expect(await scenario.getByTestId('message-lane-source').locator('span').count()).toBeGreaterThan(0);
     await shoot('properties-planted-bug');
 
@@ -122,6 +153,7 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
 
     // The property itself saves as a property vector (library or download), with the page's runs and seed.
     const saveProperty = page.getByRole('region', { name: 'Save as property vector' });
+    expect(await saveProperty.getByLabel('Vector id').inputValue()).toBe('property/demo/planted-bug-contract-above-offer');
     const propertyDownload = page.waitForEvent('download', { timeout: 15_000 }).catch(() => null);
     await saveProperty.getByRole('button', { name: 'Save to library' }).click();
     const propertyStatus = await saveProperty.getByTestId('save-status').textContent({ timeout: 15_000 });

@@ -40,8 +40,8 @@ describe('the built-in library', () => {
     const quiet = new Set<string>();
     for (const { vector } of vectors) {
       const findings = (vector?.expect as { findings?: { include?: string[]; exclude?: string[] } } | undefined)?.findings;
-      findings?.include?.forEach((r) => fired.add(r));
-      findings?.exclude?.forEach((r) => quiet.add(r));
+      for (const r of findings?.include ?? []) fired.add(r);
+      for (const r of findings?.exclude ?? []) quiet.add(r);
     }
     expect(ruleIds.filter((r) => !fired.has(r))).toEqual([]);
     expect(ruleIds.filter((r) => !quiet.has(r))).toEqual([]);

@@ -14,7 +14,17 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 async function cli(...argv: string[]) {
   let stdout = '';
   let stderr = '';
-  const io: CliIo = { stdout: (t) => void (stdout += t), stderr: (t) => void (stderr += t), isTty: false, cwd: dir, readStdin: async () => '' };
+  const io: CliIo = {
+    stdout: (t) => {
+      stdout += t;
+    },
+    stderr: (t) => {
+      stderr += t;
+    },
+    isTty: false,
+    cwd: dir,
+    readStdin: async () => '',
+  };
   const code = await runCli(argv, io);
   return { code, stdout, stderr, json: () => JSON.parse(stdout) as Record<string, unknown> };
 }

@@ -37,7 +37,7 @@ export const authRoutes: RouteDef[] = [
       const user = await em.findOne(User, { email: body.email });
       // Compare against a decoy when there is no such account, so timing does not tell.
       const matches = await checkPassword(body.password, user?.passwordHash ?? decoyHash);
-      if (!user || !user.passwordHash || !matches) {
+      if (!user?.passwordHash || !matches) {
         recordFailedSignIn(em, deps, body.email, user ? 'wrong_password' : 'unknown_email');
         await em.flush();
         throw unauthorized('The e-mail address or the password is wrong', 'auth.invalid-credentials');
@@ -101,7 +101,7 @@ export const authRoutes: RouteDef[] = [
       const em = deps.orm.em.fork();
       try {
         const user = await em.findOne(User, { email: body.email });
-        if (!user || !user.active || user.invitePending) return undefined;
+        if (!user?.active || user.invitePending) return undefined;
         await retireTokens(em, deps.clock, user.id, 'reset');
         const token = issueToken(em, deps.clock, { userId: user.id, kind: 'reset', validMs: resetValidMinutes * 60_000 });
         recordAudit(em, deps.clock, { actor: null, action: 'auth.reset_requested', target: user.email });
@@ -122,7 +122,7 @@ export const authRoutes: RouteDef[] = [
     async handler({ em, body, res, deps }) {
       const token = await redeemToken(em, deps.clock, body.token, 'reset');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
-      if (!token || !user || !user.active) throw notFound('This reset link is invalid, used or expired; ask for a new one', 'token.invalid');
+      if (!token || !user?.active) throw notFound('This reset link is invalid, used or expired; ask for a new one', 'token.invalid');
       user.passwordHash = await hashPassword(body.password);
       user.sessionVersion += 1;
       user.lastSignInAt = deps.clock.now();
@@ -141,7 +141,7 @@ export const authRoutes: RouteDef[] = [
     async handler({ em, params, deps }) {
       const token = await findLiveToken(em, deps.clock, params.token, 'invite');
       const user = token ? await em.findOne(User, { id: token.userId }) : null;
-      if (!token || !user || !user.invitePending) throw notFound('This invitation is invalid, used or expired', 'token.invalid');
+      if (!token || !user?.invitePending) throw notFound('This invitation is invalid, used or expired', 'token.invalid');
       return { email: user.email, name: user.name, role: user.role };
     },
   }),

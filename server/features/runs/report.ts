@@ -39,7 +39,7 @@ function textOf(node: unknown): string {
     const n = node as XmlNode;
     const message = typeof n['@_message'] === 'string' ? n['@_message'] : '';
     const body = typeof n['#text'] === 'string' ? n['#text'] : '';
-    if (message && body && body.startsWith(message)) return body;
+    if (message && body?.startsWith(message)) return body;
     return [message, body].filter((s) => s !== '').join('\n');
   }
   return '';

@@ -4,7 +4,6 @@ import { z } from 'zod';
 import { MAX_REPORT_BYTES, roleGroups, type Run, type RunResult as PresentedResult } from '../../../shared/api/index.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
-import { likeOperator } from '../../db/orm.ts';
 import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';

@@ -49,7 +49,9 @@ export function sniffTrace(head: Uint8Array, complete: boolean): SniffResult {
   const reader = createReader(format, {
     push: () => void records++,
     header: () => void headers++,
-    malformed: (line, reason) => void (first ??= { line, reason }),
+    malformed: (line, reason) => {
+      first ??= { line, reason };
+    },
   });
   reader.push(text);
   reader.end();

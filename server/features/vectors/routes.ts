@@ -4,15 +4,14 @@ import { MAX_IMPORT_ZIP_BYTES, roleGroups } from '../../../shared/api/index.ts';
 import { createTwoFilesPatch, diffLines } from 'diff';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-entities.ts';
-import { likeOperator } from '../../db/orm.ts';
-import { badRequest, HttpError, notFound } from '../../errors.ts';
+import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { deviceRefs, lastResults, presentListItem, presentRevision, presentVector } from './present.ts';
 import { dialectOf, matchingVectorIds, vectorFilterFields, vectorWhereSql } from './query.ts';
 import { libraryChanged, libraryTagCounts } from './tag-counts.ts';
-import { checkDevice, checkVectorFile, createVector, findVector, reviseVector, type CheckedVector } from './store.ts';
+import { checkDevice, checkVectorFile, createVector, findVector, reviseVector } from './store.ts';
 import { libraryZip } from './zip.ts';
 import { vectorImportJob } from './import-job.ts';
 import { streamJobEvents } from '../../jobs/sse.ts';
@@ -63,11 +62,6 @@ async function findRevision(em: EntityManager, row: ITeamVector, n: number) {
 
 function importUpload() {
   return [multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: MAX_IMPORT_ZIP_BYTES, files: 1, fields: 5 } }).single('file')];
-}
-
-interface ImportIssue {
-  file: string;
-  message: string;
 }
 
 export const vectorsRoutes: RouteDef[] = [

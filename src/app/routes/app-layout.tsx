@@ -22,6 +22,7 @@ export function AppLayout() {
     menuButtonRef.current?.focus();
   }, []);
   // A new page closes the drawer on narrow windows.
+  // biome-ignore lint/correctness/useExhaustiveDependencies: the path is the trigger, not an input
   useEffect(() => setMenuOpen(false), [location.pathname]);
 
   // The loader made sure of a session; it ends here on sign-out or when the server says 401.

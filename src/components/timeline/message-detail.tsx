@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { fieldCount, fieldValue, formatValue, headerLayout, objectLayout, type FieldLayout, type WordLayout } from '../../../shared/pd/index.ts';
 import type { Message } from '../../../shared/pd/types.ts';
 import { Badge } from '../badge.tsx';
@@ -11,7 +12,7 @@ function bitsOf(field: FieldLayout): string {
   return field.hi === field.lo ? `${field.hi}` : `${field.hi}…${field.lo}`;
 }
 
-function valueOf(raw: number, field: FieldLayout): string {
+function fieldValueText(raw: number, field: FieldLayout): string {
   const count = fieldCount(raw, field);
   if (field.type === 'reserved') return count === 0 ? '0' : `${count.toString(2)}b (reserved, set)`;
   if (field.type === 'const') return `${count.toString(2)}b`;
@@ -39,7 +40,7 @@ function WordTable({ caption, raw, layout }: { caption: string; raw: number; lay
           <tr key={`${field.hi}-${field.lo}`} className="border-t border-slate-100 dark:border-slate-800">
             <td className="py-1 pr-2 font-mono text-slate-500">{bitsOf(field)}</td>
             <td className="py-1 pr-2 text-slate-700 dark:text-slate-300">{field.label}</td>
-            <td className="py-1 font-mono text-slate-900 dark:text-slate-100">{valueOf(raw, field)}</td>
+            <td className="py-1 font-mono text-slate-900 dark:text-slate-100">{fieldValueText(raw, field)}</td>
           </tr>
         ))}
       </tbody>

@@ -52,6 +52,7 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
   }, [messages]);
   const capsBefore = useMemo(() => lastCapsIndex(messages), [messages]);
   const decodedCache = useRef(new Map<number, string>());
+  // biome-ignore lint/correctness/useExhaustiveDependencies: new messages are the trigger that empties the cache
   useEffect(() => decodedCache.current.clear(), [messages]);
   const decodeLine = (index: number) => {
     let line = decodedCache.current.get(index);
@@ -140,6 +141,7 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
           const decoded = decodeLine(index);
           const selected = index === selectedIndex;
           return (
+            // biome-ignore lint/a11y/useKeyWithClickEvents: the listbox moves the selection with the arrow keys (aria-activedescendant)
             <div
               key={index}
               id={optionId(index)}

@@ -96,7 +96,6 @@ export function TraceTimeline({
     const message = decodeLaneMessage(messages, capsBefore, selectedMessage);
     return m && message ? { t: m.t, from: m.from, hex: m.hex ?? '', crcOk: m.crcOk, message } : null;
   }, [messages, capsBefore, selectedMessage]);
-  const whole = window.startUs <= 0 && window.endUs >= end;
 
   const selectMessage = useCallback(
     (index: number) => {

@@ -87,7 +87,8 @@ type TickProps = { x?: number | string; y?: number | string; textAnchor?: 'start
  * (each a forced layout) to wrap it, which these short labels never need.
  */
 function tickRenderer(format: (value: number) => string, dy: string) {
-  return function AxisTick({ x, y, textAnchor, fill, payload }: TickProps): ReactNode {
+  // A render function recharts calls, not a component of its own.
+  return function drawTick({ x, y, textAnchor, fill, payload }: TickProps): ReactNode {
     return (
       <text x={x} y={y} dy={dy} textAnchor={textAnchor} fill={fill} fontSize={11} className="recharts-cartesian-axis-tick-value">
         {format(Number(payload?.value ?? 0))}

@@ -10,7 +10,8 @@ import { TimerSpans } from '../../../components/timeline/timer-spans.tsx';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { TimelineToolbar } from '../../../components/timeline/timeline-toolbar.tsx';
 import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart, type ChartPin } from '../../../components/timeline/vbus-chart.tsx';
-import { chartMeasurements, laneMessagesOf, type RunMessage } from '../lib/timeline-data.ts';
+import { laneMessagesOf, type RunMessage } from '../../../components/timeline/lane-messages.ts';
+import { chartMeasurements } from '../lib/timeline-data.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
 import { useStagedReveal } from '../lib/use-staged-reveal.ts';
 

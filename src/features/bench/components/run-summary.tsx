@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import type { Contract } from '../../../../shared/core/contract.ts';
 import type { Finding } from '../../../../shared/core/finding.ts';
 import { Badge, SeverityBadge } from '../../../components/badge.tsx';

@@ -69,7 +69,7 @@ export function svgMarkup(svg: SVGSVGElement, options: { background: string; tit
   clone.insertBefore(background, clone.firstChild);
   clone.insertBefore(title, clone.firstChild);
   // Interactive overlays (tooltip cursor, brush handles' hit areas) add nothing to a picture.
-  clone.querySelectorAll('.recharts-tooltip-cursor').forEach((node) => node.remove());
+  for (const node of clone.querySelectorAll('.recharts-tooltip-cursor')) node.remove();
   return `<?xml version="1.0" encoding="UTF-8"?>\n${new XMLSerializer().serializeToString(clone)}\n`;
 }
 

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario, simulate } from '../../../../shared/sim/index.ts';
 import { defaultScenario } from './form-model.ts';
-import { chartMeasurements, laneMessagesOf } from './timeline-data.ts';
+import { laneMessagesOf } from '../../../components/timeline/lane-messages.ts';
+import { chartMeasurements } from './timeline-data.ts';
 
 function run(input: unknown) {
   const parsed = parseScenario(input);

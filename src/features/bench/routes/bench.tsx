@@ -13,7 +13,7 @@ import { SafetyNote } from '../components/safety-note.tsx';
 import { SaveToLibrary } from '../components/save-to-library.tsx';
 import { ScenarioPanel } from '../components/scenario-panel.tsx';
 import { shareHash } from '../../../lib/share-url.ts';
-import type { RunMessage } from '../lib/timeline-data.ts';
+import type { RunMessage } from '../../../components/timeline/lane-messages.ts';
 import { useScenarioEditor } from '../lib/use-scenario-editor.ts';
 import { useSimulation } from '../lib/use-simulation.ts';
 import { useTraceScenario } from '../lib/use-trace-scenario.ts';

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useId, useState } from 'react';
 import { fieldCount, fieldValue, formatValue, type FieldLayout, type WordLayout } from '../../../../shared/pd/index.ts';
 import { cn } from '../../../lib/cn.ts';

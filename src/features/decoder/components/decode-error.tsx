@@ -24,7 +24,8 @@ export function DecodeError({ failure, text, caps }: { failure: Failure; text: s
       </p>
       <p className="mt-1">{error.message.charAt(0).toUpperCase() + error.message.slice(1)}.</p>
       {marked && (
-        <p className="mt-2 font-mono text-xs break-all" aria-label={`The problem starts at ${marked.unit}`}>
+        <p className="mt-2 font-mono text-xs break-all">
+          <span className="sr-only">The problem starts at {marked.unit}: </span>
           <span className="text-slate-600 dark:text-slate-400">{marked.before} </span>
           <mark data-testid="error-offset" className="rounded bg-red-600 px-0.5 text-white">
             {marked.at}

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useState } from 'react';
 import type { Finding } from '../../../../shared/core/finding.ts';
 import { describeFields, EXTENDED_HEADER_LAYOUT, headerLayout, objectLayout, summarizeObject, type Message } from '../../../../shared/pd/index.ts';

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useState, type DragEvent } from 'react';
 import { cn } from '../../../lib/cn.ts';
 import type { VcdEntry } from '../../../../workers/codec.worker.ts';

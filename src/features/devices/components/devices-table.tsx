@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { Badge } from '../../../components/badge.tsx';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';

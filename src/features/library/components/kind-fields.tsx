@@ -6,6 +6,10 @@ import { Select } from '../../../components/select.tsx';
 import { defaultPolicy, policyFields, policyKindHelp, policyKindOptions, type PolicyKind } from '../../../lib/offers-form/policy-fields.ts';
 import { scenarioJsonSchema, traceJsonSchema } from '../../../../shared/vectors/schema.ts';
 import { getIn, type Path, type VectorObject } from '../lib/vector-model.ts';
+import { OfferListEditor } from '../../../components/offer-list-editor.tsx';
+import { buildOffers, defaultOffer, offerInputOf, offerListSchema, type OfferInput } from '../../../../shared/rules/offer-input.ts';
+import { isPadding } from '../../../../shared/rules/pdo-facts.ts';
+import { readCapsHex, readPdoList } from '../../../../shared/rules/read-caps.ts';
 import { Checkbox, JsonArea, ListInput, NumberInput, TextInput } from './form-controls.tsx';
 
 export type FieldsProps = { v: VectorObject; set: (path: Path, value: unknown) => void; disabled?: boolean };
@@ -46,13 +50,74 @@ function FindingsFields({ v, set, disabled, path = ['expect', 'findings'] }: Fie
   );
 }
 
+type OffersRead = { offers: OfferInput[]; words: string[] } | { error: string } | null;
+
+/** The vector's offers as the editor shows them, with the word each came from; null when it gives none. */
+function offersOfVector(pdos: unknown, hex: unknown): OffersRead {
+  const read = Array.isArray(pdos) && pdos.length > 0 ? readPdoList(pdos as string[]) : typeof hex === 'string' && hex.trim() !== '' ? readCapsHex(hex, 'message') : null;
+  if (read === null) return null;
+  if (!read.ok) return { error: read.error.message };
+  const kept = read.pdos.filter((pdo) => !isPadding(pdo));
+  return { offers: kept.map(offerInputOf), words: kept.map((pdo) => pdo.raw) };
+}
+
+const sameOffer = (a: OfferInput | undefined, b: OfferInput | undefined) => a !== undefined && b !== undefined && JSON.stringify(a) === JSON.stringify(b);
+
+/**
+ * The Offers page's editor over a vector's `input.pdos`: each change that reads writes the list
+ * of words (an offer left as it was keeps its word, flags included) and drops the message hex.
+ */
+function OffersEditorField({ v, set, disabled, hexKey }: FieldsProps & { hexKey: 'hex' | 'caps' }) {
+  const input = getIn(v, ['input']);
+  const pdos = getIn(v, ['input', 'pdos']);
+  const hex = getIn(v, ['input', hexKey]);
+  const read = useMemo(() => offersOfVector(pdos, hex), [pdos, hex]);
+  const canonical = read !== null && 'offers' in read ? read.offers : [defaultOffer('fixed')];
+  const canonicalKey = JSON.stringify(canonical);
+  const [draft, setDraft] = useState<OfferInput[]>(canonical);
+  const [seen, setSeen] = useState(canonicalKey);
+  if (canonicalKey !== seen) {
+    // Changed elsewhere (the hex list, the JSON editor): follow unless the draft already means it.
+    setSeen(canonicalKey);
+    if (JSON.stringify(draft) !== canonicalKey) setDraft(canonical);
+  }
+  const parsed = offerListSchema.safeParse(draft);
+  const issues = parsed.success ? [] : parsed.error.issues;
+  const issueAt = (index: number, field: string) => issues.find((issue) => issue.path[0] === index && issue.path[1] === field)?.message;
+  const listIssue = issues.find((issue) => issue.path.length === 0)?.message;
+  const onChange = (next: OfferInput[]) => {
+    setDraft(next);
+    const built = buildOffers(next);
+    if (!built.ok) return; // the fields show why
+    const before = read !== null && 'offers' in read ? read : { offers: [], words: [] };
+    const words = built.pdos.map((pdo, index) => (sameOffer(next[index], before.offers[index]) ? before.words[index]! : pdo.raw));
+    const base = typeof input === 'object' && input !== null ? (input as Record<string, unknown>) : {};
+    set(['input'], { ...base, pdos: words, [hexKey]: undefined });
+  };
+  return (
+    <div className="flex flex-col gap-1.5 sm:col-span-2">
+      <span className="text-xs font-medium text-slate-700 dark:text-slate-300">Offers</span>
+      <p className="text-xs text-slate-500 dark:text-slate-400">
+        The source's offers in object-position order (voltages in mV, currents in mA). A change writes the PDO words below; an offer you leave as it was keeps its word and flags.
+      </p>
+      {read !== null && 'error' in read && (
+        <p role="alert" className="text-xs font-medium text-red-600 dark:text-red-400">
+          The offers cannot be read from this vector ({read.error}); edit them here to write new PDO words.
+        </p>
+      )}
+      <OfferListEditor offers={draft} onChange={onChange} disabled={disabled} errorOf={issueAt} listError={listIssue} />
+    </div>
+  );
+}
+
 function CapsSource({ v, set, disabled, hexKey }: FieldsProps & { hexKey: 'hex' | 'caps' }) {
   return (
     <>
+      <OffersEditorField v={v} set={set} disabled={disabled} hexKey={hexKey} />
       <ListInput
         label="PDOs (32-bit hex)"
         className="sm:col-span-2"
-        hint="The offers as numbers, e.g. 0x0001912c; or give the message hex instead."
+        hint="The offers as words, e.g. 0x0001912c (the editor above writes them); or give the message hex instead."
         disabled={disabled}
         value={getIn(v, ['input', 'pdos'])}
         onChange={(x) => set(['input', 'pdos'], x)}

@@ -64,7 +64,7 @@ export function ContractPanel({ draft, onDraft, contracts, error }: ContractPane
         <div className="@container">
           <div className="grid gap-3 @2xl:grid-cols-2">
             {contracts.map((c) => (
-              <div key={c.cableMa} className="space-y-2 rounded-md border border-slate-200 p-3 text-sm dark:border-slate-800" aria-label={`Over a ${c.cableMa / 1_000} A cable`}>
+              <div key={c.cableMa} className="space-y-2 rounded-md border border-slate-200 p-3 text-sm dark:border-slate-800" role="group" aria-label={`Over a ${c.cableMa / 1_000} A cable`}>
                 <p className="flex flex-wrap items-center justify-between gap-2 font-medium text-slate-900 dark:text-slate-100">
                   Over a {c.cableMa / 1_000} A cable
                   {c.capabilityMismatch && <Badge tone="warning">Capability Mismatch</Badge>}

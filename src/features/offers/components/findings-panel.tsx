@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { SeverityBadge } from '../../../components/badge.tsx';
 import { Card, CardHeader } from '../../../components/card.tsx';
 import { RatingText } from '../../../components/mono.tsx';

@@ -1,6 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
+import { useSearchParams } from 'react-router';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { RatingText } from '../../../components/mono.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
@@ -8,11 +9,12 @@ import { isCancelled } from '../../../lib/engine-worker.ts';
 import type { OffersAnalysis } from '../../../../shared/rules/analyse-offers.ts';
 import { sinkPolicySchema } from '../../../../shared/rules/sink-policy.ts';
 import type { Device } from '../../../../shared/api/index.ts';
-import { ContractPanel, initialPolicy, policyOf, type PolicyDraft } from '../components/contract-panel.tsx';
+import { ContractPanel, policyOf, type PolicyDraft } from '../components/contract-panel.tsx';
 import { FindingsPanel } from '../components/findings-panel.tsx';
 import { OffersForm } from '../components/offers-form.tsx';
 import { SourceLoader } from '../components/source-loader.tsx';
 import { initialFormValues, offersFormSchema, type OffersFormValues } from '../lib/offers-form.ts';
+import { encodeOffersState, initialPageState, OFFERS_STATE_PARAM, offersStateFromParams } from '../lib/offers-url.ts';
 import { analyseInWorker, readInWorker, useRulesWorker } from '../lib/rules-worker.ts';
 import { zodMessage } from '../../../../shared/core/zod-message.ts';
 
@@ -27,10 +29,14 @@ function policyError(draft: PolicyDraft): string | undefined {
 
 export function OffersRoute() {
   const worker = useRulesWorker();
-  const form = useForm<OffersFormValues>({ resolver: zodResolver(offersFormSchema), defaultValues: initialFormValues, mode: 'onChange' });
+  // The page's state is in its URL (?page=…): read once on arrival, written back as it changes.
+  const [params, setParams] = useSearchParams();
+  const [fromUrl] = useState(() => offersStateFromParams(params));
+  const arrived = fromUrl?.ok ? fromUrl.state : initialPageState;
+  const form = useForm<OffersFormValues>({ resolver: zodResolver(offersFormSchema), defaultValues: arrived.form, mode: 'onChange' });
   const values = useWatch({ control: form.control });
   const valuesKey = JSON.stringify(values);
-  const [draft, setDraft] = useState<PolicyDraft>(initialPolicy);
+  const [draft, setDraft] = useState<PolicyDraft>(arrived.policy);
   const [analysis, setAnalysis] = useState<OffersAnalysis | null>(null);
   const [engineError, setEngineError] = useState<string>();
   const [hexError, setHexError] = useState<string>();
@@ -43,6 +49,14 @@ export function OffersRoute() {
     const v = parsed.data;
     const policy = draftError === undefined ? policyOf(draft) : undefined;
     const timer = setTimeout(() => {
+      setParams(
+        (current) => {
+          const next = new URLSearchParams(current);
+          next.set(OFFERS_STATE_PARAM, encodeOffersState({ form: v, policy: draft }));
+          return next;
+        },
+        { replace: true, preventScrollReset: true },
+      );
       analyseInWorker(worker, {
         offers: v.offers,
         pdpW: v.pdpW === '' ? undefined : Number(v.pdpW),
@@ -62,7 +76,7 @@ export function OffersRoute() {
         });
     }, 120);
     return () => clearTimeout(timer);
-  }, [worker, valuesKey, draft, draftError]);
+  }, [worker, valuesKey, draft, draftError, setParams]);
 
   const load = (offers: OffersFormValues['offers'], extra: Partial<OffersFormValues>) => form.reset({ ...initialFormValues, offers, pdpW: '', label: '', ...extra });
 
@@ -93,6 +107,11 @@ export function OffersRoute() {
         Parley checks and simulates; it does not drive hardware. Real adapters deliver up to 48 V and 5 A: when you test one, follow the USB PD specification, a certified test lab's procedures and
         your local electrical codes.
       </p>
+      {fromUrl && !fromUrl.ok && (
+        <p role="alert" className="mb-6 max-w-4xl rounded-md border border-red-200 bg-red-50 px-4 py-2.5 text-sm text-red-800 dark:border-red-500/30 dark:bg-red-500/10 dark:text-red-200">
+          {fromUrl.error.message}
+        </p>
+      )}
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,7fr)_minmax(0,5fr)]">
         <div className="space-y-6">
           <SourceLoader onDevice={onDevice} onHex={onHex} hexError={hexError} />

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useState } from 'react';
 import { Link } from 'react-router';
 import { Card } from '../../../components/card.tsx';

@@ -4,7 +4,7 @@ import { Button } from '../../../components/button.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import type { CounterexampleRun } from '../../../../workers/property.worker.ts';
 import { downloadVector, saveVector } from '../../../lib/save-vector.ts';
-import { MessageList } from './message-list.tsx';
+import { CounterexampleMessages } from './message-list.tsx';
 import { SaveStatus, type SaveState } from './save-status.tsx';
 
 // recharts is large: the chart arrives in its own chunk.
@@ -66,7 +66,7 @@ export function CounterexamplePanel({ run, vector }: CounterexamplePanelProps) {
         <Suspense fallback={<div className="h-80" />}>
           <CounterexampleTimeline run={run} />
         </Suspense>
-        <MessageList messages={run.messages} />
+        <CounterexampleMessages records={run.messageRecords} />
         <details className="text-xs text-slate-600 dark:text-slate-400">
           <summary className="cursor-pointer select-none">The vector it saves ({String(vector.id)})</summary>
           <pre className="mt-2 max-h-72 overflow-auto rounded-md bg-slate-50 p-3 font-mono text-slate-800 dark:bg-slate-950 dark:text-slate-200">{JSON.stringify(vector, null, 2)}</pre>

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { StateLanes } from '../../../components/timeline/state-lanes.tsx';
 import { formatTimeUs, positionIn, type TimeWindow } from '../../../components/timeline/time-window.ts';

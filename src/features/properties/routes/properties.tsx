@@ -10,6 +10,7 @@ import { readSettings, RunControls, type RunSettings } from '../components/run-p
 import { propertyVectorOf, SavePropertyPanel, vectorProblem, type PropertyMeta } from '../components/save-property-panel.tsx';
 import { useEngineTypes } from '../lib/engine-types.ts';
 import { blankExample, examples, type PropertyExample } from '../lib/examples.ts';
+import { nameForCode } from '../lib/follow-code.ts';
 import { checkInWorker, usePropertyWorker, type PropertyProgress } from '../lib/property-worker.ts';
 
 const BLANK_ID = '__new__';
@@ -52,7 +53,16 @@ export function PropertiesRoute() {
   const first = examples[0] ?? blankExample;
   const [exampleId, setExampleId] = useState(first.id);
   const [code, setCode] = useState(first.code);
-  const [meta, setMeta] = useState<PropertyMeta>(metaOf(first));
+  const [example, setExample] = useState<PropertyExample>(first);
+  const [metaDraft, setMetaDraft] = useState<PropertyMeta>(metaOf(first));
+  // Id and title follow the code until the user types their own (follow-code.ts).
+  const [typed, setTyped] = useState({ id: false, title: false });
+  const followed = nameForCode(example, code, example === blankExample);
+  const meta: PropertyMeta = { ...metaDraft, id: typed.id ? metaDraft.id : followed.id, title: typed.title ? metaDraft.title : followed.title };
+  const setMeta = (next: PropertyMeta) => {
+    setTyped((was) => ({ id: was.id || next.id !== meta.id, title: was.title || next.title !== meta.title }));
+    setMetaDraft(next);
+  };
   const [settings, setSettings] = useState<RunSettings>({ runs: String(first.runs), seed: String(first.seed) });
   const [problems, setProblems] = useState<CodeEditorProblem[]>([]);
   const [running, setRunning] = useState(false);
@@ -67,8 +77,10 @@ export function PropertiesRoute() {
     const example = id === BLANK_ID ? blankExample : examples.find((e) => e.id === id);
     if (!example) return;
     setExampleId(id);
+    setExample(example);
     setCode(example.code);
-    setMeta(metaOf(example));
+    setMetaDraft(metaOf(example));
+    setTyped({ id: false, title: false });
     setSettings({ runs: String(example.runs), seed: String(example.seed) });
     setOutcome(null);
   };

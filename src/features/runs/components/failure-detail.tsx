@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { Link } from 'react-router';
 import { Badge } from '../../../components/badge.tsx';
 import { ButtonLink } from '../../../components/button.tsx';

@@ -33,7 +33,12 @@ export function useSweep() {
     return workers.current.slice(0, n);
   }, []);
 
-  useEffect(() => () => workers.current.forEach((w) => w.terminate()), []);
+  useEffect(
+    () => () => {
+      for (const w of workers.current) w.terminate();
+    },
+    [],
+  );
 
   const plan = useCallback(async (input: unknown, options: SweepOptions): Promise<SweepPlanOutput> => pool(1)[0]!.run<SweepPlanOutput>((api) => api.plan(input, options)), [pool]);
 
@@ -75,7 +80,9 @@ export function useSweep() {
     [pool],
   );
 
-  const cancel = useCallback(() => workers.current.forEach((w) => w.cancel()), []);
+  const cancel = useCallback(() => {
+    for (const w of workers.current) w.cancel();
+  }, []);
 
   const shrink = useCallback(
     (input: unknown, run: SweepRun) => pool(1)[0]!.run<ShrinkOutput>((api) => api.shrink(input, { faults: run.faults, timers: run.timers }, run.broken[0]!.invariant, run.broken[0]!.message)),

@@ -57,6 +57,8 @@ export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: 
         enableSorting: false,
         // The link leaves for the rule's page; the row's own click (zoom the timeline) must not follow it.
         cell: ({ getValue }) => (
+          // biome-ignore lint/a11y/useKeyWithClickEvents: only keeps the row's click from following the link; the link itself is the control
+          // biome-ignore lint/a11y/noStaticElementInteractions: same span, no interaction of its own
           <span onClick={(event) => event.stopPropagation()} className="whitespace-nowrap">
             <RuleLink rule={getValue()} />
           </span>

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useMemo } from 'react';
 import type { Finding } from '../../../../shared/core/finding.ts';
 import { isRuleId, ruleCatalog } from '../../../../shared/rules/catalog.ts';

@@ -66,6 +66,7 @@ function ReportLinks({ traceId, open, days, onDaysChange }: { traceId: number; o
 export function ShareDialog({ traceId, open, onClose }: { traceId: number; open: boolean; onClose(): void }) {
   const dialog = useRef<HTMLDialogElement>(null);
   const share = useShareTrace(traceId);
+  const resetShare = share.reset;
   const [to, setTo] = useState('');
   const [message, setMessage] = useState('');
   const [withLink, setWithLink] = useState(true);
@@ -75,11 +76,10 @@ export function ShareDialog({ traceId, open, onClose }: { traceId: number; open:
     const element = dialog.current;
     if (!element) return;
     if (open && !element.open) {
-      share.reset();
+      resetShare();
       element.showModal();
     } else if (!open && element.open) element.close();
-    // Only `open` drives the dialog; `share.reset` is stable.
-  }, [open]);
+  }, [open, resetShare]);
 
   const submit = (event: FormEvent) => {
     event.preventDefault();

@@ -1,3 +1,4 @@
+// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { MAX_TRACE_BYTES } from '../../../../shared/api/index.ts';
 import { useEffect, useId, useImperativeHandle, useRef, useState, type DragEvent, type Ref } from 'react';
 import { Link } from 'react-router';

@@ -61,6 +61,7 @@ export function TraceRoute() {
   const { traceId = '' } = useParams();
   const trace = useTrace(traceId);
   // Arriving from a scrolled list, start at the top of the trace.
+  // biome-ignore lint/correctness/useExhaustiveDependencies: each new trace id is the trigger
   useEffect(() => {
     window.scrollTo(0, 0);
   }, [traceId]);

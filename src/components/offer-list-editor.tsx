@@ -1,0 +1,96 @@
+/**
+ * The one editor of a source's offers (Offers page, Library caps and request vectors): a row per
+ * PDO in object-position order with its kind and numbers in the units of the PDO's fields; add,
+ * remove, reorder, change kind. Controlled: the caller holds the list (numbers may be NaN while a
+ * field is empty) and validates it with the engine's `offerListSchema`.
+ */
+import { useState } from 'react';
+import { Button } from './button.tsx';
+import { Input } from './input.tsx';
+import { Select } from './select.tsx';
+import { defaultOffer, type OfferInput, type OfferKind } from '../../shared/rules/offer-input.ts';
+import { offerFields, offerKindOptions, type OfferNumberKey } from '../lib/offers-form/offer-fields.ts';
+
+/** USB PD allows 7 SPR and 6 EPR object positions. */
+export const MAX_OFFERS = 13;
+
+export type OfferListEditorProps = {
+  offers: readonly OfferInput[];
+  onChange(offers: OfferInput[]): void;
+  /** The message for one field, e.g. from a form's errors or a zod issue path. */
+  errorOf?(index: number, field: OfferNumberKey): string | undefined;
+  /** A message about the whole list ("add at least one offer"). */
+  listError?: string;
+  disabled?: boolean;
+};
+
+const shown = (value: unknown) => (typeof value === 'number' && Number.isFinite(value) ? String(value) : '');
+
+export function OfferListEditor({ offers, onChange, errorOf, listError, disabled }: OfferListEditorProps) {
+  const [kindToAdd, setKindToAdd] = useState<OfferKind>('fixed');
+  const replace = (index: number, offer: OfferInput) => onChange(offers.map((o, i) => (i === index ? offer : o)));
+  const move = (from: number, to: number) => {
+    const next = [...offers];
+    const [moved] = next.splice(from, 1);
+    next.splice(to, 0, moved!);
+    onChange(next);
+  };
+  return (
+    <div className="space-y-3">
+      <ol className="space-y-3" aria-label="Power data objects">
+        {offers.map((offer, index) => (
+          // biome-ignore lint/suspicious/noArrayIndexKey: rows are object positions; every field is controlled, so a move or a removal redraws the values
+          <li key={index} className="rounded-md border border-slate-200 p-3 dark:border-slate-800" aria-label={`Offer ${index + 1}`}>
+            <div className="flex flex-wrap items-end gap-3">
+              <span className="mb-2 w-6 font-mono text-xs text-slate-500 tabular">{index + 1}</span>
+              <Select
+                label="Kind"
+                className="w-32"
+                disabled={disabled}
+                options={offerKindOptions}
+                value={offer.kind}
+                onChange={(event) => replace(index, defaultOffer(event.target.value as OfferKind))}
+              />
+              {offerFields[offer.kind].map((f) => (
+                <Input
+                  key={f.name}
+                  label={f.label}
+                  type="number"
+                  step={f.step}
+                  mono
+                  className="w-36"
+                  disabled={disabled}
+                  error={errorOf?.(index, f.name)}
+                  value={shown((offer as Record<string, unknown>)[f.name])}
+                  onChange={(event) => replace(index, { ...offer, [f.name]: event.target.value === '' ? Number.NaN : Number(event.target.value) } as OfferInput)}
+                />
+              ))}
+              <div className="mb-0.5 ml-auto flex gap-1">
+                <Button variant="ghost" size="sm" aria-label={`Move offer ${index + 1} up`} disabled={disabled || index === 0} onClick={() => move(index, index - 1)}>
+                  ↑
+                </Button>
+                <Button variant="ghost" size="sm" aria-label={`Move offer ${index + 1} down`} disabled={disabled || index === offers.length - 1} onClick={() => move(index, index + 1)}>
+                  ↓
+                </Button>
+                <Button variant="ghost" size="sm" aria-label={`Remove offer ${index + 1}`} disabled={disabled || offers.length === 1} onClick={() => onChange(offers.filter((_, i) => i !== index))}>
+                  Remove
+                </Button>
+              </div>
+            </div>
+          </li>
+        ))}
+      </ol>
+      {listError && (
+        <p role="alert" className="text-xs font-medium text-red-600">
+          {listError}
+        </p>
+      )}
+      <div className="flex flex-wrap items-end gap-2">
+        <Select label="New offer" className="w-36" disabled={disabled} options={offerKindOptions} value={kindToAdd} onChange={(event) => setKindToAdd(event.target.value as OfferKind)} />
+        <Button variant="secondary" disabled={disabled || offers.length >= MAX_OFFERS} onClick={() => onChange([...offers, defaultOffer(kindToAdd)])}>
+          Add offer
+        </Button>
+      </div>
+    </div>
+  );
+}
