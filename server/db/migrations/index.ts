@@ -3,6 +3,7 @@ import { Migration20261201183000Traces } from './Migration20261201183000Traces.t
 import { Migration20261201200000Library } from './Migration20261201200000Library.ts';
 import { Migration20261204170000ReportShareLinks } from './Migration20261204170000ReportShareLinks.ts';
 import { Migration20261204173000ImportMappings } from './Migration20261204173000ImportMappings.ts';
+import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
@@ -11,4 +12,5 @@ export const migrationsList = [
   { name: 'Migration20261201200000Library', class: Migration20261201200000Library },
   { name: 'Migration20261204170000ReportShareLinks', class: Migration20261204170000ReportShareLinks },
   { name: 'Migration20261204173000ImportMappings', class: Migration20261204173000ImportMappings },
+  { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
 ];
