@@ -19,6 +19,7 @@ import { buildApiRouter, routeTable } from './routes.ts';
 import type { JobQueue } from './jobs/types.ts';
 import { createLocalJobQueue } from './jobs/local-queue.ts';
 import { registerJobKinds } from './jobs/kinds.ts';
+import { queuedMailer } from './mail/mail-job.ts';
 import { createAnalysisPool, type AnalysisPool } from './analysis/pool.ts';
 import { createRunPool, type RunPool } from './runner/pool.ts';
 import type { TraceStore } from './storage/types.ts';
@@ -102,9 +103,11 @@ export const propertyWorkerCsp = Object.entries({ ...contentSecurityPolicy, scri
 export function createApp(options: AppOptions): Express {
   const logger = options.logger ?? pino({ level: 'silent' });
   const dataDir = options.dataDir ?? join(tmpdir(), 'parley-data');
+  const jobs = options.jobs ?? createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') });
   const deps: AppDeps = {
     orm: options.orm,
-    mailer: options.mailer,
+    // Every message goes through the job queue; only the mail job talks to the SMTP transport.
+    mailer: queuedMailer(jobs),
     clock: options.clock ?? systemClock,
     secret: options.secret,
     publicUrl: options.publicUrl.replace(/\/+$/, ''),
@@ -122,11 +125,11 @@ export function createApp(options: AppOptions): Express {
     verifyBearer: options.verifyBearer,
     dataDir,
     traceStore: options.traceStore ?? createLocalTraceStore(dataDir),
-    jobs: options.jobs ?? createLocalJobQueue({ onError: (kind, key, cause) => logger.error({ err: cause, kind, key }, 'job failed') }),
+    jobs,
     analysisPool: options.analysisPool ?? createAnalysisPool(),
     runPool: options.runPool ?? createRunPool(),
   };
-  registerJobKinds(deps);
+  registerJobKinds(deps, options.mailer);
 
   const app = express();
   app.disable('x-powered-by');

@@ -8,6 +8,7 @@ import { loadEnv } from './config/env.ts';
 import { prepareDataFolder, restrictDataFiles } from './config/data-folder.ts';
 import { resolveSecret } from './config/secret.ts';
 import { openOrm, type Orm } from './db/orm.ts';
+import { createSqlRateLimitStore } from './db/rate-limit-store.ts';
 import { accountsWithDemoPassword, seedDemo } from './db/seed.ts';
 import { createSmtpMailer } from './mail/mailer.ts';
 import { startMailFake } from './mail/fake-smtp.ts';
@@ -137,6 +138,8 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     runPool,
     traceStore: store,
     trustProxy: env.trustProxy,
+    // Several instances on one PostgreSQL count sign-in and reset attempts together.
+    ...(env.DATABASE_URL ? { rateLimitStore: (name: string) => createSqlRateLimitStore({ orm, name }) } : {}),
   });
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;

@@ -1,5 +1,5 @@
 /**
- * `parley worker`: a process that works on the shared job queue (trace analyses, vector runs)
+ * `parley worker`: a process that works on the shared job queue (trace analyses, vector runs, mail)
  * and serves no HTTP, for a team deployment (DATABASE_URL set). Start as many as the machines
  * allow; each takes jobs from PostgreSQL, and a job whose worker dies is retried by another.
  */
@@ -14,6 +14,7 @@ import { systemClock } from './context.ts';
 import { createAnalysisPool } from './analysis/pool.ts';
 import { createRunPool } from './runner/pool.ts';
 import { registerJobKinds } from './jobs/kinds.ts';
+import { queuedMailer } from './mail/mail-job.ts';
 import { createPgJobQueue } from './jobs/pg-queue.ts';
 import { traceStoreFromEnv } from './start.ts';
 
@@ -37,7 +38,7 @@ export async function startWorker(options: { log?: boolean } = {}): Promise<Runn
   });
   const analysisPool = createAnalysisPool();
   const runPool = createRunPool();
-  registerJobKinds({ orm, clock: systemClock, mailer, publicUrl: env.PUBLIC_URL, logger, jobs, traceStore: traceStoreFromEnv(env, join(dataDir)), analysisPool, runPool });
+  registerJobKinds({ orm, clock: systemClock, mailer: queuedMailer(jobs), publicUrl: env.PUBLIC_URL, logger, jobs, traceStore: traceStoreFromEnv(env, join(dataDir)), analysisPool, runPool }, mailer);
   logger.info('Parley worker started: taking jobs from the shared queue');
   let closing: Promise<void> | undefined;
   return {

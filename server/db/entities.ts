@@ -3,6 +3,7 @@ import { Trace, TraceChunk, TraceComment, TraceItem } from './trace-entities.ts'
 import { libraryEntities } from './library-entities.ts';
 import { ReportShareLink } from '../features/traces/share-link-entity.ts';
 import { ImportMapping } from '../features/import-mappings/entity.ts';
+import { RateLimitCounter } from './rate-limit-entity.ts';
 
 /**
  * Every table of the server. Dates come from the injected clock, so no column has a database default.
@@ -110,4 +111,19 @@ export const DeviceUnderTest = defineEntity({
 });
 export type IDeviceUnderTest = InferEntity<typeof DeviceUnderTest>;
 
-export const entities = [Organisation, User, UserToken, OutboxMessage, AuditEvent, DeviceUnderTest, Trace, TraceComment, TraceItem, TraceChunk, ...libraryEntities, ReportShareLink, ImportMapping];
+export const entities = [
+  Organisation,
+  User,
+  UserToken,
+  OutboxMessage,
+  AuditEvent,
+  DeviceUnderTest,
+  Trace,
+  TraceComment,
+  TraceItem,
+  TraceChunk,
+  ...libraryEntities,
+  ReportShareLink,
+  ImportMapping,
+  RateLimitCounter,
+];

@@ -145,6 +145,7 @@ export async function createPgJobQueue(options: PgJobQueueOptions): Promise<JobQ
             running.set(job.id, { name: kind.name, id: job.id });
             try {
               await (handler as JobHandler<unknown, JobEvent>)(job.data.payload, { key, publish: (event) => publish(topic, event), signal: stop.signal });
+              if (kind.forgetPayloadWhenDone && !stop.signal.aborted) await pool.query("update pgboss.job set data = jsonb_build_object('key', data->'key') where id = $1", [job.id]);
             } catch (cause) {
               options.onError?.(kind.name, key, cause);
               throw cause;

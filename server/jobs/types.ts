@@ -20,13 +20,18 @@ export function isFinalEvent(event: JobEvent): boolean {
 /** A kind of job with its payload and event types; `name` is its queue name. */
 export interface JobKind<Payload, Event extends JobEvent> {
   readonly name: string;
+  /**
+   * The payload holds something that must not stay in the queue's tables once the job is over
+   * (a mail with a sign-in link): the PostgreSQL queue blanks it when the handler returns.
+   */
+  readonly forgetPayloadWhenDone?: boolean;
   /** Type carriers only. */
   readonly payload?: Payload;
   readonly event?: Event;
 }
 
-export function jobKind<Payload, Event extends JobEvent>(name: string): JobKind<Payload, Event> {
-  return { name };
+export function jobKind<Payload, Event extends JobEvent>(name: string, options: { forgetPayloadWhenDone?: boolean } = {}): JobKind<Payload, Event> {
+  return { name, ...options };
 }
 
 /** What a running job may do besides its work. */

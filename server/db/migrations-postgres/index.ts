@@ -2,6 +2,7 @@ import { Migration20261204170000PostgresInitial } from './Migration2026120417000
 import { Migration20261204181500ReportLinksAndImportMappings } from './Migration20261204181500ReportLinksAndImportMappings.ts';
 import { Migration20261204190000TraceViews } from './Migration20261204190000TraceViews.ts';
 import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
+import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
@@ -9,4 +10,5 @@ export const postgresMigrationsList = [
   { name: 'Migration20261204181500ReportLinksAndImportMappings', class: Migration20261204181500ReportLinksAndImportMappings },
   { name: 'Migration20261204190000TraceViews', class: Migration20261204190000TraceViews },
   { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
+  { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
 ];
