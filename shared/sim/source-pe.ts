@@ -14,7 +14,7 @@ import { decodeRdo } from '../pd/rdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { checkRequest } from '../rules/check-request.ts';
 import { contractOf } from '../rules/contract-of.ts';
-import { cableAllowsEpr, readIdentity, vdmHeader, type EMarker } from './cable-identity.ts';
+import { cableAllowsEpr, DISCOVER_IDENTITY_REQ, readIdentity, type EMarker } from './cable-identity.ts';
 import { ECDB, eprEnterFailed, eprModeAction, eprModeObject, eprModeOf, isEcdb, type PeEffect, type PeEvent } from './pe-types.ts';
 import { ppsStatusBytes, sourceCapsExtendedBytes, statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
@@ -103,7 +103,7 @@ function sendCaps(pe: SourcePe, context: SourceContext, effects: PeEffect[]): St
 function startOrDiscover(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
   // §8.3.3.24: as VCONN source the DFP may ask the cable plug before it offers more than 3 A.
   if (context.discoverCable && pe.cable === undefined && pe.revision === '3.0') {
-    effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" });
+    effects.push({ kind: 'send', type: 'Vendor_Defined', objects: DISCOVER_IDENTITY_REQ, sop: "SOP'" });
     return [{ ...pe, state: 'PE_SRC_VDM_Identity_Request' }, effects];
   }
   return sendCaps(pe, context, effects);
@@ -378,7 +378,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
     case 'PE_SRC_Evaluate_EPR_Mode_Entry':
       if (event.kind === 'sent' && event.type === 'EPR_Mode') {
         // §8.3.3.26.2.2 PE_SRC_EPR_Mode_Discover_Cable: ask the cable plug within tEPRSourceCableDiscovery.
-        effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" }, { kind: 'start-timer', name: 'tEPRSourceCableDiscovery' });
+        effects.push({ kind: 'send', type: 'Vendor_Defined', objects: DISCOVER_IDENTITY_REQ, sop: "SOP'" }, { kind: 'start-timer', name: 'tEPRSourceCableDiscovery' });
         return [{ ...pe, state: 'PE_SRC_EPR_Mode_Discover_Cable' }, effects];
       }
       if (event.kind === 'failed') return softReset(pe, effects);
