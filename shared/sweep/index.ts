@@ -5,7 +5,7 @@ export { generatePlacements, matrixColumns, delayEdgesMs, SWEEP_FAULT_KINDS, DEF
 export { sampleWithSeed, parseShard, shardOf, type Shard } from './select.ts';
 export { INVARIANTS, INVARIANT_IDS, invariantById, judge, describeContract, type Invariant, type BrokenInvariant } from './invariants.ts';
 export { OUTCOME_CLASSES, OUTCOME_LABELS, classifyOutcome, type OutcomeClass } from './outcome.ts';
-export { runPlacement, scenarioFor, judgeScenario, type SweepRun, type Simulate } from './run-placement.ts';
+export { runPlacement, scenarioFor, judgeScenario, type SweepRun, type Simulate, type RunEngine } from './run-placement.ts';
 export { planSweep, type SweepOptions, type SweepPlan } from './plan.ts';
 export { runSlice, type RunSliceOptions } from './sweep.ts';
 export { summarize, sweepMatrix, type SweepSummary, type OutcomeSummary, type BrokenRun, type MatrixCell } from './summary.ts';
