@@ -1,10 +1,12 @@
 import { Migration20261204170000PostgresInitial } from './Migration20261204170000PostgresInitial.ts';
 import { Migration20261204181500ReportLinksAndImportMappings } from './Migration20261204181500ReportLinksAndImportMappings.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
+import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
   { name: 'Migration20261204170000PostgresInitial', class: Migration20261204170000PostgresInitial },
   { name: 'Migration20261204181500ReportLinksAndImportMappings', class: Migration20261204181500ReportLinksAndImportMappings },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
+  { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
 ];

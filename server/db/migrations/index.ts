@@ -4,6 +4,7 @@ import { Migration20261201200000Library } from './Migration20261201200000Library
 import { Migration20261204170000ReportShareLinks } from './Migration20261204170000ReportShareLinks.ts';
 import { Migration20261204173000ImportMappings } from './Migration20261204173000ImportMappings.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
+import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
@@ -13,4 +14,5 @@ export const migrationsList = [
   { name: 'Migration20261204170000ReportShareLinks', class: Migration20261204170000ReportShareLinks },
   { name: 'Migration20261204173000ImportMappings', class: Migration20261204173000ImportMappings },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
+  { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
 ];
