@@ -34,7 +34,8 @@ describe('the cable plug on SOP', () => {
     const bytes = new Uint8Array(2 + words.length * 4);
     bytes[0] = 0x8f; // Vendor_Defined (b4..0 = 15), revision 3.0 (b7..6 = 10b)
     bytes[1] = 0x51; // Cable Plug (b8), MessageID 0, five objects (b14..12)
-    words.forEach((word, i) => new DataView(bytes.buffer).setUint32(2 + i * 4, word, true));
+    const view = new DataView(bytes.buffer);
+    for (const [i, word] of words.entries()) view.setUint32(2 + i * 4, word, true);
     const decoded = decodeMessage(bytes, { sop: "SOP'" });
     expect(decoded.ok && decoded.message.objects.map((o) => o.kind)).toEqual(['vdm-header', 'cable-id-header', 'cert-stat', 'product', 'passive-cable']);
   });

@@ -46,7 +46,8 @@ export function identityAck(marker: EMarker): readonly number[] {
       hwVersion: 0,
       firmwareVersion: 0,
     };
-    acks.set(key, (objects = Object.freeze(words(cableIdentityAck(cable).objects))));
+    objects = Object.freeze(words(cableIdentityAck(cable).objects));
+    acks.set(key, objects);
   }
   return objects;
 }
