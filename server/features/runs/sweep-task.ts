@@ -38,9 +38,15 @@ export type SweepTaskMessage =
 
 export function runSweepTask(input: SweepTaskInput, post: (message: SweepTaskMessage) => void): void {
   const parsed = parseScenario(input.scenario);
-  if (!parsed.ok) return post({ type: 'error', message: `scenario: ${parsed.error.message}` });
+  if (!parsed.ok) {
+    post({ type: 'error', message: `scenario: ${parsed.error.message}` });
+    return;
+  }
   const planned = planSweep(parsed.scenario, input.options);
-  if (!planned.ok) return post({ type: 'error', message: planned.error.message });
+  if (!planned.ok) {
+    post({ type: 'error', message: planned.error.message });
+    return;
+  }
   const { plan } = planned;
   const total = plan.placements.length;
   const runs: SweepRun[] = [];
