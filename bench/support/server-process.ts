@@ -36,7 +36,8 @@ export function startChildServer(env: Record<string, string>, entry = 'server/ma
         child,
         stop: () =>
           new Promise((done) => {
-            if (child.exitCode !== null) return done();
+            // Exited already, by itself or by a signal (a test's SIGKILL).
+            if (child.exitCode !== null || child.signalCode !== null) return done();
             child.once('exit', () => done());
             child.kill('SIGTERM');
           }),

@@ -89,7 +89,7 @@ const COLOURS = { error: 'red', warning: 'yellow', info: 'dim' } as const;
 function report(io: CliIo, a: Analysis): string {
   const out: string[] = [paint(io, 'bold', a.summary), ''];
   const n = (count: number, one: string) => `${count} ${one}${count === 1 ? '' : 's'}`;
-  out.push(`${a.format ?? 'trace'}: ${n(a.records, 'record')}, ${n(a.messages, 'message')}; ${n(a.counts.error, 'error')}, ${n(a.counts.warning, 'warning')}, ${n(a.counts.info, 'note')}`, '');
+  out.push(`${a.format ?? 'trace'}: ${n(a.records, 'record')}, ${n(a.messages, 'message')}; ${n(a.counts.error, 'error')}, ${n(a.counts.warning, 'warning')}, ${a.counts.info} info`, '');
   if (a.contracts.length > 0) {
     const rows = [['time', 'contract', 'object'].map((h) => paint(io, 'dim', h))];
     for (const c of a.contracts.slice(0, PRINT_LIMIT)) rows.push([seconds(c.t), contractText(c), String(c.objectPosition)]);

@@ -1,4 +1,4 @@
-import type { Mismatch } from '../../shared/api/index.ts';
+import type { Mismatch, RunKind, SweepRunSummary } from '../../shared/api/index.ts';
 import { defineEntity, type InferEntity } from '@mikro-orm/core';
 
 /**
@@ -59,6 +59,8 @@ export const TestRun = defineEntity({
   name: 'TestRun',
   properties: (p) => ({
     id: p.integer().primary(),
+    /** `vectors` (library or CI) or `sweep` (a fault sweep campaign). */
+    kind: p.string().$type<RunKind>().default('vectors'),
     project: p.string().index(),
     /** The firmware build CI tested; null for runs started in the UI without one. */
     build: p.string().nullable(),
@@ -78,6 +80,8 @@ export const TestRun = defineEntity({
     errorMessage: p.text().nullable(),
     createdAt: p.datetime(),
     finishedAt: p.datetime().nullable(),
+    /** A sweep's campaign and outcome classes; null for vector runs. */
+    sweep: p.json<SweepRunSummary>().nullable(),
   }),
 });
 export type ITestRun = InferEntity<typeof TestRun>;

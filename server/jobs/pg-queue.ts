@@ -19,7 +19,9 @@ import { isFinalEvent, topicOf, type JobEvent, type JobHandler, type JobKind, ty
 
 const EVENTS_CHANNEL = 'parley_job_events';
 /** First half of the two-int advisory lock key of a running job ("job" in ASCII). */
-const JOB_LOCK_SPACE = 0x6a6f62;
+export const JOB_LOCK_SPACE = 0x6a6f62;
+/** `application_name` of the connection holding a process's job locks, followed by its pid. */
+export const JOB_HOLDER_APPLICATION = 'parley-jobs';
 /** NOTIFY payloads must stay under 8000 bytes. */
 const MAX_NOTIFY_BYTES = 7_000;
 
@@ -48,7 +50,8 @@ export async function createPgJobQueue(options: PgJobQueueOptions): Promise<JobQ
   // One connection listens for events, one holds the locks of the jobs this process runs, and the
   // pool publishes and supervises (a lock probe must not run on the connection that holds locks).
   const listener = new pg.Client({ connectionString: options.databaseUrl });
-  const holder = new pg.Client({ connectionString: options.databaseUrl });
+  // Named after this process, so an operator (or a test) sees in pg_stat_activity who runs which job.
+  const holder = new pg.Client({ connectionString: options.databaseUrl, application_name: `${JOB_HOLDER_APPLICATION} ${process.pid}` });
   const pool = new pg.Pool({ connectionString: options.databaseUrl, max: 4 });
   await Promise.all([listener.connect(), holder.connect()]);
   listener.on('notification', (message) => {

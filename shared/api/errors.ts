@@ -60,6 +60,8 @@ export const apiErrorCodes = [
   'run.not-found',
   'run.bad-report',
   'run.nothing',
+  'sweep.too-many-runs',
+  'sweep.unplannable',
 ] as const;
 
 export type ApiErrorCode = (typeof apiErrorCodes)[number];

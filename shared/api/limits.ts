@@ -7,3 +7,10 @@ export const MAX_REPORT_CASES = 20_000;
 export const MAX_IMPORT_ZIP_BYTES = 10 * 1024 * 1024;
 export const MAX_IMPORT_FILES = 5_000;
 export const MAX_IMPORT_BYTES = 20 * 1024 * 1024;
+
+/** Most runs (placements) one fault sweep may have on the server; a larger campaign samples with `max` or runs in CI with `parley sweep --shard`. */
+export const MAX_SERVER_SWEEP_RUNS = 20_000;
+/** Broken runs of a server sweep kept as results (each with its evidence); the count says how many there were. */
+export const MAX_SWEEP_BROKEN_STORED = 200;
+/** Broken runs of a server sweep shrunk to a `negotiation` vector (shrinking simulates up to 200 times each). */
+export const MAX_SWEEP_SHRUNK = 10;

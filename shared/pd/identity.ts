@@ -67,6 +67,9 @@ export interface CableIdentity {
   xid?: number;
   /** USB Highest Speed as the layouts name it (default 'USB 2.0 only'). */
   usbHighestSpeed?: string;
+  /** HW and Firmware Version of the cable VDO (default 1 each). */
+  hwVersion?: number;
+  firmwareVersion?: number;
 }
 
 const VOLTAGE_NAME: Record<number, string> = { 20_000: '20 V', 30_000: '30 V', 40_000: '40 V', 50_000: '50 V' };
@@ -84,8 +87,8 @@ export function cableIdentityVdos(cable: CableIdentity): DataObjectInput[] {
     usbVendorId: cable.usbVendorId ?? 0,
   };
   const common = {
-    hwVersion: 1,
-    firmwareVersion: 1,
+    hwVersion: cable.hwVersion ?? 1,
+    firmwareVersion: cable.firmwareVersion ?? 1,
     plugToPlugOrCaptive: 'USB Type-C',
     eprModeCapable: cable.eprModeCapable ?? false,
     cableLatency: '<10 ns (~1 m)',

@@ -1,15 +1,15 @@
 /**
- * The cable plug's answer to Discover Identity on SOP': a structured VDM ACK with the ID Header,
- * Cert Stat, Product and Passive Cable VDOs, and the reading of that answer by the source.
- *
- * USB PD R3.2 V1.1 §6.4.4.2 Structured VDM header (SVID 0xFF00 = PD SID, b15 structured, b14..13
- * SVDM major version 01b = 2.x, b7..6 command type 00 REQ / 01 ACK / 10 NAK / 11 BUSY, b4..0 command,
- * Discover Identity = 1); §6.4.4.3.1.1 ID Header VDO (b29..27 product type SOP': 011b passive cable,
- * b22..21 connector type 10b receptacle / 11b plug, b15..0 USB VID); §6.4.4.3.1.2 Cert Stat VDO (XID);
- * §6.4.4.3.1.3 Product VDO (PID b31..16, bcdDevice b15..0); §6.4.4.3.1.6 Passive Cable VDO (b17 EPR
- * Capable, b10..9 Maximum VBUS Voltage 00b 20 V / 01b 30 V / 10b 40 V / 11b 50 V, b6..5 VBUS Current
- * Handling 01b 3 A / 10b 5 A, b19..18 10b USB Type-C plug). Bit positions from memory.
+ * The cable plug of a simulated run as words on SOP': the source's Discover Identity REQ, the
+ * cable's ACK (ID Header, Cert Stat, Product and Passive Cable VDOs) and the source's reading of
+ * that ACK. Every layout is the codec's (`shared/pd/identity.ts` builds the objects, the VDO tables
+ * of `layouts-vdo.ts` place the bits: USB PD R3.2 V1.1 §6.4.4.2 Structured VDM Header,
+ * §6.4.4.3.1 Discover Identity and its VDOs); this module only turns them into words and back.
  */
+import { cableIdentityAck, cableLimits, discoverIdentityRequest, type CableIdentity } from '../pd/identity.ts';
+import { decodeOtherObject, encodeOtherObject } from '../pd/other-objects.ts';
+import type { OtherObject } from '../pd/types.ts';
+import type { DataObjectInput } from '../pd/encode-message.ts';
+import { vdmObjectKinds } from '../pd/vdm-objects.ts';
 
 export interface EMarker {
   currentMa: 3_000 | 5_000 | number;
@@ -17,45 +17,59 @@ export interface EMarker {
   eprCapable: boolean;
 }
 
-export const PD_SID = 0xff00;
-export const DISCOVER_IDENTITY = 1;
 /** A fictional VID and PID for the simulated cable (Kestrel Devices demo data). */
 const CABLE_VID = 0xfffe;
 const CABLE_PID = 0x0c50;
+const MAX_VOLTAGES = [20_000, 30_000, 40_000, 50_000] as const;
 
-/** The structured VDM header: Discover Identity, REQ or ACK (SVDM version 2.x). */
-export function vdmHeader(commandType: 'req' | 'ack' | 'nak' | 'busy', command = DISCOVER_IDENTITY): number {
-  const type = commandType === 'req' ? 0 : commandType === 'ack' ? 1 : commandType === 'nak' ? 2 : 3;
-  return ((PD_SID << 16) | (1 << 15) | (0b01 << 13) | (type << 6) | (command & 0x1f)) >>> 0;
+function words(objects: readonly DataObjectInput[] | undefined): number[] {
+  return (objects ?? []).map((object) => encodeOtherObject(object as OtherObject));
 }
 
-export function vdmCommandType(header: number): 'req' | 'ack' | 'nak' | 'busy' {
-  const types = ['req', 'ack', 'nak', 'busy'] as const;
-  return types[(header >>> 6) & 0b11] ?? 'req';
+/** The source's Discover Identity REQ to the cable plug: the Structured VDM Header alone. */
+export const DISCOVER_IDENTITY_REQ: readonly number[] = Object.freeze(words(discoverIdentityRequest().objects));
+
+const acks = new Map<string, readonly number[]>();
+/** The ACK's objects for an e-marker (memoised: a run asks once or twice, a bench thousands of times). */
+export function identityAck(marker: EMarker): readonly number[] {
+  const key = `${marker.currentMa}|${marker.maxVoltageMv}|${marker.eprCapable}`;
+  let objects = acks.get(key);
+  if (!objects) {
+    const cable: CableIdentity = {
+      vbusCurrentMa: marker.currentMa >= 5_000 ? 5_000 : 3_000,
+      maxVbusVoltageMv: MAX_VOLTAGES.find((mv) => mv === marker.maxVoltageMv) ?? 20_000,
+      eprModeCapable: marker.eprCapable,
+      usbVendorId: CABLE_VID,
+      usbProductId: CABLE_PID,
+      bcdDevice: 0x0100,
+      xid: 0,
+      hwVersion: 0,
+      firmwareVersion: 0,
+    };
+    objects = Object.freeze(words(cableIdentityAck(cable).objects));
+    acks.set(key, objects);
+  }
+  return objects;
 }
 
-const VOLTAGE_CODES: Record<number, number> = { 20_000: 0b00, 30_000: 0b01, 40_000: 0b10, 50_000: 0b11 };
-
-/** The ACK's objects: VDM header, ID Header, Cert Stat, Product, Passive Cable VDO. */
-export function identityAck(marker: EMarker): number[] {
-  const idHeader = ((0b011 << 27) | (0b11 << 21) | CABLE_VID) >>> 0;
-  const certStat = 0;
-  const product = ((CABLE_PID << 16) | 0x0100) >>> 0;
-  const passive = ((0b10 << 18) | ((marker.eprCapable ? 1 : 0) << 17) | (0b0001 << 13) | ((VOLTAGE_CODES[marker.maxVoltageMv] ?? 0) << 9) | ((marker.currentMa >= 5_000 ? 0b10 : 0b01) << 5)) >>> 0;
-  return [vdmHeader('ack'), idHeader, certStat, product, passive];
+/** The command type of a Structured VDM Header ('REQ', 'ACK', 'NAK', 'BUSY'). */
+export function vdmCommandType(header: number): string {
+  return String(decodeOtherObject('vdm-header', header).commandType);
 }
 
-/** What the source learns from a Discover Identity ACK; null when it is not a passive cable's ACK. */
+const readings = new WeakMap<readonly number[], EMarker | null>();
+/** What the source learns from a Discover Identity ACK on SOP'; null when it is not a cable's ACK. */
 export function readIdentity(objects: readonly number[]): EMarker | null {
-  const [header, idHeader, , , passive] = objects;
-  if (header === undefined || idHeader === undefined || passive === undefined) return null;
-  if (header >>> 16 !== PD_SID || vdmCommandType(header) !== 'ack' || ((idHeader >>> 27) & 0b111) !== 0b011) return null;
-  const voltageCode = (passive >>> 9) & 0b11;
-  return {
-    currentMa: ((passive >>> 5) & 0b11) === 0b10 ? 5_000 : 3_000,
-    maxVoltageMv: [20_000, 30_000, 40_000, 50_000][voltageCode]!,
-    eprCapable: ((passive >>> 17) & 1) === 1,
-  };
+  let marker = readings.get(objects);
+  if (marker !== undefined) return marker;
+  marker = null;
+  if (objects.length > 0 && vdmCommandType(objects[0]!) === 'ACK') {
+    const kinds = vdmObjectKinds(objects, "SOP'");
+    const limits = cableLimits({ objects: objects.map((word, i) => decodeOtherObject(kinds[i] ?? 'raw', word)) });
+    if (limits && limits.kind !== 'vpd') marker = { currentMa: limits.vbusCurrentMa ?? 3_000, maxVoltageMv: limits.maxVbusVoltageMv, eprCapable: limits.eprModeCapable };
+  }
+  readings.set(objects, marker);
+  return marker;
 }
 
 /** A cable that answered nothing: 3 A, 20 V (USB Type-C R2.3 §4.9: every cable carries 3 A, from memory). */

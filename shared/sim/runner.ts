@@ -363,7 +363,7 @@ class Run implements LineHooks {
   // ---- the cable plug ----
   cableHeard(type: MessageType, objects: readonly number[]): void {
     // A passive cable answers Discover Identity REQ with its VDOs within tVDMReceiverResponse.
-    if (type !== 'Vendor_Defined' || !this.marker || vdmCommandType(objects[0] ?? 0) !== 'req') return;
+    if (type !== 'Vendor_Defined' || !this.marker || vdmCommandType(objects[0] ?? 0) !== 'REQ') return;
     this.schedule(this.clock.nowUs + responseDelayUs(this.random), { kind: 'cable-answer', objects: identityAck(this.marker) });
   }
 

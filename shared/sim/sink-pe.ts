@@ -16,7 +16,7 @@ import type { ChosenRequest, SinkPolicy } from '../rules/sink-policy.ts';
 import { ECDB, eprModeAction, eprModeObject, eprModeOf, isEcdb, minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
 import { statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
-import type { SwapAnswer } from './source-pe.ts';
+import { answerSwap, awaitAnswer, swapStep as sharedSwapStep, type SwapAnswer, type SwapExits } from './swap-pe.ts';
 import { bytesToWords, type MessageType, type Revision } from './wire.ts';
 
 export interface SinkContext {
@@ -254,29 +254,6 @@ function startAction(pe: SinkPe, action: ActionName, effects: PeEffect[]): Step 
   }
 }
 
-function answerSwap(pe: SinkPe, type: MessageType, context: SinkContext, effects: PeEffect[]): Step {
-  const answer = context.swapAnswer ?? 'reject';
-  if (answer === 'not_supported') send(effects, pe.revision === '2.0' ? 'Reject' : 'Not_Supported');
-  else if (answer === 'reject') send(effects, 'Reject');
-  else if (answer === 'wait') send(effects, 'Wait');
-  else {
-    send(effects, 'Accept');
-    const state = type === 'PR_Swap' ? 'PE_PRS_SNK_SRC_Accept_Swap' : type === 'DR_Swap' ? 'PE_DRS_Accept_Swap' : 'PE_VCS_Accept_Swap';
-    return [{ ...pe, state }, effects];
-  }
-  return [pe, effects];
-}
-
-/** After both agreed to a VCONN_Swap: the port without VCONN turns it on and says PS_RDY (§8.3.3.20). */
-function vconnHandOver(pe: SinkPe, effects: PeEffect[]): Step {
-  if (pe.vconnSource) {
-    effects.push({ kind: 'start-timer', name: 'tVCONNSourceTimeout' });
-    return [{ ...pe, state: 'PE_VCS_Wait_For_VCONN' }, effects];
-  }
-  effects.push({ kind: 'start-timer', name: 'tVCONNSourceOn' });
-  return [{ ...pe, state: 'PE_VCS_Turn_On_VCONN' }, effects];
-}
-
 function ready(pe: SinkPe, event: PeEvent, context: SinkContext, effects: PeEffect[]): Step {
   if (event.kind === 'timer' && (event.name === 'tPPSRequest' || event.name === 'tSinkRequest') && pe.pdos.length > 0) return select(pe, context, effects);
   if (event.kind === 'timer' && event.name === 'tSinkEPRKeepAlive' && pe.eprMode) {
@@ -294,7 +271,7 @@ function ready(pe: SinkPe, event: PeEvent, context: SinkContext, effects: PeEffe
     case 'PR_Swap':
     case 'DR_Swap':
     case 'VCONN_Swap':
-      return answerSwap(pe, event.type, context, effects);
+      return answerSwap(pe, event.type, context.swapAnswer ?? 'reject', 'PE_PRS_SNK_SRC_Accept_Swap', effects);
     case 'Extended_Control':
     case 'Get_Source_Cap':
     case 'Get_Source_Cap_Extended':
@@ -488,68 +465,33 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
 }
 
 /** The sink's side of the asks and swaps (§8.3.3.18–20). */
+/** §7.3.9: our PR_Swap was accepted; the initial sink waits for the source's supply to go off. */
+function prAccepted(pe: SinkPe, effects: PeEffect[]): Step {
+  effects.push({ kind: 'start-timer', name: 'tPSSourceOff' });
+  return [{ ...pe, state: 'PE_PRS_SNK_SRC_Transition_to_off' }, effects];
+}
+
+const exitsByContext = new WeakMap<SinkContext, SwapExits<SinkPe>>();
+/** The sink's exits for the shared swap states (swap-pe.ts), one object per context. */
+function exitsFor(context: SinkContext): SwapExits<SinkPe> {
+  let exits = exitsByContext.get(context);
+  if (!exits) {
+    exits = { enterReady: (pe, effects) => enterReady(pe, context, effects), hardReset, prAccepted };
+    exitsByContext.set(context, exits);
+  }
+  return exits;
+}
+
+/** The swap state machines from the sink's side: the shared states (swap-pe.ts), then the sink's PR_Swap power transition. */
 function swapStep(pe: SinkPe, event: PeEvent, context: SinkContext, effects: PeEffect[]): Step | null {
   switch (pe.state) {
     case 'PE_DR_SNK_Get_Sink_Cap':
     case 'PE_SNK_Get_Source_Cap_Ext':
     case 'PE_SNK_Get_Source_Status':
     case 'PE_SNK_Get_PPS_Status':
-    case 'PE_DRS_Send_Swap':
-    case 'PE_VCS_Send_Swap':
-    case 'PE_PRS_SNK_SRC_Send_Swap': {
-      if (event.kind === 'sent') {
-        effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
-        return [pe, effects];
-      }
-      const back = () => {
-        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return enterReady(pe, context, effects);
-      };
-      if ((event.kind === 'timer' && event.name === 'tSenderResponse') || event.kind === 'failed') return back();
-      if (event.kind !== 'message') return null;
-      if (event.type === 'Accept' && pe.state.includes('Swap')) {
-        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        if (pe.state === 'PE_DRS_Send_Swap') {
-          effects.push({ kind: 'data-role-swap' });
-          return enterReady(pe, context, effects);
-        }
-        if (pe.state === 'PE_VCS_Send_Swap') return vconnHandOver(pe, effects);
-        effects.push({ kind: 'start-timer', name: 'tPSSourceOff' });
-        return [{ ...pe, state: 'PE_PRS_SNK_SRC_Transition_to_off' }, effects];
-      }
-      return back();
-    }
-    case 'PE_DRS_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') {
-        effects.push({ kind: 'data-role-swap' });
-        return enterReady(pe, context, effects);
-      }
-      break;
-    case 'PE_VCS_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') return vconnHandOver(pe, effects);
-      break;
-    case 'PE_VCS_Turn_On_VCONN':
-      if (event.kind === 'timer' && event.name === 'tVCONNSourceOn') {
-        send(effects, 'PS_RDY');
-        return [pe, effects];
-      }
-      if (event.kind === 'sent' && event.type === 'PS_RDY') {
-        effects.push({ kind: 'vconn-swap' });
-        return enterReady({ ...pe, vconnSource: true }, context, effects);
-      }
-      break;
-    case 'PE_VCS_Wait_For_VCONN':
-      if (event.kind === 'message' && event.type === 'PS_RDY') {
-        effects.push({ kind: 'stop-timer', name: 'tVCONNSourceTimeout' }, { kind: 'vconn-swap' });
-        return enterReady({ ...pe, vconnSource: false }, context, effects);
-      }
-      if (event.kind === 'timer' && event.name === 'tVCONNSourceTimeout') return hardReset(pe, effects, 'no PS_RDY within tVCONNSourceTimeout after VCONN_Swap');
-      break;
+      return awaitAnswer(pe, event, effects, exitsFor(context));
     case 'PE_PRS_SNK_SRC_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') {
-        effects.push({ kind: 'start-timer', name: 'tPSSourceOff' });
-        return [{ ...pe, state: 'PE_PRS_SNK_SRC_Transition_to_off' }, effects];
-      }
+      if (event.kind === 'sent' && event.type === 'Accept') return prAccepted(pe, effects);
       break;
     case 'PE_PRS_SNK_SRC_Transition_to_off':
       // §7.3.9: the initial sink waits for the source's PS_RDY (supply off), then turns its own supply on.
@@ -572,6 +514,8 @@ function swapStep(pe: SinkPe, event: PeEvent, context: SinkContext, effects: PeE
         return [pe, effects];
       }
       break;
+    default:
+      return sharedSwapStep(pe, event, effects, exitsFor(context));
   }
   return null;
 }

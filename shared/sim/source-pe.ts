@@ -14,10 +14,11 @@ import { decodeRdo } from '../pd/rdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { checkRequest } from '../rules/check-request.ts';
 import { contractOf } from '../rules/contract-of.ts';
-import { cableAllowsEpr, readIdentity, vdmHeader, type EMarker } from './cable-identity.ts';
+import { cableAllowsEpr, DISCOVER_IDENTITY_REQ, readIdentity, type EMarker } from './cable-identity.ts';
 import { ECDB, eprEnterFailed, eprModeAction, eprModeObject, eprModeOf, isEcdb, type PeEffect, type PeEvent } from './pe-types.ts';
 import { ppsStatusBytes, sourceCapsExtendedBytes, statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
+import { answerSwap, awaitAnswer, swapStep as sharedSwapStep, type SwapAnswer, type SwapExits } from './swap-pe.ts';
 import { wordsToBytes, type MessageType, type Revision } from './wire.ts';
 
 export interface Offers {
@@ -25,7 +26,7 @@ export interface Offers {
   pdos: readonly SourcePdo[];
 }
 
-export type SwapAnswer = 'accept' | 'reject' | 'wait' | 'not_supported';
+export type { SwapAnswer };
 
 export interface SourceContext {
   /** The offers for what the source knows of the cable (null: no e-marker), SPR or EPR (positions 1–7 then 8…). */
@@ -62,6 +63,8 @@ export interface SourcePe {
   offered: Offers | null;
   /** Actions waiting for PE_SRC_Ready. */
   pending: readonly ActionName[];
+  /** This port sources VCONN (the source does at attach). */
+  vconnSource: boolean;
 }
 
 export function initialSourcePe(revision: Revision): SourcePe {
@@ -79,6 +82,7 @@ export function initialSourcePe(revision: Revision): SourcePe {
     sinkEprCapable: false,
     offered: null,
     pending: [],
+    vconnSource: true,
   };
 }
 
@@ -103,7 +107,7 @@ function sendCaps(pe: SourcePe, context: SourceContext, effects: PeEffect[]): St
 function startOrDiscover(pe: SourcePe, context: SourceContext, effects: PeEffect[]): Step {
   // §8.3.3.24: as VCONN source the DFP may ask the cable plug before it offers more than 3 A.
   if (context.discoverCable && pe.cable === undefined && pe.revision === '3.0') {
-    effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" });
+    effects.push({ kind: 'send', type: 'Vendor_Defined', objects: DISCOVER_IDENTITY_REQ, sop: "SOP'" });
     return [{ ...pe, state: 'PE_SRC_VDM_Identity_Request' }, effects];
   }
   return sendCaps(pe, context, effects);
@@ -189,20 +193,6 @@ function negotiate(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>, c
   return [{ ...next, state: 'PE_SRC_Transition_Accept', accepted }, effects];
 }
 
-/** The answer to a swap request from the partner (§6.3.9–6.3.11): per `behaviour.swapAnswer`. */
-function answerSwap(pe: SourcePe, type: MessageType, context: SourceContext, effects: PeEffect[]): Step {
-  const answer = context.swapAnswer;
-  if (answer === 'not_supported') send(effects, pe.revision === '2.0' ? 'Reject' : 'Not_Supported');
-  else if (answer === 'reject') send(effects, 'Reject');
-  else if (answer === 'wait') send(effects, 'Wait');
-  else {
-    send(effects, 'Accept');
-    const state = type === 'PR_Swap' ? 'PE_PRS_SRC_SNK_Accept_Swap' : type === 'DR_Swap' ? 'PE_DRS_Accept_Swap' : 'PE_VCS_Accept_Swap';
-    return [{ ...pe, state }, effects];
-  }
-  return [pe, effects];
-}
-
 function startAction(pe: SourcePe, action: ActionName, effects: PeEffect[]): Step {
   if (pe.state !== 'PE_SRC_Ready') return [{ ...pe, pending: [...pe.pending, action] }, effects];
   const ask = (type: MessageType, state: string): Step => {
@@ -237,37 +227,6 @@ function startAction(pe: SourcePe, action: ActionName, effects: PeEffect[]): Ste
       send(effects, 'EPR_Mode', [eprModeObject(eprModeAction.exit)], true);
       return [{ ...pe, state: 'PE_SRC_Send_EPR_Mode_Exit' }, effects];
   }
-}
-
-/** After a swap request of ours was answered (or not). */
-function swapAnswered(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
-  if (event.kind === 'sent') {
-    effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
-    return [pe, effects];
-  }
-  const back = () => {
-    effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-    return enterReady(pe, effects);
-  };
-  if (event.kind === 'timer' && event.name === 'tSenderResponse') return back();
-  if (event.kind === 'failed') return back();
-  if (event.kind !== 'message') return null;
-  if (event.type === 'Accept') {
-    effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-    if (pe.state === 'PE_DRS_Send_Swap') {
-      effects.push({ kind: 'data-role-swap' });
-      return enterReady(pe, effects);
-    }
-    if (pe.state === 'PE_VCS_Send_Swap') {
-      // §8.3.3.20: the VCONN source hands over; the partner turns VCONN on and says PS_RDY.
-      effects.push({ kind: 'start-timer', name: 'tVCONNSourceTimeout' });
-      return [{ ...pe, state: 'PE_VCS_Wait_For_VCONN' }, effects];
-    }
-    effects.push({ kind: 'start-timer', name: 'tSrcTransition' });
-    return [{ ...pe, state: 'PE_PRS_SRC_SNK_Transition_to_off' }, effects];
-  }
-  if (event.type === 'Reject' || event.type === 'Wait' || event.type === 'Not_Supported') return back();
-  return null;
 }
 
 export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext): Step {
@@ -378,7 +337,7 @@ export function sourceStep(pe: SourcePe, event: PeEvent, context: SourceContext)
     case 'PE_SRC_Evaluate_EPR_Mode_Entry':
       if (event.kind === 'sent' && event.type === 'EPR_Mode') {
         // §8.3.3.26.2.2 PE_SRC_EPR_Mode_Discover_Cable: ask the cable plug within tEPRSourceCableDiscovery.
-        effects.push({ kind: 'send', type: 'Vendor_Defined', objects: [vdmHeader('req')], sop: "SOP'" }, { kind: 'start-timer', name: 'tEPRSourceCableDiscovery' });
+        effects.push({ kind: 'send', type: 'Vendor_Defined', objects: DISCOVER_IDENTITY_REQ, sop: "SOP'" }, { kind: 'start-timer', name: 'tEPRSourceCableDiscovery' });
         return [{ ...pe, state: 'PE_SRC_EPR_Mode_Discover_Cable' }, effects];
       }
       if (event.kind === 'failed') return softReset(pe, effects);
@@ -510,7 +469,7 @@ function ready(pe: SourcePe, event: PeEvent, context: SourceContext, effects: Pe
     case 'PR_Swap':
     case 'DR_Swap':
     case 'VCONN_Swap':
-      return answerSwap(pe, event.type, context, effects);
+      return answerSwap(pe, event.type, context.swapAnswer, 'PE_PRS_SRC_SNK_Accept_Swap', effects);
     case 'Accept':
     case 'Reject':
     case 'Wait':
@@ -559,49 +518,26 @@ function cableAnswer(pe: SourcePe, event: Extract<PeEvent, { kind: 'message' }>,
   return [{ ...pe, cable }, effects];
 }
 
-/** The swap state machines from the source's side (§8.3.3.18–20). */
+/** §7.3.9: our PR_Swap was accepted; the initial source turns its supply off after tSrcTransition. */
+function prAccepted(pe: SourcePe, effects: PeEffect[]): Step {
+  effects.push({ kind: 'start-timer', name: 'tSrcTransition' });
+  return [{ ...pe, state: 'PE_PRS_SRC_SNK_Transition_to_off' }, effects];
+}
+
+/** The source's exits for the shared swap states (swap-pe.ts). */
+const EXITS: SwapExits<SourcePe> = { enterReady, hardReset, prAccepted };
+
+/** The swap state machines from the source's side: the shared states (swap-pe.ts), then the source's PR_Swap power transition. */
 function swapStep(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | null {
   switch (pe.state) {
-    case 'PE_DRS_Send_Swap':
-    case 'PE_VCS_Send_Swap':
-    case 'PE_PRS_SRC_SNK_Send_Swap':
     case 'PE_DR_SRC_Get_Source_Cap':
     case 'PE_SRC_Get_Sink_Cap':
     case 'PE_SRC_Get_Source_Cap_Ext':
     case 'PE_SRC_Get_Sink_Status':
-    case 'PE_SRC_Get_PPS_Status': {
-      const asking = !pe.state.includes('Swap');
-      if (asking && event.kind === 'message' && event.type !== 'GoodCRC') {
-        effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
-        return enterReady(pe, effects);
-      }
-      return swapAnswered(pe, event, effects);
-    }
-    case 'PE_DRS_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') {
-        effects.push({ kind: 'data-role-swap' });
-        return enterReady(pe, effects);
-      }
-      break;
-    case 'PE_VCS_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') {
-        // §8.3.3.20: the partner becomes VCONN source and says PS_RDY once VCONN is on.
-        effects.push({ kind: 'start-timer', name: 'tVCONNSourceTimeout' });
-        return [{ ...pe, state: 'PE_VCS_Wait_For_VCONN' }, effects];
-      }
-      break;
-    case 'PE_VCS_Wait_For_VCONN':
-      if (event.kind === 'message' && event.type === 'PS_RDY') {
-        effects.push({ kind: 'stop-timer', name: 'tVCONNSourceTimeout' }, { kind: 'vconn-swap' });
-        return enterReady(pe, effects);
-      }
-      if (event.kind === 'timer' && event.name === 'tVCONNSourceTimeout') return hardReset(pe, effects, 'no PS_RDY within tVCONNSourceTimeout after VCONN_Swap');
-      break;
+    case 'PE_SRC_Get_PPS_Status':
+      return awaitAnswer(pe, event, effects, EXITS);
     case 'PE_PRS_SRC_SNK_Accept_Swap':
-      if (event.kind === 'sent' && event.type === 'Accept') {
-        effects.push({ kind: 'start-timer', name: 'tSrcTransition' });
-        return [{ ...pe, state: 'PE_PRS_SRC_SNK_Transition_to_off' }, effects];
-      }
+      if (event.kind === 'sent' && event.type === 'Accept') return prAccepted(pe, effects);
       break;
     case 'PE_PRS_SRC_SNK_Transition_to_off':
       // §7.3.9: the initial source turns its supply off (vSafe0V within tSrcSwapStdby), then says PS_RDY.
@@ -631,6 +567,8 @@ function swapStep(pe: SourcePe, event: PeEvent, effects: PeEffect[]): Step | nul
         return [{ ...pe, state: 'ErrorRecovery' }, effects];
       }
       break;
+    default:
+      return sharedSwapStep(pe, event, effects, EXITS);
   }
   return null;
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { timersPd3 } from '../core/timers.ts';
 import type { RunMessage } from './messages.ts';
-import { delayEdgesMs, FAULT_FREE_ID, generatePlacements, matrixColumns } from './placements.ts';
+import { countPlacements, delayEdgesMs, FAULT_FREE_ID, generatePlacements, matrixColumns, SWEEP_FAULT_KINDS } from './placements.ts';
 
 const m = (index: number, from: 'source' | 'sink', messageType: string, nth = 1): RunMessage => ({ index, t: index * 1_000, from, messageType, nth, hex: '' });
 // Source_Capabilities, GoodCRC, Request, GoodCRC, Accept, GoodCRC, PS_RDY, GoodCRC: a fixed contract's 8 messages.
@@ -55,5 +55,15 @@ describe('generatePlacements', () => {
     expect(edges.find((p) => p.id === 'tPSTransition=min')?.timers).toEqual({ tPSTransition: 'min' });
     // tSinkRequest has one value (100 ms): no edges.
     expect(edges.some((p) => p.id.startsWith('tSinkRequest'))).toBe(false);
+  });
+});
+
+describe('countPlacements', () => {
+  it('counts exactly what generatePlacements builds, pairs and timer edges included', () => {
+    for (const options of [{}, { pairs: true }, { timerEdges: true }, { kinds: SWEEP_FAULT_KINDS, pairs: true, timerEdges: true }, { kinds: ['reject'] as const, revision: '2.0' }]) {
+      expect(countPlacements(negotiation, options)).toBe(generatePlacements(negotiation, options).length);
+    }
+    // 24 singles give 24 × 23 / 2 = 276 pairs: 1 + 24 + 276.
+    expect(countPlacements(negotiation, { pairs: true })).toBe(301);
   });
 });

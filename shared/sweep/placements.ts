@@ -74,6 +74,17 @@ function singlesFor(message: RunMessage, kind: SweepFaultKind, delays: { withinM
   }
 }
 
+/** How many placements `generatePlacements` would give, without building them (a pair campaign grows with the square). */
+export function countPlacements(messages: readonly RunMessage[], options: PlacementOptions = {}): number {
+  const kinds = options.kinds ?? DEFAULT_FAULT_KINDS;
+  const delays = delayEdgesMs(options.revision);
+  let singles = 0;
+  for (const message of messages) for (const kind of kinds) singles += singlesFor(message, kind, delays).length;
+  const pairs = options.pairs ? (singles * (singles - 1)) / 2 : 0;
+  const edges = options.timerEdges ? 2 * Object.values(timersFor(options.revision ?? '3.0')).filter((range) => range.minUs !== range.maxUs).length : 0;
+  return 1 + singles + pairs + edges;
+}
+
 /** Every placement of a sweep, in a fixed order (the fault-free run, singles by message then kind, pairs, timer edges). */
 export function generatePlacements(messages: readonly RunMessage[], options: PlacementOptions = {}): Placement[] {
   const kinds = options.kinds ?? DEFAULT_FAULT_KINDS;

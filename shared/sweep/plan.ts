@@ -10,7 +10,7 @@ import type { Scenario } from '../sim/scenario.ts';
 import { simulate } from '../sim/simulate.ts';
 import { fail, type Result } from '../core/result.ts';
 import { runMessages, type RunMessage } from './messages.ts';
-import { DEFAULT_FAULT_KINDS, generatePlacements, matrixColumns, type Placement, type SweepFaultKind } from './placements.ts';
+import { countPlacements, DEFAULT_FAULT_KINDS, generatePlacements, matrixColumns, type Placement, type SweepFaultKind } from './placements.ts';
 import type { Simulate } from './run-placement.ts';
 import { sampleWithSeed, shardOf, type Shard } from './select.ts';
 
@@ -23,9 +23,14 @@ export interface SweepOptions {
   max?: number;
   seed?: number;
   shard?: Shard;
+  /** Refuse, before building them, campaigns of more placements than this (before `max`); default `MAX_PLACEMENTS`. */
+  maxPlacements?: number;
   /** The simulator (a test may plant a defect). */
   simulate?: Simulate;
 }
+
+/** The most placements a campaign may generate before sampling: pairs of a long run grow with the square and would exhaust memory. */
+export const MAX_PLACEMENTS = 500_000;
 
 export interface SweepPlan {
   scenario: Scenario;
@@ -52,7 +57,15 @@ export function planSweep(scenario: Scenario, options: SweepOptions = {}): Resul
   if (messages.length === 0) return fail('sweep.no-messages', 'the fault-free run has no messages to place faults on (is the duration long enough to attach?)');
   const kinds = options.kinds ?? DEFAULT_FAULT_KINDS;
   const revision = revisionOf(scenario);
-  const all = generatePlacements(messages, { kinds, pairs: options.pairs, timerEdges: options.timerEdges, revision });
+  const placementOptions = { kinds, pairs: options.pairs, timerEdges: options.timerEdges, revision };
+  const count = countPlacements(messages, placementOptions);
+  const limit = options.maxPlacements ?? MAX_PLACEMENTS;
+  if (count > limit)
+    return fail(
+      'sweep.too-many-runs',
+      `this campaign has ${count.toLocaleString('en-US')} runs (${messages.length} messages${options.pairs ? ', every pair' : ''}); at most ${limit.toLocaleString('en-US')} are planned: drop pairs, shorten the scenario or split it with --shard`,
+    );
+  const all = generatePlacements(messages, placementOptions);
   const sampled = sampleWithSeed(all, options.max, options.seed ?? scenario.seed);
   return {
     ok: true,

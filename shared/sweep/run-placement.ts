@@ -3,10 +3,11 @@
  * (messages not decoded; the analyser runs for its invariant) and judged.
  */
 import type { Contract } from '../core/contract.ts';
+import type { Finding } from '../core/finding.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import type { Fault, Scenario } from '../sim/scenario.ts';
 import { simulate, type SimulationResult } from '../sim/simulate.ts';
-import { analyseRecords } from '../trace/analyser.ts';
+import { analyserFindings, type FindingsMemo } from './analysis-memo.ts';
 import { judge, resetCounts, type BrokenInvariant, type ResetCounts } from './invariants.ts';
 import { classifyOutcome, type OutcomeClass } from './outcome.ts';
 import type { Placement } from './placements.ts';
@@ -42,11 +43,17 @@ export function judgeScenario(scenario: Scenario, result: SimulationResult, pdos
 /** The simulator a sweep drives; a test may pass a deliberately broken one. */
 export type Simulate = typeof simulate;
 
-export function runPlacement(base: Scenario, placement: Placement, reference: Contract | null, pdos: readonly SourcePdo[], simulateRun: Simulate = simulate): SweepRun {
+export interface RunEngine {
+  simulate?: Simulate;
+  /** The analyser's findings per distinct trace of a campaign (analysis-memo.ts). */
+  memo?: FindingsMemo;
+}
+
+export function runPlacement(base: Scenario, placement: Placement, reference: Contract | null, pdos: readonly SourcePdo[], engine: RunEngine = {}): SweepRun {
   const scenario = scenarioFor(base, placement);
-  const result = simulateRun(scenario, { decode: false, analyze: false });
-  // The analyser for its invariant, without the timeline a page would show (half its cost).
-  result.findings = analyseRecords(result.events, { timelineLimit: 0 }).findings;
+  const result = (engine.simulate ?? simulate)(scenario, { decode: false, analyze: false });
+  // The analyser for its invariant (shared, read-only findings when the trace repeats an earlier run's).
+  result.findings = analyserFindings(result.events, engine.memo) as Finding[];
   const { views, broken, resets } = judgeScenario(scenario, result, pdos);
   const run: SweepRun = {
     placement: placement.id,

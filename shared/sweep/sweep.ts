@@ -3,6 +3,7 @@
  * threads, the browser's Web Workers and the server each run a slice of a plan through this.
  */
 import type { SweepPlan } from './plan.ts';
+import { createFindingsMemo } from './analysis-memo.ts';
 import { runPlacement, type Simulate, type SweepRun } from './run-placement.ts';
 
 export interface RunSliceOptions {
@@ -21,12 +22,13 @@ export function runSlice(plan: Pick<SweepPlan, 'scenario' | 'placements' | 'refe
   const end = Math.min(options.end ?? plan.placements.length, plan.placements.length);
   const every = options.progressEvery ?? 64;
   const runs: SweepRun[] = [];
+  const engine = { simulate: options.simulate, memo: createFindingsMemo() };
   for (let i = start; i < end; i++) {
     if ((i - start) % every === 0) {
       if (options.shouldStop?.()) return { runs, stopped: true };
       options.onProgress?.(i - start, end - start);
     }
-    runs.push(runPlacement(plan.scenario, plan.placements[i]!, plan.reference, plan.pdos, options.simulate));
+    runs.push(runPlacement(plan.scenario, plan.placements[i]!, plan.reference, plan.pdos, engine));
   }
   options.onProgress?.(end - start, end - start);
   return { runs, stopped: false };

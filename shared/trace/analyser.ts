@@ -18,6 +18,7 @@ import { createHardResetRecovery } from './hard-reset-recovery.ts';
 import { createDecodeCache } from './decode-cache.ts';
 import type { TraceFormat } from './detect-format.ts';
 import { createFindingStore } from './findings-store.ts';
+import type { AnalyserMemo } from './memo.ts';
 import { amps, contractText, seconds, volts } from './format.ts';
 import { createPolicyTracker, type ActiveContract } from './policy.ts';
 import { createProtocolTracker } from './protocol.ts';
@@ -35,6 +36,10 @@ export interface AnalyserOptions {
   timelineLimit?: number;
   /** Most findings listed (default 5 000); the rest are counted. */
   findingsLimit?: number;
+  /** Decodings and offer checks shared with other analysers of the same messages (memo.ts; a fault sweep). */
+  memo?: AnalyserMemo;
+  /** False: leave `summary` empty (a caller that reads only the findings skips the sentence). */
+  summary?: boolean;
 }
 
 export interface Analysis {
@@ -78,7 +83,7 @@ interface VbusProblem {
 export function createAnalyser(options: AnalyserOptions = {}): Analyser {
   const store = createFindingStore(options.findingsLimit ?? 5_000);
   const timeline = createTimeline(options.timelineLimit ?? 20_000);
-  const cache = createDecodeCache();
+  const cache = createDecodeCache(undefined, options.memo);
   const contracts: (Contract & { t: number })[] = [];
   const hardResets: { t: number; cause?: string }[] = [];
   let contractCount = 0;
@@ -111,33 +116,37 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
     hasContract: () => policy.steadyContract() !== undefined,
     finding: (f) => store.add(f, f.t ?? lastT),
   });
-  const policy = createPolicyTracker(report, {
-    contract(contract, t, changed) {
-      closeVbusProblems();
-      checkCableCurrent(contract, t);
-      if (!changed) return;
-      contractCount++;
-      if (contracts.length < LIST_LIMIT) contracts.push({ ...contract, t });
-      timeline.contractStart(t, contract);
+  const policy = createPolicyTracker(
+    report,
+    {
+      contract(contract, t, changed) {
+        closeVbusProblems();
+        checkCableCurrent(contract, t);
+        if (!changed) return;
+        contractCount++;
+        if (contracts.length < LIST_LIMIT) contracts.push({ ...contract, t });
+        timeline.contractStart(t, contract);
+      },
+      contractEnd(t) {
+        closeVbusProblems();
+        timeline.contractEnd(t);
+      },
+      finding(f) {
+        store.add(f, f.t ?? lastT);
+      },
+      goodCrcSeen: () => protocol.goodCrcSeen(),
+      roleSwap: () => protocol.forgetIds('SOP'),
+      inEpr: () => epr.inEpr(),
+      softReset(m) {
+        const cause = recentProblem(m.t);
+        report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, {
+          t: m.t,
+          line: m.line,
+        });
+      },
     },
-    contractEnd(t) {
-      closeVbusProblems();
-      timeline.contractEnd(t);
-    },
-    finding(f) {
-      store.add(f, f.t ?? lastT);
-    },
-    goodCrcSeen: () => protocol.goodCrcSeen(),
-    roleSwap: () => protocol.forgetIds('SOP'),
-    inEpr: () => epr.inEpr(),
-    softReset(m) {
-      const cause = recentProblem(m.t);
-      report('protocol.soft-reset', `The ${m.from} sent Soft_Reset at ${seconds(m.t)}${cause ? `, likely after ${cause}` : ''}; both ports start their message counters again and renegotiate.`, {
-        t: m.t,
-        line: m.line,
-      });
-    },
-  });
+    options.memo,
+  );
 
   function recentProblem(t: number): string | undefined {
     if (!lastProblem || t - lastProblem.t > CAUSE_WINDOW_US) return undefined;
@@ -348,21 +357,24 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
         counts,
         findingsOmitted: store.omitted(),
         hardResets,
-        summary: summarize({
-          records,
-          messages,
-          measurements,
-          contracts,
-          contractCount,
-          sourceCapabilities,
-          hardResets,
-          hardResetCount,
-          counts,
-          goodCrcSeen: protocol.goodCrcSeen(),
-          ...policy.requestCounts(),
-          ...(hardResets[0]?.cause !== undefined ? { hardResetSide: sideOfClause(hardResets[0].cause) } : {}),
-          ...firstProblemOf(store.list()),
-        }),
+        summary:
+          options.summary === false
+            ? ''
+            : summarize({
+                records,
+                messages,
+                measurements,
+                contracts,
+                contractCount,
+                sourceCapabilities,
+                hardResets,
+                hardResetCount,
+                counts,
+                goodCrcSeen: protocol.goodCrcSeen(),
+                ...policy.requestCounts(),
+                ...(hardResets[0]?.cause !== undefined ? { hardResetSide: sideOfClause(hardResets[0].cause) } : {}),
+                ...firstProblemOf(store.list()),
+              }),
         timeline: timeline.timeline,
       };
       if (options.format) analysis.format = options.format;

@@ -7,6 +7,7 @@ import type { EngineError } from '../core/result.ts';
 import type { Finding } from '../core/finding.ts';
 import { decodeMessage, parseHex } from '../pd/index.ts';
 import type { Message, PowerRole, Sop, SourcePdo, SpecRevision } from '../pd/types.ts';
+import { remember, type AnalyserMemo } from './memo.ts';
 import { messageDurationUs } from './wire-time.ts';
 
 export interface DecodedMessage {
@@ -45,7 +46,8 @@ export interface DecodeCache {
 
 const PLAIN_HEX = /^[0-9a-f]*$/;
 
-export function createDecodeCache(limit = 4_096): DecodeCache {
+/** `memo` shares the decoding (not the per-trace use counts) with other analysers (memo.ts). */
+export function createDecodeCache(limit = 4_096, memo?: AnalyserMemo): DecodeCache {
   const entries = new Map<string, CacheEntry>();
   const typedEntries = new Map<string, TypedEntry>();
   return {
@@ -54,8 +56,11 @@ export function createDecodeCache(limit = 4_096): DecodeCache {
       let entry = typedEntries.get(key);
       if (entry === undefined) {
         if (typedEntries.size >= limit) typedEntries.clear();
-        const result = decodeMessage(decoded.bytes, { sop, caps: offers });
-        entry = result.ok ? { message: result.message, warnings: result.warnings, uses: 0 } : { message: decoded.message, warnings: [], uses: 0 };
+        const outcome = remember(memo, 'typed', key, () => {
+          const result = decodeMessage(decoded.bytes, { sop, caps: offers });
+          return result.ok ? { message: result.message, warnings: result.warnings } : { message: decoded.message, warnings: [] };
+        });
+        entry = { ...outcome, uses: 0 };
         typedEntries.set(key, entry);
       }
       entry.uses++;
@@ -66,7 +71,7 @@ export function createDecodeCache(limit = 4_096): DecodeCache {
       let entry = entries.get(key);
       if (entry === undefined) {
         if (entries.size >= limit) entries.clear();
-        entry = decodeEntry(msg, sop);
+        entry = { ...remember(memo, 'decoded', key, () => decodeEntry(msg, sop)), uses: 0 };
         entries.set(key, entry);
       }
       entry.uses++;
@@ -75,11 +80,11 @@ export function createDecodeCache(limit = 4_096): DecodeCache {
   };
 }
 
-function decodeEntry(msg: string, sop: Sop): CacheEntry {
+function decodeEntry(msg: string, sop: Sop): Omit<CacheEntry, 'uses'> {
   const parsed = parseHex(msg);
-  if (!parsed.ok) return { decoded: undefined, error: parsed.error, uses: 0 };
+  if (!parsed.ok) return { decoded: undefined, error: parsed.error };
   const result = decodeMessage(parsed.bytes, { sop });
-  if (!result.ok) return { decoded: undefined, error: result.error, uses: 0 };
+  if (!result.ok) return { decoded: undefined, error: result.error };
   const { message } = result;
   const header = message.header;
   const hex = PLAIN_HEX.test(msg) ? msg : toPlainHex(parsed.bytes);
@@ -98,7 +103,6 @@ function decodeEntry(msg: string, sop: Sop): CacheEntry {
       durationUs: messageDurationUs(parsed.bytes.length),
     },
     error: undefined,
-    uses: 0,
   };
 }
 

@@ -10,6 +10,7 @@ import type { TimerTable } from '../core/timers.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { checkCaps } from '../rules/index.ts';
 import { millis, seconds } from './format.ts';
+import { remember, type AnalyserMemo } from './memo.ts';
 import type { Report, SeenMessage } from './seen.ts';
 
 const SOURCE_PDO_KINDS: readonly string[] = ['fixed', 'variable', 'battery', 'pps', 'epr-avs', 'spr-avs'];
@@ -32,7 +33,8 @@ export interface OffersTracker {
   reset(): void;
 }
 
-export function createOffersTracker(report: Report, finding: (f: Finding) => void): OffersTracker {
+/** `memo` shares each offer list's rules-engine findings with other analysers (memo.ts). */
+export function createOffersTracker(report: Report, finding: (f: Finding) => void, memo?: AnalyserMemo): OffersTracker {
   let offers: Offers | undefined;
   let lastUnanswered: SeenMessage | undefined;
   const checked = new Set<string>();
@@ -58,7 +60,7 @@ export function createOffersTracker(report: Report, finding: (f: Finding) => voi
       offers = { m, pdos, key };
       if (!checked.has(key) && checked.size < CHECKED_LIMIT) {
         checked.add(key);
-        for (const f of checkCaps(pdos).findings) finding({ ...f, t: m.t, ...(m.line !== undefined ? { line: m.line } : {}) });
+        for (const f of remember(memo, 'capsFindings', key, () => checkCaps(pdos).findings)) finding({ ...f, t: m.t, ...(m.line !== undefined ? { line: m.line } : {}) });
         const apdo = pdos.findIndex((p) => p.kind === 'pps' || p.kind === 'epr-avs' || p.kind === 'spr-avs');
         if (apdo >= 0 && (m.d.revision === '2.0' || m.d.revision === '1.0')) {
           report(

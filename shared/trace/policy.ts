@@ -18,6 +18,7 @@ import type { Rdo, SourcePdo } from '../pd/types.ts';
 import { checkRequest, contractOf } from '../rules/index.ts';
 import { endedDuring, expire, isOpen, movedOn, pastDeadline, resetDuring, type Awaited, type Watch } from './awaited.ts';
 import { objectAt } from './decode-cache.ts';
+import type { AnalyserMemo } from './memo.ts';
 import { createOffersTracker } from './offers.ts';
 import { createRevisionInOperation } from './revision.ts';
 import { contractText, millis, seconds } from './format.ts';
@@ -94,8 +95,8 @@ export interface PolicyTracker {
   requestCounts(): { requests: number; requestsAccepted: number };
 }
 
-export function createPolicyTracker(report: Report, events: PolicyEvents): PolicyTracker {
-  const offers = createOffersTracker(report, (f) => events.finding(f));
+export function createPolicyTracker(report: Report, events: PolicyEvents, memo?: AnalyserMemo): PolicyTracker {
+  const offers = createOffersTracker(report, (f) => events.finding(f), memo);
   const revision = createRevisionInOperation();
   let capsWaiting: Pending | undefined;
   let request: PendingRequest | undefined;

@@ -9,7 +9,7 @@ import { Button } from './button.tsx';
 import { Input } from './input.tsx';
 import { Select } from './select.tsx';
 import { defaultOffer, type OfferInput, type OfferKind } from '../../shared/rules/offer-input.ts';
-import { offerFields, offerKindOptions, type OfferNumberKey } from '../lib/offers-form/offer-fields.ts';
+import { numberFromInput, numberInputText, offerFields, offerKindOptions, type OfferNumberKey } from '../lib/offers-form/offer-fields.ts';
 
 /** USB PD allows 7 SPR and 6 EPR object positions. */
 export const MAX_OFFERS = 13;
@@ -23,8 +23,6 @@ export type OfferListEditorProps = {
   listError?: string;
   disabled?: boolean;
 };
-
-const shown = (value: unknown) => (typeof value === 'number' && Number.isFinite(value) ? String(value) : '');
 
 export function OfferListEditor({ offers, onChange, errorOf, listError, disabled }: OfferListEditorProps) {
   const [kindToAdd, setKindToAdd] = useState<OfferKind>('fixed');
@@ -61,8 +59,8 @@ export function OfferListEditor({ offers, onChange, errorOf, listError, disabled
                   className="w-36"
                   disabled={disabled}
                   error={errorOf?.(index, f.name)}
-                  value={shown((offer as Record<string, unknown>)[f.name])}
-                  onChange={(event) => replace(index, { ...offer, [f.name]: event.target.value === '' ? Number.NaN : Number(event.target.value) } as OfferInput)}
+                  value={numberInputText((offer as Record<string, unknown>)[f.name])}
+                  onChange={(event) => replace(index, { ...offer, [f.name]: numberFromInput(event.target.value) } as OfferInput)}
                 />
               ))}
               <div className="mb-0.5 ml-auto flex gap-1">

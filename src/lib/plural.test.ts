@@ -9,8 +9,8 @@ describe('plural', () => {
     expect(plural(2, 'property', 'properties')).toBe('2 properties');
   });
 
-  it('names the info severity a note', () => {
-    expect(SEVERITY_WORD.info).toBe('note');
-    expect(countsText(1, { error: 1, warning: 0, info: 2 })).toBe('1 message · 1 error · 0 warnings · 2 notes');
+  it('names the info severity as docs/rules.md and the command line do', () => {
+    expect(SEVERITY_WORD.info).toBe('info');
+    expect(countsText(1, { error: 1, warning: 0, info: 2 })).toBe('1 message · 1 error · 0 warnings · 2 info');
   });
 });

@@ -3,7 +3,8 @@
  * server has it, else as a download; and a download on request in any case. The file is always
  * the byte-stable form (`formatVector`), so a saved and a downloaded copy are the same bytes.
  */
-import { api, isApiError } from './api-client.ts';
+import { isApiError } from './api-client.ts';
+import { createVector } from './api/create-vector.ts';
 import { downloadText } from './download.ts';
 import { formatVector } from '../../shared/vectors/format.ts';
 
@@ -24,9 +25,8 @@ export function downloadVector(vector: Record<string, unknown>): string {
 /** Posts the vector to the library; a server without the library route gets a download instead. */
 export async function saveVector(vector: Record<string, unknown>): Promise<SaveOutcome> {
   try {
-    const stored = await api.post<{ id?: string; revision?: number; vector?: { id?: string } }>('/vectors', JSON.parse(formatVector(vector)));
-    const id = stored?.id ?? stored?.vector?.id ?? String(vector.id);
-    return { kind: 'library', id, revision: stored?.revision };
+    const stored = await createVector({ file: JSON.parse(formatVector(vector)) as Record<string, unknown> });
+    return { kind: 'library', id: stored.id, revision: stored.revision };
   } catch (error) {
     // 404 `route.not-found`: this server has no vector library; anything else (409, 400, 403) is the user's to see.
     if (isApiError(error) && error.status === 404) {

@@ -63,7 +63,7 @@ export const engineDirections: Record<string, readonly string[]> = {
   sim: ['core', 'pd', 'rules', 'trace'],
   sweep: ['core', 'pd', 'rules', 'trace', 'sim'],
   vectors: ['core', 'pd', 'wire', 'rules', 'trace', 'sim', 'sweep'],
-  api: ['core', 'pd', 'rules', 'trace', 'sim', 'vectors'],
+  api: ['core', 'pd', 'rules', 'trace', 'sim', 'sweep', 'vectors'],
 };
 
 /** Packages the engine may use: pure, and safe in a Web Worker, the server and the CLI. */

@@ -3,6 +3,7 @@ import { Migration20261204181500ReportLinksAndImportMappings } from './Migration
 import { Migration20261204190000TraceViews } from './Migration20261204190000TraceViews.ts';
 import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
+import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
@@ -11,4 +12,5 @@ export const postgresMigrationsList = [
   { name: 'Migration20261204190000TraceViews', class: Migration20261204190000TraceViews },
   { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
+  { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
 ];

@@ -6,6 +6,7 @@ import { Migration20261204173000ImportMappings } from './Migration20261204173000
 import { Migration20261204190000TraceViews } from './Migration20261204190000TraceViews.ts';
 import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
+import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
@@ -17,4 +18,5 @@ export const migrationsList = [
   { name: 'Migration20261204190000TraceViews', class: Migration20261204190000TraceViews },
   { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
+  { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
 ];

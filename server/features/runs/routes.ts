@@ -1,7 +1,9 @@
 import express, { type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { MAX_REPORT_BYTES, roleGroups, type Run, type RunResult as PresentedResult } from '../../../shared/api/index.ts';
+import { MAX_REPORT_BYTES, MAX_SERVER_SWEEP_RUNS, roleGroups, type Run, type RunResult as PresentedResult, type SweepRunOptions } from '../../../shared/api/index.ts';
+import { parseScenario } from '../../../shared/sim/index.ts';
+import { DEFAULT_FAULT_KINDS, planSweep, SWEEP_FAULT_KINDS } from '../../../shared/sweep/index.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun } from '../../db/library-entities.ts';
 import { badRequest, notFound } from '../../errors.ts';
@@ -10,6 +12,7 @@ import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
 import { tokenOf } from '../tokens/verify.ts';
 import { describeFilter, matchingVectorIds, vectorFilterSchema } from '../vectors/query.ts';
 import { finishRun, runEvent, vectorRunJob } from './job.ts';
+import { SWEEP_INVARIANTS, sweepRunJob } from './sweep-job.ts';
 import { streamJobEvents } from '../../jobs/sse.ts';
 import { buildName, LIBRARY_PROJECT, projectName } from './project.ts';
 import { readJsonReport, readReportText, type ReportRead } from './report.ts';
@@ -34,6 +37,31 @@ const startBody = z
   .strict()
   .refine((b) => [b.ids, b.filter, b.all].filter((x) => x !== undefined).length === 1, { message: 'give exactly one of ids, filter or all: true', path: ['ids'] });
 
+/** A fault sweep for the team: the scenario (vector.md) and the campaign's options, as `parley sweep` takes them. */
+const sweepBody = z
+  .object({
+    scenario: z.unknown().refine((v) => v !== undefined, 'give the scenario to sweep (vector.md, Scenario)'),
+    kinds: z
+      .array(z.enum(SWEEP_FAULT_KINDS))
+      .min(1, 'choose at least one fault kind')
+      .max(SWEEP_FAULT_KINDS.length)
+      .refine((kinds) => new Set(kinds).size === kinds.length, 'name each fault kind once')
+      .optional(),
+    pairs: z.boolean().default(false),
+    timerEdges: z.boolean().default(false),
+    max: z.number().int().min(1).max(MAX_SERVER_SWEEP_RUNS).optional(),
+    seed: z.number().int().min(0).max(0xffff_ffff).optional(),
+    project: projectName.default(LIBRARY_PROJECT),
+    build: buildName.optional(),
+    wait: z.boolean().default(false),
+  })
+  .strict();
+
+function describeSweep(options: SweepRunOptions): string {
+  const extras = [options.pairs ? 'pairs' : undefined, options.timerEdges ? 'timer edges' : undefined, options.max !== undefined ? `at most ${options.max} runs` : undefined].filter(Boolean);
+  return `fault sweep: ${options.kinds.join(', ')}${extras.length > 0 ? `; ${extras.join(', ')}` : ''}`;
+}
+
 const listQuery = z.object({
   project: projectName.optional(),
   source: z.enum(['ui', 'ci']).optional(),
@@ -46,6 +74,7 @@ const ciFields = z.object({ project: projectName.optional(), build: buildName.op
 export function presentRun(run: ITestRun): Run {
   return {
     id: run.id,
+    kind: run.kind,
     project: run.project,
     build: run.build ?? null,
     source: run.source,
@@ -60,6 +89,7 @@ export function presentRun(run: ITestRun): Run {
     error: run.errorMessage ?? null,
     createdAt: run.createdAt.toISOString(),
     finishedAt: run.finishedAt?.toISOString() ?? null,
+    ...(run.kind === 'sweep' && run.sweep ? { sweep: run.sweep } : {}),
   };
 }
 
@@ -124,6 +154,7 @@ export const runsRoutes: RouteDef[] = [
       if (rows.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
       const selection = body.all ? 'all' : body.ids ? (body.ids.length === 1 ? body.ids[0]! : `${body.ids.length} selected`) : describeFilter(body.filter ?? {});
       const run = em.create(TestRun, {
+        kind: 'vectors',
         project: body.project,
         build: body.build ?? null,
         source: 'ui',
@@ -143,6 +174,61 @@ export const runsRoutes: RouteDef[] = [
       });
       await em.flush();
       const job = await deps.jobs.enqueue(vectorRunJob, run.id, { runId: run.id, vectorIds: rows.map((r) => r.vectorId) });
+      if (body.wait) {
+        await job.finished;
+        res.status(201);
+        return runWithResults(em.fork(), await findRun(em.fork(), run.id));
+      }
+      res.status(202);
+      return { run: presentRun(run) };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/runs/sweep',
+    access: runStarters,
+    body: sweepBody,
+    async handler(ctx) {
+      const { em, body, res, deps } = ctx;
+      const me = currentUser(ctx);
+      const parsed = parseScenario(body.scenario);
+      if (!parsed.ok) throw badRequest(`scenario: ${parsed.error.message}`, 'input.invalid');
+      const options: SweepRunOptions = { kinds: body.kinds ?? [...DEFAULT_FAULT_KINDS], pairs: body.pairs, timerEdges: body.timerEdges };
+      if (body.max !== undefined) options.max = body.max;
+      if (body.seed !== undefined) options.seed = body.seed;
+      // The plan runs the scenario once, fault-free: its messages give the campaign's size, which is
+      // checked before any placement is built (a sampled campaign may draw from at most five times the limit).
+      const limit = body.max === undefined ? MAX_SERVER_SWEEP_RUNS : 5 * MAX_SERVER_SWEEP_RUNS;
+      const planned = planSweep(parsed.scenario, { ...options, maxPlacements: limit });
+      if (!planned.ok && planned.error.code === 'sweep.too-many-runs')
+        throw badRequest(
+          `${body.max === undefined ? 'max' : 'pairs'}: ${planned.error.message.replace(/: drop pairs.*$/, '')}; the server runs at most ${MAX_SERVER_SWEEP_RUNS.toLocaleString('en-US')} a sweep${body.max === undefined ? ' (set max to sample that many with the seed)' : ''}, or split it in CI with parley sweep --shard`,
+          'sweep.too-many-runs',
+        );
+      if (!planned.ok) throw badRequest(`scenario: ${planned.error.message}`, 'sweep.unplannable');
+      const runs = planned.plan.campaignRuns;
+      const run = em.create(TestRun, {
+        kind: 'sweep',
+        project: body.project,
+        build: body.build ?? null,
+        source: 'ui',
+        status: 'running',
+        selection: describeSweep(options),
+        total: runs,
+        done: 0,
+        passed: 0,
+        failed: 0,
+        newFailures: 0,
+        startedById: me.id,
+        startedByName: me.name,
+        tokenId: null,
+        errorMessage: null,
+        createdAt: deps.clock.now(),
+        finishedAt: null,
+        sweep: { scenario: body.scenario, options, messages: planned.plan.messages.length, outcomes: [], invariants: SWEEP_INVARIANTS, broken: 0 },
+      });
+      await em.flush();
+      const job = await deps.jobs.enqueue(sweepRunJob, run.id, { runId: run.id, scenario: body.scenario, options });
       if (body.wait) {
         await job.finished;
         res.status(201);
@@ -184,6 +270,7 @@ export const runsRoutes: RouteDef[] = [
       const titles = new Map((await em.find(TeamVector, { vectorId: { $in: results.map((r) => r.id) } }, { fields: ['vectorId', 'title', 'kind'] })).map((v) => [v.vectorId, v]));
       const now = deps.clock.now();
       const run = em.create(TestRun, {
+        kind: 'vectors',
         project,
         build: build ?? null,
         source: 'ci',
@@ -252,7 +339,7 @@ export const runsRoutes: RouteDef[] = [
     params: runIdParams,
     async handler({ em, params, req, res, deps }) {
       const run = await findRun(em, params.id);
-      await streamJobEvents(req, res, deps.jobs, vectorRunJob, run.id, {
+      await streamJobEvents(req, res, deps.jobs, run.kind === 'sweep' ? sweepRunJob : vectorRunJob, run.id, {
         heartbeat: 'still running',
         snapshot: async () => runEvent(await findRun(em.fork(), run.id)),
       });

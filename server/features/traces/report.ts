@@ -57,6 +57,7 @@ export function diagnosisMail(options: { to: string; senderName: string; note?: 
   const more = report.findings.length - listed.length + report.findingsOmitted;
   const about = [t.device ? `Device: ${t.device}` : '', t.customerRef ? `Customer reference: ${t.customerRef}` : '', `File: ${t.fileName}`].filter(Boolean);
   const contracts = report.contracts.length > 0 ? report.contracts.map(contractLine) : ['No contract was reached.'];
+  const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
   const findingLines = listed.map((f) => `[${f.severity}] ${f.rule}${f.t === undefined ? '' : ` at ${seconds(f.t)}`}: ${f.message}`);
 
   const text = [
@@ -66,7 +67,7 @@ export function diagnosisMail(options: { to: string; senderName: string; note?: 
     about.join('\n'),
     `Summary: ${report.summary}`,
     `Contracts:\n${contracts.map((c) => `- ${c}`).join('\n')}`,
-    `Findings (${report.counts.error} errors, ${report.counts.warning} warnings, ${report.counts.info} notes):\n${findingLines.length > 0 ? findingLines.map((l) => `- ${l}`).join('\n') : '- none'}${more > 0 ? `\n- … and ${more} more on the trace page` : ''}`,
+    `Findings (${count(report.counts.error, 'error')}, ${count(report.counts.warning, 'warning')}, ${report.counts.info} info):\n${findingLines.length > 0 ? findingLines.map((l) => `- ${l}`).join('\n') : '- none'}${more > 0 ? `\n- … and ${more} more on the trace page` : ''}`,
     ...(options.shared ? [`Read the report (no account needed, until ${options.shared.expiresAt.toISOString().slice(0, 10)}): ${options.shared.url}`] : []),
     `Open the trace (for people of your team with a Parley account): ${t.link}`,
     'Parley simulates and analyses; real adapters deliver up to 48 V and 5 A. Defer to the USB PD specification and certified test labs.',

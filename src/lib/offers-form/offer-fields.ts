@@ -9,6 +9,12 @@ import type { OfferInput, OfferKind } from '../../../shared/rules/offer-input.ts
 /** One numeric input of a form: the value's key, its label with the unit, the input's step. */
 export type NumberFieldSpec<Name extends string = string> = { name: Name; label: string; step: number };
 
+/** A controlled number input's text: empty while the number is not (yet) one (NaN, missing). */
+export const numberInputText = (value: unknown): string => (typeof value === 'number' && Number.isFinite(value) ? String(value) : '');
+
+/** A number input's text as the number it holds; NaN while it is empty, so validation names the field. */
+export const numberFromInput = (text: string): number => (text === '' ? Number.NaN : Number(text));
+
 /** Every numeric key an offer of some kind carries. */
 export type OfferNumberKey = Exclude<OfferInput extends infer O ? (O extends unknown ? keyof O : never) : never, 'kind'>;
 

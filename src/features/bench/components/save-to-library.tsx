@@ -1,10 +1,9 @@
 import { useState, type FormEvent } from 'react';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Link } from 'react-router';
 import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { paths } from '../../../config/paths.ts';
-import { createVector, vectorKeys } from '../../../lib/api/create-vector.ts';
+import { useCreateVector } from '../../../lib/api/create-vector.ts';
 import { vectorFromRun, vectorIdOf } from '../lib/run-exports.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
 
@@ -34,18 +33,12 @@ export function tagsOf(text: string): string[] {
 /** Saves the run as a negotiation vector in the team Library (title, tags), then links to it. */
 export function SaveToLibrary({ run, title, onTitleChange }: SaveToLibraryProps) {
   const [tagText, setTagText] = useState('');
-  const queryClient = useQueryClient();
   const id = vectorIdOf(title);
-  const save = useMutation({
-    mutationFn: () =>
-      createVector(JSON.parse(vectorFromRun(run.scenario, run, { id, title: title.trim() || 'Bench scenario', tags: tagsOf(tagText) })) as Record<string, unknown>, {
-        message: 'Saved from a Bench run',
-      }),
-    onSuccess: () => void queryClient.invalidateQueries({ queryKey: vectorKeys.lists() }),
-  });
+  const save = useCreateVector();
   const onSubmit = (event: FormEvent) => {
     event.preventDefault();
-    save.mutate();
+    const file = JSON.parse(vectorFromRun(run.scenario, run, { id, title: title.trim() || 'Bench scenario', tags: tagsOf(tagText) })) as Record<string, unknown>;
+    save.mutate({ file, message: 'Saved from a Bench run' });
   };
   return (
     <form aria-label="Save to Library" className="flex flex-col gap-2" onSubmit={onSubmit}>

@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
+import { createVector } from '../../../lib/api/create-vector.ts';
 import { vectorKeys } from '../../../lib/query-keys.ts';
 import type { StoredVector } from '../../../../shared/api/index.ts';
 import { vectorPath } from './types.ts';
@@ -12,10 +13,10 @@ export type SaveVectorInput = {
   revision?: number;
 };
 
+/** A new vector is created (`POST`, the one fetcher in src/lib/api); an edit is a new revision (`PUT`). */
 export function saveVector(input: SaveVectorInput): Promise<StoredVector> {
-  const body = { ...input.file, deviceId: input.deviceId, message: input.message };
-  if (input.revision === undefined) return api.post<StoredVector>('/vectors', body);
-  return api.put<StoredVector>(vectorPath(String(input.file.id)), { ...body, revision: input.revision });
+  if (input.revision === undefined) return createVector(input);
+  return api.put<StoredVector>(vectorPath(String(input.file.id)), { ...input.file, deviceId: input.deviceId, message: input.message, revision: input.revision });
 }
 
 export function useSaveVector() {

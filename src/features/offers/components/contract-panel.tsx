@@ -3,37 +3,24 @@ import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { Input } from '../../../components/input.tsx';
 import { Hex, Mono } from '../../../components/mono.tsx';
 import { Select } from '../../../components/select.tsx';
-import { policyFields, policyKindHelp, policyKindOptions, type PolicyKind } from '../../../lib/offers-form/policy-fields.ts';
+import { numberFromInput, numberInputText } from '../../../lib/offers-form/offer-fields.ts';
+import { defaultPolicy, policyFields, policyKindHelp, policyKindOptions, type PolicyKind } from '../../../lib/offers-form/policy-fields.ts';
+import type { SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
 import type { CableContract } from '../../../../shared/rules/analyse-offers.ts';
 
-export type PolicyDraft = { kind: PolicyKind; voltageMv: string; currentMa: string; minVoltageMv: string; maxVoltageMv: string; powerMw: string };
-
-export const initialPolicy: PolicyDraft = { kind: 'max-power', voltageMv: '9000', currentMa: '2000', minVoltageMv: '9000', maxVoltageMv: '20000', powerMw: '45000' };
-
-/** The draft as a sink policy object (validated by the engine's schema in the worker). */
-export function policyOf(draft: PolicyDraft): Record<string, unknown> {
-  const n = (s: string) => (s.trim() === '' ? Number.NaN : Number(s));
-  switch (draft.kind) {
-    case 'max-power':
-      return { kind: 'max-power' };
-    case 'fixed':
-    case 'pps':
-    case 'avs':
-      return { kind: draft.kind, voltageMv: n(draft.voltageMv), currentMa: n(draft.currentMa) };
-    case 'range':
-      return { kind: 'range', minVoltageMv: n(draft.minVoltageMv), maxVoltageMv: n(draft.maxVoltageMv), powerMw: n(draft.powerMw) };
-  }
-}
+/** The page starts with the sink that takes the most power, as the Bench does. */
+export const initialPolicy: SinkPolicy = defaultPolicy('max-power');
 
 export type ContractPanelProps = {
-  draft: PolicyDraft;
-  onDraft(draft: PolicyDraft): void;
+  /** The policy as the engine reads it (vector.md); a number is NaN while its field is empty. */
+  policy: SinkPolicy;
+  onPolicy(policy: SinkPolicy): void;
   contracts: readonly CableContract[];
   error?: string;
 };
 
 /** A sink policy and the contract it takes over a 3 A and a 5 A cable, with the Request it sends. */
-export function ContractPanel({ draft, onDraft, contracts, error }: ContractPanelProps) {
+export function ContractPanel({ policy, onPolicy, contracts, error }: ContractPanelProps) {
   return (
     <Card aria-labelledby="contract-heading">
       <CardHeader title={<span id="contract-heading">Contract</span>} description="What a sink with this policy requests, and the contract it gets." />
@@ -43,16 +30,26 @@ export function ContractPanel({ draft, onDraft, contracts, error }: ContractPane
             label="Sink policy"
             className="w-full"
             options={policyKindOptions}
-            value={draft.kind}
+            value={policy.kind}
             hint={
               <>
-                <Mono>{draft.kind}</Mono> · {policyKindHelp[draft.kind]}
+                <Mono>{policy.kind}</Mono> · {policyKindHelp[policy.kind]}
               </>
             }
-            onChange={(event) => onDraft({ ...draft, kind: event.target.value as PolicyDraft['kind'] })}
+            onChange={(event) => onPolicy(defaultPolicy(event.target.value as PolicyKind))}
           />
-          {policyFields[draft.kind].map(({ name, label }) => (
-            <Input key={name} label={label} mono inputMode="numeric" className="w-36" value={draft[name]} onChange={(event) => onDraft({ ...draft, [name]: event.target.value })} />
+          {policyFields[policy.kind].map(({ name, label, step }) => (
+            <Input
+              key={`${policy.kind}-${name}`}
+              label={label}
+              type="number"
+              min={0}
+              step={step}
+              mono
+              className="w-36"
+              value={numberInputText((policy as Record<string, unknown>)[name])}
+              onChange={(event) => onPolicy({ ...policy, [name]: numberFromInput(event.target.value) } as SinkPolicy)}
+            />
           ))}
         </div>
         {error && (

@@ -17,7 +17,7 @@ describe('the Offers page state in its URL', () => {
         label: '',
         epr: false,
       },
-      policy: { ...initialPageState.policy, kind: 'pps', voltageMv: '8400', currentMa: '2500' },
+      policy: { kind: 'pps', voltageMv: 8_400, currentMa: 2_500 },
     };
     const read = offersStateFromParams(params(encodeOffersState(state)));
     expect(read).toEqual({ ok: true, state });
@@ -33,5 +33,12 @@ describe('the Offers page state in its URL', () => {
     const read = offersStateFromParams(params(bad));
     expect(read).toMatchObject({ ok: false, error: { code: 'offers.link-invalid' } });
     expect(read?.ok === false && read.error.message).toContain('form.cable');
+    const badPolicy = encodeShared({ ...initialPageState, policy: { kind: 'fixed', voltageMv: '9000', currentMa: 3_000 } });
+    expect(offersStateFromParams(params(badPolicy))).toMatchObject({ ok: false, error: { code: 'offers.link-invalid' } });
+  });
+
+  it('leaves out a policy still being typed: the link opens with the default policy', () => {
+    const state: OffersPageState = { form: initialPageState.form };
+    expect(offersStateFromParams(params(encodeOffersState(state)))).toEqual({ ok: true, state });
   });
 });

@@ -1,31 +1,22 @@
 /**
  * The Offers page's state in its URL (`?page=…`): the offers, PDP, cable, printed rating, EPR flag
- * and the sink policy draft, deflated and base64url-encoded (src/lib/share-url.ts), so a reload or
+ * and the sink policy (when it is a valid one), deflated and base64url-encoded (src/lib/share-url.ts), so a reload or
  * a copied link opens the same page. A damaged or out-of-date value gives the defaults and says so.
  */
 import { z } from 'zod';
 import { decodeShared, encodeShared } from '../../../lib/share-url.ts';
-import { policyKindOptions } from '../../../lib/offers-form/policy-fields.ts';
 import { fail, type Result } from '../../../../shared/core/result.ts';
 import { zodMessage } from '../../../../shared/core/zod-message.ts';
-import { initialPolicy, type PolicyDraft } from '../components/contract-panel.tsx';
+import { sinkPolicySchema, type SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
+import { initialPolicy } from '../components/contract-panel.tsx';
 import { initialFormValues, offersFormSchema, type OffersFormValues } from './offers-form.ts';
 
 export const OFFERS_STATE_PARAM = 'page';
 
-export type OffersPageState = { form: OffersFormValues; policy: PolicyDraft };
+/** A policy being typed (a field empty or out of range) is left out; the link then opens with the default policy. */
+export type OffersPageState = { form: OffersFormValues; policy?: SinkPolicy };
 
-const policyKinds = policyKindOptions.map((option) => option.value) as [PolicyDraft['kind'], ...PolicyDraft['kind'][]];
-const draftNumber = z.string().max(12);
-const policyDraftSchema = z.object({
-  kind: z.enum(policyKinds),
-  voltageMv: draftNumber,
-  currentMa: draftNumber,
-  minVoltageMv: draftNumber,
-  maxVoltageMv: draftNumber,
-  powerMw: draftNumber,
-});
-const pageStateSchema = z.object({ form: offersFormSchema, policy: policyDraftSchema });
+const pageStateSchema = z.object({ form: offersFormSchema, policy: sinkPolicySchema.optional() });
 
 export const initialPageState: OffersPageState = { form: initialFormValues, policy: initialPolicy };
 

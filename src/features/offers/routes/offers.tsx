@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { lazy, Suspense, useEffect, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useSearchParams } from 'react-router';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
@@ -7,9 +7,9 @@ import { RatingText } from '../../../components/mono.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { isCancelled } from '../../../lib/engine-worker.ts';
 import type { OffersAnalysis } from '../../../../shared/rules/analyse-offers.ts';
-import { sinkPolicySchema } from '../../../../shared/rules/sink-policy.ts';
+import { sinkPolicySchema, type SinkPolicy } from '../../../../shared/rules/sink-policy.ts';
 import type { Device } from '../../../../shared/api/index.ts';
-import { ContractPanel, policyOf, type PolicyDraft } from '../components/contract-panel.tsx';
+import { ContractPanel, initialPolicy } from '../components/contract-panel.tsx';
 import { FindingsPanel } from '../components/findings-panel.tsx';
 import { OffersForm } from '../components/offers-form.tsx';
 import { SourceLoader } from '../components/source-loader.tsx';
@@ -21,12 +21,6 @@ import { zodMessage } from '../../../../shared/core/zod-message.ts';
 // recharts is large: the chart arrives in its own chunk.
 const EnvelopeChart = lazy(() => import('../components/envelope-chart.tsx'));
 
-function policyError(draft: PolicyDraft): string | undefined {
-  const parsed = sinkPolicySchema.safeParse(policyOf(draft));
-  if (parsed.success) return undefined;
-  return zodMessage(parsed.error, { where: 'policy', limit: 1 });
-}
-
 export function OffersRoute() {
   const worker = useRulesWorker();
   // The page's state is in its URL (?page=…): read once on arrival, written back as it changes.
@@ -36,23 +30,25 @@ export function OffersRoute() {
   const form = useForm<OffersFormValues>({ resolver: zodResolver(offersFormSchema), defaultValues: arrived.form, mode: 'onChange' });
   const values = useWatch({ control: form.control });
   const valuesKey = JSON.stringify(values);
-  const [draft, setDraft] = useState<PolicyDraft>(arrived.policy);
+  const [policy, setPolicy] = useState<SinkPolicy>(arrived.policy ?? initialPolicy);
+  // The one check of the policy: the engine's schema, as the Bench's form uses it.
+  const checkedPolicy = useMemo(() => sinkPolicySchema.safeParse(policy), [policy]);
+  const policyError = checkedPolicy.success ? undefined : zodMessage(checkedPolicy.error, { where: 'policy', limit: 1 });
   const [analysis, setAnalysis] = useState<OffersAnalysis | null>(null);
   const [engineError, setEngineError] = useState<string>();
   const [hexError, setHexError] = useState<string>();
-  const draftError = policyError(draft);
 
   useEffect(() => {
     if (!worker) return;
     const parsed = offersFormSchema.safeParse(JSON.parse(valuesKey));
     if (!parsed.success) return; // the form shows the errors beside the fields
     const v = parsed.data;
-    const policy = draftError === undefined ? policyOf(draft) : undefined;
+    const validPolicy = checkedPolicy.success ? checkedPolicy.data : undefined;
     const timer = setTimeout(() => {
       setParams(
         (current) => {
           const next = new URLSearchParams(current);
-          next.set(OFFERS_STATE_PARAM, encodeOffersState({ form: v, policy: draft }));
+          next.set(OFFERS_STATE_PARAM, encodeOffersState({ form: v, policy: validPolicy }));
           return next;
         },
         { replace: true, preventScrollReset: true },
@@ -63,7 +59,7 @@ export function OffersRoute() {
         cableMa: v.cable === 'unknown' ? undefined : Number(v.cable),
         label: v.label.trim() === '' ? undefined : v.label,
         epr: v.epr,
-        policy,
+        policy: validPolicy,
       })
         .then((result) => {
           if (result.ok) {
@@ -76,7 +72,7 @@ export function OffersRoute() {
         });
     }, 120);
     return () => clearTimeout(timer);
-  }, [worker, valuesKey, draft, draftError, setParams]);
+  }, [worker, valuesKey, checkedPolicy, setParams]);
 
   const load = (offers: OffersFormValues['offers'], extra: Partial<OffersFormValues>) => form.reset({ ...initialFormValues, offers, pdpW: '', label: '', ...extra });
 
@@ -140,7 +136,7 @@ export function OffersRoute() {
               <Suspense fallback={<div className="h-80" />}>{analysis && <EnvelopeChart pdos={analysis.pdos} cableMa={cable} />}</Suspense>
             </CardBody>
           </Card>
-          <ContractPanel draft={draft} onDraft={setDraft} contracts={analysis?.contracts ?? []} error={draftError} />
+          <ContractPanel policy={policy} onPolicy={setPolicy} contracts={analysis?.contracts ?? []} error={policyError} />
         </div>
       </div>
     </>

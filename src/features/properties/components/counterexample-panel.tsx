@@ -6,6 +6,7 @@ import type { CounterexampleRun } from '../../../../workers/property.worker.ts';
 import { downloadVector, saveVector } from '../../../lib/save-vector.ts';
 import { CounterexampleMessages } from './message-list.tsx';
 import { SaveStatus, type SaveState } from './save-status.tsx';
+import { plural } from '../../../lib/plural.ts';
 
 // recharts is large: the chart arrives in its own chunk.
 const CounterexampleTimeline = lazy(() => import('./counterexample-timeline.tsx'));
@@ -60,7 +61,7 @@ export function CounterexamplePanel({ run, vector }: CounterexamplePanelProps) {
           <Badge tone={errors > 0 ? 'error' : 'success'} dot>
             {errors === 1 ? '1 error finding' : `${errors} error findings`}
           </Badge>
-          <Badge tone="neutral">{run.messages.length} messages</Badge>
+          <Badge tone="neutral">{plural(run.messages.length, 'message')}</Badge>
         </div>
         <SaveStatus state={save} />
         <Suspense fallback={<div className="h-80" />}>

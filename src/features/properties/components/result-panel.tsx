@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Badge } from '../../../components/badge.tsx';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import type { PropertyCheck } from '../lib/property-worker.ts';
+import { plural } from '../../../lib/plural.ts';
 
 export type RunOutcome = { kind: 'checked'; check: Extract<PropertyCheck, { ok: true }>; expectHolds: boolean } | { kind: 'error'; message: string } | { kind: 'cancelled'; runs: number };
 
@@ -21,7 +22,7 @@ export function ResultPanel({ outcome }: { outcome: RunOutcome | null }) {
       <CardHeader title={<span id="result-heading">Result</span>} />
       <CardBody className="space-y-4" data-testid="property-result">
         {outcome === null && <p className="text-sm text-slate-500">Run the property to see whether it holds.</p>}
-        {outcome?.kind === 'cancelled' && <p className="text-sm text-slate-700 dark:text-slate-300">Cancelled after {outcome.runs.toLocaleString('en-GB')} runs. Nothing was decided.</p>}
+        {outcome?.kind === 'cancelled' && <p className="text-sm text-slate-700 dark:text-slate-300">Cancelled after {plural(outcome.runs, 'run')}. Nothing was decided.</p>}
         {outcome?.kind === 'error' && (
           <p role="alert" className="rounded-md border border-red-200 bg-red-50 px-3 py-2 text-sm text-red-800 dark:border-red-500/30 dark:bg-red-500/10 dark:text-red-200">
             {outcome.message}

@@ -2,6 +2,7 @@ import { Button } from '../../../components/button.tsx';
 import { Input } from '../../../components/input.tsx';
 import { ProgressBar } from '../../../components/progress-bar.tsx';
 import type { PropertyProgress } from '../lib/property-worker.ts';
+import { plural } from '../../../lib/plural.ts';
 
 export type RunSettings = { runs: string; seed: string };
 
@@ -19,7 +20,7 @@ export function readSettings(settings: RunSettings): { ok: true; runs: number; s
 
 function progressText(progress: PropertyProgress | null): string {
   if (!progress) return 'Starting the worker…';
-  const runs = `${progress.runs.toLocaleString('en-GB')} of ${progress.totalRuns.toLocaleString('en-GB')} runs`;
+  const runs = `${progress.runs.toLocaleString('en-GB')} of ${plural(progress.totalRuns, 'run')}`;
   if (progress.phase === 'shrinking') return `Failed at run ${progress.runs.toLocaleString('en-GB')}; shrinking (${progress.shrinkRuns.toLocaleString('en-GB')} tries)…`;
   return runs;
 }

@@ -18,6 +18,7 @@ import { benchHref, sharedFromHash } from '../../../lib/share-url.ts';
 import type { SweepPlanOutput } from '../../../../workers/sweep.worker.ts';
 import { OutcomeLegend, SweepMatrix } from '../components/sweep-matrix.tsx';
 import { useSweep } from '../lib/use-sweep.ts';
+import { plural } from '../../../lib/plural.ts';
 
 // Kestrel Devices K27 (5 V 3 A, 9 V 3 A) and a sink asking 9 V 2 A.
 const DEMO = { source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9000, currentMa: 2000 } }, durationMs: 5000, seed: 3 };
@@ -147,14 +148,14 @@ export function FaultSweepRoute() {
               {planned === null
                 ? 'Working out the runs…'
                 : planned.ok
-                  ? `${planned.runs.toLocaleString('en-US')} runs over ${planned.messages.length} messages of the fault-free run`
+                  ? `${plural(planned.runs, 'run')} over ${plural(planned.messages.length, 'message')} of the fault-free run`
                   : planned.error.message}
             </p>
           </div>
           {running && <ProgressBar fraction={state.done / Math.max(1, state.total)} label="Sweep progress" />}
           {rate !== null && (
             <p className="text-xs text-slate-500" data-testid="sweep-rate">
-              {running ? `${state.done} of ${state.total} runs` : `${runs.length} runs`} · {rate.toLocaleString('en-US')} runs/s
+              {running ? `${state.done} of ${state.total} runs` : plural(runs.length, 'run')} · {rate.toLocaleString('en-US')} runs/s
             </p>
           )}
           {state.phase === 'cancelled' && <p className="text-sm text-slate-600">Cancelled. Start again to run the whole campaign.</p>}

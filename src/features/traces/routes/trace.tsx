@@ -24,6 +24,7 @@ import { timelineInput } from '../lib/timeline-input.ts';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { formatBytes } from '../lib/format.ts';
 import { mayWriteTraces } from '../lib/roles.ts';
+import { plural } from '../../../lib/plural.ts';
 
 // recharts is large: the timeline arrives in its own chunk.
 const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
@@ -189,7 +190,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
           <Card>
             <CardHeader
               title="Timeline"
-              description={`${analysis.messages} messages${input.measurements.length > 0 ? `, ${input.measurements.length} VBUS readings` : ''}. Drag the brush under the chart to zoom; click a finding to jump to it.`}
+              description={`${plural(analysis.messages, 'message')}${input.measurements.length > 0 ? `, ${plural(input.measurements.length, 'VBUS reading')}` : ''}. Drag the brush under the chart to zoom; click a finding to jump to it.`}
               actions={
                 <Link className={buttonClasses('ghost', 'sm')} to={paths.bench.getHref({ fromTrace: item.id })}>
                   Replay on the Bench

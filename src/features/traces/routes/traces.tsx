@@ -23,7 +23,7 @@ const severityOptions = [
   { value: '', label: 'Any findings' },
   { value: 'error', label: 'With errors' },
   { value: 'warning', label: 'With warnings' },
-  { value: 'info', label: 'With notes' },
+  { value: 'info', label: 'With info findings' },
   { value: 'clean', label: 'Clean (no errors or warnings)' },
 ];
 
