@@ -7,12 +7,17 @@ export interface LineSplitter {
   end(): void;
 }
 
-export function createLineSplitter(onLine: (line: string, lineNo: number) => void): LineSplitter {
+/**
+ * Lines as ranges of the text they stand in (`text.slice(start, end)` is the line, without its
+ * `\r`), so a reader that scans characters need not copy each line first. A line broken across
+ * two chunks arrives as a string of its own.
+ */
+export function createRangeSplitter(onLine: (text: string, start: number, end: number, lineNo: number) => void): LineSplitter {
   let carry = '';
   let lineNo = 0;
-  const emit = (line: string): void => {
+  const emit = (text: string, start: number, end: number): void => {
     lineNo++;
-    onLine(line.charCodeAt(line.length - 1) === 13 ? line.slice(0, -1) : line, lineNo);
+    onLine(text, start, end > start && text.charCodeAt(end - 1) === 13 ? end - 1 : end, lineNo);
   };
   return {
     push(chunk) {
@@ -23,21 +28,27 @@ export function createLineSplitter(onLine: (line: string, lineNo: number) => voi
         return;
       }
       if (carry.length > 0) {
-        emit(carry + chunk.slice(0, nl));
+        const line = carry + chunk.slice(0, nl);
+        emit(line, 0, line.length);
         carry = '';
         start = nl + 1;
         nl = chunk.indexOf('\n', start);
       }
       while (nl !== -1) {
-        emit(chunk.slice(start, nl));
+        emit(chunk, start, nl);
         start = nl + 1;
         nl = chunk.indexOf('\n', start);
       }
       carry = chunk.slice(start);
     },
     end() {
-      if (carry.length > 0) emit(carry);
+      if (carry.length > 0) emit(carry, 0, carry.length);
       carry = '';
     },
   };
+}
+
+/** Lines as strings of their own. */
+export function createLineSplitter(onLine: (line: string, lineNo: number) => void): LineSplitter {
+  return createRangeSplitter((text, start, end, lineNo) => onLine(start === 0 && end === text.length ? text : text.slice(start, end), lineNo));
 }

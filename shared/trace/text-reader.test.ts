@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { readAnyLine, readTextLine } from './text-reader.ts';
+import { createTextReader, readAnyLine, readTextLine } from './text-reader.ts';
 
 // The plain-text format of docs/trace.md ("Plain text").
 describe('readTextLine', () => {
@@ -61,12 +61,16 @@ describe('readTextLine fast path', () => {
     'Cbl',
     'VBUS',
     'vbus',
+    'VbUs',
+    'sRc',
+    'SRCX',
     'Host',
     "SOP'",
     'HARD_RESET',
     'a1',
     '61',
     '2C',
+    'fF',
     '0x41',
     '00',
     'zz',
@@ -101,7 +105,42 @@ describe('readTextLine fast path', () => {
       { numRuns: 3_000, seed: 11 },
     );
   });
+  it('reads a stream, lines where they stand in chunks cut anywhere, as it reads each line alone', () => {
+    const log = fc.tuple(fc.array(line, { minLength: 1, maxLength: 12 }), fc.constantFrom('\n', '\r\n'), fc.array(fc.nat(), { maxLength: 6 }));
+    fc.assert(
+      fc.property(log, ([lines, newline, cuts]) => {
+        const text = lines.map((l) => l.replace(/\r$/, '')).join(newline);
+        const expected: unknown[] = [];
+        text.split(newline).forEach((l, index) => {
+          const read = readTextLine(l);
+          if (read !== undefined) expected.push(typeof read === 'string' ? { line: index + 1, reason: read } : { line: index + 1, record: read });
+        });
+        const got: unknown[] = [];
+        const reader = createTextReader({ push: (record, lineNo) => got.push({ line: lineNo, record }), malformed: (lineNo, reason) => got.push({ line: lineNo, reason }) });
+        const at = [...new Set(cuts.map((c) => c % (text.length + 1)))].sort((a, b) => a - b);
+        let from = 0;
+        for (const cut of [...at, text.length]) {
+          reader.push(text.slice(from, cut));
+          from = cut;
+        }
+        reader.end();
+        expect(got).toEqual(expected);
+      }),
+      { numRuns: 1_000, seed: 17 },
+    );
+  });
   it('agrees on the common shapes', () => {
-    for (const l of ['0.152000 SRC a1 61 2c 91', '23.004140 SNK 82 10 28 84 03 51', '1.05 VBUS 8380mV 2100mA', '1 vbus 5.03V', '2 SNK A1 FF']) expect(readTextLine(l)).toEqual(readAnyLine(l));
+    for (const l of [
+      '0.152000 SRC a1 61 2c 91',
+      '23.004140 SNK 82 10 28 84 03 51',
+      '1.05 VBUS 8380mV 2100mA',
+      '1 vbus 5.03V',
+      '2 SNK A1 FF',
+      '3 Src a1 61 ',
+      '4 SNK a1\t61',
+      '5 cbl a1  61',
+      '6 SRC a1 6',
+    ])
+      expect(readTextLine(l)).toEqual(readAnyLine(l));
   });
 });

@@ -9,7 +9,7 @@
  */
 import { parseWords, toHex } from '../pd/index.ts';
 import type { Sop } from '../pd/types.ts';
-import { createLineSplitter } from './lines.ts';
+import { createRangeSplitter } from './lines.ts';
 import type { TraceRecord, TraceSide } from './records.ts';
 import type { TraceReader, TraceSink } from './sink.ts';
 
@@ -36,8 +36,9 @@ const HEX_RUN = /^(0x)?[0-9a-f]{10,}$/i;
 const QUANTITY = /^(\d+(?:\.\d+)?)(mv|v|ma|a)$/i;
 
 export function createTextReader(sink: TraceSink): TraceReader {
-  const splitter = createLineSplitter((line, lineNo) => {
-    const read = readTextLine(line);
+  // Nearly every line is read where it stands in the chunk; only the others are copied out.
+  const splitter = createRangeSplitter((text, start, end, lineNo) => {
+    const read = readCommonLine(text, start, end) ?? readAnyLine(text.slice(start, end));
     if (read === undefined) return;
     if (typeof read === 'string') sink.malformed(lineNo, read);
     else sink.push(read, lineNo);
@@ -53,7 +54,7 @@ export function createTextReader(sink: TraceSink): TraceReader {
 
 /** A record, `undefined` for a blank or comment line, or the reason the line cannot be read. */
 export function readTextLine(line: string): TraceRecord | string | undefined {
-  return readCommonLine(line) ?? readAnyLine(line);
+  return readCommonLine(line, 0, line.length) ?? readAnyLine(line);
 }
 
 const SPACE = 32;
@@ -76,9 +77,9 @@ const hexOf = (c: number): string => (c < 128 ? HEX_OF[c]! : '');
  * comment, words, an SOP* token, an event, a malformed line) is left to `readAnyLine`, so both paths
  * give the same result for every line (text-reader.test.ts checks it on generated lines).
  */
-function readCommonLine(line: string): TraceRecord | undefined {
-  const n = line.length;
-  let i = 0;
+function readCommonLine(line: string, from: number, to: number): TraceRecord | undefined {
+  const n = to;
+  let i = from;
   while (i < n && isSpace(line.charCodeAt(i))) i++;
   // Time: digits with at most one dot, then an optional unit; kept as integer and fraction digits.
   const timeStart = i;
@@ -120,25 +121,64 @@ function readCommonLine(line: string): TraceRecord | undefined {
   while (i < n && isSpace(line.charCodeAt(i))) i++;
   const whoStart = i;
   while (i < n && !isSpace(line.charCodeAt(i))) i++;
-  const who = WHO[line.slice(whoStart, i).toLowerCase()];
+  const who = whoOfShortToken(line, whoStart, i) ?? WHO[line.slice(whoStart, i).toLowerCase()];
   if (who === undefined) return undefined;
-  if (who === 'vbus') return readCommonMeasurement(line, i, t);
-  const pairs: string[] = [];
+  if (who === 'vbus') return readCommonMeasurement(line, i, n, t);
+  while (i < n && isSpace(line.charCodeAt(i))) i++;
+  // Bytes as two hex digits each. Printed in lower case with one space between (nearly every log),
+  // the message is the payload without its spaces: one slice and one copy, no string per byte.
+  const payloadStart = i;
+  let plain = true;
+  let bytes = 0;
   while (i < n) {
-    while (i < n && isSpace(line.charCodeAt(i))) i++;
-    if (i >= n) break;
-    const hi = hexOf(line.charCodeAt(i));
-    const lo = hexOf(line.charCodeAt(i + 1));
-    if (hi === '' || lo === '' || (i + 2 < n && !isSpace(line.charCodeAt(i + 2)))) return undefined;
-    pairs.push(hi + lo);
+    const hi = line.charCodeAt(i);
+    const lo = line.charCodeAt(i + 1);
+    if (!isHexCode(hi) || !isHexCode(lo)) return undefined;
+    if (isUpper(hi) || isUpper(lo)) plain = false;
+    bytes++;
     i += 2;
+    if (i >= n) break;
+    if (!isSpace(line.charCodeAt(i))) return undefined;
+    if (line.charCodeAt(i) !== SPACE) plain = false;
+    i++;
+    if (i < n && isSpace(line.charCodeAt(i))) {
+      plain = false;
+      while (i < n && isSpace(line.charCodeAt(i))) i++;
+    }
   }
-  return pairs.length === 0 ? undefined : { t, msg: pairs.join(''), from: who };
+  if (bytes === 0) return undefined;
+  return { t, msg: plain ? line.slice(payloadStart, i).replaceAll(' ', '') : hexPairs(line, payloadStart, n), from: who };
 }
 
-/** `<n>mV [<n>mA]` (units in any case, V/A with decimals) from `i`; undefined for anything else. */
-function readCommonMeasurement(line: string, from: number, t: number): TraceRecord | undefined {
-  const n = line.length;
+const isHexCode = (c: number): boolean => (c >= 48 && c <= 57) || ((c | 32) >= 97 && (c | 32) <= 102);
+const isUpper = (c: number): boolean => c >= 65 && c <= 70;
+
+/** The general case of the byte run: any white space between the bytes, digits in either case. */
+function hexPairs(line: string, from: number, to: number): string {
+  let msg = '';
+  for (let i = from; i < to; i++) {
+    const digit = hexOf(line.charCodeAt(i));
+    if (digit !== '') msg += digit;
+  }
+  return msg;
+}
+
+/** SRC, SNK, CBL and VBUS in any case, read from the character codes; undefined for any other token. */
+function whoOfShortToken(line: string, from: number, to: number): TraceSide | 'vbus' | undefined {
+  const a = line.charCodeAt(from) | 32;
+  const b = line.charCodeAt(from + 1) | 32;
+  const c = line.charCodeAt(from + 2) | 32;
+  if (to - from === 3) {
+    if (a === 115 && b === 114 && c === 99) return 'source'; // src
+    if (a === 115 && b === 110 && c === 107) return 'sink'; // snk
+    if (a === 99 && b === 98 && c === 108) return 'cable'; // cbl
+  } else if (to - from === 4 && a === 118 && b === 98 && c === 117 && (line.charCodeAt(from + 3) | 32) === 115) return 'vbus';
+  return undefined;
+}
+
+/** `<n>mV [<n>mA]` (units in any case, V/A with decimals) between `from` and `to`; undefined for anything else. */
+function readCommonMeasurement(line: string, from: number, to: number, t: number): TraceRecord | undefined {
+  const n = to;
   let i = from;
   let mv: number | undefined;
   let ma: number | undefined;
