@@ -50,7 +50,18 @@ export function sharedFromHash(hash: string): SharedResult | null {
   return text ? decodeShared(text) : null;
 }
 
-/** A link that opens the scenario on the Bench (the Runs page offers one beside a failing vector). */
-export function benchHref(scenario: unknown): string {
-  return `/bench${shareHash(scenario)}`;
+/** The hash flag that asks the Bench to run the shared scenario as soon as it opens. */
+export const AUTORUN_PARAM = 'run';
+
+/**
+ * A link that opens the scenario on the Bench (the Runs page offers one beside a failing vector);
+ * with `run`, the Bench also runs it at once (a Fault sweep cell opens the run it stands for).
+ */
+export function benchHref(scenario: unknown, options: { run?: boolean } = {}): string {
+  return `/bench${shareHash(scenario)}${options.run ? `&${AUTORUN_PARAM}=1` : ''}`;
+}
+
+/** Whether a location hash asks for the shared scenario to be run on opening. */
+export function autorunFromHash(hash: string): boolean {
+  return new URLSearchParams(hash.replace(/^#/, '')).get(AUTORUN_PARAM) === '1';
 }

@@ -33,15 +33,41 @@ describe.skipIf(!hasChromium)('the Fault sweep page', () => {
     await page.getByTestId('sweep-matrix').waitFor({ timeout: 60_000 });
     expect(await page.getByTestId('sweep-legend').textContent()).toContain('Contract at the same power');
     expect(await page.getByRole('heading', { name: 'Every invariant held' }).count()).toBe(1);
+    // The card says what held: every invariant with its explanation, and the runs per outcome class.
+    const invariants = page.getByTestId('sweep-invariants').locator('li');
+    expect(await invariants.count()).toBe(5);
+    const first = await invariants.first().innerText();
+    expect(first).toMatch(/^Both ports agree on the contract\s+contract\.agreement/);
+    expect(first).toMatch(/held in all \d+ runs\s+Whenever either policy engine claims an explicit contract/);
+    expect(await page.getByText(/^\d+ runs judged by 5 invariants\. Contract at the same power: \d+/).count()).toBe(1);
     expect(workers.some((url) => /sweep\.worker/.test(url))).toBe(true);
     await screenshot(page, 'fault-sweep-9v-matrix');
 
-    // A cell opens its run on the Bench (a share link in a new tab).
+    // A cell opens its run on the Bench (a share link in a new tab), which runs it at once: the
+    // Request lost (drop@2) is answered by the source's retry of Source_Capabilities, then the contract.
     const [bench] = await Promise.all([page.context().waitForEvent('page'), page.getByTestId('sweep-matrix').locator('button[data-run="drop@2"]').click()]);
     await bench.getByRole('heading', { level: 1, name: 'Bench' }).waitFor({ timeout: 30_000 });
     await expect.poll(() => bench.getByText('Opened the shared scenario from the link.').count(), { timeout: 30_000 }).toBe(1);
+    expect(new URL(bench.url()).hash).toMatch(/&run=1$/);
+    await bench.getByTestId('bench-timeline').waitFor({ timeout: 60_000 });
+    await expect.poll(() => bench.getByTestId('contract-summary').innerText(), { timeout: 60_000 }).toContain('9 V');
     await screenshot(bench, 'fault-sweep-cell-on-bench');
     await bench.close();
+
+    // The same campaign on the server: the run page shows its progress, outcome classes and invariants; the Runs page lists it.
+    await page.getByRole('button', { name: 'Run on the server' }).click();
+    await page.waitForURL(/\/runs\/\d+$/, { timeout: 30_000 });
+    await page.getByText('Fault sweep on the server').waitFor();
+    await page.getByTestId('sweep-run-outcomes').waitFor({ timeout: 120_000 });
+    expect(await page.getByTestId('sweep-run-outcomes').innerText()).toMatch(/Contract at the same power: \d+ runs, e\.g\. fault-free/);
+    await page.getByText('No run broke an invariant').waitFor();
+    await screenshot(page, 'fault-sweep-server-run');
+    await page.getByRole('link', { name: /^Runs of / }).click();
+    await page.getByRole('table').getByText('Fault sweep', { exact: true }).first().waitFor();
+    await screenshot(page, 'fault-sweep-server-in-runs');
+    await page.goBack();
+    await page.goBack();
+    await page.getByRole('heading', { level: 1, name: 'Fault sweep' }).waitFor();
 
     // A slow source: the tPSTransition=min run breaks; it is shrunk and saved to the Library.
     await page.getByLabel('Scenario (JSON)').fill(JSON.stringify(SLOW, null, 2));

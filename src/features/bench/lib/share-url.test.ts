@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { unzlibSync } from 'fflate';
-import { benchHref, decodeShared, encodeShared, shareHash, sharedFromHash } from '../../../lib/share-url.ts';
+import { autorunFromHash, benchHref, decodeShared, encodeShared, shareHash, sharedFromHash } from '../../../lib/share-url.ts';
 import { defaultScenario } from './form-model.ts';
 
 describe('share-url', () => {
@@ -36,5 +36,16 @@ describe('benchHref', () => {
     const href = benchHref(scenario);
     expect(href.startsWith('/bench#scenario=')).toBe(true);
     expect(sharedFromHash(href.slice('/bench'.length))).toEqual({ ok: true, value: scenario });
+  });
+
+  it('asks the Bench to run the scenario at once only when told (a Fault sweep cell)', () => {
+    const scenario = { source: { caps: { pdos: ['0x0001912c'] } }, durationMs: 2_000 };
+    const plain = benchHref(scenario).slice('/bench'.length);
+    const running = benchHref(scenario, { run: true }).slice('/bench'.length);
+    expect(autorunFromHash(plain)).toBe(false);
+    expect(autorunFromHash(running)).toBe(true);
+    expect(running.endsWith('&run=1')).toBe(true);
+    // The scenario reads the same with the flag.
+    expect(sharedFromHash(running)).toEqual({ ok: true, value: scenario });
   });
 });

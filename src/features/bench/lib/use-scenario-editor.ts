@@ -28,16 +28,16 @@ export function loadText(text: string): Result<{ loaded: Loaded }> {
 
 export const loadScenario = (input: unknown) => loadText(JSON.stringify(input ?? null));
 
-function initialScenario(): { loaded: Loaded; notice: string | null } {
+function initialScenario(): { loaded: Loaded; notice: string | null; shared: boolean } {
   const fallback = loadScenario(defaultScenario);
   if (!fallback.ok) throw new Error(fallback.error.message);
   const shared = sharedFromHash(window.location.hash);
-  if (!shared) return { loaded: fallback.loaded, notice: null };
-  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message };
+  if (!shared) return { loaded: fallback.loaded, notice: null, shared: false };
+  if (!shared.ok) return { loaded: fallback.loaded, notice: shared.error.message, shared: false };
   const result = loadScenario(shared.value);
   return result.ok
-    ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.' }
-    : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}` };
+    ? { loaded: result.loaded, notice: 'Opened the shared scenario from the link.', shared: true }
+    : { loaded: fallback.loaded, notice: `The shared scenario could not be opened: ${result.error.message}`, shared: false };
 }
 
 export function useScenarioEditor() {
@@ -112,5 +112,5 @@ export function useScenarioEditor() {
     [form],
   );
 
-  return { form, jsonText, jsonError, onJsonChange, apply, current, submitWith, initialNotice: initial.notice };
+  return { form, jsonText, jsonError, onJsonChange, apply, current, submitWith, initialNotice: initial.notice, openedShared: initial.shared };
 }

@@ -1,4 +1,4 @@
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { MessagePanel } from '../../../components/timeline/message-detail.tsx';
@@ -12,7 +12,7 @@ import { FindingsTable } from '../components/run-summary.tsx';
 import { SafetyNote } from '../components/safety-note.tsx';
 import { SaveToLibrary } from '../components/save-to-library.tsx';
 import { ScenarioPanel } from '../components/scenario-panel.tsx';
-import { shareHash } from '../../../lib/share-url.ts';
+import { autorunFromHash, shareHash } from '../../../lib/share-url.ts';
 import type { RunMessage } from '../../../components/timeline/lane-messages.ts';
 import { useScenarioEditor } from '../lib/use-scenario-editor.ts';
 import { useSimulation } from '../lib/use-simulation.ts';
@@ -46,6 +46,17 @@ export function BenchRoute() {
     setWindow({ startUs: 0, endUs: Math.max(1, state.run.endUs) });
     setSelected(null);
   }
+
+  // A link from a Fault sweep cell (#scenario=…&run=1) shows that run at once: run the shared scenario once, on opening.
+  const autorunDone = useRef(false);
+  const { current: currentScenario } = editor;
+  const { openedShared } = editor;
+  useEffect(() => {
+    if (autorunDone.current || !openedShared || !autorunFromHash(window.location.hash)) return;
+    autorunDone.current = true;
+    const scenario = currentScenario();
+    if (scenario) void start(scenario);
+  }, [openedShared, currentScenario, start]);
 
   const { submitWith } = editor;
   const submit = useMemo(() => submitWith((scenario) => void start(scenario)), [submitWith, start]);

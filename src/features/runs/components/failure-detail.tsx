@@ -22,6 +22,8 @@ export function FailureDetail({ result }: { result: RunResult | null }) {
       </Card>
     );
   }
+  // A sweep's broken run carries its shrunk vector: the Bench replays that (and runs it at once).
+  const shrunkScenario = result.kind === 'sweep' ? (result.counterexampleVector as { input?: { scenario?: unknown } } | undefined)?.input?.scenario : undefined;
   const scenario = (stored.data?.vector.input as { scenario?: unknown } | undefined)?.scenario;
   return (
     <Card role="region" aria-label="Result detail">
@@ -34,6 +36,11 @@ export function FailureDetail({ result }: { result: RunResult | null }) {
               <ButtonLink size="sm" to={paths.library.vector.getHref(result.vectorId)}>
                 Open the vector
               </ButtonLink>
+            )}
+            {shrunkScenario !== undefined && (
+              <Link className="text-xs font-medium text-amber-700 underline dark:text-amber-400" to={benchHref(shrunkScenario, { run: true })}>
+                Replay the shrunk run on the Bench
+              </Link>
             )}
             {isNegotiation && scenario !== undefined && (
               <Link className="text-xs font-medium text-amber-700 underline dark:text-amber-400" to={benchHref(scenario)}>

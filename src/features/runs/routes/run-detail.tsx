@@ -12,6 +12,7 @@ import { useRun } from '../api/get-run.ts';
 import type { RunResult } from '../../../../shared/api/index.ts';
 import { FailureDetail } from '../components/failure-detail.tsx';
 import { RunCounts } from '../components/run-counts.tsx';
+import { SweepRunSummary } from '../components/sweep-run-summary.tsx';
 
 const noResults: RunResult[] = [];
 const pageSize = 50;
@@ -65,7 +66,7 @@ export function RunDetailRoute() {
   return (
     <>
       <PageHeader
-        eyebrow={summary.source === 'ci' ? 'Posted by CI' : 'Library run'}
+        eyebrow={summary.kind === 'sweep' ? 'Fault sweep on the server' : summary.source === 'ci' ? 'Posted by CI' : 'Library run'}
         title={`Run #${summary.id} · ${summary.project}${summary.build ? ` · ${summary.build}` : ''}`}
         description={
           <>
@@ -91,6 +92,7 @@ export function RunDetailRoute() {
         </label>
       </div>
       {summary.error && <ErrorMessage className="mb-4" title="The run stopped" error={new Error(summary.error)} />}
+      <SweepRunSummary run={summary} />
       <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <DataTable
           label="Results"
@@ -98,7 +100,19 @@ export function RunDetailRoute() {
           columns={columns}
           data={pageRows.length > 0 ? pageRows : noResults}
           pagination={{ pageIndex, pageSize, rowCount: shown.length, onPageChange: setPage }}
-          empty={<EmptyState title={onlyFailures ? 'No failures in this run' : 'No results'} />}
+          empty={
+            <EmptyState
+              title={
+                summary.kind === 'sweep'
+                  ? summary.status === 'running'
+                    ? 'Broken runs are listed when the sweep ends'
+                    : 'No run broke an invariant'
+                  : onlyFailures
+                    ? 'No failures in this run'
+                    : 'No results'
+              }
+            />
+          }
           getRowId={(r) => r.vectorId}
           selectedRowId={selected?.vectorId}
           onRowClick={(r) => {

@@ -25,7 +25,9 @@ const columns = col.columns([
     enableSorting: false,
     cell: ({ row }) => (
       <span className="flex flex-col">
-        <Badge tone={row.original.source === 'ci' ? 'info' : 'neutral'}>{row.original.source === 'ci' ? 'CI' : 'Library'}</Badge>
+        <Badge tone={row.original.source === 'ci' ? 'info' : row.original.kind === 'sweep' ? 'accent' : 'neutral'}>
+          {row.original.source === 'ci' ? 'CI' : row.original.kind === 'sweep' ? 'Fault sweep' : 'Library'}
+        </Badge>
         <span className="mt-0.5 text-xs text-slate-500">{row.original.startedBy}</span>
       </span>
     ),

@@ -5,7 +5,9 @@
  * its run on the Bench; a broken run is shrunk and saved to the team library in one click.
  */
 import { useEffect, useMemo, useState } from 'react';
+import { useNavigate } from 'react-router';
 import { OUTCOME_LABELS } from '../../../../shared/sweep/outcome.ts';
+import { INVARIANTS } from '../../../../shared/sweep/invariants.ts';
 import { summarize } from '../../../../shared/sweep/summary.ts';
 import type { SweepFaultKind, SweepOptions, SweepRun } from '../../../../shared/sweep/index.ts';
 import { Button } from '../../../components/button.tsx';
@@ -19,6 +21,14 @@ import type { SweepPlanOutput } from '../../../../workers/sweep.worker.ts';
 import { OutcomeLegend, SweepMatrix } from '../components/sweep-matrix.tsx';
 import { useSweep } from '../lib/use-sweep.ts';
 import { plural } from '../../../lib/plural.ts';
+import { startServerSweep } from '../api/start-server-sweep.ts';
+import { InvariantsHeld } from '../components/invariants-held.tsx';
+import { useUser } from '../../../lib/auth.ts';
+import { roleGroups, type Role } from '../../../lib/roles.ts';
+import { paths } from '../../../config/paths.ts';
+
+/** Who may start a sweep on the server (the API's run starters). */
+const runStarters: readonly Role[] = roleGroups.editors;
 
 // Kestrel Devices K27 (5 V 3 A, 9 V 3 A) and a sink asking 9 V 2 A.
 const DEMO = { source: { caps: { pdos: ['0x0001912c', '0x0002d12c'] } }, sink: { policy: { kind: 'fixed', voltageMv: 9000, currentMa: 2000 } }, durationMs: 5000, seed: 3 };
@@ -29,6 +39,8 @@ const KINDS: { kind: SweepFaultKind; label: string }[] = [
   { kind: 'reject', label: 'Reject' },
   { kind: 'no-ps-rdy', label: 'No PS_RDY' },
 ];
+
+const INVARIANT_COUNT = INVARIANTS.length;
 
 function initialText(): string {
   const shared = sharedFromHash(window.location.hash);
@@ -60,6 +72,9 @@ export function FaultSweepRoute() {
   const [planned, setPlanned] = useState<SweepPlanOutput | null>(null);
   const [saved, setSaved] = useState<Record<string, string>>({});
   const sweep = useSweep();
+  const user = useUser();
+  const navigate = useNavigate();
+  const [serverStart, setServerStart] = useState<{ busy: boolean; error?: string }>({ busy: false });
   const parsed = useMemo(() => parseText(text), [text]);
   const options: SweepOptions = useMemo(() => ({ kinds, timerEdges, pairs }), [kinds, timerEdges, pairs]);
   const { plan } = sweep;
@@ -92,7 +107,17 @@ export function FaultSweepRoute() {
       : null;
 
   const open = (run: SweepRun) => {
-    if (parsed.ok) window.open(benchHref(scenarioOfRun(parsed.value, run)), '_blank', 'noopener');
+    if (parsed.ok) window.open(benchHref(scenarioOfRun(parsed.value, run), { run: true }), '_blank', 'noopener');
+  };
+  const runOnServer = async () => {
+    if (!parsed.ok) return;
+    setServerStart({ busy: true });
+    try {
+      const { run } = await startServerSweep(parsed.value, { kinds, pairs, timerEdges });
+      void navigate(paths.runs.detail.getHref(run.id));
+    } catch (error) {
+      setServerStart({ busy: false, error: error instanceof Error ? error.message : String(error) });
+    }
   };
   const save = async (run: SweepRun) => {
     if (!parsed.ok) return;
@@ -144,6 +169,16 @@ export function FaultSweepRoute() {
                 Cancel
               </Button>
             )}
+            {runStarters.includes(user.role) && (
+              <Button
+                variant="secondary"
+                disabled={!planned?.ok || serverStart.busy}
+                onClick={() => void runOnServer()}
+                title="Run the campaign on the server for the team; it is listed with the runs"
+              >
+                {serverStart.busy ? 'Starting…' : 'Run on the server'}
+              </Button>
+            )}
             <p className="text-sm text-slate-600 dark:text-slate-300" data-testid="run-count">
               {planned === null
                 ? 'Working out the runs…'
@@ -156,6 +191,11 @@ export function FaultSweepRoute() {
           {rate !== null && (
             <p className="text-xs text-slate-500" data-testid="sweep-rate">
               {running ? `${state.done} of ${state.total} runs` : plural(runs.length, 'run')} · {rate.toLocaleString('en-US')} runs/s
+            </p>
+          )}
+          {serverStart.error && (
+            <p className="text-sm text-red-700 dark:text-red-300" role="alert">
+              The server did not start the sweep: {serverStart.error}
             </p>
           )}
           {state.phase === 'cancelled' && <p className="text-sm text-slate-600">Cancelled. Start again to run the whole campaign.</p>}
@@ -185,9 +225,13 @@ export function FaultSweepRoute() {
             </CardBody>
           </Card>
           <Card>
-            <CardHeader title={summary.brokenCount === 0 ? 'Every invariant held' : `${summary.brokenCount} run${summary.brokenCount === 1 ? '' : 's'} broke an invariant`} />
-            <CardBody>
-              <ul className="space-y-3 text-sm" data-testid="sweep-broken">
+            <CardHeader
+              title={summary.brokenCount === 0 ? 'Every invariant held' : `${summary.brokenCount} run${summary.brokenCount === 1 ? '' : 's'} broke an invariant`}
+              description={`${runs.length.toLocaleString('en-US')} runs judged by ${INVARIANT_COUNT} invariants. ${summary.outcomes.map((o) => `${OUTCOME_LABELS[o.outcome]}: ${o.runs.toLocaleString('en-US')}`).join(' · ')}.`}
+            />
+            <CardBody className="space-y-4">
+              <InvariantsHeld runs={runs} />
+              <ul className="space-y-3 text-sm empty:hidden" data-testid="sweep-broken">
                 {runs
                   .filter((r) => r.broken.length > 0)
                   .map((run) => (
