@@ -25,6 +25,7 @@ import { createRunPool, type RunPool } from './runner/pool.ts';
 import type { TraceStore } from './storage/types.ts';
 import { createLocalTraceStore } from './storage/local-store.ts';
 import { memoryRateLimitStore, type RateLimitStoreFactory } from './features/auth/rate-limit.ts';
+import { createAuditBudget } from './features/audit/budget.ts';
 
 export interface AppOptions {
   orm: Orm;
@@ -43,6 +44,8 @@ export interface AppOptions {
   rateLimits?: Partial<AppDeps['rateLimits']>;
   /** Rate-limit counters shared across instances; default in memory. */
   rateLimitStore?: RateLimitStoreFactory;
+  /** Failed sign-ins written to the audit log a minute, at most; default 120 (the rest are counted). */
+  failedSignInAuditPerMinute?: number;
   /**
    * Express's `trust proxy` (the hops or addresses of reverse proxies in front). Unset: the client
    * address is the socket's, and `X-Forwarded-For` is ignored, so no client can pick its own address.
@@ -122,6 +125,7 @@ export function createApp(options: AppOptions): Express {
       share: options.rateLimits?.share ?? defaultShare,
     },
     rateLimitStore: options.rateLimitStore ?? memoryRateLimitStore,
+    failedSignInAudit: createAuditBudget(options.failedSignInAuditPerMinute ?? 120),
     verifyBearer: options.verifyBearer,
     dataDir,
     traceStore: options.traceStore ?? createLocalTraceStore(dataDir),

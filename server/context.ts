@@ -9,6 +9,7 @@ import type { AnalysisPool } from './analysis/pool.ts';
 import type { RunPool } from './runner/pool.ts';
 import type { TraceStore } from './storage/types.ts';
 import type { RateLimitStoreFactory } from './features/auth/rate-limit.ts';
+import type { AuditBudget } from './features/audit/budget.ts';
 
 export interface Clock {
   now(): Date;
@@ -54,6 +55,8 @@ export interface AppDeps {
   };
   /** Where rate-limit counters live; the default is this process's memory. */
   rateLimitStore: RateLimitStoreFactory;
+  /** Bounds the failed sign-ins a flood can write to the audit log (server/features/audit/budget.ts). */
+  failedSignInAudit: AuditBudget;
   verifyBearer?: BearerVerifier;
   /** Folder for stored files (`PARLEY_DATA`): uploaded traces live in `<dataDir>/traces`. */
   dataDir: string;

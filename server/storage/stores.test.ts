@@ -135,6 +135,29 @@ describe('S3 trace store (s3rver)', () => {
   });
 });
 
+describe('stored analyses beside the file (both stores)', () => {
+  for (const kind of ['s3', 'local'] as const) {
+    it(`${kind}: keeps an analysis written to the incoming folder, replaces it, streams it back, and remove takes it with the file`, async () => {
+      const store = kind === 's3' ? s3 : createLocalTraceStore(join(folder, 'local-analyses'));
+      const file = received(store, randomBytes(4096));
+      await store.keep(file.path, file.sha256);
+      expect(await store.readAnalysis(file.sha256)).toBeNull();
+      for (const version of ['first', 'second']) {
+        const analysis = received(store, Buffer.from(`${version} analysis`));
+        await store.keepAnalysis(analysis.path, file.sha256);
+        expect(existsSync(analysis.path)).toBe(false);
+      }
+      const parts: Buffer[] = [];
+      for await (const chunk of (await store.readAnalysis(file.sha256))!) parts.push(chunk as Buffer);
+      expect(Buffer.concat(parts).toString()).toBe('second analysis');
+      if (kind === 's3') expect(fake.objectKeys()).toContain(`traces/${file.sha256}.analysis`);
+      await store.remove(file.sha256);
+      expect(await store.has(file.sha256)).toBe(false);
+      expect(await store.readAnalysis(file.sha256)).toBeNull();
+    });
+  }
+});
+
 describe('local trace store', () => {
   it('keeps a received file under its hash and streams it back', async () => {
     const local = createLocalTraceStore(join(folder, 'local'));

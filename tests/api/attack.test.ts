@@ -3,11 +3,11 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import jwt from 'jsonwebtoken';
-import { createTestApp, testPublicUrl, type TestApp } from '../support/test-app.ts';
+import { createTestApp, createTestClock, testPublicUrl, type TestApp } from '../support/test-app.ts';
 import { createAuditBudget } from '../../server/features/audit/budget.ts';
 import { checkPassword, hashPassword } from '../../server/features/auth/passwords.ts';
 import { sessionCookie } from '../../server/features/auth/session.ts';
-import { User } from '../../server/db/entities.ts';
+import { AuditEvent, User } from '../../server/db/entities.ts';
 
 const secret = 'test-secret-0123456789abcdef0123456789';
 const linkToken = (text: string, kind: 'invite' | 'reset') => new RegExp(`${testPublicUrl}/${kind}/([A-Za-z0-9_-]+)`).exec(text)![1]!;
@@ -68,6 +68,26 @@ describe('sessions and links (item 7)', () => {
   });
 });
 
+describe('client addresses behind a configured proxy (item 7)', () => {
+  it('takes X-Forwarded-For from the configured proxy only: clients behind it are counted apart', async () => {
+    const app = await createTestApp({ trustProxy: 'loopback', rateLimits: { loginPerAddress: { windowMs: minutes(15), limit: 2 } } });
+    try {
+      const tryFrom = async (address: string, n: number) =>
+        (
+          await app
+            .request()
+            .post('/api/auth/login')
+            .set('X-Forwarded-For', address)
+            .send({ email: `proxy-${address}-${n}@example.com`, password: 'wrong-password' })
+        ).status;
+      expect([await tryFrom('203.0.113.7', 1), await tryFrom('203.0.113.7', 2), await tryFrom('203.0.113.7', 3)]).toEqual([401, 401, 429]);
+      expect(await tryFrom('203.0.113.8', 1)).toBe(401);
+    } finally {
+      await app.close();
+    }
+  });
+});
+
 describe('sign-in floods (item 4)', () => {
   it('limits failed sign-ins per client address across new e-mail addresses', async () => {
     const app = await createTestApp({ rateLimits: { loginPerAddress: { windowMs: minutes(15), limit: 3 } } });
@@ -116,6 +136,34 @@ describe('sign-in floods (item 4)', () => {
     expect(await checkPassword('correct horse batterY', hash)).toBe(false);
     // bcryptjs hash of "parley-demo" at cost 4 (made with bcryptjs.hashSync).
     expect(await checkPassword('parley-demo', '$2b$04$rE5zWws7j1xRDzQVtKpDqOJUSNoCWKff8HGYIDs9tKSZnV8X9yH5W')).toBe(true);
+  });
+
+  it('a flood of failed sign-ins all answer 401 but write only the audit budget of rows, then say how many were left out', async () => {
+    const open = { windowMs: minutes(15), limit: 10_000 };
+    const clock = createTestClock();
+    const app = await createTestApp({ clock, failedSignInAuditPerMinute: 10, rateLimits: { login: open, loginPerAddress: open, loginPerAccount: open } });
+    try {
+      const flood = (from: number) =>
+        Promise.all(
+          Array.from({ length: 15 }, (_, i) =>
+            app
+              .request()
+              .post('/api/auth/login')
+              .send({ email: `flood-${from + i}@example.com`, password: 'wrong-password' }),
+          ),
+        );
+      const statuses = (await flood(0)).map((r) => r.status);
+      expect(statuses.filter((s) => s === 401)).toHaveLength(15);
+      const em = app.orm.em.fork();
+      expect(await em.count(AuditEvent, { action: 'auth.sign_in_failed' })).toBe(10);
+      clock.advance(61_000);
+      await flood(100);
+      const rows = await em.find(AuditEvent, { action: 'auth.sign_in_failed' }, { orderBy: { id: 'asc' } });
+      expect(rows).toHaveLength(20);
+      expect(rows[10]!.details).toMatchObject({ notRecorded: 5 });
+    } finally {
+      await app.close();
+    }
   });
 
   it('writes at most 120 failed-sign-in audit rows a minute and says how many it left out', () => {

@@ -11,15 +11,12 @@ import { presentUser } from './present.ts';
 import { forgotLimits, signInLimits } from './rate-limit.ts';
 import { endSession, startSession } from './session.ts';
 import { findLiveToken, issueToken, redeemToken, resetValidMinutes, retireTokens } from './tokens.ts';
-import { createAuditBudget } from '../audit/budget.ts';
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { AppDeps } from '../../context.ts';
 
-/** Failed sign-ins written to the audit log a minute, at most (a flood from many addresses is summarised). */
-const failedSignInBudget = createAuditBudget(120);
-
 function recordFailedSignIn(em: EntityManager, deps: AppDeps, email: string, reason: string): void {
-  const { write, suppressed } = failedSignInBudget.take(deps.clock.now().getTime());
+  // A flood from many addresses is summarised: the next row written says how many were left out.
+  const { write, suppressed } = deps.failedSignInAudit.take(deps.clock.now().getTime());
   if (!write) return;
   recordAudit(em, deps.clock, { actor: null, action: 'auth.sign_in_failed', target: email, details: suppressed > 0 ? { reason, notRecorded: suppressed } : { reason } });
 }
