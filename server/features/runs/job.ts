@@ -96,6 +96,8 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
   const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
+  // The property sandbox gives each user (or CI token) its turn.
+  const owner = run.startedById != null ? `user:${run.startedById}` : run.tokenId != null ? `token:${run.tokenId}` : undefined;
   let passed = await em.count(RunResult, { runId, ok: true });
   let failed = stored.size - passed;
   job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
@@ -111,7 +113,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       const present = ids.filter((id) => byId.has(id));
       const results = await runBatch(
         deps.runPool,
-        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })),
+        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind, owner })),
       );
       if (job.signal.aborted) return;
       const now = deps.clock.now();
