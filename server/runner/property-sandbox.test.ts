@@ -9,9 +9,10 @@ import { createPropertySandbox, type PropertySandbox } from './property-sandbox.
 /**
  * The property sandbox: shipped property vectors give the same verdict and counterexample as the
  * in-process checker the CLI and the browser use, and code that reaches for the server's files,
- * processes, workers, signals or network is stopped with a clear message. Each attack runs twice:
- * with every layer, and with the permission model alone (so the test does not pass only because
- * a root server's child runs as `nobody`).
+ * processes, workers, signals or network is stopped with a clear message. Each attack runs three
+ * times: with every layer (bubblewrap where this machine has it), with the fallback launcher, and
+ * with the permission model alone (so the test does not pass only because a root server's child
+ * runs as `nobody` or sees no host files). ./sandbox-escape.test.ts holds what escaped before.
  */
 
 const repo = resolve(import.meta.dirname, '../..');
@@ -24,6 +25,7 @@ let dataDir: string;
 let secretPath: string;
 let full: PropertySandbox;
 let permissionOnly: PropertySandbox;
+let fallback: PropertySandbox;
 
 beforeAll(async () => {
   // A stand-in for PARLEY_DATA: the session secret (0600, as the server writes it) and the database.
@@ -34,11 +36,13 @@ beforeAll(async () => {
   chmodSync(dataDir, 0o755);
   full = createPropertySandbox({ timeoutMs: 20_000, maxConcurrent: 2 });
   permissionOnly = createPropertySandbox({ timeoutMs: 20_000, maxConcurrent: 2, layers: 'permission-only' });
+  fallback = createPropertySandbox({ timeoutMs: 20_000, maxConcurrent: 2, mode: 'fallback' });
 }, 60_000);
 
 afterAll(async () => {
   await full.close();
   await permissionOnly.close();
+  await fallback.close();
   rmSync(dataDir, { recursive: true, force: true });
 });
 
@@ -70,6 +74,7 @@ describe("the sandbox gives the checker's own results", () => {
 
 describe.each([
   ['every layer', () => full],
+  ['the fallback launcher (PARLEY_SANDBOX=fallback)', () => fallback],
   ['the permission model alone', () => permissionOnly],
 ])('code that reaches out, with %s', (_name, sandbox) => {
   const denied = /Access to this API has been restricted \(property code runs in a sandbox/;

@@ -38,6 +38,12 @@ export const DEFAULT_PROPERTY_HEAP_MB = 512;
 /** Owner of a property checked without one (CLI-like callers, tests): they share one turn. */
 export const UNOWNED = 'unowned';
 
+/** The fair queue's owner for a run started by a user or posted with a CI token. */
+export function queueOwner(run: { startedById?: number | null; tokenId?: number | null }): string {
+  if (run.startedById != null) return `user:${run.startedById}`;
+  return run.tokenId != null ? `token:${run.tokenId}` : UNOWNED;
+}
+
 export interface SandboxOptions {
   /** Wall-clock limit per property, child start included. */
   timeoutMs?: number;

@@ -18,25 +18,13 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { cpuSecondsFor, CHILD_TASKS_HEADROOM, limitPrefix, limitTool, NODE_ADDRESS_SPACE_RESERVE_MB, tasksOwnedBy, type LimitTool } from './sandbox-limits.ts';
 import { makeSandboxFolder } from './sandbox-folders.ts';
+import type { SandboxIsolation } from '../../shared/api/index.ts';
 
 /** `auto`: bubblewrap when it is installed and passes the probe, else the fallback. */
 export type SandboxModeSetting = 'auto' | 'bubblewrap' | 'fallback';
-export type SandboxMode = 'bubblewrap' | 'fallback';
 
-export interface SandboxInfo {
-  mode: SandboxMode;
-  /** Why the fallback is in use; null in bubblewrap mode. */
-  fallbackReason: string | null;
-  /** `isolated`: a network namespace with only loopback; `shared`: the server's network. */
-  network: 'isolated' | 'shared';
-  /** The child sees only its own processes (pid namespace). */
-  pidNamespace: boolean;
-  /** `minimal`: only Node, its libraries and the bundle exist for the child; `host`: the host's files, behind the permission model. */
-  files: 'minimal' | 'host';
-  /** The child is killed when the server process dies, even by SIGKILL. */
-  diesWithParent: boolean;
-  /** `nobody` when the server runs as root; else the server's own user. */
-  user: 'nobody' | 'server';
+/** The isolation of the API's shape, and what the server alone needs to know. */
+export interface SandboxInfo extends SandboxIsolation {
   limits: { tool: LimitTool; heapMb: number; addressSpaceMb: number; cpuSeconds: number; tasksHeadroom: number };
   /** The bundled checker on the host, the only file the child may read. */
   bundlePath: string;

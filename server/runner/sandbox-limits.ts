@@ -9,6 +9,7 @@
  * - no core files (RLIMIT_CORE 0): a child that aborts leaves nothing on disk.
  */
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import type { SandboxLimits } from '../../shared/api/index.ts';
 
 /**
  * Address space Node 20 reserves before a property allocates anything, with room to spare.
@@ -37,7 +38,7 @@ const PRLIMIT_CANDIDATES = ['/usr/bin/prlimit', '/bin/prlimit'];
 const SH = '/bin/sh';
 
 /** How the limits are applied on this machine: `prlimit`, a `sh` wrapper, or not at all. */
-export type LimitTool = 'prlimit' | 'ulimit' | 'none';
+export type LimitTool = SandboxLimits['tool'];
 
 export function limitTool(): LimitTool {
   if (PRLIMIT_CANDIDATES.some((path) => existsSync(path))) return 'prlimit';

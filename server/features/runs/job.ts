@@ -10,6 +10,7 @@ import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun, type RunResultDetail } from '../../db/library-entities.ts';
 import type { AppDeps } from '../../context.ts';
 import type { RunPool } from '../../runner/pool.ts';
+import { queueOwner } from '../../runner/property-sandbox.ts';
 import type { RunVectorTask } from '../../runner/run-task.ts';
 import { builtInVectorsDir } from '../vectors/seed.ts';
 import type { VectorResult } from '../../../shared/vectors/index.ts';
@@ -97,7 +98,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
   // The property sandbox gives each user (or CI token) its turn.
-  const owner = run.startedById != null ? `user:${run.startedById}` : run.tokenId != null ? `token:${run.tokenId}` : undefined;
+  const owner = queueOwner(run);
   let passed = await em.count(RunResult, { runId, ok: true });
   let failed = stored.size - passed;
   job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
