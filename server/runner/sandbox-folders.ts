@@ -62,8 +62,11 @@ export function makeSandboxFolder(root = tmpdir()): string {
   return folder;
 }
 
-/** A folder without an owner file this old is a start that died before writing it. */
-const UNOWNED_GRACE_MS = 60_000;
+/**
+ * A folder without an owner file is from a start that died before writing it, or from a version
+ * before owner files, which may still be running (a rolling upgrade): removed only once a day old.
+ */
+const UNOWNED_GRACE_MS = 24 * 60 * 60 * 1_000;
 
 /**
  * Removes sandbox folders left by processes that are gone; returns their paths. Only folders
