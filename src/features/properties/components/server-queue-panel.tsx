@@ -52,7 +52,7 @@ export function ServerQueuePanel() {
   return (
     <Card aria-labelledby="server-queue-heading" data-testid="server-queue">
       <CardHeader
-        title={<span id="server-queue-heading">Server runs of property vectors</span>}
+        title={<span id="server-queue-heading">Property vectors on the server</span>}
         description="Library and CI runs check each property in a sandboxed process on the server, one of yours at a time, taking turns with other users. Run property above checks in your browser instead."
         actions={
           queue && (
