@@ -11,8 +11,8 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { CliIo } from './io.ts';
 import { commands, runCli } from './main.ts';
+import { captureIo } from './test-io.ts';
 
 const repoRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const CASE_TIMEOUT_MS = 15_000;
@@ -50,21 +50,7 @@ afterAll(() => {
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
-function fakeIo() {
-  const out = { stdout: '', stderr: '' };
-  const io: CliIo = {
-    stdout: (t) => {
-      out.stdout += t;
-    },
-    stderr: (t) => {
-      out.stderr += t;
-    },
-    isTty: false,
-    cwd: dir,
-    readStdin: async () => '',
-  };
-  return { io, out };
-}
+const fakeIo = () => captureIo({ cwd: dir });
 
 async function runBounded(argv: string[]) {
   const { io, out } = fakeIo();

@@ -33,6 +33,7 @@ export const conflict = (message: string, code: ApiErrorCode = 'resource.conflic
 export const tooLarge = (message = 'The request is too large', code: ApiErrorCode = 'request.too-large') => new HttpError(413, code, message);
 export const rateLimited = (message = 'Too many attempts; try again later', code: ApiErrorCode = 'request.rate-limited') => new HttpError(429, code, message);
 export const badGateway = (message: string, code: ApiErrorCode = 'upstream.failed') => new HttpError(502, code, message);
+export const serviceUnavailable = (message: string, code: ApiErrorCode) => new HttpError(503, code, message);
 
 export function fromZod(error: ZodError, location = 'body'): HttpError {
   const details = error.issues.map((issue) => ({ path: fieldOf(issue.path, { where: location }), message: issue.message }));

@@ -17,6 +17,7 @@ import { importMappingRoutes } from './features/import-mappings/routes.ts';
 import { vectorsRoutes } from './features/vectors/routes.ts';
 import { runsRoutes } from './features/runs/routes.ts';
 import { tokensRoutes } from './features/tokens/routes.ts';
+import { propertiesRoutes } from './features/properties/routes.ts';
 
 /** Every API route. A feature adds its `RouteDef[]` here; the role-matrix test walks this list. */
 export const routeTable: RouteDef[] = [
@@ -32,6 +33,7 @@ export const routeTable: RouteDef[] = [
   ...vectorsRoutes,
   ...runsRoutes,
   ...tokensRoutes,
+  ...propertiesRoutes,
 ];
 
 /** This request's entity manager (the RequestContext fork the app opened for it). */

@@ -121,7 +121,12 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
   const jobs = await jobQueueFromEnv(env, logger);
   const analysisPool = createAnalysisPool();
-  const runPool = createRunPool();
+  const runPool = createRunPool({ sandboxMode: env.PARLEY_SANDBOX });
+  // Probed now, in the background: the log says at once which property sandbox is in use.
+  runPool.sandboxStatus?.('').then(
+    ({ info }) => (info.mode === 'bubblewrap' ? logger.info('property sandbox: bubblewrap') : logger.warn(`property sandbox: fallback launcher (${info.fallbackReason})`)),
+    (cause: unknown) => logger.error(`property sandbox: cannot start (${cause instanceof Error ? cause.message : String(cause)})`),
+  );
   const app = createApp({
     orm,
     mailer,

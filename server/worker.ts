@@ -37,7 +37,7 @@ export async function startWorker(options: { log?: boolean } = {}): Promise<Runn
     log: (message) => logger.warn(message),
   });
   const analysisPool = createAnalysisPool();
-  const runPool = createRunPool();
+  const runPool = createRunPool({ sandboxMode: env.PARLEY_SANDBOX });
   registerJobKinds({ orm, clock: systemClock, mailer: queuedMailer(jobs), publicUrl: env.PUBLIC_URL, logger, jobs, traceStore: traceStoreFromEnv(env, join(dataDir)), analysisPool, runPool }, mailer);
   logger.info('Parley worker started: taking jobs from the shared queue');
   let closing: Promise<void> | undefined;

@@ -3,30 +3,13 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
-import { runCli } from '../main.ts';
+import { runCaptured } from '../test-io.ts';
 
 const FIXTURES = join(import.meta.dirname, '../../tests/fixtures/traces');
 const scratch = mkdtempSync(join(tmpdir(), 'parley-analyze-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 
-async function cli(...argv: string[]) {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    stdout: (t) => {
-      stdout += t;
-    },
-    stderr: (t) => {
-      stderr += t;
-    },
-    isTty: false,
-    cwd: FIXTURES,
-    readStdin: async () => '',
-  };
-  const code = await runCli(argv, io);
-  return { code, stdout, stderr, json: () => JSON.parse(stdout) as Json };
-}
+const cli = (...argv: string[]) => runCaptured<Json>(argv, { cwd: FIXTURES });
 
 type Json = {
   ok: boolean;

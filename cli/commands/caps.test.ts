@@ -1,25 +1,8 @@
 /** `parley caps` in-process through runCli with a fake io (docs/cli.md). */
 import { describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
-import { runCli } from '../main.ts';
+import { runCaptured } from '../test-io.ts';
 
-async function cli(...argv: string[]) {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    stdout: (t) => {
-      stdout += t;
-    },
-    stderr: (t) => {
-      stderr += t;
-    },
-    isTty: false,
-    cwd: process.cwd(),
-    readStdin: async () => '',
-  };
-  const code = await runCli(argv, io);
-  return { code, stdout, stderr, json: () => JSON.parse(stdout) as Record<string, unknown> };
-}
+const cli = (...argv: string[]) => runCaptured<Json>(argv);
 
 const le = (word: string) => word.match(/../g)!.reverse().join('');
 // Source_Capabilities, header 0x61a1 (6 objects, R3.0, source/dfp): 5 V 3 A, 9 V 3 A, 15 V 3 A,

@@ -1,22 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
 import { runCli } from '../main.ts';
+import { captureIo } from '../test-io.ts';
 
-function fakeIo(stdin = '', cwd = process.cwd()) {
-  const out = { stdout: '', stderr: '' };
-  const io: CliIo = {
-    stdout: (t) => {
-      out.stdout += t;
-    },
-    stderr: (t) => {
-      out.stderr += t;
-    },
-    isTty: false,
-    cwd,
-    readStdin: async () => stdin,
-  };
-  return { io, out };
-}
+const fakeIo = (stdin = '', cwd = process.cwd()) => captureIo({ stdin, cwd });
 
 // Header 0x61a1 and the six PDOs worked out by hand from USB PD R3.2 V1.1 Table 6.1 and the
 // source PDO tables (see shared/pd/header.test.ts, source-pdo.test.ts).

@@ -2,24 +2,10 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
 import { runCli } from '../main.ts';
+import { captureIo } from '../test-io.ts';
 
-function fakeIo(stdin = '', cwd = process.cwd()) {
-  const out = { stdout: '', stderr: '' };
-  const io: CliIo = {
-    stdout: (t) => {
-      out.stdout += t;
-    },
-    stderr: (t) => {
-      out.stderr += t;
-    },
-    isTty: false,
-    cwd,
-    readStdin: async () => stdin,
-  };
-  return { io, out };
-}
+const fakeIo = (stdin = '', cwd = process.cwd()) => captureIo({ stdin, cwd });
 
 const CAPS = 'a1612c9101082cd102002cc103002cb10400454106003c21dcc0';
 

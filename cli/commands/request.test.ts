@@ -3,29 +3,12 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
-import { runCli } from '../main.ts';
+import { runCaptured } from '../test-io.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'parley-request-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function cli(...argv: string[]) {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    stdout: (t) => {
-      stdout += t;
-    },
-    stderr: (t) => {
-      stderr += t;
-    },
-    isTty: false,
-    cwd: dir,
-    readStdin: async () => '',
-  };
-  const code = await runCli(argv, io);
-  return { code, stdout, stderr, json: () => JSON.parse(stdout) as Record<string, unknown> };
-}
+const cli = (...argv: string[]) => runCaptured(argv, { cwd: dir });
 
 const le = (word: string) => word.match(/../g)!.reverse().join('');
 // As in caps.test.ts: 5 V 3 A, 9 V 3 A, 15 V 3 A, 20 V 3.25 A, PPS 3.3–11 V 3 A, PPS 3.3–21 V 3 A.

@@ -3,29 +3,12 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
-import { runCli } from '../main.ts';
+import { runCaptured } from '../test-io.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'parley-simulate-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function cli(argv: string[], stdin = '') {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    stdout: (t) => {
-      stdout += t;
-    },
-    stderr: (t) => {
-      stderr += t;
-    },
-    isTty: false,
-    cwd: dir,
-    readStdin: async () => stdin,
-  };
-  const code = await runCli(argv, io);
-  return { code, stdout, stderr };
-}
+const cli = (argv: string[], stdin = '') => runCaptured(argv, { cwd: dir, stdin });
 
 // vector.md's example scenario (5 V 3 A, 9 V 3 A, PPS 3.3–11 V 3 A; PPS sink; a lost GoodCRC).
 const scenario = {

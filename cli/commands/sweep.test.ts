@@ -2,8 +2,7 @@ import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { CliIo } from '../io.ts';
-import { runCli } from '../main.ts';
+import { runCaptured } from '../test-io.ts';
 
 let dir = '';
 beforeAll(() => {
@@ -18,22 +17,7 @@ afterAll(() => {
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
-async function cli(...argv: string[]) {
-  const out = { stdout: '', stderr: '' };
-  const io: CliIo = {
-    stdout: (t) => {
-      out.stdout += t;
-    },
-    stderr: (t) => {
-      out.stderr += t;
-    },
-    isTty: false,
-    cwd: dir,
-    readStdin: async () => '',
-  };
-  const code = await runCli(argv, io);
-  return { code, ...out };
-}
+const cli = (...argv: string[]) => runCaptured(argv, { cwd: dir });
 
 const junitNames = (file: string) => [...readFileSync(join(dir, file), 'utf8').matchAll(/<testcase [^>]*name="([^"]+)"/g)].map((m) => m[1]!);
 

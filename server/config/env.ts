@@ -18,6 +18,8 @@ const envSchema = z
     NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
     PUBLIC_URL: z.url({ protocol: /^https?$/ }).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+    /** Property sandbox: `bubblewrap` (required), `fallback` (never bubblewrap) or `auto` (bubblewrap where it works). */
+    PARLEY_SANDBOX: z.enum(['auto', 'bubblewrap', 'fallback']).default('auto'),
     /** `postgres://…`: PostgreSQL and the shared job queue (a team deployment); unset: SQLite in PARLEY_DATA. */
     DATABASE_URL: z
       .string()

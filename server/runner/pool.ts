@@ -5,14 +5,14 @@
  * ends that worker and the vector fails with a clear message.
  *
  * Property vectors are TypeScript written by a user, so they never run in these threads: they go
- * to the property sandbox (./property-sandbox.ts, a child process under Node's permission model),
- * and the workers refuse them (./run-task.ts). The workers get an empty environment and a heap
+ * to the property sandbox (./property-sandbox.ts: bubblewrap or the fallback launcher, OS limits,
+ * Node's permission model, a fair queue per user), and the workers refuse them (./run-task.ts). The workers get an empty environment and a heap
  * limit for the other kinds.
  */
 import { Piscina } from 'piscina';
 import { runVectorText, toJsonSafe, type VectorResult } from '../../shared/vectors/index.ts';
 import { defaultThreads } from '../analysis/pool.ts';
-import { createPropertySandbox, type PropertySandbox } from './property-sandbox.ts';
+import { createPropertySandbox, DEFAULT_PROPERTY_TIMEOUT_MS, type PropertySandbox, type SandboxModeSetting, type SandboxStatus } from './property-sandbox.ts';
 import type { RunVectorTask } from './run-task.ts';
 
 export interface RunPool {
@@ -21,6 +21,8 @@ export interface RunPool {
   runBatch?(tasks: readonly RunVectorTask[]): Promise<VectorResult[]>;
   /** Worker threads it may use at once. */
   threads?: number;
+  /** The property sandbox's mode, limits and queue as `owner` sees it. */
+  sandboxStatus?(owner: string): Promise<SandboxStatus>;
   close(): Promise<void>;
 }
 
@@ -43,23 +45,28 @@ function goesToSandbox(task: RunVectorTask): boolean {
 
 /** Validation and matching here (small for a property vector), the code itself in the sandbox. */
 async function runInSandbox(task: RunVectorTask, sandbox: PropertySandbox): Promise<VectorResult> {
-  const result = await runVectorText(task.text, task.vectorId, { checkProperty: (code, job) => sandbox.check(code, job) });
+  const result = await runVectorText(task.text, task.vectorId, { checkProperty: (code, job) => sandbox.check(code, job, task.owner) });
   return toJsonSafe(result) as VectorResult;
 }
 
 export interface RunPoolOptions {
   maxThreads?: number;
   idleTimeoutMs?: number;
-  /** Per vector; a property's sandbox gets the same limit. */
+  /** Per vector; when given, a property's sandbox gets the same limit (else DEFAULT_PROPERTY_TIMEOUT_MS). */
   timeoutMs?: number;
-  /** Default: a sandbox with `timeoutMs` and `maxThreads` children at once. */
+  /** `PARLEY_SANDBOX`: bubblewrap, the fallback launcher, or `auto`. */
+  sandboxMode?: SandboxModeSetting;
+  /** Default: a sandbox with the timeout above and `maxThreads` (at least 2) children at once. */
   sandbox?: PropertySandbox;
 }
 
 export function createRunPool(options: RunPoolOptions = {}): RunPool {
   const timeoutMs = options.timeoutMs ?? DEFAULT_VECTOR_TIMEOUT_MS;
   const maxThreads = options.maxThreads ?? defaultThreads();
-  const sandbox = options.sandbox ?? createPropertySandbox({ timeoutMs, maxConcurrent: maxThreads });
+  // At least two properties at once: with one user at a time per slot (the fair queue), one user's
+  // stuck property then never holds the only slot while another user waits.
+  const sandbox =
+    options.sandbox ?? createPropertySandbox({ timeoutMs: options.timeoutMs ?? DEFAULT_PROPERTY_TIMEOUT_MS, maxConcurrent: Math.max(2, maxThreads), mode: options.sandboxMode ?? 'auto' });
   const pool = new Piscina({
     filename: workerUrl,
     minThreads: 0,
@@ -83,6 +90,7 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
   return {
     run,
     threads: maxThreads,
+    sandboxStatus: (owner) => sandbox.status(owner),
     async runBatch(tasks) {
       const results = new Array<VectorResult>(tasks.length);
       const inThreads = tasks.flatMap((task, index) => (goesToSandbox(task) ? [] : [{ task, index }]));

@@ -39,6 +39,26 @@ function closeSignals(): void {
   Object.defineProperty(process, '_kill', { value: refuse, writable: false, configurable: false });
 }
 
+/**
+ * Node 20's permission model does not cover sockets. Bubblewrap leaves the child no network and
+ * no host socket file to reach; the fallback launcher may share both, so the child refuses every
+ * connection and listener itself (the originals are out of reach: `process.binding` is closed
+ * by the permission model, and the replaced methods cannot be redefined).
+ */
+function closeSockets(): void {
+  const refuse = (): never => {
+    throw new Error('sockets are not available to a property');
+  };
+  const seal = (target: object, key: string): void => {
+    Object.defineProperty(target, key, { value: refuse, writable: false, configurable: false });
+  };
+  const net = process.getBuiltinModule('node:net') as typeof import('node:net');
+  const dgram = process.getBuiltinModule('node:dgram') as typeof import('node:dgram');
+  seal(net.Socket.prototype, 'connect');
+  seal(net.Server.prototype, 'listen');
+  for (const key of ['bind', 'connect', 'send']) seal(dgram.Socket.prototype, key);
+}
+
 /** stdout carries only the answer: whatever the property logs goes to stderr. */
 function quietConsole(): void {
   const toStderr = (...args: unknown[]): void => {
@@ -51,7 +71,10 @@ function quietConsole(): void {
 
 async function main(): Promise<void> {
   const job = parseJob(await readStdin());
+  // The launcher sets MALLOC_ARENA_MAX for glibc and bubblewrap sets PWD: the property sees an empty environment.
+  for (const key of Object.keys(process.env)) delete process.env[key];
   closeSignals();
+  closeSockets();
   quietConsole();
   const outcome: PropertyOutcome = await checkProperty(job.code, { runs: job.runs, seed: job.seed }, engine);
   // A property may leave timers behind; exit once the answer is flushed.

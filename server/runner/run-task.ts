@@ -19,6 +19,8 @@ export interface RunVectorTask {
    * to route it; a worker still refuses property code whatever this says.
    */
   kind?: string | null;
+  /** Who asked for the run (`user:<id>` or `token:<id>`): the property sandbox queues per owner. */
+  owner?: string;
 }
 
 export function libraryFileReader(vectorsRoot: string, vectorId: string): (path: string) => Promise<string> {

@@ -62,6 +62,7 @@ export const apiErrorCodes = [
   'run.nothing',
   'sweep.too-many-runs',
   'sweep.unplannable',
+  'sandbox.unavailable',
 ] as const;
 
 export type ApiErrorCode = (typeof apiErrorCodes)[number];

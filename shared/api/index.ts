@@ -6,6 +6,7 @@ export * from './devices.ts';
 export * from './errors.ts';
 export * from './limits.ts';
 export * from './people.ts';
+export * from './properties.ts';
 export * from './roles.ts';
 export * from './runs.ts';
 export * from './traces.ts';

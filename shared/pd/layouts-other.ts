@@ -3,11 +3,9 @@
  * layout.ts. USB PD R3.2 V1.1 §6.4 (table numbers and names as in R3.1 V1.8; from memory where
  * a note says so).
  */
-import type { FieldLayout, WordLayout } from './layout.ts';
+import { flagBit as flagAt, reservedBits as R } from './field-layouts.ts';
+import type { WordLayout } from './layout.ts';
 import { VDO_LAYOUTS } from './layouts-vdo.ts';
-
-const R = (hi: number, lo: number): FieldLayout => ({ name: 'reserved', hi, lo, type: 'reserved', label: 'Reserved' });
-const flagAt = (bit: number, name: string, label: string): FieldLayout => ({ name, hi: bit, lo: bit, type: 'flag', label });
 
 /** §6.4.3 Table 6.27 "BIST Data Object": B31..28 BIST Mode, B27..0 Reserved. */
 export const BIST_LAYOUT: WordLayout = {

@@ -4,46 +4,35 @@
  * layouts.test.ts checks that they agree with these layouts on random words.
  * References as in those files (USB PD R3.2 V1.1 §6.2.1, §6.4.1, §6.4.2; R3.1 V1.8 table numbers).
  */
+import { enumBits, flagBit as F, reservedBits as R, typeTag as T, uintBits as U, word32 } from './field-layouts.ts';
 import type { FieldLayout, WordLayout } from './layout.ts';
-
-const R = (hi: number, lo: number): FieldLayout => ({ name: 'reserved', hi, lo, type: 'reserved', label: 'Reserved' });
-const F = (bit: number, name: string, label: string): FieldLayout => ({ name, hi: bit, lo: bit, type: 'flag', label });
-const U = (hi: number, lo: number, name: string, label: string, scale = 1, unit?: string): FieldLayout => ({ name, hi, lo, type: 'uint', label, scale, ...(unit ? { unit } : {}) });
-const T = (hi: number, lo: number, value: number, label: string): FieldLayout => ({ name: 'type', hi, lo, type: 'const', value, label });
 const PDO = 'USB PD R3.2 V1.1 §6.4.1';
 const RDO = 'USB PD R3.2 V1.1 §6.4.2';
 
-export const HEADER_SOP_LAYOUT: WordLayout = {
+/** The Message Header (Table 6.1): bits 8 and 5 read as power and data role on SOP, Cable Plug and reserved on SOP'/SOP''. */
+const messageHeader = (title: string, bit8: FieldLayout, bit5: FieldLayout): WordLayout => ({
   kind: 'header',
-  title: 'Message Header (SOP)',
+  title,
   ref: 'USB PD R3.2 V1.1 §6.2.1.1, Table 6.1',
   bits: 16,
   fields: [
     F(15, 'extended', 'Extended'),
     U(14, 12, 'numDataObjects', 'Number of Data Objects'),
     U(11, 9, 'messageId', 'MessageID'),
-    { name: 'powerRole', hi: 8, lo: 8, type: 'enum', label: 'Port Power Role', values: { 0: 'sink', 1: 'source' } },
-    { name: 'specRevision', hi: 7, lo: 6, type: 'enum', label: 'Specification Revision', values: { 0: '1.0', 1: '2.0', 2: '3.0', 3: 'reserved' } },
-    { name: 'dataRole', hi: 5, lo: 5, type: 'enum', label: 'Port Data Role', values: { 0: 'ufp', 1: 'dfp' } },
+    bit8,
+    enumBits(7, 6, 'specRevision', 'Specification Revision', { 0: '1.0', 1: '2.0', 2: '3.0', 3: 'reserved' }),
+    bit5,
     U(4, 0, 'messageTypeCode', 'Message Type'),
   ],
-};
+});
 
-export const HEADER_CABLE_LAYOUT: WordLayout = {
-  kind: 'header',
-  title: "Message Header (SOP'/SOP'')",
-  ref: 'USB PD R3.2 V1.1 §6.2.1.1, Table 6.1',
-  bits: 16,
-  fields: [
-    F(15, 'extended', 'Extended'),
-    U(14, 12, 'numDataObjects', 'Number of Data Objects'),
-    U(11, 9, 'messageId', 'MessageID'),
-    F(8, 'cablePlug', 'Cable Plug'),
-    { name: 'specRevision', hi: 7, lo: 6, type: 'enum', label: 'Specification Revision', values: { 0: '1.0', 1: '2.0', 2: '3.0', 3: 'reserved' } },
-    R(5, 5),
-    U(4, 0, 'messageTypeCode', 'Message Type'),
-  ],
-};
+export const HEADER_SOP_LAYOUT: WordLayout = messageHeader(
+  'Message Header (SOP)',
+  enumBits(8, 8, 'powerRole', 'Port Power Role', { 0: 'sink', 1: 'source' }),
+  enumBits(5, 5, 'dataRole', 'Port Data Role', { 0: 'ufp', 1: 'dfp' }),
+);
+
+export const HEADER_CABLE_LAYOUT: WordLayout = messageHeader("Message Header (SOP'/SOP'')", F(8, 'cablePlug', 'Cable Plug'), R(5, 5));
 
 export const EXTENDED_HEADER_LAYOUT: WordLayout = {
   kind: 'extended-header',
@@ -75,104 +64,49 @@ const sprAvs = [U(19, 10, 'maxCurrent15vMa', 'Maximum Current 9–15 V', 10, 'mA
 const peak = (hi: number): FieldLayout => U(hi, hi - 1, 'peakCurrent', 'Peak Current');
 
 export const SOURCE_PDO_LAYOUTS: Record<string, WordLayout> = {
-  fixed: {
-    kind: 'fixed',
-    title: 'Fixed Supply PDO – Source',
-    ref: `${PDO}.2.2, Table 6.9`,
-    bits: 32,
-    fields: [T(31, 30, 0, 'Fixed supply (00b)'), ...fixedSourceFlags, R(22, 22), peak(21), U(19, 10, 'voltageMv', 'Voltage', 50, 'mV'), U(9, 0, 'maxCurrentMa', 'Maximum Current', 10, 'mA')],
-  },
-  variable: {
-    kind: 'variable',
-    title: 'Variable Supply PDO – Source',
-    ref: `${PDO}.2.3, Table 6.11`,
-    bits: 32,
-    fields: [T(31, 30, 2, 'Variable supply (10b)'), ...range50, U(9, 0, 'maxCurrentMa', 'Maximum Current', 10, 'mA')],
-  },
-  battery: {
-    kind: 'battery',
-    title: 'Battery Supply PDO – Source',
-    ref: `${PDO}.2.4, Table 6.12`,
-    bits: 32,
-    fields: [T(31, 30, 1, 'Battery (01b)'), ...range50, U(9, 0, 'maxPowerMw', 'Maximum Allowable Power', 250, 'mW')],
-  },
-  pps: {
-    kind: 'pps',
-    title: 'SPR Programmable Power Supply APDO – Source',
-    ref: `${PDO}.2.5, Table 6.13`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 0, 'SPR PPS (00b)'), F(27, 'powerLimited', 'PPS Power Limited'), R(26, 25), ...ppsVolts],
-  },
-  'epr-avs': {
-    kind: 'epr-avs',
-    title: 'EPR Adjustable Voltage Supply APDO – Source',
-    ref: `${PDO}.2.6, Table 6.14`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 1, 'EPR AVS (01b)'), peak(27), ...avsVolts],
-  },
-  'spr-avs': {
-    kind: 'spr-avs',
-    title: 'SPR Adjustable Voltage Supply APDO – Source',
-    ref: `${PDO}.2.7 (new in R3.2)`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 2, 'SPR AVS (10b)'), peak(27), R(25, 20), ...sprAvs],
-  },
+  fixed: word32('fixed', 'Fixed Supply PDO – Source', `${PDO}.2.2, Table 6.9`, [
+    T(31, 30, 0, 'Fixed supply (00b)'),
+    ...fixedSourceFlags,
+    R(22, 22),
+    peak(21),
+    U(19, 10, 'voltageMv', 'Voltage', 50, 'mV'),
+    U(9, 0, 'maxCurrentMa', 'Maximum Current', 10, 'mA'),
+  ]),
+  variable: word32('variable', 'Variable Supply PDO – Source', `${PDO}.2.3, Table 6.11`, [T(31, 30, 2, 'Variable supply (10b)'), ...range50, U(9, 0, 'maxCurrentMa', 'Maximum Current', 10, 'mA')]),
+  battery: word32('battery', 'Battery Supply PDO – Source', `${PDO}.2.4, Table 6.12`, [T(31, 30, 1, 'Battery (01b)'), ...range50, U(9, 0, 'maxPowerMw', 'Maximum Allowable Power', 250, 'mW')]),
+  pps: word32('pps', 'SPR Programmable Power Supply APDO – Source', `${PDO}.2.5, Table 6.13`, [
+    T(31, 30, 3, 'APDO (11b)'),
+    T(29, 28, 0, 'SPR PPS (00b)'),
+    F(27, 'powerLimited', 'PPS Power Limited'),
+    R(26, 25),
+    ...ppsVolts,
+  ]),
+  'epr-avs': word32('epr-avs', 'EPR Adjustable Voltage Supply APDO – Source', `${PDO}.2.6, Table 6.14`, [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 1, 'EPR AVS (01b)'), peak(27), ...avsVolts]),
+  'spr-avs': word32('spr-avs', 'SPR Adjustable Voltage Supply APDO – Source', `${PDO}.2.7 (new in R3.2)`, [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 2, 'SPR AVS (10b)'), peak(27), R(25, 20), ...sprAvs]),
 };
 
 export const SINK_PDO_LAYOUTS: Record<string, WordLayout> = {
-  fixed: {
-    kind: 'fixed',
-    title: 'Fixed Supply PDO – Sink',
-    ref: `${PDO}.3.1, Table 6.17`,
-    bits: 32,
-    fields: [
-      T(31, 30, 0, 'Fixed supply (00b)'),
-      F(29, 'dualRolePower', 'Dual-Role Power'),
-      F(28, 'higherCapability', 'Higher Capability'),
-      F(27, 'unconstrainedPower', 'Unconstrained Power'),
-      F(26, 'usbCommunicationsCapable', 'USB Communications Capable'),
-      F(25, 'dualRoleData', 'Dual-Role Data'),
-      U(24, 23, 'frSwapRequiredCurrent', 'Fast Role Swap required USB Type-C Current'),
-      R(22, 20),
-      U(19, 10, 'voltageMv', 'Voltage', 50, 'mV'),
-      U(9, 0, 'operationalCurrentMa', 'Operational Current', 10, 'mA'),
-    ],
-  },
-  variable: {
-    kind: 'variable',
-    title: 'Variable Supply PDO – Sink',
-    ref: `${PDO}.3.2, Table 6.18`,
-    bits: 32,
-    fields: [T(31, 30, 2, 'Variable supply (10b)'), ...range50, U(9, 0, 'operationalCurrentMa', 'Operational Current', 10, 'mA')],
-  },
-  battery: {
-    kind: 'battery',
-    title: 'Battery Supply PDO – Sink',
-    ref: `${PDO}.3.3, Table 6.19`,
-    bits: 32,
-    fields: [T(31, 30, 1, 'Battery (01b)'), ...range50, U(9, 0, 'operationalPowerMw', 'Operational Power', 250, 'mW')],
-  },
-  pps: {
-    kind: 'pps',
-    title: 'SPR Programmable Power Supply APDO – Sink',
-    ref: `${PDO}.3.4, Table 6.20`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 0, 'SPR PPS (00b)'), R(27, 25), ...ppsVolts],
-  },
-  'epr-avs': {
-    kind: 'epr-avs',
-    title: 'EPR Adjustable Voltage Supply APDO – Sink',
-    ref: `${PDO}.3.5, Table 6.21`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 1, 'EPR AVS (01b)'), R(27, 26), ...avsVolts],
-  },
-  'spr-avs': {
-    kind: 'spr-avs',
-    title: 'SPR Adjustable Voltage Supply APDO – Sink',
-    ref: `${PDO}.3.6 (new in R3.2)`,
-    bits: 32,
-    fields: [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 2, 'SPR AVS (10b)'), R(27, 20), ...sprAvs],
-  },
+  fixed: word32('fixed', 'Fixed Supply PDO – Sink', `${PDO}.3.1, Table 6.17`, [
+    T(31, 30, 0, 'Fixed supply (00b)'),
+    F(29, 'dualRolePower', 'Dual-Role Power'),
+    F(28, 'higherCapability', 'Higher Capability'),
+    F(27, 'unconstrainedPower', 'Unconstrained Power'),
+    F(26, 'usbCommunicationsCapable', 'USB Communications Capable'),
+    F(25, 'dualRoleData', 'Dual-Role Data'),
+    U(24, 23, 'frSwapRequiredCurrent', 'Fast Role Swap required USB Type-C Current'),
+    R(22, 20),
+    U(19, 10, 'voltageMv', 'Voltage', 50, 'mV'),
+    U(9, 0, 'operationalCurrentMa', 'Operational Current', 10, 'mA'),
+  ]),
+  variable: word32('variable', 'Variable Supply PDO – Sink', `${PDO}.3.2, Table 6.18`, [
+    T(31, 30, 2, 'Variable supply (10b)'),
+    ...range50,
+    U(9, 0, 'operationalCurrentMa', 'Operational Current', 10, 'mA'),
+  ]),
+  battery: word32('battery', 'Battery Supply PDO – Sink', `${PDO}.3.3, Table 6.19`, [T(31, 30, 1, 'Battery (01b)'), ...range50, U(9, 0, 'operationalPowerMw', 'Operational Power', 250, 'mW')]),
+  pps: word32('pps', 'SPR Programmable Power Supply APDO – Sink', `${PDO}.3.4, Table 6.20`, [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 0, 'SPR PPS (00b)'), R(27, 25), ...ppsVolts]),
+  'epr-avs': word32('epr-avs', 'EPR Adjustable Voltage Supply APDO – Sink', `${PDO}.3.5, Table 6.21`, [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 1, 'EPR AVS (01b)'), R(27, 26), ...avsVolts]),
+  'spr-avs': word32('spr-avs', 'SPR Adjustable Voltage Supply APDO – Sink', `${PDO}.3.6 (new in R3.2)`, [T(31, 30, 3, 'APDO (11b)'), T(29, 28, 2, 'SPR AVS (10b)'), R(27, 20), ...sprAvs]),
 };
 
 const rdoCommon = (giveBack: boolean): FieldLayout[] => [
@@ -184,32 +118,32 @@ const rdoCommon = (giveBack: boolean): FieldLayout[] => [
   F(23, 'unchunkedExtendedMessages', 'Unchunked Extended Messages Supported'),
   F(22, 'eprModeCapable', 'EPR Mode Capable'),
 ];
-const fixedRdo = (kind: string, title: string, table: string): WordLayout => ({
-  kind,
-  title,
-  ref: `${RDO}, ${table}`,
-  bits: 32,
-  fields: [...rdoCommon(true), R(21, 20), U(19, 10, 'operatingCurrentMa', 'Operating Current', 10, 'mA'), U(9, 0, 'maxOperatingCurrentMa', 'Maximum Operating Current', 10, 'mA')],
-});
-const programmableRdo = (kind: string, title: string, table: string, step: number): WordLayout => ({
-  kind,
-  title,
-  ref: `${RDO}, ${table}`,
-  bits: 32,
-  fields: [...rdoCommon(false), R(21, 21), U(20, 9, 'outputVoltageMv', 'Output Voltage', step, 'mV'), R(8, 7), U(6, 0, 'operatingCurrentMa', 'Operating Current', 50, 'mA')],
-});
+const fixedRdo = (kind: string, title: string, table: string): WordLayout =>
+  word32(kind, title, `${RDO}, ${table}`, [
+    ...rdoCommon(true),
+    R(21, 20),
+    U(19, 10, 'operatingCurrentMa', 'Operating Current', 10, 'mA'),
+    U(9, 0, 'maxOperatingCurrentMa', 'Maximum Operating Current', 10, 'mA'),
+  ]);
+const programmableRdo = (kind: string, title: string, table: string, step: number): WordLayout =>
+  word32(kind, title, `${RDO}, ${table}`, [
+    ...rdoCommon(false),
+    R(21, 21),
+    U(20, 9, 'outputVoltageMv', 'Output Voltage', step, 'mV'),
+    R(8, 7),
+    U(6, 0, 'operatingCurrentMa', 'Operating Current', 50, 'mA'),
+  ]);
 
 export const RDO_LAYOUTS: Record<string, WordLayout> = {
   'rdo-fixed': fixedRdo('rdo-fixed', 'Fixed Supply RDO', 'Table 6.23'),
   'rdo-variable': fixedRdo('rdo-variable', 'Variable Supply RDO', 'Table 6.23'),
   rdo: fixedRdo('rdo', 'RDO (type unknown: read as Fixed/Variable)', 'Table 6.23'),
-  'rdo-battery': {
-    kind: 'rdo-battery',
-    title: 'Battery Supply RDO',
-    ref: `${RDO}, Table 6.24`,
-    bits: 32,
-    fields: [...rdoCommon(true), R(21, 20), U(19, 10, 'operatingPowerMw', 'Operating Power', 250, 'mW'), U(9, 0, 'maxOperatingPowerMw', 'Maximum Operating Power', 250, 'mW')],
-  },
+  'rdo-battery': word32('rdo-battery', 'Battery Supply RDO', `${RDO}, Table 6.24`, [
+    ...rdoCommon(true),
+    R(21, 20),
+    U(19, 10, 'operatingPowerMw', 'Operating Power', 250, 'mW'),
+    U(9, 0, 'maxOperatingPowerMw', 'Maximum Operating Power', 250, 'mW'),
+  ]),
   'rdo-pps': programmableRdo('rdo-pps', 'PPS RDO', 'Table 6.25', 20),
   'rdo-avs': programmableRdo('rdo-avs', 'AVS RDO', 'Table 6.26', 25),
 };

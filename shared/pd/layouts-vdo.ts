@@ -5,20 +5,8 @@
  * an open-source Type-C library's PD 3.1 field tables (not the specification text itself); fields
  * marked "from memory" were not confirmed there.
  */
-import type { FieldLayout, WordLayout } from './layout.ts';
-
-const R = (hi: number, lo: number): FieldLayout => ({ name: 'reserved', hi, lo, type: 'reserved', label: 'Reserved' });
-const flagAt = (bit: number, name: string, label: string, inverted = false): FieldLayout => ({ name, hi: bit, lo: bit, type: 'flag', label, ...(inverted ? { inverted } : {}) });
-const uint = (hi: number, lo: number, name: string, label: string, unit?: string, scale?: number): FieldLayout => ({
-  name,
-  hi,
-  lo,
-  type: 'uint',
-  label,
-  ...(unit ? { unit } : {}),
-  ...(scale ? { scale } : {}),
-});
-const enumAt = (hi: number, lo: number, name: string, label: string, values: Record<number, string>): FieldLayout => ({ name, hi, lo, type: 'enum', label, values });
+import { enumBits as enumAt, flagBit as flagAt, reservedBits as R, uintBits, word32 } from './field-layouts.ts';
+import type { WordLayout } from './layout.ts';
 
 const REF = 'USB PD R3.2 V1.1 §6.4.4.3.1';
 
@@ -44,99 +32,68 @@ const idHeaderTop = [
   flagAt(31, 'usbCommunicationsCapableAsHost', 'USB Communications Capable as USB Host'),
   flagAt(30, 'usbCommunicationsCapableAsDevice', 'USB Communications Capable as USB Device'),
 ];
-const idHeaderBottom = [enumAt(22, 21, 'connectorType', 'Connector Type', CONNECTOR), R(20, 16), uint(15, 0, 'usbVendorId', 'USB Vendor ID')];
+const idHeaderBottom = [enumAt(22, 21, 'connectorType', 'Connector Type', CONNECTOR), R(20, 16), uintBits(15, 0, 'usbVendorId', 'USB Vendor ID')];
 
 /** ID Header VDO of a port partner (on SOP). */
-export const ID_HEADER_LAYOUT: WordLayout = {
-  kind: 'id-header',
-  title: 'ID Header VDO',
-  ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`,
-  bits: 32,
-  fields: [
-    ...idHeaderTop,
-    enumAt(29, 27, 'productTypeUfp', 'Product Type (UFP)', PRODUCT_TYPE_UFP),
-    flagAt(26, 'modalOperationSupported', 'Modal Operation Supported'),
-    enumAt(25, 23, 'productTypeDfp', 'Product Type (DFP)', PRODUCT_TYPE_DFP),
-    ...idHeaderBottom,
-  ],
-};
+export const ID_HEADER_LAYOUT: WordLayout = word32('id-header', 'ID Header VDO', `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`, [
+  ...idHeaderTop,
+  enumAt(29, 27, 'productTypeUfp', 'Product Type (UFP)', PRODUCT_TYPE_UFP),
+  flagAt(26, 'modalOperationSupported', 'Modal Operation Supported'),
+  enumAt(25, 23, 'productTypeDfp', 'Product Type (DFP)', PRODUCT_TYPE_DFP),
+  ...idHeaderBottom,
+]);
 
 /** ID Header VDO of a cable plug or VPD (on SOP'); Product Type (DFP) is zero there. */
-export const CABLE_ID_HEADER_LAYOUT: WordLayout = {
-  kind: 'cable-id-header',
-  title: 'ID Header VDO (cable plug)',
-  ref: `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`,
-  bits: 32,
-  fields: [
-    ...idHeaderTop,
-    enumAt(29, 27, 'productTypeCablePlug', 'Product Type (Cable Plug/VPD)', PRODUCT_TYPE_CABLE),
-    flagAt(26, 'modalOperationSupported', 'Modal Operation Supported'),
-    R(25, 23),
-    ...idHeaderBottom,
-  ],
-};
+export const CABLE_ID_HEADER_LAYOUT: WordLayout = word32('cable-id-header', 'ID Header VDO (cable plug)', `${REF}.1, ID Header VDO table (R3.1 Table 6.33; number from memory)`, [
+  ...idHeaderTop,
+  enumAt(29, 27, 'productTypeCablePlug', 'Product Type (Cable Plug/VPD)', PRODUCT_TYPE_CABLE),
+  flagAt(26, 'modalOperationSupported', 'Modal Operation Supported'),
+  R(25, 23),
+  ...idHeaderBottom,
+]);
 
-export const CERT_STAT_LAYOUT: WordLayout = {
-  kind: 'cert-stat',
-  title: 'Cert Stat VDO',
-  ref: `${REF}.2, Cert Stat VDO table (R3.1 Table 6.37; number from memory)`,
-  bits: 32,
-  fields: [uint(31, 0, 'xid', 'XID (assigned by USB-IF)')],
-};
+export const CERT_STAT_LAYOUT: WordLayout = word32('cert-stat', 'Cert Stat VDO', `${REF}.2, Cert Stat VDO table (R3.1 Table 6.37; number from memory)`, [
+  uintBits(31, 0, 'xid', 'XID (assigned by USB-IF)'),
+]);
 
-export const PRODUCT_LAYOUT: WordLayout = {
-  kind: 'product',
-  title: 'Product VDO',
-  ref: `${REF}.3, Product VDO table (R3.1 Table 6.38; number from memory)`,
-  bits: 32,
-  fields: [uint(31, 16, 'usbProductId', 'USB Product ID'), uint(15, 0, 'bcdDevice', 'bcdDevice')],
-};
+export const PRODUCT_LAYOUT: WordLayout = word32('product', 'Product VDO', `${REF}.3, Product VDO table (R3.1 Table 6.38; number from memory)`, [
+  uintBits(31, 16, 'usbProductId', 'USB Product ID'),
+  uintBits(15, 0, 'bcdDevice', 'bcdDevice'),
+]);
 
-export const UFP_LAYOUT: WordLayout = {
-  kind: 'ufp',
-  title: 'UFP VDO',
-  ref: `${REF}.4, UFP VDO table (R3.1 Table 6.39; number from memory)`,
-  bits: 32,
-  fields: [
-    uint(31, 29, 'ufpVdoVersion', 'UFP VDO Version (011b = 1.3)'),
-    R(28, 28),
-    flagAt(27, 'usb4DeviceCapable', 'Device Capability: USB4 Device'),
-    flagAt(26, 'usb32DeviceCapable', 'Device Capability: USB 3.2 Device'),
-    flagAt(25, 'usb2BillboardOnly', 'Device Capability: USB 2.0 Device (Billboard only)'),
-    flagAt(24, 'usb2DeviceCapable', 'Device Capability: USB 2.0 Device'),
-    uint(23, 22, 'connectorTypeLegacy', 'Connector Type (Legacy; 00b in R3.1)'),
-    R(21, 11),
-    enumAt(10, 8, 'vconnPower', 'VCONN Power', { 0: '1 W', 1: '1.5 W', 2: '2 W', 3: '3 W', 4: '4 W', 5: '5 W', 6: '6 W' }),
-    flagAt(7, 'vconnRequired', 'VCONN Required'),
-    flagAt(6, 'vbusRequired', 'VBUS Required (0b = yes)', true),
-    flagAt(5, 'nonReconfigurableAlternateModes', "Alternate Modes: modes that do not reconfigure the connector's signals"),
-    flagAt(4, 'reconfigurableAlternateModes', "Alternate Modes: modes that reconfigure the connector's signals"),
-    flagAt(3, 'tbt3AlternateMode', 'Alternate Modes: TBT3'),
-    enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
-  ],
-};
+export const UFP_LAYOUT: WordLayout = word32('ufp', 'UFP VDO', `${REF}.4, UFP VDO table (R3.1 Table 6.39; number from memory)`, [
+  uintBits(31, 29, 'ufpVdoVersion', 'UFP VDO Version (011b = 1.3)'),
+  R(28, 28),
+  flagAt(27, 'usb4DeviceCapable', 'Device Capability: USB4 Device'),
+  flagAt(26, 'usb32DeviceCapable', 'Device Capability: USB 3.2 Device'),
+  flagAt(25, 'usb2BillboardOnly', 'Device Capability: USB 2.0 Device (Billboard only)'),
+  flagAt(24, 'usb2DeviceCapable', 'Device Capability: USB 2.0 Device'),
+  uintBits(23, 22, 'connectorTypeLegacy', 'Connector Type (Legacy; 00b in R3.1)'),
+  R(21, 11),
+  enumAt(10, 8, 'vconnPower', 'VCONN Power', { 0: '1 W', 1: '1.5 W', 2: '2 W', 3: '3 W', 4: '4 W', 5: '5 W', 6: '6 W' }),
+  flagAt(7, 'vconnRequired', 'VCONN Required'),
+  flagAt(6, 'vbusRequired', 'VBUS Required (0b = yes)', true),
+  flagAt(5, 'nonReconfigurableAlternateModes', "Alternate Modes: modes that do not reconfigure the connector's signals"),
+  flagAt(4, 'reconfigurableAlternateModes', "Alternate Modes: modes that reconfigure the connector's signals"),
+  flagAt(3, 'tbt3AlternateMode', 'Alternate Modes: TBT3'),
+  enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
+]);
 
-export const DFP_LAYOUT: WordLayout = {
-  kind: 'dfp',
-  title: 'DFP VDO',
-  ref: `${REF}.5, DFP VDO table (R3.1 Table 6.40; number from memory)`,
-  bits: 32,
-  fields: [
-    uint(31, 29, 'dfpVdoVersion', 'DFP VDO Version'),
-    R(28, 27),
-    flagAt(26, 'usb4HostCapable', 'Host Capability: USB4 Host'),
-    flagAt(25, 'usb32HostCapable', 'Host Capability: USB 3.2 Host'),
-    flagAt(24, 'usb2HostCapable', 'Host Capability: USB 2.0 Host'),
-    uint(23, 22, 'connectorTypeLegacy', 'Connector Type (Legacy; 00b in R3.1)'),
-    R(21, 5),
-    uint(4, 0, 'portNumber', 'Port Number'),
-  ],
-};
+export const DFP_LAYOUT: WordLayout = word32('dfp', 'DFP VDO', `${REF}.5, DFP VDO table (R3.1 Table 6.40; number from memory)`, [
+  uintBits(31, 29, 'dfpVdoVersion', 'DFP VDO Version'),
+  R(28, 27),
+  flagAt(26, 'usb4HostCapable', 'Host Capability: USB4 Host'),
+  flagAt(25, 'usb32HostCapable', 'Host Capability: USB 3.2 Host'),
+  flagAt(24, 'usb2HostCapable', 'Host Capability: USB 2.0 Host'),
+  uintBits(23, 22, 'connectorTypeLegacy', 'Connector Type (Legacy; 00b in R3.1)'),
+  R(21, 5),
+  uintBits(4, 0, 'portNumber', 'Port Number'),
+]);
 
 const cableTop = [
-  uint(31, 28, 'hwVersion', 'HW Version'),
-  uint(27, 24, 'firmwareVersion', 'Firmware Version'),
-  uint(23, 21, 'vdoVersion', 'VDO Version'),
+  uintBits(31, 28, 'hwVersion', 'HW Version'),
+  uintBits(27, 24, 'firmwareVersion', 'Firmware Version'),
+  uintBits(23, 21, 'vdoVersion', 'VDO Version'),
   R(20, 20),
   enumAt(19, 18, 'plugToPlugOrCaptive', 'USB Type-C plug to USB Type-C / Captive', PLUG),
   flagAt(17, 'eprModeCapable', 'EPR Mode Capable'),
@@ -153,102 +110,69 @@ const PASSIVE_LATENCY: Record<number, string> = {
 };
 const ACTIVE_LATENCY: Record<number, string> = { ...PASSIVE_LATENCY, 8: '1000 ns (~100 m)', 9: '2000 ns (~200 m)', 10: '3000 ns (~300 m)' };
 
-export const PASSIVE_CABLE_LAYOUT: WordLayout = {
-  kind: 'passive-cable',
-  title: 'Passive Cable VDO',
-  ref: `${REF}.6, Passive Cable VDO table (R3.1 Table 6.41; number from memory)`,
-  bits: 32,
-  fields: [
-    ...cableTop,
-    enumAt(16, 13, 'cableLatency', 'Cable Latency', PASSIVE_LATENCY),
-    enumAt(12, 11, 'cableTerminationType', 'Cable Termination Type', { 0: 'VCONN not required', 1: 'VCONN required' }),
-    enumAt(10, 9, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
-    R(8, 7),
-    enumAt(6, 5, 'vbusCurrentHandlingCapability', 'VBUS Current Handling Capability', { 1: '3 A', 2: '5 A' }),
-    R(4, 3),
-    enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
-  ],
-};
+export const PASSIVE_CABLE_LAYOUT: WordLayout = word32('passive-cable', 'Passive Cable VDO', `${REF}.6, Passive Cable VDO table (R3.1 Table 6.41; number from memory)`, [
+  ...cableTop,
+  enumAt(16, 13, 'cableLatency', 'Cable Latency', PASSIVE_LATENCY),
+  enumAt(12, 11, 'cableTerminationType', 'Cable Termination Type', { 0: 'VCONN not required', 1: 'VCONN required' }),
+  enumAt(10, 9, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
+  R(8, 7),
+  enumAt(6, 5, 'vbusCurrentHandlingCapability', 'VBUS Current Handling Capability', { 1: '3 A', 2: '5 A' }),
+  R(4, 3),
+  enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
+]);
 
-export const ACTIVE_CABLE_1_LAYOUT: WordLayout = {
-  kind: 'active-cable-1',
-  title: 'Active Cable VDO1',
-  ref: `${REF}.7, Active Cable VDO1 table (R3.1 Table 6.42; number from memory)`,
-  bits: 32,
-  fields: [
-    ...cableTop,
-    enumAt(16, 13, 'cableLatency', 'Cable Latency', ACTIVE_LATENCY),
-    enumAt(12, 11, 'cableTerminationType', 'Cable Termination Type', { 2: 'One end active, one end passive, VCONN required', 3: 'Both ends active, VCONN required' }),
-    enumAt(10, 9, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
-    flagAt(8, 'sbuSupported', 'SBU Supported (0b = supported)', true),
-    enumAt(7, 7, 'sbuType', 'SBU Type', { 0: 'Passive', 1: 'Active' }),
-    enumAt(6, 5, 'vbusCurrentHandlingCapability', 'VBUS Current Handling Capability', VBUS_CURRENT),
-    flagAt(4, 'vbusThroughCable', 'VBUS Through Cable'),
-    flagAt(3, 'sopDoublePrimeControllerPresent', "SOP'' Controller Present"),
-    enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
-  ],
-};
+export const ACTIVE_CABLE_1_LAYOUT: WordLayout = word32('active-cable-1', 'Active Cable VDO1', `${REF}.7, Active Cable VDO1 table (R3.1 Table 6.42; number from memory)`, [
+  ...cableTop,
+  enumAt(16, 13, 'cableLatency', 'Cable Latency', ACTIVE_LATENCY),
+  enumAt(12, 11, 'cableTerminationType', 'Cable Termination Type', { 2: 'One end active, one end passive, VCONN required', 3: 'Both ends active, VCONN required' }),
+  enumAt(10, 9, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
+  flagAt(8, 'sbuSupported', 'SBU Supported (0b = supported)', true),
+  enumAt(7, 7, 'sbuType', 'SBU Type', { 0: 'Passive', 1: 'Active' }),
+  enumAt(6, 5, 'vbusCurrentHandlingCapability', 'VBUS Current Handling Capability', VBUS_CURRENT),
+  flagAt(4, 'vbusThroughCable', 'VBUS Through Cable'),
+  flagAt(3, 'sopDoublePrimeControllerPresent', "SOP'' Controller Present"),
+  enumAt(2, 0, 'usbHighestSpeed', 'USB Highest Speed', USB_HIGHEST_SPEED),
+]);
 
-export const ACTIVE_CABLE_2_LAYOUT: WordLayout = {
-  kind: 'active-cable-2',
-  title: 'Active Cable VDO2',
-  ref: `${REF}.8, Active Cable VDO2 table (R3.1 Table 6.43; number from memory)`,
-  bits: 32,
-  fields: [
-    uint(31, 24, 'maxOperatingTemperatureC', 'Maximum Operating Temperature', '°C'),
-    uint(23, 16, 'shutdownTemperatureC', 'Shutdown Temperature', '°C'),
-    R(15, 15),
-    enumAt(14, 12, 'u3CldPower', 'U3/CLd Power', { 0: '>10 mW', 1: '5–10 mW', 2: '1–5 mW', 3: '0.5–1 mW', 4: '0.2–0.5 mW', 5: '50–200 µW', 6: '<50 µW' }),
-    enumAt(11, 11, 'u3ToU0TransitionMode', 'U3 to U0 transition mode', { 0: 'U3 to U0 direct', 1: 'U3 to U0 through U3S' }),
-    enumAt(10, 10, 'physicalConnection', 'Physical connection', { 0: 'Copper', 1: 'Optical' }),
-    enumAt(9, 9, 'activeElement', 'Active element', { 0: 'Active Re-driver', 1: 'Active Re-timer' }),
-    flagAt(8, 'usb4Supported', 'USB4 Supported (0b = supported)', true),
-    uint(7, 6, 'usb2HubHopsConsumed', 'USB 2.0 Hub Hops Consumed'),
-    flagAt(5, 'usb2Supported', 'USB 2.0 Supported (0b = supported)', true),
-    flagAt(4, 'usb32Supported', 'USB 3.2 Supported (0b = supported)', true),
-    enumAt(3, 3, 'usbLanesSupported', 'USB Lanes Supported', { 0: 'One lane', 1: 'Two lanes' }),
-    flagAt(2, 'opticallyIsolated', 'Optically Isolated Active Cable'),
-    flagAt(1, 'usb4AsymmetricMode', 'USB4 Asymmetric Mode Supported (R3.2; from memory)'),
-    enumAt(0, 0, 'usbGen', 'USB Gen', { 0: 'Gen 1', 1: 'Gen 2 or higher' }),
-  ],
-};
+export const ACTIVE_CABLE_2_LAYOUT: WordLayout = word32('active-cable-2', 'Active Cable VDO2', `${REF}.8, Active Cable VDO2 table (R3.1 Table 6.43; number from memory)`, [
+  uintBits(31, 24, 'maxOperatingTemperatureC', 'Maximum Operating Temperature', 1, '°C'),
+  uintBits(23, 16, 'shutdownTemperatureC', 'Shutdown Temperature', 1, '°C'),
+  R(15, 15),
+  enumAt(14, 12, 'u3CldPower', 'U3/CLd Power', { 0: '>10 mW', 1: '5–10 mW', 2: '1–5 mW', 3: '0.5–1 mW', 4: '0.2–0.5 mW', 5: '50–200 µW', 6: '<50 µW' }),
+  enumAt(11, 11, 'u3ToU0TransitionMode', 'U3 to U0 transition mode', { 0: 'U3 to U0 direct', 1: 'U3 to U0 through U3S' }),
+  enumAt(10, 10, 'physicalConnection', 'Physical connection', { 0: 'Copper', 1: 'Optical' }),
+  enumAt(9, 9, 'activeElement', 'Active element', { 0: 'Active Re-driver', 1: 'Active Re-timer' }),
+  flagAt(8, 'usb4Supported', 'USB4 Supported (0b = supported)', true),
+  uintBits(7, 6, 'usb2HubHopsConsumed', 'USB 2.0 Hub Hops Consumed'),
+  flagAt(5, 'usb2Supported', 'USB 2.0 Supported (0b = supported)', true),
+  flagAt(4, 'usb32Supported', 'USB 3.2 Supported (0b = supported)', true),
+  enumAt(3, 3, 'usbLanesSupported', 'USB Lanes Supported', { 0: 'One lane', 1: 'Two lanes' }),
+  flagAt(2, 'opticallyIsolated', 'Optically Isolated Active Cable'),
+  flagAt(1, 'usb4AsymmetricMode', 'USB4 Asymmetric Mode Supported (R3.2; from memory)'),
+  enumAt(0, 0, 'usbGen', 'USB Gen', { 0: 'Gen 1', 1: 'Gen 2 or higher' }),
+]);
 
-export const VPD_LAYOUT: WordLayout = {
-  kind: 'vpd',
-  title: 'VPD VDO',
-  ref: `${REF}.9, VPD VDO table (R3.1 Table 6.44; number from memory)`,
-  bits: 32,
-  fields: [
-    uint(31, 28, 'hwVersion', 'HW Version'),
-    uint(27, 24, 'firmwareVersion', 'Firmware Version'),
-    uint(23, 21, 'vdoVersion', 'VDO Version'),
-    R(20, 17),
-    enumAt(16, 15, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
-    enumAt(14, 14, 'chargeThroughCurrentSupport', 'Charge Through Current Support', { 0: '3 A', 1: '5 A' }),
-    R(13, 13),
-    uint(12, 7, 'vbusImpedanceMohm', 'VBUS Impedance (2 mΩ units)', 'mΩ', 2),
-    uint(6, 1, 'groundImpedanceMohm', 'Ground Impedance (1 mΩ units)', 'mΩ'),
-    flagAt(0, 'chargeThroughSupport', 'Charge Through Support'),
-  ],
-};
+export const VPD_LAYOUT: WordLayout = word32('vpd', 'VPD VDO', `${REF}.9, VPD VDO table (R3.1 Table 6.44; number from memory)`, [
+  uintBits(31, 28, 'hwVersion', 'HW Version'),
+  uintBits(27, 24, 'firmwareVersion', 'Firmware Version'),
+  uintBits(23, 21, 'vdoVersion', 'VDO Version'),
+  R(20, 17),
+  enumAt(16, 15, 'maximumVbusVoltage', 'Maximum VBUS Voltage', MAX_VBUS_VOLTAGE),
+  enumAt(14, 14, 'chargeThroughCurrentSupport', 'Charge Through Current Support', { 0: '3 A', 1: '5 A' }),
+  R(13, 13),
+  uintBits(12, 7, 'vbusImpedanceMohm', 'VBUS Impedance (2 mΩ units)', 2, 'mΩ'),
+  uintBits(6, 1, 'groundImpedanceMohm', 'Ground Impedance (1 mΩ units)', 1, 'mΩ'),
+  flagAt(0, 'chargeThroughSupport', 'Charge Through Support'),
+]);
 
 /** Discover SVIDs ACK: two SVIDs a VDO; a zero SVID ends the list (§6.4.4.3.2). */
-export const SVIDS_LAYOUT: WordLayout = {
-  kind: 'svids',
-  title: 'Discover SVIDs Responder VDO',
-  ref: 'USB PD R3.2 V1.1 §6.4.4.3.2, Discover SVIDs Responder VDO table (R3.1 Table 6.45)',
-  bits: 32,
-  fields: [uint(31, 16, 'svidN', 'SVID n'), uint(15, 0, 'svidNPlus1', 'SVID n+1')],
-};
+export const SVIDS_LAYOUT: WordLayout = word32('svids', 'Discover SVIDs Responder VDO', 'USB PD R3.2 V1.1 §6.4.4.3.2, Discover SVIDs Responder VDO table (R3.1 Table 6.45)', [
+  uintBits(31, 16, 'svidN', 'SVID n'),
+  uintBits(15, 0, 'svidNPlus1', 'SVID n+1'),
+]);
 
 /** The 32-bit pad between the UFP and DFP VDOs of a dual-role port (all zero; from memory). */
-export const PAD_LAYOUT: WordLayout = {
-  kind: 'pad',
-  title: 'Pad (between UFP and DFP VDOs)',
-  ref: `${REF}, Discover Identity response of a DRD (from memory)`,
-  bits: 32,
-  fields: [R(31, 0)],
-};
+export const PAD_LAYOUT: WordLayout = word32('pad', 'Pad (between UFP and DFP VDOs)', `${REF}, Discover Identity response of a DRD (from memory)`, [R(31, 0)]);
 
 export const VDO_LAYOUTS: Readonly<Record<string, WordLayout>> = {
   'id-header': ID_HEADER_LAYOUT,

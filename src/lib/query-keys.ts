@@ -20,6 +20,7 @@ export function createQueryKeys<const TName extends string>(name: TName) {
 export const auditKeys = createQueryKeys('audit');
 export const deviceKeys = createQueryKeys('devices');
 export const outboxKeys = createQueryKeys('outbox');
+export const propertyQueueKeys = createQueryKeys('property-queue');
 export const runKeys = createQueryKeys('runs');
 export const tokenKeys = createQueryKeys('tokens');
 export const traceKeys = createQueryKeys('traces');

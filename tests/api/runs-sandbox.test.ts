@@ -95,7 +95,7 @@ describe('property vectors in a server run', () => {
     const results = run.body.results as { vectorId: string; ok: boolean; message: string }[];
     expect(results.map((r) => r.vectorId).sort()).toEqual([...ids].sort());
     for (const result of results) {
-      expect(result.message).toContain('Access to this API has been restricted (property code runs in a sandbox without access to files, processes, workers or signals)');
+      expect(result.message).toContain('Access to this API has been restricted (property code runs in a sandbox without access to files, processes, workers, signals or the network)');
       expect(result.message).not.toContain(secret);
     }
     expect(JSON.stringify(run.body)).not.toContain(secret);

@@ -8,18 +8,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { CliIo } from '../../cli/io.ts';
-import { runCli } from '../../cli/main.ts';
 import { formatVector } from '../../shared/vectors/format.ts';
 import { LIBRARY_DIR } from './support.ts';
+import { runCaptured } from '../../cli/test-io.ts';
 
-async function cli(args: string[], cwd = LIBRARY_DIR) {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = { stdout: (t) => (stdout += t), stderr: (t) => (stderr += t), isTty: false, cwd, readStdin: async () => '' };
-  const code = await runCli(args, io);
-  return { code, stdout, stderr };
-}
+const cli = (args: string[], cwd = LIBRARY_DIR) => runCaptured(args, { cwd });
 
 const scratch = mkdtempSync(join(tmpdir(), 'parley-run-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));

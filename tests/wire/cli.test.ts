@@ -4,30 +4,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import CRC32 from 'crc-32';
-import { runCli } from '../../cli/main.ts';
-import type { CliIo } from '../../cli/io.ts';
 import { WIRE_FIXTURES } from './fixtures.ts';
+import { runCaptured } from '../../cli/test-io.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'parley-wire-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function cli(...argv: string[]) {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    stdout: (t) => {
-      stdout += t;
-    },
-    stderr: (t) => {
-      stderr += t;
-    },
-    isTty: false,
-    cwd: dir,
-    readStdin: async () => '',
-  };
-  const code = await runCli(argv, io);
-  return { code, stdout, stderr, json: () => JSON.parse(stdout) as Record<string, unknown> };
-}
+const cli = (...argv: string[]) => runCaptured(argv, { cwd: dir });
 
 describe('parley wire', () => {
   it('encodes messages to a VCD and decodes them back with their decoded form', async () => {

@@ -22,20 +22,34 @@ async function checkParts(deps: AppDeps): Promise<{ database: Part; storage: Par
 }
 
 /**
+ * The property sandbox's mode (`bubblewrap` or `fallback`, with the reason), for admins only. It
+ * never makes health fail: a server whose sandbox cannot start still serves everything else.
+ */
+async function sandboxPart(deps: AppDeps): Promise<Part | undefined> {
+  const status = deps.runPool.sandboxStatus?.('');
+  if (status === undefined) return undefined;
+  return status.then(
+    ({ info }): Part => ({ ok: true, kind: info.mode, ...(info.fallbackReason ? { message: info.fallbackReason } : {}) }),
+    (error: unknown): Part => ({ ok: false, kind: 'unavailable', message: error instanceof Error ? error.message : String(error) }),
+  );
+}
+
+/**
  * `/api/health`: is this instance alive, and how are the database, the trace storage and the job
- * queue (a part that fails makes it 503). `/api/health/ready`: may a load balancer send requests
- * here (200) or not (503, e.g. while it shuts down). Neither says more than the kinds in use.
+ * queue (a part that fails makes it 503); an admin also sees the property sandbox's mode.
+ * `/api/health/ready`: may a load balancer send requests here (200) or not (503, e.g. while it
+ * shuts down). Neither says more than the kinds in use.
  */
 export const healthRoutes: RouteDef[] = [
   route({
     method: 'get',
     path: '/api/health',
     access: 'anyone',
-    async handler({ deps, res }) {
-      const parts = await checkParts(deps);
+    async handler({ deps, res, user }) {
+      const [parts, sandbox] = await Promise.all([checkParts(deps), user?.role === 'admin' ? sandboxPart(deps) : undefined]);
       const ok = parts.database.ok && parts.storage.ok && parts.queue.ok;
       if (!ok) res.status(503);
-      return { ok, ...parts };
+      return { ok, ...parts, ...(sandbox ? { sandbox } : {}) };
     },
   }),
   route({

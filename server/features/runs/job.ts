@@ -10,6 +10,7 @@ import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { RunResult, TeamVector, TestRun, type IRunResult, type ITestRun, type RunResultDetail } from '../../db/library-entities.ts';
 import type { AppDeps } from '../../context.ts';
 import type { RunPool } from '../../runner/pool.ts';
+import { queueOwner } from '../../runner/property-sandbox.ts';
 import type { RunVectorTask } from '../../runner/run-task.ts';
 import { builtInVectorsDir } from '../vectors/seed.ts';
 import type { VectorResult } from '../../../shared/vectors/index.ts';
@@ -21,6 +22,8 @@ export const vectorRunJob = jobKind<{ runId: number; vectorIds: string[] }, RunE
 
 /** Vectors per worker message and per database write. */
 export const RUN_BATCH_SIZE = 48;
+/** Least time between two progress events of a run (the final event always goes). */
+export const PROGRESS_EVERY_MS = 250;
 
 /** Evidence kept for one failure; an enormous actual output is cut rather than stored whole. */
 const MAX_DETAIL_CHARS = 256 * 1024;
@@ -96,9 +99,23 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
   const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
+  // The property sandbox gives each user (or CI token) its turn.
+  const owner = queueOwner(run);
   let passed = await em.count(RunResult, { runId, ok: true });
   let failed = stored.size - passed;
   job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed });
+  // Progress at most every PROGRESS_EVERY_MS: a run of the whole library is a hundred batches,
+  // and every event is a write to each open stream (a NOTIFY with PostgreSQL).
+  let lastProgressMs = 0;
+  let held: RunEvent | undefined;
+  const publishProgress = (event: RunEvent) => {
+    const nowMs = Date.now();
+    held = event;
+    if (nowMs - lastProgressMs < PROGRESS_EVERY_MS) return;
+    lastProgressMs = nowMs;
+    held = undefined;
+    job.publish(event);
+  };
   // As many batches in flight as the pool has threads, plus one waiting, so no thread idles.
   const batches = batchesOf(pending, RUN_BATCH_SIZE);
   let next = 0;
@@ -111,7 +128,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       const present = ids.filter((id) => byId.has(id));
       const results = await runBatch(
         deps.runPool,
-        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind })),
+        present.map((id) => ({ text: byId.get(id)!.text, vectorId: id, vectorsRoot: builtInVectorsDir, kind: byId.get(id)!.kind, owner })),
       );
       if (job.signal.aborted) return;
       const now = deps.clock.now();
@@ -154,17 +171,19 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
       }
       // One transaction per batch: its results and the run's counts.
       const counts = { done: passed + failed, passed, failed };
+      // One multi-row insert (no unit of work to compute on the request thread) and the run's counts.
       await batchEm.transactional(async (tx) => {
-        for (const record of records) tx.create(RunResult, record);
-        await tx.flush();
+        await tx.insertMany(RunResult, records as IRunResult[]);
         await tx.nativeUpdate(TestRun, { id: runId }, counts);
       });
       const lastRecord = records[records.length - 1]!;
       const last = { id: lastRecord.vectorId, ok: lastRecord.ok, durationMs: lastRecord.durationMs, ...(lastRecord.message ? { message: lastRecord.message } : {}) };
-      job.publish({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });
+      publishProgress({ type: 'progress', runId, done: passed + failed, total, passed, failed, last });
     }
   };
   await Promise.all(Array.from({ length: Math.max(1, Math.min(batches.length, deps.runPool.threads ?? 2) + 1) }, lane));
   if (job.signal.aborted) return;
+  // The last counts before the final event, so a progress bar reaches its end.
+  if (held) job.publish(held);
   job.publish(runEvent(await finishRun(deps.orm.em.fork(), deps, runId)));
 }

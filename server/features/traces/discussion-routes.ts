@@ -29,6 +29,8 @@ function shareLimit(deps: AppDeps): RequestHandler[] {
       limit,
       standardHeaders: 'draft-8',
       legacyHeaders: false,
+      // The shared store when there are several instances (DATABASE_URL), else this process's memory.
+      store: deps.rateLimitStore('share:user'),
       keyGenerator: (_req, res) => `user:${String(res.locals.user?.id ?? 'anonymous')}`,
       handler: (_req, _res, next) => next(rateLimited(`You have shared ${limit} diagnoses recently; try again later`)),
     }),

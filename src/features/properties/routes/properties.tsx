@@ -8,6 +8,7 @@ import { CounterexamplePanel } from '../components/counterexample-panel.tsx';
 import { ResultPanel, type RunOutcome } from '../components/result-panel.tsx';
 import { readSettings, RunControls, type RunSettings } from '../components/run-panel.tsx';
 import { propertyVectorOf, SavePropertyPanel, vectorProblem, type PropertyMeta } from '../components/save-property-panel.tsx';
+import { ServerQueuePanel } from '../components/server-queue-panel.tsx';
 import { useEngineTypes } from '../lib/engine-types.ts';
 import { blankExample, examples, type PropertyExample } from '../lib/examples.ts';
 import { nameForCode } from '../lib/follow-code.ts';
@@ -151,6 +152,9 @@ export function PropertiesRoute() {
           <CounterexamplePanel key={String(counterexampleVector.id) + checked.result.durationMs} run={checked.counterexampleRun} vector={counterexampleVector} />
         </div>
       )}
+      <div className="mt-6">
+        <ServerQueuePanel />
+      </div>
     </>
   );
 }

@@ -1,11 +1,21 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
-import type { Analysis } from '../../../../shared/api/index.ts';
+import type { IndexedContract } from '../../../../shared/api/index.ts';
 import { contractLabel, formatPower, formatSeconds } from '../lib/format.ts';
 
-type ContractRow = Analysis['contracts'][number] & { index: number; untilUs: number };
+type ContractRow = IndexedContract & { untilUs: number };
 
-const pageSize = 25;
+/** Rows a page of the table shows, and asks the server for. */
+export const CONTRACTS_PAGE_SIZE = 25;
+
+export type ContractsTableProps = {
+  rows: readonly IndexedContract[];
+  /** When the page's last contract ended: the next page's first, or the end of the trace. */
+  nextUs: number;
+  total: number;
+  pageIndex: number;
+  onPageChange(pageIndex: number): void;
+};
 const col = dataColumnHelper<ContractRow>();
 const columns = col.columns([
   col.accessor('t', {
@@ -35,20 +45,13 @@ const columns = col.columns([
 ]);
 
 /**
- * Each contract change at its PS_RDY, in order: what the sink got and for how long. Paged like the
- * findings (a source that steps a programmable supply every 500 ms makes thousands of contracts).
+ * Each contract change at its PS_RDY, in order: what the sink got and for how long. Paged by the
+ * server (a source that steps a programmable supply every 500 ms makes thousands of contracts);
+ * the last row's end is the next page's first contract.
  */
-export function ContractsTable({ contracts, endUs }: { contracts: Analysis['contracts']; endUs: number }) {
-  const [pageIndex, setPageIndex] = useState(0);
-  const page = useMemo(
-    () =>
-      contracts.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize).map((c, offset) => {
-        const index = pageIndex * pageSize + offset;
-        return { ...c, index, untilUs: contracts[index + 1]?.t ?? endUs };
-      }),
-    [contracts, pageIndex, endUs],
-  );
-  if (contracts.length === 0) return <p className="text-sm text-slate-600 dark:text-slate-400">No contract was reached: the source and sink never finished a negotiation.</p>;
+export function ContractsTable({ rows, nextUs, total, pageIndex, onPageChange }: ContractsTableProps) {
+  const page = useMemo(() => rows.map((c, offset) => ({ ...c, untilUs: rows[offset + 1]?.t ?? nextUs })), [rows, nextUs]);
+  if (total === 0) return <p className="text-sm text-slate-600 dark:text-slate-400">No contract was reached: the source and sink never finished a negotiation.</p>;
   return (
     <DataTable
       label="Contracts over time"
@@ -56,7 +59,7 @@ export function ContractsTable({ contracts, endUs }: { contracts: Analysis['cont
       columns={columns}
       data={page}
       getRowId={(row) => String(row.index)}
-      pagination={contracts.length > pageSize ? { pageIndex, pageSize, rowCount: contracts.length, onPageChange: setPageIndex } : undefined}
+      pagination={total > CONTRACTS_PAGE_SIZE ? { pageIndex, pageSize: CONTRACTS_PAGE_SIZE, rowCount: total, onPageChange } : undefined}
     />
   );
 }

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { DataTable, dataColumnHelper } from '../../../components/data-table.tsx';
 import { SeverityBadge } from '../../../components/badge.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
@@ -8,21 +8,23 @@ import { formatSeconds } from '../lib/format.ts';
 
 export type FindingRow = Finding & { index: number };
 
-const pageSize = 25;
+/** Rows a page of the table shows, and asks the server for. */
+export const FINDINGS_PAGE_SIZE = 25;
 
 export type FindingsTableProps = {
-  findings: readonly Finding[];
+  /** One page of the findings (the server's), each with its index in the whole list. */
+  rows: readonly FindingRow[];
+  total: number;
+  pageIndex: number;
+  onPageChange(pageIndex: number): void;
   selectedIndex?: number;
   /** A finding with a time was chosen: the page zooms the timeline to it. */
-  onShow(index: number): void;
+  onShow(index: number, tUs: number): void;
   omitted?: number;
 };
 
-/** Every finding with its rule (linked to the rule's page) and its time (linked to the timeline). */
-export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: FindingsTableProps) {
-  const [pageIndex, setPageIndex] = useState(0);
-  const rows = useMemo(() => findings.map((f, index) => ({ ...f, index })), [findings]);
-  const page = useMemo(() => rows.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize), [rows, pageIndex]);
+/** Every finding with its rule (linked to the rule's page) and its time (linked to the timeline), a page at a time. */
+export function FindingsTable({ rows: page, total, pageIndex, onPageChange, selectedIndex, onShow, omitted = 0 }: FindingsTableProps) {
   const columns = useMemo(() => {
     const col = dataColumnHelper<FindingRow>();
     return col.columns([
@@ -44,7 +46,7 @@ export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: 
               className="whitespace-nowrap text-amber-800 underline decoration-dotted underline-offset-2 dark:text-amber-300"
               onClick={(event) => {
                 event.stopPropagation();
-                onShow(row.original.index);
+                if (row.original.t !== undefined) onShow(row.original.index, row.original.t);
               }}
               aria-label={`Show ${row.original.rule} at ${formatSeconds(row.original.t)} on the timeline`}
             >
@@ -83,11 +85,11 @@ export function FindingsTable({ findings, selectedIndex, onShow, omitted = 0 }: 
         label="Findings"
         dense
         columns={columns}
-        data={page}
+        data={page as FindingRow[]}
         getRowId={(row) => String(row.index)}
         selectedRowId={selectedIndex === undefined ? undefined : String(selectedIndex)}
-        onRowClick={(row) => row.t !== undefined && onShow(row.index)}
-        pagination={rows.length > pageSize ? { pageIndex, pageSize, rowCount: rows.length, onPageChange: setPageIndex } : undefined}
+        onRowClick={(row) => row.t !== undefined && onShow(row.index, row.t)}
+        pagination={total > FINDINGS_PAGE_SIZE ? { pageIndex, pageSize: FINDINGS_PAGE_SIZE, rowCount: total, onPageChange } : undefined}
         empty={<EmptyState title="No findings" description="Every check passed on this trace." />}
       />
       {omitted > 0 && <p className="text-xs text-slate-500">{omitted} more findings were counted but not listed (the list keeps the first 5 000).</p>}

@@ -11,7 +11,7 @@ import { TimelineLegend } from '../../../components/timeline/timeline-legend.tsx
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import { countsText, SEVERITY_WORD } from '../../../lib/plural.ts';
 import { contractLabel, formatPower, formatSeconds } from '../lib/format.ts';
-import { timelineInput } from '../lib/timeline-input.ts';
+import { timelineInputOfAnalysis } from '../lib/timeline-input.ts';
 
 export type ReportData = {
   title: string;
@@ -49,7 +49,7 @@ const nothing = () => undefined;
  * No comments of the team; printable, with page breaks between rows and sections, never inside.
  */
 export function ReportView({ data }: { data: ReportData }) {
-  const input = useMemo(() => timelineInput({ timeline: data.timeline, findings: data.findings } as unknown as Analysis), [data]);
+  const input = useMemo(() => timelineInputOfAnalysis({ timeline: data.timeline, findings: data.findings } as unknown as Analysis), [data]);
   const pins = useMemo(() => data.findings.flatMap((f) => (f.t === undefined ? [] : [{ tUs: f.t, tone: f.severity, label: f.rule }])), [data.findings]);
   const events = useMemo(() => chartEventsOf(input.events), [input.events]);
   const whole = useMemo(() => ({ startUs: 0, endUs: input.endUs }), [input.endUs]);

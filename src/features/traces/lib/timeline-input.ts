@@ -9,7 +9,8 @@ import type { TimelineSpan } from '../../../components/timeline/trace-timeline.t
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
 import type { BusEvent } from '../../../components/timeline/event-lane.tsx';
-import type { Analysis } from '../../../../shared/api/index.ts';
+import type { Analysis, AnalysisSummary, TimelineWindow } from '../../../../shared/api/index.ts';
+import { plural } from '../../../lib/plural.ts';
 import { contractLabel } from './format.ts';
 
 export type TimelineInput = {
@@ -31,7 +32,41 @@ function limitsMv(kind: string, voltageMv: number): [number, number] | null {
   return null;
 }
 
-export function timelineInput(analysis: Analysis): TimelineInput {
+/**
+ * The chart's input from one window of the timeline (the server reads only that window) and the
+ * analysis summary. Messages come with their place in the whole timeline; a GoodCRC's link is
+ * turned into a place in this window's list (or dropped when its message is outside it).
+ */
+export function timelineInput(summary: AnalysisSummary, view: TimelineWindow): TimelineInput {
+  const { endUs, timeline } = summary;
+  const contracts = view.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
+  const bands = view.contracts.flatMap((c) => {
+    const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
+    return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
+  });
+  const placeOf = new Map<number, number>();
+  for (const [place, m] of view.messages.entries()) placeOf.set(m.index, place);
+  const messages: LaneMessage[] = view.messages.map(({ index: _index, goodCrcFor, ...m }) => {
+    const acknowledged = goodCrcFor === undefined ? undefined : placeOf.get(goodCrcFor);
+    return acknowledged === undefined ? m : { ...m, goodCrcFor: acknowledged };
+  });
+  const parts = [
+    timeline.omitted.messages > 0 ? `the first ${plural(timeline.messages, 'message')} (${timeline.omitted.messages} later ones are left out)` : '',
+    view.messagesOmitted > 0 ? `the first ${plural(view.messages.length, 'message')} of this window (zoom in to see the other ${view.messagesOmitted})` : '',
+    timeline.measurementStride > 1 || view.measurementLevel > 0 ? 'a thinned series of VBUS readings that keeps every low and high' : '',
+  ].filter(Boolean);
+  return {
+    measurements: view.measurements,
+    messages,
+    events: view.events,
+    contracts,
+    bands,
+    endUs,
+    omitted: parts.length > 0 ? `The timeline draws ${parts.join(' and ')}; the findings cover the whole file.` : null,
+  };
+}
+/** The same from a whole analysis (the printable report, which reads it all). */
+export function timelineInputOfAnalysis(analysis: Analysis): TimelineInput {
   const { timeline } = analysis;
   const lastMessage = timeline.messages[timeline.messages.length - 1];
   const lastMeasurement = timeline.measurements[timeline.measurements.length - 1];

@@ -11,13 +11,17 @@ import { paths } from '../../../config/paths.ts';
 import { useUser } from '../../../lib/auth.ts';
 import { formatDateTime } from '../../../lib/format.ts';
 import { traceDownloads } from '../api/downloads.ts';
-import { useTrace } from '../../../lib/api/get-trace.ts';
 import { traceKeys } from '../../../lib/query-keys.ts';
-import type { Analysis, AnalysisEvent, TraceItem } from '../../../../shared/api/index.ts';
+import type { AnalysisEvent, AnalysisSummary, TraceItem } from '../../../../shared/api/index.ts';
+import { useTraceContracts } from '../api/get-trace-contracts.ts';
+import { useTraceFindings } from '../api/get-trace-findings.ts';
+import { useTraceSummary } from '../api/get-trace-summary.ts';
+import { useTraceTimeline } from '../api/get-trace-timeline.ts';
+import type { PinnedFinding } from '../../../components/timeline/finding-pins.tsx';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { CommentThread } from '../components/comment-thread.tsx';
-import { ContractsTable } from '../components/contracts-table.tsx';
-import { FindingsTable } from '../components/findings-table.tsx';
+import { CONTRACTS_PAGE_SIZE, ContractsTable } from '../components/contracts-table.tsx';
+import { FINDINGS_PAGE_SIZE, FindingsTable } from '../components/findings-table.tsx';
 import { ShareDialog } from '../components/share-dialog.tsx';
 import { FindingCounts } from '../components/traces-table.tsx';
 import { timelineInput } from '../lib/timeline-input.ts';
@@ -36,13 +40,14 @@ function windowFromParams(params: URLSearchParams): TimeWindow | null {
 }
 
 /** Writes the window into the URL a moment after it settles (a brush drag is many windows). */
-function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1]) {
+function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1], setView: (window: TimeWindow) => void) {
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   useEffect(() => () => clearTimeout(timer.current), []);
   return useCallback(
     (next: TimeWindow) => {
       clearTimeout(timer.current);
       timer.current = setTimeout(() => {
+        setView(next);
         setParams(
           (current) => {
             const params = new URLSearchParams(current);
@@ -54,13 +59,13 @@ function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1]) {
         );
       }, 300);
     },
-    [setParams],
+    [setParams, setView],
   );
 }
 
 export function TraceRoute() {
   const { traceId = '' } = useParams();
-  const trace = useTrace(traceId);
+  const trace = useTraceSummary(traceId);
   // Arriving from a scrolled list, start at the top of the trace.
   // biome-ignore lint/correctness/useExhaustiveDependencies: each new trace id is the trigger
   useEffect(() => {
@@ -93,21 +98,45 @@ function AnalysisProgress({ item }: { item: TraceItem }) {
   );
 }
 
-function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | null }) {
+/** The timeline asks for about this many VBUS readings and at most this many messages, spans and pins per window. */
+const WINDOW_READ = { points: 2_000, limit: 5_000 };
+const NO_PINS: PinnedFinding[] = [];
+/** At least this much is read beyond each edge of the window (invented: a sparse log reads VBUS about once a second). */
+const READ_MARGIN_MIN_US = 1_000_000;
+
+function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSummary | null }) {
   const user = useUser();
   const [params, setParams] = useSearchParams();
   const [shareOpen, setShareOpen] = useState(false);
   const selected = params.get('finding') === null ? undefined : Number(params.get('finding'));
   const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
   const canWrite = mayWriteTraces(user.role);
-  const input = useMemo(() => (analysis ? timelineInput(analysis) : null), [analysis]);
+  const done = item.status === 'done' && analysis !== null;
+  const endUs = analysis?.endUs ?? 1;
   // The zoom is in the URL (?from=&to=, µs), so a copied link opens the same moment.
   const [initialWindow] = useState(() => windowFromParams(params));
-  const saveWindow = useDebouncedWindow(setParams);
+  // What the page reads: the window on screen (the server answers only for it), a page of each table.
+  const [view, setView] = useState<TimeWindow | null>(initialWindow);
+  const saveWindow = useDebouncedWindow(setParams, setView);
+  const shown = view ?? { startUs: 0, endUs };
+  // Read a margin either side: the reading before the window holds its value into it, and a small pan needs no new read.
+  const marginUs = Math.max(shown.endUs - shown.startUs, READ_MARGIN_MIN_US);
+  const timeline = useTraceTimeline(item.id, { startUs: Math.max(0, shown.startUs - marginUs), endUs: Math.min(endUs, shown.endUs + marginUs), ...WINDOW_READ }, done);
+  const [findingsPage, setFindingsPage] = useState(() => (selected === undefined ? 0 : Math.floor(selected / FINDINGS_PAGE_SIZE)));
+  const findings = useTraceFindings(item.id, { page: findingsPage + 1, pageSize: FINDINGS_PAGE_SIZE }, done);
+  const [contractsPage, setContractsPage] = useState(0);
+  const contracts = useTraceContracts(item.id, { page: contractsPage + 1, pageSize: CONTRACTS_PAGE_SIZE }, done);
+  const contractsTotal = contracts.data?.total ?? 0;
+  const hasNextContracts = (contractsPage + 1) * CONTRACTS_PAGE_SIZE < contractsTotal;
+  // The next page's first contract ends this page's last; asking for it early also makes "next" instant.
+  const nextContracts = useTraceContracts(item.id, { page: contractsPage + 2, pageSize: CONTRACTS_PAGE_SIZE }, done && hasNextContracts);
+  const input = useMemo(() => (analysis && timeline.data ? timelineInput(analysis, timeline.data) : null), [analysis, timeline.data]);
+  const pinsRead = timeline.data?.findings;
+  const pins = useMemo<PinnedFinding[]>(() => (pinsRead ? pinsRead.map((pin) => ({ t: pin.t, severity: pin.severity, rule: pin.rule, message: pin.rule })) : NO_PINS), [pinsRead]);
+  const selectedPin = selected === undefined || !pinsRead ? undefined : pinsRead.findIndex((pin) => pin.index === selected);
 
   const show = useCallback(
-    (index: number) => {
-      const t = analysis?.findings[index]?.t;
+    (index: number, tUs: number | undefined) => {
       setParams(
         (current) => {
           const next = new URLSearchParams(current);
@@ -116,19 +145,27 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
         },
         { replace: true },
       );
-      if (t !== undefined) setFocus({ tUs: t, key: Date.now() });
+      setFindingsPage(Math.floor(index / FINDINGS_PAGE_SIZE));
+      if (tUs !== undefined) setFocus({ tUs, key: Date.now() });
     },
-    [analysis, setParams],
+    [setParams],
+  );
+  const showPin = useCallback(
+    (place: number) => {
+      const pin = pinsRead?.[place];
+      if (pin) show(pin.index, pin.t);
+    },
+    [pinsRead, show],
   );
 
-  // A link with ?finding= opens the timeline at that finding, once, when the analysis arrives.
+  // A link with ?finding= opens the timeline at that finding, once, when its page of findings arrives.
   const arrived = useRef(false);
   useEffect(() => {
-    if (arrived.current || !analysis) return;
+    if (arrived.current || !findings.data) return;
     arrived.current = true;
-    const t = selected === undefined ? undefined : analysis.findings[selected]?.t;
+    const t = selected === undefined ? undefined : findings.data.items.find((f) => f.index === selected)?.t;
     if (t !== undefined) setFocus({ tUs: t, key: 0 });
-  }, [analysis, selected]);
+  }, [findings.data, selected]);
 
   const meta = [
     item.device?.name,
@@ -137,7 +174,6 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
     `uploaded by ${item.uploader.name} ${formatDateTime(item.createdAt)}`,
   ].filter(Boolean);
 
-  const done = item.status === 'done' && analysis !== null;
   const actions = (
     <div className="flex flex-wrap gap-2" data-testid="trace-actions">
       {canWrite && done && (
@@ -186,7 +222,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
             )}
           </Card>
         )}
-        {done && input && (
+        {done && input && analysis && (
           <Card>
             <CardHeader
               title="Timeline"
@@ -202,7 +238,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
                 <TraceTimeline
                   measurements={input.measurements}
                   messages={input.messages}
-                  findings={analysis.findings}
+                  findings={pins}
                   events={input.events}
                   initialWindow={initialWindow}
                   onWindowChange={saveWindow}
@@ -210,8 +246,8 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
                   bands={input.bands}
                   endUs={input.endUs}
                   focus={focus}
-                  selectedFinding={selected}
-                  onSelectFinding={show}
+                  selectedFinding={selectedPin === -1 ? undefined : selectedPin}
+                  onSelectFinding={showPin}
                 />
               </Suspense>
               {input.omitted && <p className="mt-2 text-xs text-slate-500">{input.omitted}</p>}
@@ -221,15 +257,23 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: Analysis | n
         {done && (
           <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
             <Card>
-              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findings.length}</Badge>} />
+              <CardHeader title="Findings" description="Click a time to see it on the timeline; click a rule to read what it means." actions={<Badge mono>{analysis.findingsListed}</Badge>} />
               <CardBody>
-                <FindingsTable findings={analysis.findings} selectedIndex={selected} onShow={show} omitted={analysis.findingsOmitted} />
+                <FindingsTable
+                  rows={findings.data?.items ?? []}
+                  total={findings.data?.total ?? 0}
+                  pageIndex={findingsPage}
+                  onPageChange={setFindingsPage}
+                  selectedIndex={selected}
+                  onShow={show}
+                  omitted={analysis.findingsOmitted}
+                />
               </CardBody>
             </Card>
             <Card>
               <CardHeader title="Contracts over time" />
               <CardBody>
-                <ContractsTable contracts={analysis.contracts} endUs={input?.endUs ?? 0} />
+                <ContractsTable rows={contracts.data?.items ?? []} nextUs={nextContracts.data?.items[0]?.t ?? endUs} total={contractsTotal} pageIndex={contractsPage} onPageChange={setContractsPage} />
               </CardBody>
             </Card>
           </div>
