@@ -60,7 +60,7 @@ describe.skipIf(!hasChromium)('writes from another origin of the same host', () 
     const first = list.items[0] as { id: string; title: string };
     const original = await (await api.get(`${suite.url}/api/vectors/${encodeURIComponent(first.id)}`)).json();
     target = { vectorId: first.id, title: first.title };
-    const file = JSON.parse(original.text) as { title: string };
+    const { revision: _revision, deviceId: _deviceId, meta: _meta, ...file } = original as Record<string, unknown>;
     const rewritten = `${JSON.stringify({ ...file, title: 'Rewritten by another site' }, null, 2)}\n`;
     zipBase64 = Buffer.from(libraryZip([{ vectorId: first.id, text: rewritten }])).toString('base64');
     const tracesBefore = (await (await api.get(`${suite.url}/api/traces?pageSize=1`)).json()).total as number;
@@ -71,8 +71,9 @@ describe.skipIf(!hasChromium)('writes from another origin of the same host', () 
       refusals.push({ url: response.url(), status: response.status(), body: await response.text().catch(() => '') });
     });
     await page.goto(attackerUrl);
-    expect(await page.evaluate(() => (window as unknown as { importSent: Promise<string> }).importSent)).toBe('sent');
-    await expect.poll(() => refusals.length, { timeout: 15_000 }).toBe(2);
+    // The server answers 403 before reading the zip, so the browser may see the upload cut short.
+    expect(['sent', 'TypeError: Failed to fetch']).toContain(await page.evaluate(() => (window as unknown as { importSent: Promise<string> }).importSent));
+    await expect.poll(() => refusals.some((r) => r.url.endsWith('/api/traces')), { timeout: 15_000 }).toBe(true);
 
     for (const refusal of refusals) {
       expect(refusal.status, refusal.url).toBe(403);
@@ -81,7 +82,7 @@ describe.skipIf(!hasChromium)('writes from another origin of the same host', () 
     }
     const after = await (await api.get(`${suite.url}/api/vectors/${encodeURIComponent(target.vectorId)}`)).json();
     expect(after.title).toBe(target.title);
-    expect(after.text).toBe(original.text);
+    expect(after.revision).toBe(original.revision);
     expect((await (await api.get(`${suite.url}/api/traces?pageSize=1`)).json()).total).toBe(tracesBefore);
 
     // The same kind of write from Parley's own origin, in the signed-in page, is taken.
