@@ -47,6 +47,8 @@ export const apiErrorCodes = [
   'trace.not-analysed',
   'trace.analysis-missing',
   'trace.busy',
+  /** The trace store (folder or bucket) did not take an upload; nothing of it was kept. */
+  'trace.not-stored',
   'analysis.failed',
   'vector.not-found',
   'vector.no-revision',

@@ -124,6 +124,13 @@ describe('a 140 W source, an EPR sink asking 28 V 5 A and an EPR cable', () => {
   });
 });
 
+describe("the cable's answer in the trace", () => {
+  it('decodes with the SOP′ layouts: ID Header of a cable plug and a Passive Cable VDO (§6.4.4.3.1)', () => {
+    const ack = run({ durationMs: 1_000 }).events.find((r) => 'msg' in r && r.from === 'cable' && r.message?.header.messageType === 'Vendor_Defined');
+    expect(ack && 'message' in ack ? ack.message?.objects.map((o) => o.kind) : null).toEqual(['vdm-header', 'cable-id-header', 'cert-stat', 'product', 'passive-cable']);
+  });
+});
+
 describe('EPR entry on every seed', () => {
   // tEPRSourceCableDiscovery has a maximum only (USB PD R3.1 V1.8 §6.4.10.1, §8.3.3.26.2.2; §6.6 Time
   // Values, from memory): the source's deadline for cable discovery runs its full 2 s. Drawn from 0 ms, it

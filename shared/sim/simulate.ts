@@ -74,17 +74,20 @@ function invalid(message: string): SimulationResult {
   };
 }
 
-/** Decoded forms, once per distinct hex (a run repeats few distinct messages). */
+/** Decoded forms, once per distinct hex and SOP (a run repeats few distinct messages). */
 function decodeAll(records: TraceRecord[], pdos: SourcePdo[]): void {
   const cache = new Map<string, Message | null>();
   for (const record of records) {
     if (!('msg' in record)) continue;
-    let message = cache.get(record.msg);
+    // SOP′ messages decode with the cable's layouts (a cable's ID Header is not a port's).
+    const sop = record.sop ?? 'SOP';
+    const key = sop === 'SOP' ? record.msg : `${sop} ${record.msg}`;
+    let message = cache.get(key);
     if (message === undefined) {
       const bytes = parseHex(record.msg);
-      const decoded = bytes.ok ? decodeMessage(bytes.bytes, { caps: pdos }) : bytes;
+      const decoded = bytes.ok ? decodeMessage(bytes.bytes, { caps: pdos, sop }) : bytes;
       message = decoded.ok ? decoded.message : null;
-      cache.set(record.msg, message);
+      cache.set(key, message);
     }
     if (message) record.message = message;
   }

@@ -69,6 +69,48 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     watch.assertClean();
   }, 90_000);
 
+  it('runs a 140 W EPR scenario built in the form: EPR offers, an EPR cable, an action', async () => {
+    const current = await openBench();
+    // The D100's SPR offers (5, 9, 15 V 3 A, 20 V 5 A, PPS) plus EPR 28 V 5 A and EPR AVS 15–28 V 140 W:
+    // a 140 W EPR source (USB PD R3.2 V1.1 §10.2.3, EPR Power Rules, from memory).
+    await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel D100 desk charger (100 W)' });
+    const eprOffers = current.getByRole('list', { name: 'EPR offers from object position 8' }).getByRole('listitem');
+    await current.getByRole('button', { name: '+ EPR Fixed' }).click();
+    await eprOffers.nth(0).getByLabel('Voltage (mV)').fill('28000');
+    await eprOffers.nth(0).getByLabel('Max current (mA)').fill('5000');
+    await current.getByRole('button', { name: '+ EPR EPR AVS' }).click();
+    await eprOffers.nth(1).getByLabel('Min voltage (mV)').fill('15000');
+    await eprOffers.nth(1).getByLabel('Max voltage (mV)').fill('28000');
+    await eprOffers.nth(1).getByLabel('PDP (W)').fill('140');
+    await expect.poll(() => eprOffers.count()).toBe(2);
+
+    await current.getByLabel('EPR operational PDP (W)').fill('140');
+    await current.getByLabel('Sink policy').selectOption('fixed');
+    await current.getByLabel('Voltage (mV)', { exact: true }).last().fill('28000');
+    await current.getByLabel('Current (mA)', { exact: true }).last().fill('5000');
+    await current.getByLabel('Current rating').selectOption('5000');
+    await current.getByLabel('E-marker (Discover Identity on SOP′)').selectOption('5a-50v-epr');
+    // An action on the time line: the sink asks for Source_Capabilities_Extended at 2 s, in EPR mode.
+    await current.getByRole('button', { name: '+ Add an action' }).click();
+    const action = current.getByRole('listitem', { name: 'Action 1' });
+    expect(await action.getByLabel('Starts').inputValue()).toBe('get_source_cap_extended');
+    await current.getByLabel('Duration (ms)').fill('3000');
+
+    await runAndWait(current);
+    // SPR contract first, then EPR mode entry with the source's cable discovery on SOP′, chunked
+    // EPR offers, and the EPR_Request for object 8 (§6.4.9, §6.4.10, §8.3.3.26).
+    const summary = await current.getByTestId('contract-summary').innerText();
+    expect(summary).toContain('28 V · 5.00 A');
+    expect(summary).toContain('140.0 W');
+    expect(summary).toContain('object 8');
+    await timelineDrawn(current);
+    // The list opens on the cable's Discover Identity on SOP′, decoded as a cable's answer.
+    const messages = current.getByRole('listbox', { name: 'Messages' });
+    await messages.getByRole('option', { name: /^Vendor_Defined #0 from the cable at/ }).waitFor();
+    await screenshot(current, 'bench-epr-140w');
+    watch.assertClean();
+  }, 120_000);
+
   // Main-thread long tasks are measured by `npm run bench:ui`, not asserted here (a busy machine is no bug).
   it('retries a Request whose GoodCRC is dropped', async () => {
     const current = await openBench();

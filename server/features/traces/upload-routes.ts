@@ -10,7 +10,7 @@ import { MAX_TRACE_BYTES } from '../../../shared/api/index.ts';
 import { DeviceUnderTest, type IUser } from '../../db/entities.ts';
 import { Trace, TraceChunk, TraceComment, TraceItem, type ITrace } from '../../db/trace-entities.ts';
 import type { AppDeps } from '../../context.ts';
-import { badRequest, conflict, forbidden } from '../../errors.ts';
+import { badGateway, badRequest, conflict, forbidden } from '../../errors.ts';
 import { currentUser, route, type RouteContext, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { traceAnalysisJob } from './analyse.ts';
@@ -98,6 +98,13 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   if (earlier) return answer(ctx, earlier, { duplicate: true });
 
   const store = deps.traceStore;
+  // The file first: a store that fails (a bucket down) leaves no row behind, and the temporary file goes either way.
+  try {
+    await store.keep(file.path, file.sha256);
+  } catch (cause) {
+    deps.logger.error({ err: cause }, 'trace store did not take an upload');
+    throw badGateway('The trace store did not take the file, so nothing was kept; try again later', 'trace.not-stored');
+  }
   const trace = createQueuedTrace(em, {
     title: body.title,
     fileName: cleanFileName(file.originalname),
@@ -120,13 +127,16 @@ async function receiveUpload(ctx: UploadContext, file: ReceivedTrace & { origina
   try {
     await em.flush();
   } catch (error) {
-    if (!(error instanceof UniqueConstraintViolationException)) throw error;
-    em.clear();
-    const raced = await duplicateOf();
-    if (raced) return answer(ctx, raced, { duplicate: true });
+    if (error instanceof UniqueConstraintViolationException) {
+      em.clear();
+      // The same bytes arrived at once from two requests: the other one's trace is the answer.
+      const raced = await duplicateOf();
+      if (raced) return answer(ctx, raced, { duplicate: true });
+    }
+    // No row holds the stored file: it goes.
+    await store.remove(file.sha256).catch(() => undefined);
     throw error;
   }
-  await store.keep(file.path, file.sha256);
 
   const job = await deps.jobs.enqueue(traceAnalysisJob, trace.id, { traceId: trace.id });
   if (query.wait === 'false') {
