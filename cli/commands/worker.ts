@@ -20,6 +20,8 @@ async function loadWorker(): Promise<typeof import('../../server/worker.ts')> {
 
 export async function run(args: string[], io: CliIo): Promise<number> {
   if (args.some((a) => a !== '--json')) throw new CliError('usage', `worker takes no arguments (got ${args.join(' ')}); it reads DATABASE_URL and the other server settings from the environment`);
+  // Checked before the server is loaded: without a queue there is nothing to serve, and loading takes seconds.
+  if (!process.env.DATABASE_URL) throw new CliError('worker.config', 'parley worker needs DATABASE_URL (a postgres:// URL): without it the server runs its jobs itself');
   const { startWorker } = await loadWorker();
   let worker: Awaited<ReturnType<typeof startWorker>>;
   try {
