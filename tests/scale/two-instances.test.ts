@@ -13,8 +13,8 @@
  *
  * Runs in the `api-postgres` project (a throwaway cluster); under CI=true nothing here may skip.
  */
-import { createReadStream, existsSync, mkdtempSync, openAsBlob, readdirSync, rmSync } from 'node:fs';
-import { randomBytes } from 'node:crypto';
+import { createReadStream, existsSync, mkdtempSync, openAsBlob, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { createHash, randomBytes } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
@@ -150,7 +150,8 @@ describe('two instances on one PostgreSQL and one S3 bucket', () => {
     const first = await startInstance('first', true);
     const second = await startInstance('second', false);
     const cookie = await signIn(first.url, 'support@kestrel.example');
-    const storedBefore = fake.objectKeys().length;
+    const sha256 = createHash('sha256').update(readFileSync(tracePath)).digest('hex');
+    const ofThisFile = () => fake.objectKeys().filter((key) => key.startsWith(`traces/${sha256}`));
 
     const form = new FormData();
     form.set('title', 'Kestrel K65 PPS soak, two-instance test');
@@ -158,7 +159,7 @@ describe('two instances on one PostgreSQL and one S3 bucket', () => {
     const upload = await fetch(`${first.url}/api/traces?wait=false`, { method: 'POST', headers: { cookie }, body: form });
     expect(upload.status, `${await upload.clone().text()}\n${logs.first}`).toBe(201);
     const traceId = ((await upload.json()) as { trace: { id: number } }).trace.id;
-    expect(fake.objectKeys()).toHaveLength(storedBefore + 1);
+    expect(ofThisFile()).toEqual([`traces/${sha256}`]);
 
     // Whichever instance took the job is the one to kill; the other follows and finishes.
     const runnerPid = await until('an instance to take the analysis', pidRunningAJob);
@@ -200,7 +201,8 @@ describe('two instances on one PostgreSQL and one S3 bucket', () => {
       [String(traceId)],
     );
     expect(jobs.rows).toEqual([{ state: 'completed', retry_count: 1 }]);
-    expect(fake.objectKeys()).toHaveLength(storedBefore + 1);
+    // The file and its stored analysis, once each.
+    expect(ofThisFile()).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
     expect(fake.openUploads()).toEqual([]);
     // The survivor's received upload (if it was the first) and its download for the analysis are gone.
     const incoming = join(folder, survivor === first ? 'first' : 'second', 'incoming');
