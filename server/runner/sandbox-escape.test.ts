@@ -168,7 +168,11 @@ describe.each(modes)('the property sandbox in %s mode', (mode) => {
 
   it('killing the server with SIGKILL ends the child at once, and the next start removes its folder', async () => {
     const fixture = join(import.meta.dirname, 'sandbox-parent.fixture.ts');
-    const parent = spawn(process.execPath, ['--import', 'tsx', fixture, mode], { stdio: ['ignore', 'pipe', 'inherit'] });
+    // A temp root of its own, so no other test's sandbox start removes the folder before ours does.
+    const tempRoot = mkdtempSync(join(tmpdir(), 'parley-tmp-'));
+    // Like /tmp, passable for a child that a root server runs as nobody.
+    chmodSync(tempRoot, 0o755);
+    const parent = spawn(process.execPath, ['--import', 'tsx', fixture, mode], { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, TMPDIR: tempRoot } });
     let line = '';
     parent.stdout.on('data', (chunk: Buffer) => (line += chunk.toString('utf8')));
     const started = JSON.parse(await until('the sandbox to start', () => (line.includes('\n') ? line.split('\n')[0] : undefined), 30_000)) as { mode: string; bundlePath: string };
@@ -189,10 +193,19 @@ describe.each(modes)('the property sandbox in %s mode', (mode) => {
     await until('the child to end', () => (family.every((pid) => !isRunning(pid)) ? true : undefined), 2_000);
     console.log(`${mode}: every sandbox process ended ${Math.round(performance.now() - killedAt)} ms after the server's SIGKILL`);
 
+    expect(dirname(folder)).toBe(tempRoot);
     expect(existsSync(folder)).toBe(true);
-    const next = createPropertySandbox({ mode, maxConcurrent: 1 });
-    expect(existsSync(folder)).toBe(false);
-    await next.close();
+    const ownTemp = process.env.TMPDIR;
+    process.env.TMPDIR = tempRoot;
+    try {
+      const next = createPropertySandbox({ mode, maxConcurrent: 1 });
+      expect(existsSync(folder)).toBe(false);
+      await next.close();
+    } finally {
+      if (ownTemp === undefined) delete process.env.TMPDIR;
+      else process.env.TMPDIR = ownTemp;
+      rmSync(tempRoot, { recursive: true, force: true });
+    }
   }, 60_000);
 
   it("another user's short property finishes while one user's two endless properties wait and time out", async () => {
