@@ -4,8 +4,9 @@ import { config as zodConfig } from 'zod/v4/core';
 import '@fontsource-variable/inter';
 import '@fontsource/jetbrains-mono/400.css';
 import '@fontsource/jetbrains-mono/600.css';
-// A fallback face for symbols Inter and JetBrains Mono lack, the DC sign ⎓ (U+2393) of rating
-// labels above all; its unicode-range means the file loads only on a page that shows one.
+// Fallback faces for symbols Inter and JetBrains Mono lack. The DC sign ⎓ (U+2393) of rating labels
+// is in Noto Sans Symbols (not in Symbols 2); a browser fetches a fallback face only for text that needs it.
+import '@fontsource/noto-sans-symbols/symbols-400.css';
 import '@fontsource/noto-sans-symbols-2/symbols-400.css';
 import './index.css';
 import { App } from './app/index.tsx';

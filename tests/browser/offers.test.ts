@@ -99,4 +99,21 @@ describe.skipIf(!hasChromium)('the Offers page', () => {
     watch.assertClean();
     colleagueWatch.assertClean();
   });
+  it('draws the DC sign ⎓ in a typed rating with the bundled symbol face, not as a missing glyph', async () => {
+    const { page: opened, watch } = await suite.newPage();
+    page = opened;
+    await signIn(page, suite.url, 'engineer');
+    await page.goto(`${suite.url}/offers`);
+    await page.getByRole('heading', { level: 1, name: 'Offers' }).waitFor();
+    await page.getByLabel('Printed rating').first().fill('20V\u23933.25A 65W max');
+    // The face that holds U+2393 is fetched for the field's text and reports the glyph as present.
+    const drawn = await page.evaluate(async () => {
+      const faces = await document.fonts.load('14px "Noto Sans Symbols"', '\u2393');
+      return { faces: faces.map((f) => f.family), check: document.fonts.check('14px "Noto Sans Symbols"', '\u2393') };
+    });
+    expect(drawn.faces).toContain('Noto Sans Symbols');
+    expect(drawn.check).toBe(true);
+    await screenshot(page, 'offers-rating-dc-sign');
+    watch.assertClean();
+  });
 });
