@@ -18,21 +18,29 @@ interface Owner {
   startTicks: number | null;
 }
 
-/** Start time of a process from `/proc`, or null where there is none. */
-function startTicksOf(pid: number): number | null {
+/** State (`R`, `S`, `Z`, …) and start time of a process from `/proc`, or null where there is none. */
+function procStat(pid: number): { state: string; startTicks: number } | null {
   try {
     const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
     // The command name (field 2) may hold spaces and parentheses: count from the last ')'.
     const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-    const ticks = Number(fields[19]);
-    return Number.isFinite(ticks) ? ticks : null;
+    const startTicks = Number(fields[19]);
+    return Number.isFinite(startTicks) ? { state: fields[0] ?? '', startTicks } : null;
   } catch {
     return null;
   }
 }
 
+function startTicksOf(pid: number): number | null {
+  return procStat(pid)?.startTicks ?? null;
+}
+
+/** Running, with the same start time (not a reused pid), and not a zombie its parent has yet to collect. */
 function isAlive(owner: Owner): boolean {
-  if (owner.startTicks !== null) return startTicksOf(owner.pid) === owner.startTicks;
+  if (owner.startTicks !== null) {
+    const stat = procStat(owner.pid);
+    return stat !== null && stat.startTicks === owner.startTicks && stat.state !== 'Z';
+  }
   try {
     process.kill(owner.pid, 0);
     return true;
