@@ -16,8 +16,30 @@ const KEY_BYTES = 32;
 
 export const passwordSchema = z.string().min(10, 'must be at least 10 characters').max(200, 'must be at most 200 characters');
 
+/**
+ * At most two hashes on libuv's pool (four threads unless UV_THREADPOOL_SIZE says otherwise) at once:
+ * the pool also serves file reads, DNS and zlib, so a sign-in flood that filled it would stall
+ * uploads, downloads and the health check's storage probe. The rest wait here, in order.
+ */
+const HASHES_AT_ONCE = 2;
+let hashing = 0;
+const waiting: Array<() => void> = [];
+
+async function inHashSlot<T>(work: () => Promise<T>): Promise<T> {
+  if (hashing >= HASHES_AT_ONCE) await new Promise<void>((resolve) => waiting.push(resolve));
+  else hashing += 1;
+  try {
+    return await work();
+  } finally {
+    const next = waiting.shift();
+    // The slot passes straight to the next waiter, so the count stays as it is.
+    if (next) next();
+    else hashing -= 1;
+  }
+}
+
 function scrypt(password: string, salt: Buffer, options: ScryptOptions): Promise<Buffer> {
-  return new Promise((resolve, reject) => scryptCallback(password.normalize('NFKC'), salt, KEY_BYTES, options, (error, key) => (error ? reject(error) : resolve(key))));
+  return inHashSlot(() => new Promise<Buffer>((resolve, reject) => scryptCallback(password.normalize('NFKC'), salt, KEY_BYTES, options, (error, key) => (error ? reject(error) : resolve(key)))));
 }
 
 /** `scrypt$<log2 N>$<r>$<p>$<salt base64url>$<key base64url>`. */
