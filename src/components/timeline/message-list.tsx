@@ -173,7 +173,7 @@ export const MessageList = memo(function MessageList({ messages, foldGoodCrc, se
             </div>
           );
         })}
-        {rows.length === 0 && <p className="p-4 text-center text-xs text-slate-500">No messages in this trace.</p>}
+        {rows.length === 0 && <p className="p-4 text-center text-xs text-slate-500">No messages in the time shown.</p>}
       </div>
     </div>
   );
