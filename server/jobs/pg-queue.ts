@@ -21,6 +21,8 @@ const EVENTS_CHANNEL = 'parley_job_events';
 /** First half of the two-int advisory lock key of a running job ("job" in ASCII). */
 export const JOB_LOCK_SPACE = 0x6a6f62;
 /** `application_name` of the connection holding a process's job locks, followed by its pid. */
+/** The advisory-lock space in which queue creations take turns. */
+const QUEUE_CREATION_LOCK_SPACE = 0x6a6f63;
 export const JOB_HOLDER_APPLICATION = 'parley-jobs';
 /** NOTIFY payloads must stay under 8000 bytes. */
 const MAX_NOTIFY_BYTES = 7_000;
@@ -118,11 +120,30 @@ export async function createPgJobQueue(options: PgJobQueueOptions): Promise<JobQ
   }
 
   const queues = new Map<string, Promise<void>>();
+  /**
+   * Creating a queue alters pg-boss's tables: two instances (or two kinds in one) creating queues at
+   * once deadlock in PostgreSQL, so creations take one advisory lock in turn. A failed creation is
+   * forgotten, so the next job of that kind tries again instead of failing for the process's life.
+   */
+  async function createQueue(name: string): Promise<void> {
+    const client = await pool.connect();
+    try {
+      await client.query('select pg_advisory_lock($1, $2)', [QUEUE_CREATION_LOCK_SPACE, 0]);
+      try {
+        await boss.createQueue(name, { name, policy: 'stately', retryLimit: options.retryLimit ?? 5, retryDelay: 1, expireInSeconds: 60 * 60 });
+      } finally {
+        await client.query('select pg_advisory_unlock($1, $2)', [QUEUE_CREATION_LOCK_SPACE, 0]);
+      }
+    } finally {
+      client.release();
+    }
+  }
   /** One created and one active job per key at most (pg-boss's "stately" policy); a retry after 1 s. */
   function ensureQueue(name: string): Promise<void> {
     let ready = queues.get(name);
     if (!ready) {
-      ready = boss.createQueue(name, { name, policy: 'stately', retryLimit: options.retryLimit ?? 5, retryDelay: 1, expireInSeconds: 60 * 60 });
+      ready = createQueue(name);
+      ready.catch(() => queues.delete(name));
       queues.set(name, ready);
     }
     return ready;
