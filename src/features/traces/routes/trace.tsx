@@ -1,5 +1,5 @@
 import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { Link, useParams, useSearchParams } from 'react-router';
+import { Link, useNavigation, useParams, useSearchParams } from 'react-router';
 import { useQueryClient } from '@tanstack/react-query';
 import { Badge } from '../../../components/badge.tsx';
 import { Button, ButtonLink, buttonClasses } from '../../../components/button.tsx';
@@ -39,15 +39,25 @@ function windowFromParams(params: URLSearchParams): TimeWindow | null {
   return params.has('from') && params.has('to') && Number.isFinite(from) && Number.isFinite(to) && to > from && from >= 0 ? { startUs: from, endUs: to } : null;
 }
 
-/** Writes the window into the URL a moment after it settles (a brush drag is many windows). */
+/**
+ * Writes the window into the URL a moment after it settles (a brush drag is many windows). It writes
+ * nothing while the router is on its way to another page (a lazy page keeps this one mounted until it
+ * loads; a write then would cancel that navigation) or when the URL already holds this window.
+ */
 function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1], setView: (window: TimeWindow) => void) {
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  const navigation = useNavigation();
+  const navigating = useRef(false);
+  navigating.current = navigation.state !== 'idle';
   useEffect(() => () => clearTimeout(timer.current), []);
   return useCallback(
     (next: TimeWindow) => {
       clearTimeout(timer.current);
       timer.current = setTimeout(() => {
+        if (navigating.current) return;
         setView(next);
+        const inUrl = new URLSearchParams(window.location.search);
+        if (inUrl.get('from') === String(Math.round(next.startUs)) && inUrl.get('to') === String(Math.round(next.endUs))) return;
         setParams(
           (current) => {
             const params = new URLSearchParams(current);
