@@ -112,6 +112,29 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
   }, 120_000);
 
   // Main-thread long tasks are measured by `npm run bench:ui`, not asserted here (a busy machine is no bug).
+  it('exports the chart as an SVG that carries the title, the legend and everything drawn in the chart', async () => {
+    const current = await openBench();
+    await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel K65 travel adapter (65 W)' });
+    await runAndWait(current);
+    await timelineDrawn(current);
+    // Every label drawn inside the chart on the page (axes, events, findings) must travel with the file.
+    const drawn = await current
+      .locator('[data-testid="vbus-chart"] svg')
+      .first()
+      .evaluate((svg) => [...svg.querySelectorAll('text')].map((t) => t.textContent ?? '').filter((t) => t.trim() !== ''));
+    expect(drawn.length).toBeGreaterThan(0);
+    const [download] = await Promise.all([current.waitForEvent('download'), current.getByRole('button', { name: 'Chart (.svg)' }).click()]);
+    expect(download.suggestedFilename()).toMatch(/\.chart\.svg$/);
+    const stream = await download.createReadStream();
+    let markup = '';
+    for await (const chunk of stream) markup += chunk.toString();
+    expect(markup).toContain('data-export-header');
+    expect(markup).toMatch(/— VBUS and IBUS<\/text>/);
+    for (const label of ['VBUS at the source (V)', 'VBUS at the sink (V)', 'IBUS (A)', 'reset', 'attach', 'fault injected', 'finding']) expect(markup).toContain(`>${label}<`);
+    for (const label of drawn) expect(markup).toContain(`>${label.replace(/&/g, '&amp;').replace(/</g, '&lt;')}<`);
+    watch.assertClean();
+  });
+
   it('retries a Request whose GoodCRC is dropped', async () => {
     const current = await openBench();
     await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel K65 travel adapter (65 W)' });
