@@ -81,7 +81,7 @@ export function createTraceSession(options: TraceSessionOptions = {}): TraceSess
         return fail(
           'trace.empty',
           unread > 0
-            ? `no valid trace record was found (${unread} lines could not be read, the first on line ${analysis.findings[0]?.line ?? 1})`
+            ? `no valid trace record was found (${unread} ${unread === 1 ? 'line' : 'lines'} could not be read, the first on line ${analysis.findings[0]?.line ?? 1})`
             : 'the file holds no trace record (message, event, measurement or note)',
         );
       }
