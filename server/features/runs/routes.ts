@@ -71,6 +71,15 @@ const listQuery = z.object({
 
 const ciFields = z.object({ project: projectName.optional(), build: buildName.optional() });
 
+/** A new run's row: running from now, nothing counted yet. */
+function createRunRow(
+  em: EntityManager,
+  createdAt: Date,
+  fields: Pick<ITestRun, 'kind' | 'project' | 'build' | 'source' | 'selection' | 'total' | 'startedById' | 'startedByName' | 'tokenId'> & { sweep?: ITestRun['sweep'] },
+) {
+  return em.create(TestRun, { ...fields, status: 'running', done: 0, passed: 0, failed: 0, newFailures: 0, errorMessage: null, createdAt, finishedAt: null });
+}
+
 export function presentRun(run: ITestRun): Run {
   return {
     id: run.id,
@@ -153,24 +162,16 @@ export const runsRoutes: RouteDef[] = [
       }
       if (rows.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
       const selection = body.all ? 'all' : body.ids ? (body.ids.length === 1 ? body.ids[0]! : `${body.ids.length} selected`) : describeFilter(body.filter ?? {});
-      const run = em.create(TestRun, {
+      const run = createRunRow(em, deps.clock.now(), {
         kind: 'vectors',
         project: body.project,
         build: body.build ?? null,
         source: 'ui',
-        status: 'running',
         selection,
         total: rows.length,
-        done: 0,
-        passed: 0,
-        failed: 0,
-        newFailures: 0,
         startedById: me.id,
         startedByName: me.name,
         tokenId: null,
-        errorMessage: null,
-        createdAt: deps.clock.now(),
-        finishedAt: null,
       });
       await em.flush();
       const job = await deps.jobs.enqueue(vectorRunJob, run.id, { runId: run.id, vectorIds: rows.map((r) => r.vectorId) });
@@ -207,24 +208,16 @@ export const runsRoutes: RouteDef[] = [
         );
       if (!planned.ok) throw badRequest(`scenario: ${planned.error.message}`, 'sweep.unplannable');
       const runs = planned.plan.campaignRuns;
-      const run = em.create(TestRun, {
+      const run = createRunRow(em, deps.clock.now(), {
         kind: 'sweep',
         project: body.project,
         build: body.build ?? null,
         source: 'ui',
-        status: 'running',
         selection: describeSweep(options),
         total: runs,
-        done: 0,
-        passed: 0,
-        failed: 0,
-        newFailures: 0,
         startedById: me.id,
         startedByName: me.name,
         tokenId: null,
-        errorMessage: null,
-        createdAt: deps.clock.now(),
-        finishedAt: null,
         sweep: { scenario: body.scenario, options, messages: planned.plan.messages.length, outcomes: [], invariants: SWEEP_INVARIANTS, broken: 0 },
       });
       await em.flush();
@@ -269,24 +262,16 @@ export const runsRoutes: RouteDef[] = [
       const results = [...new Map(report.results.map((r) => [r.id, r])).values()];
       const titles = new Map((await em.find(TeamVector, { vectorId: { $in: results.map((r) => r.id) } }, { fields: ['vectorId', 'title', 'kind'] })).map((v) => [v.vectorId, v]));
       const now = deps.clock.now();
-      const run = em.create(TestRun, {
+      const run = createRunRow(em, now, {
         kind: 'vectors',
         project,
         build: build ?? null,
         source: 'ci',
-        status: 'running',
         selection: `${report.format === 'junit' ? 'JUnit' : 'parley run --json'} report`,
         total: results.length,
-        done: 0,
-        passed: 0,
-        failed: 0,
-        newFailures: 0,
         startedById: token ? null : me.id,
         startedByName: token ? `token "${token.name}"` : me.name,
         tokenId: token?.id ?? null,
-        errorMessage: null,
-        createdAt: now,
-        finishedAt: null,
       });
       await em.flush();
       for (const r of results) {
