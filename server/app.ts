@@ -64,6 +64,8 @@ export interface AppOptions {
    * whoever passes them closes them.
    */
   jobs?: JobQueue;
+  /** false: queue jobs and relay their events but run none (a web instance beside `parley worker` processes). Default true. */
+  runJobs?: boolean;
   analysisPool?: AnalysisPool;
   runPool?: RunPool;
 }
@@ -133,7 +135,7 @@ export function createApp(options: AppOptions): Express {
     analysisPool: options.analysisPool ?? createAnalysisPool(),
     runPool: options.runPool ?? createRunPool(),
   };
-  registerJobKinds(deps, options.mailer);
+  if (options.runJobs !== false) registerJobKinds(deps, options.mailer);
 
   const app = express();
   app.disable('x-powered-by');

@@ -139,6 +139,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     dataDir,
     verifyBearer: verifyApiToken,
     jobs,
+    runJobs: env.PARLEY_RUN_JOBS,
     analysisPool,
     runPool,
     traceStore: store,
@@ -149,6 +150,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   server.on('request', app);
   const url = `http://${options.host ?? env.HOST ?? 'localhost'}:${port}`;
   logger.info(`Parley listening on ${url}`);
+  if (!env.PARLEY_RUN_JOBS) logger.info('PARLEY_RUN_JOBS=off: this instance queues jobs and relays their progress; parley worker processes run them');
 
   // Traces left queued or analysing by the last run resume now, in the background.
   // A PostgreSQL queue keeps its jobs (and retries a dead worker's); the in-process one resumes here.

@@ -7,18 +7,25 @@ import { resolve } from 'node:path';
 
 export const repoRoot = resolve(import.meta.dirname, '..', '..');
 
-export interface ChildServer {
-  url: string;
+export interface ChildProcessHandle {
   child: ChildProcess;
+  /** SIGTERM, then resolves once the process has exited (at once if it already has). */
   stop(): Promise<void>;
 }
 
-/** `tsx server/main.ts` (or another entry) on a random port with these variables; resolves once it listens. */
-export function startChildServer(env: Record<string, string>, entry = 'server/main.ts'): Promise<ChildServer> {
+export interface ChildServer extends ChildProcessHandle {
+  url: string;
+}
+
+/**
+ * Node with tsx's loader on `args` (a script and its arguments) and these variables; resolves with
+ * the first match of `ready` in its standard output.
+ */
+function startChild(args: string[], env: Record<string, string>, ready: RegExp): Promise<{ handle: ChildProcessHandle; match: RegExpExecArray }> {
   return new Promise((resolveStart, reject) => {
     // BENCH_SERVER_NODE_ARGS (e.g. `--cpu-prof --cpu-prof-dir=prof`) profiles the measured server.
     const extra = (process.env.BENCH_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
-    const child = spawn(process.execPath, [...extra, '--import', 'tsx', resolve(repoRoot, entry)], {
+    const child = spawn(process.execPath, [...extra, '--import', 'tsx', ...args], {
       cwd: repoRoot,
       env: { ...process.env, PORT: '0', HOST: '127.0.0.1', LOG_LEVEL: 'info', ...env },
       stdio: ['ignore', 'pipe', 'pipe'],
@@ -27,26 +34,35 @@ export function startChildServer(env: Record<string, string>, entry = 'server/ma
     let errText = '';
     const onData = (chunk: Buffer) => {
       out += chunk.toString();
-      const match = /Parley listening on (http:\/\/[^"\s]+)/.exec(out);
+      const match = ready.exec(out);
       if (!match) return;
       child.stdout!.off('data', onData);
       child.stdout!.resume();
-      resolveStart({
-        url: match[1]!,
-        child,
-        stop: () =>
-          new Promise((done) => {
-            // Exited already, by itself or by a signal (a test's SIGKILL).
-            if (child.exitCode !== null || child.signalCode !== null) return done();
-            child.once('exit', () => done());
-            child.kill('SIGTERM');
-          }),
-      });
+      const stop = () =>
+        new Promise<void>((done) => {
+          // Exited already, by itself or by a signal (a test's SIGKILL).
+          if (child.exitCode !== null || child.signalCode !== null) return done();
+          child.once('exit', () => done());
+          child.kill('SIGTERM');
+        });
+      resolveStart({ handle: { child, stop }, match });
     };
     child.stdout!.on('data', onData);
     child.stderr!.on('data', (chunk: Buffer) => (errText += chunk.toString()));
-    child.once('exit', (code) => reject(new Error(`server exited with ${code}: ${errText.slice(-2000)}${out.slice(-2000)}`)));
+    child.once('exit', (code) => reject(new Error(`${args.join(' ')} exited with ${code}: ${errText.slice(-2000)}${out.slice(-2000)}`)));
   });
+}
+
+/** `tsx server/main.ts` (or another entry) on a random port with these variables; resolves once it listens. */
+export async function startChildServer(env: Record<string, string>, entry = 'server/main.ts'): Promise<ChildServer> {
+  const { handle, match } = await startChild([resolve(repoRoot, entry)], env, /Parley listening on (http:\/\/[^"\s]+)/);
+  return { ...handle, url: match[1]! };
+}
+
+/** `parley worker` (the package's bin, as `npx parley worker` runs it) with these variables; resolves once it takes jobs. */
+export async function startChildWorker(env: Record<string, string>): Promise<ChildProcessHandle> {
+  const { handle } = await startChild([resolve(repoRoot, 'cli', 'parley.js'), 'worker'], env, /Parley worker started/);
+  return handle;
 }
 
 /** The session cookie of a demo account. */

@@ -19,4 +19,10 @@ describe('loadEnv', () => {
     expect(() => loadEnv({ PARLEY_SECRET: 'short' })).toThrow('PARLEY_SECRET: must be at least 32 characters');
     expect(() => loadEnv({ SMTP_URL: 'http://mail.example' })).toThrow(/SMTP_URL: /);
   });
+
+  it('lets a team deployment leave its jobs to parley worker processes, and refuses that on SQLite', () => {
+    expect(loadEnv({}).PARLEY_RUN_JOBS).toBe(true);
+    expect(loadEnv({ DATABASE_URL: 'postgres://parley@db.kestrel.example/parley', PARLEY_RUN_JOBS: 'off' }).PARLEY_RUN_JOBS).toBe(false);
+    expect(() => loadEnv({ PARLEY_RUN_JOBS: 'off' })).toThrow('PARLEY_RUN_JOBS: off needs DATABASE_URL');
+  });
 });

@@ -37,8 +37,17 @@ const envSchema = z
       .string()
       .regex(/^[\w./-]*$/, 'letters, digits, ".", "_", "-" and "/" only')
       .default('traces/'),
+    /**
+     * `off`: this server queues jobs and relays their progress but runs none, leaving them to
+     * `parley worker` processes (a team deployment only: with SQLite nothing else would run them).
+     */
+    PARLEY_RUN_JOBS: flag.default(true),
   })
   .refine((env) => (env.S3_URL === undefined) === (env.S3_BUCKET === undefined), { message: 'set S3_URL and S3_BUCKET together', path: ['S3_BUCKET'] })
+  .refine((env) => env.PARLEY_RUN_JOBS || env.DATABASE_URL !== undefined, {
+    message: 'off needs DATABASE_URL (a team deployment, where parley worker processes run the jobs); with SQLite the server runs its jobs itself',
+    path: ['PARLEY_RUN_JOBS'],
+  })
   .transform((env) => ({
     ...env,
     PARLEY_DEMO: env.PARLEY_DEMO ?? env.NODE_ENV !== 'production',

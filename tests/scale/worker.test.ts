@@ -1,0 +1,112 @@
+/**
+ * A team deployment split into a web instance and `parley worker` processes (README, Deployment):
+ * the web instance (`server/main.ts` with PARLEY_RUN_JOBS=off) serves HTTP and queues jobs but runs
+ * none; `parley worker` (the package's bin) serves no HTTP and runs them. A trace uploaded to the
+ * web instance is analysed by the worker, its progress followed over server-sent events on the web
+ * instance (PostgreSQL NOTIFY from the worker). The worker is killed with SIGKILL half-way; a
+ * second worker, started only then, notices the dead worker's job, runs it again and finishes it.
+ * Nothing is lost (the stored analysis equals the engine's own analysis of the file) and nothing is
+ * done twice (one trace row, one stored file, one final event, one retry), and the web instance
+ * never held a job.
+ *
+ * Runs in the `api-postgres` project (a throwaway cluster); under CI=true nothing here may skip.
+ */
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { signIn, type ChildProcessHandle } from '../../bench/support/server-process.ts';
+import { writeSyntheticTrace } from '../support/synthetic-trace.ts';
+import {
+  followEvents,
+  isPartWayProgress,
+  pidRunningAJob,
+  referenceCounts,
+  restartsIn,
+  startTeamDeployment,
+  traceAnalysisJobs,
+  until,
+  uploadTrace,
+  type TeamDeployment,
+} from '../support/team-deployment.ts';
+
+const TRACE_BYTES = 40 * 1024 * 1024;
+
+let deployment: TeamDeployment;
+
+beforeAll(async () => {
+  deployment = await startTeamDeployment('parley_worker');
+});
+
+afterAll(async () => {
+  await deployment?.stop();
+});
+
+describe('a web instance and parley worker processes on one PostgreSQL and one S3 bucket', () => {
+  it('the worker analyses what the web instance received; SIGKILLed half-way, a second worker finishes it once', { timeout: 300_000 }, async () => {
+    const { admin, fake, logs, folder } = deployment;
+    const tracePath = join(folder, 'k65-soak.jsonl');
+    writeSyntheticTrace(tracePath, TRACE_BYTES);
+    const reference = referenceCounts(tracePath);
+
+    const web = await deployment.startServer('web', { demo: true, env: { PARLEY_RUN_JOBS: 'off' } });
+    const first = await deployment.startWorker('first-worker');
+    const cookie = await signIn(web.url, 'support@kestrel.example');
+    const health = await fetch(`${web.url}/api/health`);
+    expect(await health.json()).toMatchObject({ ok: true, database: { ok: true }, storage: { ok: true }, queue: { kind: 'postgres', ok: true } });
+    expect((await fetch(`${web.url}/api/health/ready`)).status).toBe(200);
+
+    // Every process seen holding a job lock, sampled until the test ends.
+    const holders = new Set<number>();
+    let sampling = true;
+    const sampler = (async () => {
+      while (sampling) {
+        const pid = await pidRunningAJob(admin);
+        if (pid !== undefined) holders.add(pid);
+        await new Promise((r) => setTimeout(r, 50));
+      }
+    })();
+
+    const { traceId, sha256 } = await uploadTrace(web.url, cookie, tracePath, 'Kestrel K65 PPS soak, worker test', () => logs.web ?? '');
+    const ofThisFile = () => fake.objectKeys().filter((key) => key.startsWith(`traces/${sha256}`));
+    expect(ofThisFile()).toEqual([`traces/${sha256}`]);
+    // The web instance runs no jobs, so the worker is the one to take it.
+    expect(await until('the worker to take the analysis', () => pidRunningAJob(admin))).toBe(first.child.pid);
+
+    let killedAt: Record<string, unknown> | undefined;
+    let second: Promise<ChildProcessHandle> | undefined;
+    const events = await followEvents(`${web.url}/api/traces/${traceId}/events`, cookie, (event) => {
+      if (killedAt || !isPartWayProgress(event)) return;
+      killedAt = event.data;
+      first.child.kill('SIGKILL');
+      second = deployment.startWorker('second-worker');
+    });
+    sampling = false;
+    await sampler;
+    expect(killedAt, 'the web instance relayed the analysis half-way before it ended').toBeDefined();
+    expect(first.child.signalCode ?? (await new Promise((r) => first.child.once('exit', (_code, signal) => r(signal))))).toBe('SIGKILL');
+    const secondPid = (await second!).child.pid;
+
+    // Locks were held by the two workers only, never by the web instance.
+    expect([...holders].sort()).toEqual([first.child.pid, secondPid].sort());
+
+    // One final event, after progress from both attempts.
+    const finals = events.filter((e) => e.type !== 'progress');
+    expect(finals.map((e) => e.type)).toEqual(['done']);
+    expect(restartsIn(events), 'progress went back to the start when the second worker took the job').toBeGreaterThanOrEqual(1);
+
+    const view = await fetch(`${web.url}/api/traces/${traceId}`, { headers: { cookie } });
+    const { trace } = (await view.json()) as { trace: { status: string; counts: { error: number; warning: number; info: number } } };
+    expect(trace.status).toBe('done');
+    const expected = await reference;
+    expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
+    expect(finals[0]!.data.counts).toEqual(trace.counts);
+
+    // Nothing done twice: one row, one audit entry, one retry of the job, the file and its analysis once each.
+    const rows = await admin.query('select id from trace where sha256 = $1', [sha256]);
+    expect(rows.rowCount).toBe(1);
+    const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded'");
+    expect(audit.rowCount).toBe(1);
+    expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
+    expect(ofThisFile()).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
+    expect(fake.openUploads()).toEqual([]);
+  });
+});
