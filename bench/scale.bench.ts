@@ -12,7 +12,7 @@
  * figure to read is the ratio to the bare route, not a doubling.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import autocannon from 'autocannon';
 import { openOrm, type Orm } from '../server/db/orm.ts';
@@ -35,6 +35,8 @@ const VECTORS = option('--vectors', 5_000);
 const DURATION_S = option('--seconds', 8);
 const CONNECTIONS = 50;
 const SECRET = 'bench-scale-secret-0123456789abcdef0123';
+// Parley supports Node 20: the SDK's notice about its own future releases would only break up the table.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 
 interface Load {
   reqPerSec: number;
@@ -42,13 +44,15 @@ interface Load {
   non2xx: number;
   /** Connection errors and time-outs. */
   errors: number;
+  /** Answers received; 0 when the machine was too busy to answer within the measurement. */
+  answered: number;
 }
 
 async function load(urls: string[], path: string, headers: Record<string, string>): Promise<Load> {
   // autocannon spreads its connections over several URLs (its types know only one).
   const url = (urls.length === 1 ? `${urls[0]}${path}` : urls.map((u) => `${u}${path}`)) as string;
   const result = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, headers });
-  return { reqPerSec: result.requests.average, p99Ms: result.latency.p99, non2xx: result.non2xx, errors: result.errors + result.timeouts };
+  return { reqPerSec: result.requests.average, p99Ms: result.latency.p99, non2xx: result.non2xx, errors: result.errors + result.timeouts, answered: result.requests.total };
 }
 
 /** Copies of the built-in vectors (properties left out: they run in a sandbox) up to `VECTORS`. */
@@ -73,23 +77,58 @@ const routes: [string, string][] = [
   ['trace list', '/api/traces'],
 ];
 
-async function measure(setup: string, urls: string[], bare: ChildServer, figures: BenchFigure[]): Promise<void> {
+interface Row {
+  setup: string;
+  route: string;
+  measured: Load;
+  floor: Load;
+}
+
+async function measure(setup: string, urls: string[], bare: ChildServer, figures: BenchFigure[], rows: Row[]): Promise<void> {
   const cookie = await signIn(urls[0]!, 'admin@kestrel.example');
   for (const [name, path] of routes) {
     const floor = await load([bare.url], '/bare', {});
     const measured = await load(urls, path, { cookie });
-    console.log(
-      `${setup.padEnd(30)} ${name.padEnd(12)} ${measured.reqPerSec.toFixed(0).padStart(6)} req/s p99 ${String(measured.p99Ms).padStart(4)} ms (non-2xx ${measured.non2xx}, errors ${measured.errors})   bare Express ${floor.reqPerSec.toFixed(0)} req/s p99 ${floor.p99Ms} ms   ratio ${(measured.reqPerSec / floor.reqPerSec).toFixed(2)}`,
-    );
+    console.log(`${setup}, ${name}: ${measured.reqPerSec.toFixed(0)} req/s, p99 ${measured.p99Ms} ms; bare Express ${floor.reqPerSec.toFixed(0)} req/s, p99 ${floor.p99Ms} ms`);
     if (measured.non2xx > 0 || measured.errors > 0) throw new Error(`${setup} ${name}: ${measured.non2xx} answers were not 2xx, ${measured.errors} requests failed`);
+    rows.push({ setup, route: name, measured, floor });
+    if (measured.answered === 0 || floor.answered === 0) {
+      console.log(`${setup}, ${name}: no answer within ${DURATION_S} s; the machine is too busy for this measurement`);
+      continue;
+    }
     figures.push({ figure: `${name}, ${setup}, 50 connections`, unit: 'req/s', parley: measured.reqPerSec, peer: floor.reqPerSec, peerName: 'bare Express JSON route', higherIsBetter: true });
     figures.push({ figure: `${name}, ${setup}, p99`, unit: 'ms', parley: measured.p99Ms, peer: floor.p99Ms, peerName: 'bare Express JSON route' });
   }
 }
 
+const loadAverage = () =>
+  loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ');
+
+/** The setups side by side, one line per route: Parley's req/s and p99, the bare route's req/s, and their ratio. */
+function printTable(rows: readonly Row[]): void {
+  const setups = [...new Set(rows.map((r) => r.setup))];
+  const columns = ['req/s', 'p99 ms', 'bare/s', 'ratio'];
+  const width = columns.length * 7 - 1;
+  const cell = (r: Row | undefined) => {
+    if (!r || r.measured.answered === 0 || r.floor.answered === 0) return 'no answer'.padStart(width);
+    return [r.measured.reqPerSec.toFixed(0), String(r.measured.p99Ms), r.floor.reqPerSec.toFixed(0), (r.measured.reqPerSec / r.floor.reqPerSec).toFixed(2)].map((v) => v.padStart(6)).join(' ');
+  };
+  console.log('');
+  console.log(`${''.padEnd(12)} | ${setups.map((s) => s.padEnd(width)).join(' | ')}`);
+  console.log(`${'route'.padEnd(12)} | ${setups.map(() => columns.map((c) => c.padStart(6)).join(' ')).join(' | ')}`);
+  console.log(`${'-'.repeat(12)}-|-${setups.map(() => '-'.repeat(width)).join('-|-')}`);
+  for (const [route] of routes) console.log(`${route.padEnd(12)} | ${setups.map((s) => cell(rows.find((r) => r.setup === s && r.route === route))).join(' | ')}`);
+  console.log('');
+  console.log(`req/s and p99 of the route (autocannon, ${CONNECTIONS} connections, ${DURATION_S} s); bare/s: a bare Express JSON route measured just before it; ratio: route ÷ bare.`);
+}
+
 async function main(): Promise<void> {
   const folder = mkdtempSync(join(tmpdir(), 'parley-bench-scale-'));
   const figures: BenchFigure[] = [];
+  const rows: Row[] = [];
+  const loadBefore = loadAverage();
   const bare = await startChildServer({}, 'bench/support/bare-express.ts');
   try {
     // One instance on SQLite.
@@ -101,7 +140,7 @@ async function main(): Promise<void> {
     console.log(`library: ${vectors} vectors; ${DURATION_S} s per measurement, ${CONNECTIONS} connections`);
     const one = await startChildServer({ PARLEY_DATA: sqliteDir, PARLEY_DEMO: '0', LOG_LEVEL: 'info' });
     try {
-      await measure('one instance, SQLite', [one.url], bare, figures);
+      await measure('one instance, SQLite', [one.url], bare, figures, rows);
     } finally {
       await one.stop();
     }
@@ -133,6 +172,7 @@ async function main(): Promise<void> {
           two.map((s) => s.url),
           bare,
           figures,
+          rows,
         );
       } finally {
         await Promise.all(two.map((s) => s.stop()));
@@ -145,6 +185,8 @@ async function main(): Promise<void> {
     await bare.stop();
     rmSync(folder, { recursive: true, force: true });
   }
+  printTable(rows);
+  console.log(`load average (1, 5, 15 min) at the start ${loadBefore}, at the end ${loadAverage()}; ${availableParallelism()} cores`);
   report('scale', figures);
 }
 
