@@ -16,7 +16,7 @@ import type { AnalysisEvent, AnalysisSummary, TraceItem } from '../../../../shar
 import { useTraceContracts } from '../api/get-trace-contracts.ts';
 import { useTraceFindings } from '../api/get-trace-findings.ts';
 import { useTraceSummary } from '../api/get-trace-summary.ts';
-import { useTraceTimeline } from '../api/get-trace-timeline.ts';
+import { type TimelineWindowParams, useTraceTimeline } from '../api/get-trace-timeline.ts';
 import type { PinnedFinding } from '../../../components/timeline/finding-pins.tsx';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { CommentThread } from '../components/comment-thread.tsx';
@@ -30,8 +30,14 @@ import { formatBytes } from '../lib/format.ts';
 import { mayWriteTraces } from '../lib/roles.ts';
 import { plural } from '../../../lib/plural.ts';
 
-// recharts is large: the timeline arrives in its own chunk.
-const TraceTimeline = lazy(async () => ({ default: (await import('../../../components/timeline/trace-timeline.tsx')).TraceTimeline }));
+// recharts is large: the timeline arrives in its own chunk, asked for as the page opens (beside the
+// summary and the first window) rather than once they have arrived.
+let timelineChunk: Promise<typeof import('../../../components/timeline/trace-timeline.tsx')> | undefined;
+const loadTimelineChunk = () => {
+  timelineChunk ??= import('../../../components/timeline/trace-timeline.tsx');
+  return timelineChunk;
+};
+const TraceTimeline = lazy(async () => ({ default: (await loadTimelineChunk()).TraceTimeline }));
 
 function windowFromParams(params: URLSearchParams): TimeWindow | null {
   const from = Number(params.get('from'));
@@ -76,6 +82,11 @@ function useDebouncedWindow(setParams: ReturnType<typeof useSearchParams>[1], se
 export function TraceRoute() {
   const { traceId = '' } = useParams();
   const trace = useTraceSummary(traceId);
+  // The first window is read beside the summary (the page asks for the same one once the summary is in).
+  const [params] = useSearchParams();
+  const [firstRead] = useState(() => windowRead(windowFromParams(params)));
+  useTraceTimeline(traceId, firstRead);
+  useEffect(() => void loadTimelineChunk(), []);
   // Arriving from a scrolled list, start at the top of the trace.
   // biome-ignore lint/correctness/useExhaustiveDependencies: each new trace id is the trigger
   useEffect(() => {
@@ -114,6 +125,17 @@ const NO_PINS: PinnedFinding[] = [];
 /** At least this much is read beyond each edge of the window (invented: a sparse log reads VBUS about once a second). */
 const READ_MARGIN_MIN_US = 1_000_000;
 
+/**
+ * The timeline read for the window on screen (`null`: the whole trace, whose end the server knows).
+ * A margin either side: the reading before the window holds its value into it, and a small pan
+ * needs no new read.
+ */
+function windowRead(view: TimeWindow | null): TimelineWindowParams {
+  if (!view) return WINDOW_READ;
+  const marginUs = Math.max(view.endUs - view.startUs, READ_MARGIN_MIN_US);
+  return { startUs: Math.max(0, view.startUs - marginUs), endUs: view.endUs + marginUs, ...WINDOW_READ };
+}
+
 function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSummary | null }) {
   const user = useUser();
   const [params, setParams] = useSearchParams();
@@ -128,10 +150,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
   // What the page reads: the window on screen (the server answers only for it), a page of each table.
   const [view, setView] = useState<TimeWindow | null>(initialWindow);
   const saveWindow = useDebouncedWindow(setParams, setView);
-  const shown = view ?? { startUs: 0, endUs };
-  // Read a margin either side: the reading before the window holds its value into it, and a small pan needs no new read.
-  const marginUs = Math.max(shown.endUs - shown.startUs, READ_MARGIN_MIN_US);
-  const timeline = useTraceTimeline(item.id, { startUs: Math.max(0, shown.startUs - marginUs), endUs: Math.min(endUs, shown.endUs + marginUs), ...WINDOW_READ }, done);
+  const timeline = useTraceTimeline(item.id, windowRead(view), done);
   const [findingsPage, setFindingsPage] = useState(() => (selected === undefined ? 0 : Math.floor(selected / FINDINGS_PAGE_SIZE)));
   const findings = useTraceFindings(item.id, { page: findingsPage + 1, pageSize: FINDINGS_PAGE_SIZE }, done);
   const [contractsPage, setContractsPage] = useState(0);
