@@ -1,6 +1,6 @@
 /** Stored traces, their analyses and the analysis progress stream (`/api/traces…`). */
 import type { Finding } from '../core/finding.ts';
-import type { StoredAnalysis, AnalysisSummary, FindingPin, Page, TimelineWindow } from '../trace/views.ts';
+import type { StoredAnalysis, AnalysisSummary, FindingPin, MessageRange, Page, TimelineWindow } from '../trace/views.ts';
 import type { DeviceRef } from './devices.ts';
 
 /**
@@ -8,7 +8,7 @@ import type { DeviceRef } from './devices.ts';
  * decoded form (decode on demand, in a worker). The trace page reads the views below instead.
  */
 export type Analysis = StoredAnalysis;
-export type { AnalysisSummary, FindingPin, Page, TimelineWindow };
+export type { AnalysisSummary, FindingPin, MessageRange, Page, TimelineWindow };
 
 export const traceStatuses = ['queued', 'analysing', 'done', 'failed'] as const;
 export type TraceStatus = (typeof traceStatuses)[number];

@@ -191,3 +191,14 @@ export interface Page<T> {
   page: number;
   pageSize: number;
 }
+
+/** What `GET /api/traces/:id/messages` answers: messages of the whole timeline by index. */
+export interface MessageRange {
+  /** Index of the first item (the first message at `atUs` when asked by time). */
+  offset: number;
+  /** Messages in the whole timeline. */
+  total: number;
+  items: (StoredTimelineMessage & { index: number })[];
+  /** The last Source_Capabilities with a good CRC before `offset` (a Request's objects are read against it). */
+  capabilities: (StoredTimelineMessage & { index: number }) | null;
+}

@@ -121,6 +121,31 @@ describe('the trace page reads', () => {
     expect((await support.get(`/api/traces/${bigId}/timeline?startUs=5&endUs=4`)).status).toBe(400);
   });
 
+  it('GET /messages: any run of the whole timeline by index or from a time, with the offer in force before it', async () => {
+    const full = (await support.get(`/api/traces/${bigId}`)).body.analysis.timeline.messages as { t: number; messageType: string; crcOk: boolean }[];
+    const indexed = full.map((m, index) => ({ ...m, index }));
+    const first = (await support.get(`/api/traces/${bigId}/messages?limit=5`)).body;
+    expect(first).toEqual({ offset: 0, total: 20_000, items: indexed.slice(0, 5), capabilities: null });
+    // Across a chunk boundary (500 messages a chunk) and deep into the trace.
+    const across = (await support.get(`/api/traces/${bigId}/messages?offset=497&limit=6`)).body;
+    expect(across.items).toEqual(indexed.slice(497, 503));
+    const deep = (await support.get(`/api/traces/${bigId}/messages?offset=15001&limit=200`)).body;
+    expect(deep.items).toEqual(indexed.slice(15_001, 15_201));
+    const lastCaps = indexed.slice(0, 15_001).findLast((m) => m.messageType === 'Source_Capabilities' && m.crcOk);
+    expect(lastCaps).toBeDefined();
+    expect(deep.capabilities).toEqual(lastCaps);
+    const atUs = full[12_345]!.t;
+    const byTime = (await support.get(`/api/traces/${bigId}/messages?atUs=${atUs}&limit=3`)).body;
+    expect(byTime.offset).toBe(indexed.findIndex((m) => m.t >= atUs));
+    expect(byTime.items).toEqual(indexed.slice(byTime.offset, byTime.offset + 3));
+    const end = (await support.get(`/api/traces/${bigId}/messages?offset=19998&limit=10`)).body;
+    expect(end.items.map((m: { index: number }) => m.index)).toEqual([19_998, 19_999]);
+    const past = (await support.get(`/api/traces/${bigId}/messages?atUs=${full[19_999]!.t + 1}`)).body;
+    expect(past).toMatchObject({ offset: 20_000, total: 20_000, items: [] });
+    expect((await support.get(`/api/traces/${bigId}/messages?limit=1001`)).status).toBe(400);
+    expect((await support.get(`/api/traces/${bigId}/messages?offset=-1`)).status).toBe(400);
+  });
+
   it('answers 404 for a trace that does not exist and 401 without a session', async () => {
     expect((await support.get('/api/traces/999999/summary')).status).toBe(404);
     expect((await t.request().get(`/api/traces/${demoId}/timeline`)).status).toBe(401);

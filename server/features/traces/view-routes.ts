@@ -14,7 +14,7 @@ import { presentTrace } from './present.ts';
 import { traceAnalysisJob } from './analyse.ts';
 import { sendWithStoredAnalysis } from './send-analysis.ts';
 import type { AppDeps } from '../../context.ts';
-import { analysisSummary, itemPage, timelineWindow } from './views.ts';
+import { analysisSummary, itemPage, messageRange, timelineWindow } from './views.ts';
 
 const pageQuery = (maxPageSize: number, defaultPageSize: number) =>
   z.object({
@@ -31,6 +31,12 @@ const windowQuery = z.object({
   endUs: microseconds.optional(),
   points: z.coerce.number().int().min(10).max(10_000).default(1_000),
   limit: z.coerce.number().int().min(1).max(5_000).default(1_000),
+});
+
+const messagesQuery = z.object({
+  offset: z.coerce.number().int().min(0).max(Number.MAX_SAFE_INTEGER).optional(),
+  atUs: microseconds.optional(),
+  limit: z.coerce.number().int().min(1).max(1_000).default(200),
 });
 
 function progressOf(deps: AppDeps, trace: ITrace) {
@@ -99,6 +105,19 @@ export const viewRoutes: RouteDef[] = [
       const endUs = query.endUs ?? summary?.endUs ?? 1;
       if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
       return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/messages',
+    access: 'signed-in',
+    params: idParams,
+    query: messagesQuery,
+    async handler({ em, params, query }) {
+      const trace = await findTrace(em, params.id);
+      const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
+      if (!summary) return { offset: 0, total: 0, items: [], capabilities: null };
+      return messageRange(em, trace.id, summary.timeline.messages, query);
     },
   }),
 ];

@@ -5,7 +5,7 @@
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { Finding } from '../../../shared/core/finding.ts';
-import type { AnalysisSummary, FindingPin, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
+import type { AnalysisSummary, FindingPin, MessageRange, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
 import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
 
 /** Parsed chunk items kept across requests (a chunk never changes once written; ids are not reused). */
@@ -140,4 +140,61 @@ export async function timelineWindow(em: EntityManager, traceId: number, q: Wind
     findings: pins.map((p) => ({ index: Number(p.item_index), t: Number(p.t), severity: p.severity, rule: p.rule })),
     findingsOmitted: Math.max(0, Number(pinCount?.total ?? 0) - pins.length),
   };
+}
+
+type IndexedMessage = StoredTimelineMessage & { index: number };
+
+/** The stored messages `first` … `first + count - 1` (level-0 chunks hold `CHUNK_ITEMS` each, in order). */
+async function messagesByIndex(em: EntityManager, traceId: number, first: number, count: number): Promise<IndexedMessage[]> {
+  const rows = await sqlOf(em).execute<ChunkRow[]>(
+    "select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = 'message' and level = 0 and first_index < ? and first_index + count > ? order by first_index",
+    [traceId, first + count, first],
+  );
+  const out: IndexedMessage[] = [];
+  for (const row of rows) {
+    const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+    const base = Number(row.first_index);
+    for (let offset = Math.max(0, first - base); offset < items.length && base + offset < first + count; offset++) out.push({ ...items[offset]!, index: base + offset });
+  }
+  return out;
+}
+
+/** Index of the first message at or after `atUs` (the total when none is). */
+async function messageIndexAt(em: EntityManager, traceId: number, atUs: number, total: number): Promise<number> {
+  const [row] = await sqlOf(em).execute<ChunkRow[]>(
+    "select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = 'message' and level = 0 and end_us >= ? order by first_index limit 1",
+    [traceId, atUs],
+  );
+  if (!row) return total;
+  const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+  const offset = items.findIndex((m) => m.t >= atUs);
+  return Number(row.first_index) + (offset === -1 ? items.length : offset);
+}
+
+/** The last Source_Capabilities with a good CRC before message `before` (a Request's objects are read against it). */
+async function capabilitiesBefore(em: EntityManager, traceId: number, before: number): Promise<IndexedMessage | null> {
+  // The text match finds the chunk in SQL; the items decide (a chunk may name the type only in a failed message).
+  const rows = await sqlOf(em).execute<ChunkRow[]>(
+    "select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = 'message' and level = 0 and first_index < ? and body like '%\"Source_Capabilities\"%' order by first_index desc limit 4",
+    [traceId, before],
+  );
+  for (const row of rows) {
+    const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+    const base = Number(row.first_index);
+    for (let offset = Math.min(items.length, before - base) - 1; offset >= 0; offset--) {
+      const m = items[offset]!;
+      if (m.messageType === 'Source_Capabilities' && m.crcOk) return { ...m, index: base + offset };
+    }
+  }
+  return null;
+}
+
+/**
+ * A run of the whole trace's messages by index, for the message list: from `offset` (or from the
+ * first message at `atUs`), at most `limit`, with the offer in force before the run.
+ */
+export async function messageRange(em: EntityManager, traceId: number, total: number, q: { offset?: number | undefined; atUs?: number | undefined; limit: number }): Promise<MessageRange> {
+  const offset = Math.min(total, q.atUs === undefined ? (q.offset ?? 0) : await messageIndexAt(em, traceId, q.atUs, total));
+  const items = await messagesByIndex(em, traceId, offset, q.limit);
+  return { offset, total, items, capabilities: offset > 0 ? await capabilitiesBefore(em, traceId, offset) : null };
 }
