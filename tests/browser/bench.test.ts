@@ -75,10 +75,15 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     // a 140 W EPR source (USB PD R3.2 V1.1 §10.2.3, EPR Power Rules, from memory).
     await current.getByLabel('Load offers from a demo device').selectOption({ label: 'Kestrel D100 desk charger (100 W)' });
     const eprOffers = current.getByRole('list', { name: 'EPR offers from object position 8' }).getByRole('listitem');
-    await current.getByRole('button', { name: '+ EPR Fixed' }).click();
+    // The Bench's EPR list is the shared offer editor: it adds only fixed and EPR AVS objects, from position 8.
+    const eprSection = current.getByRole('region', { name: 'EPR offers' });
+    expect(await eprSection.getByLabel('New offer').locator('option').allTextContents()).toEqual(['Fixed', 'EPR AVS']);
+    await eprSection.getByRole('button', { name: 'Add offer' }).click();
+    expect(await eprOffers.nth(0).getAttribute('aria-label')).toBe('Offer 8');
     await eprOffers.nth(0).getByLabel('Voltage (mV)').fill('28000');
     await eprOffers.nth(0).getByLabel('Max current (mA)').fill('5000');
-    await current.getByRole('button', { name: '+ EPR EPR AVS' }).click();
+    await eprSection.getByLabel('New offer').selectOption('epr-avs');
+    await eprSection.getByRole('button', { name: 'Add offer' }).click();
     await eprOffers.nth(1).getByLabel('Min voltage (mV)').fill('15000');
     await eprOffers.nth(1).getByLabel('Max voltage (mV)').fill('28000');
     await eprOffers.nth(1).getByLabel('PDP (W)').fill('140');
@@ -158,6 +163,20 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     expect(await current.getByTestId('timer-lane-sink').locator('[data-expired]').count()).toBeGreaterThan(0);
     await timelineDrawn(current);
     await screenshot(current, 'bench-dropped-goodcrc');
+
+    // Zoomed in far around 10 s of the 20 s run, every time tick still reads differently (the axis
+    // printed one decimal past 10 s, so 10.05 s and 10.10 s both read "10.1 s").
+    await current.getByRole('button', { name: 'Whole run' }).click();
+    for (let zoom = 0; zoom < 6; zoom++) await current.getByRole('button', { name: 'Zoom in', exact: true }).click();
+    await expect.poll(() => current.getByTestId('timeline-window').textContent()).toMatch(/^9\.\d+ s – 10\.\d+ s$/);
+    await timelineDrawn(current);
+    // The time axis' labels are the tick labels in seconds or milliseconds (the others read V or A).
+    const timeLabels = async () => (await current.locator('[data-testid="vbus-chart"] text.recharts-cartesian-axis-tick-value').allTextContents()).filter((text) => / m?s$/.test(text));
+    await expect.poll(async () => (await timeLabels()).length).toBeGreaterThan(2);
+    const labels = await timeLabels();
+    expect(new Set(labels).size, labels.join(', ')).toBe(labels.length);
+    for (const label of labels) expect(label).toMatch(/^\d+\.\d+ s$/);
+    await screenshot(current, 'bench-zoomed-axis');
     watch.assertClean();
   });
 

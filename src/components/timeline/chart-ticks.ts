@@ -34,18 +34,57 @@ export function zeroBasedTicks(maxValue: number, intervals = 4): ValueTicks {
   return { max: ticks[count]!, ticks };
 }
 
-/** Ticks at nice multiples inside [startMs, endMs], about one per `spacingPx` of `widthPx`. */
-export function timeTicksMs(startMs: number, endMs: number, widthPx: number, spacingPx = 110): number[] {
+/** The fewest decimals (0–9) that print every multiple of `step` exactly: 0.25 → 2, 20 → 0. */
+export function decimalsOfStep(step: number): number {
+  for (let decimals = 0; decimals < 9; decimals++) {
+    const scaled = step * 10 ** decimals;
+    if (Math.abs(scaled - Math.round(scaled)) < 1e-6 * scaled) return decimals;
+  }
+  return 9;
+}
+
+/** Traces and simulations count time in whole microseconds: no tick between two (1 µs, not 0.5; 5 µs, not 2.5). */
+function wholeMicroseconds(stepMs: number): number {
+  const stepUs = stepMs * 1_000;
+  if (stepUs >= 10 || Math.abs(stepUs - Math.round(stepUs)) < 1e-9) return stepMs;
+  return stepUs < 1 ? 0.001 : 0.005;
+}
+
+/** A time axis: its ticks (ms) and the label of a tick, one unit and one precision for the whole axis. */
+export type TimeAxis = { ticks: number[]; stepMs: number; label(ms: number): string };
+
+/**
+ * Ticks at nice multiples inside [startMs, endMs], about one per `spacingPx` of `widthPx`, and
+ * labels whose unit follows the window (seconds once it reaches 1 s) and whose decimals follow the
+ * step, so neighbouring ticks never print alike (21.12 s, 21.14 s rather than 21.1 s twice).
+ */
+export function timeAxisMs(startMs: number, endMs: number, widthPx: number, spacingPx = 110): TimeAxis {
   const span = endMs - startMs;
-  if (!(span > 0) || !Number.isFinite(span)) return [startMs];
+  if (!(span > 0) || !Number.isFinite(span)) return { ticks: [startMs], stepMs: 0, label: timeLabeller(startMs, endMs, 1) };
   const target = Math.min(12, Math.max(2, Math.floor(widthPx / spacingPx)));
-  const step = niceStepAtLeast(span / target);
+  const stepMs = wholeMicroseconds(niceStepAtLeast(span / target));
   const ticks: number[] = [];
-  for (let index = Math.ceil(startMs / step - 1e-9); index * step <= endMs + step * 1e-9; index++) {
-    ticks.push(roundToStep(index * step, step));
+  for (let index = Math.ceil(startMs / stepMs - 1e-9); index * stepMs <= endMs + stepMs * 1e-9; index++) {
+    ticks.push(roundToStep(index * stepMs, stepMs));
     if (ticks.length > 64) break;
   }
-  return ticks;
+  return { ticks, stepMs, label: timeLabeller(startMs, endMs, stepMs) };
+}
+
+/** Ticks alone (see `timeAxisMs`). */
+export const timeTicksMs = (startMs: number, endMs: number, widthPx: number, spacingPx = 110): number[] => timeAxisMs(startMs, endMs, widthPx, spacingPx).ticks;
+
+function timeLabeller(startMs: number, endMs: number, stepMs: number): (ms: number) => string {
+  const seconds = Math.max(Math.abs(startMs), Math.abs(endMs)) >= 1_000;
+  const decimals = decimalsOfStep(seconds ? stepMs / 1_000 : stepMs);
+  return seconds ? (ms) => `${(ms / 1_000).toFixed(decimals)} s` : (ms) => `${ms.toFixed(decimals)} ms`;
+}
+
+/** A reading's time to the microsecond (the traces' resolution), trailing zeros past the ms dropped. */
+export function formatExactMs(ms: number): string {
+  if (Math.abs(ms) < 1_000) return `${Number(ms.toFixed(3))} ms`;
+  const text = (ms / 1_000).toFixed(6).replace(/(\.\d{3}\d*?)0+$/, '$1');
+  return `${text} s`;
 }
 
 /**

@@ -1,6 +1,6 @@
 import { memo, startTransition, useDeferredValue, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
-import { fittedZeroBasedTicks, timeTicksMs, zeroBasedTicks } from './chart-ticks.ts';
+import { fittedZeroBasedTicks, formatExactMs, timeAxisMs, zeroBasedTicks } from './chart-ticks.ts';
 import { OverviewBrush } from './overview-brush.tsx';
 import { clusterInWindow, indexRange, visibleSpans } from './clusters.ts';
 import { thin, windowSteps, type Measurement, type StepPoint } from './trace-series.ts';
@@ -33,8 +33,6 @@ const READING_DOT = { r: 2, strokeWidth: 0, fill: '#d97706' };
 const CURRENT_DOT = { r: 1.6, strokeWidth: 0, fill: '#0284c7' };
 
 export const PIN_COLOURS: Record<ChartPin['tone'], string> = { error: '#dc2626', warning: '#ea580c', info: '#0284c7' };
-
-export const formatAxisMs = (ms: number) => (Math.abs(ms) >= 1_000 ? `${(ms / 1_000).toFixed(Math.abs(ms) >= 10_000 ? 1 : 2)} s` : `${Number(ms.toFixed(2))} ms`);
 
 export type VbusChartProps = {
   measurements: readonly Measurement[];
@@ -97,10 +95,9 @@ function tickRenderer(format: (value: number) => string, dy: string) {
   };
 }
 const valueLabel = (unit: string) => (value: number) => `${Number(value.toFixed(3))} ${unit}`;
-const timeTick = tickRenderer(formatAxisMs, '0.71em');
 const voltTick = tickRenderer(valueLabel('V'), '0.355em');
 const ampTick = tickRenderer(valueLabel('A'), '0.355em');
-const tooltipLabel = (label: unknown) => formatAxisMs(Number(label));
+const tooltipLabel = (label: unknown) => formatExactMs(Number(label));
 const tooltipValue = (value: unknown, name: unknown): [string, string] => [`${Number(value).toFixed(3)} ${name === 'IBUS' ? 'A' : 'V'}`, String(name)];
 
 type PlotMarksProps = {
@@ -245,8 +242,9 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
     const amps = zeroBasedTicks(maxA * HEADROOM, volts.ticks.length - 1);
     const startMs = window.startUs / 1_000;
     const endMs = window.endUs / 1_000;
+    const time = timeAxisMs(startMs, endMs, plotWidthPx);
     return {
-      time: { domain: [startMs, endMs] as [number, number], ticks: timeTicksMs(startMs, endMs, plotWidthPx) },
+      time: { domain: [startMs, endMs] as [number, number], ticks: time.ticks, tick: tickRenderer(time.label, '0.71em') },
       volts: { domain: [0, volts.max] as [number, number], ticks: volts.ticks },
       amps: { domain: [0, amps.max] as [number, number], ticks: amps.ticks },
     };
@@ -294,7 +292,7 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
       <div ref={box} className="h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={stage >= 3 || undefined} data-readings={series.readings}>
         {measured && (
           <LineChart width={widthPx} height={CHART_HEIGHT_PX} margin={withCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
-            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={timeTick} stroke={axis} fontSize={11} />
+            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={axes.time.tick} stroke={axis} fontSize={11} />
             <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
             {withCurrent && (
               <YAxis

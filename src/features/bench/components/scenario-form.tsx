@@ -9,7 +9,7 @@ import type { BenchFormValues } from '../lib/form-model.ts';
 import { ActionsEditor } from './actions-editor.tsx';
 import { FaultsEditor } from './faults-editor.tsx';
 import { numberField, optionalNumberField } from './form-fields.ts';
-import { OffersEditor } from './offers-editor.tsx';
+import { SourceOffersField } from './source-offers-field.tsx';
 import { PolicyFields } from './policy-fields.tsx';
 
 const sendSourceCapMs = { min: timersPd3.tTypeCSendSourceCap.minUs / 1_000, max: timersPd3.tTypeCSendSourceCap.maxUs / 1_000 };
@@ -73,7 +73,7 @@ export function ScenarioForm() {
   return (
     <div className="flex flex-col gap-5">
       <Section title="Source" description="What the source offers, in object-position order.">
-        <OffersEditor />
+        <SourceOffersField />
         <div className="grid grid-cols-2 gap-3">
           <Select label="Source specification revision" options={REVISIONS} {...register('sourceSpecRevision')} />
           <Input
@@ -93,7 +93,7 @@ export function ScenarioForm() {
         title="EPR offers"
         description="Offered from object position 8 in EPR mode (above 20 V, up to 48 V), once the sink enters EPR mode over an EPR cable. Real EPR adapters deliver up to 48 V at 5 A: follow the specification, a certified lab and local codes before touching hardware."
       >
-        <OffersEditor name="eprOffers" />
+        <SourceOffersField name="eprOffers" />
       </Section>
 
       <Section title="Sink" description="How the sink chooses its Request, and when it changes its mind.">
