@@ -13,7 +13,7 @@ import * as fc from 'fast-check';
 import { exposeEngine } from './expose.ts';
 import type { Contract } from '../shared/core/contract.ts';
 import type { Finding } from '../shared/core/finding.ts';
-import { parseScenario, SAMPLE_FIELDS, simulate } from '../shared/sim/index.ts';
+import { expandSamples, parseScenario, simulate } from '../shared/sim/index.ts';
 import { runVector, type VectorResult } from '../shared/vectors/run.ts';
 import { describeZodError, vectorSchema } from '../shared/vectors/schema.ts';
 import type { MessageRecord } from '../shared/trace/records.ts';
@@ -105,7 +105,7 @@ function simulateCounterexample(scenario: unknown): CounterexampleRun | undefine
   return {
     contract: result.contract,
     findings: result.findings,
-    samples: result.samples ? Array.from(result.samples.data.subarray(0, result.samples.count * SAMPLE_FIELDS)) : [],
+    samples: result.samples ? Array.from(expandSamples(result.samples)) : [],
     messages,
     messageRecords,
     events,

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { countersPd3, timersPd3 } from '../core/timers.ts';
-import { disagreements, parseScenario, simulate, type SimulationResult } from './index.ts';
+import { disagreements, parseScenario, sampleRows, simulate, type SimulationResult } from './index.ts';
 import { initialSourcePe, sourceStep, type SourceContext, type SourcePe } from './source-pe.ts';
 
 const T = timersPd3;
@@ -109,16 +109,14 @@ describe('overload on a programmable contract', () => {
     });
     if (!parsed.ok) throw new Error(parsed.error.message);
     const result = simulate(parsed.scenario, { samples: true });
-    const samples = result.samples!;
+    const samples = sampleRows(result.samples!);
     const reset = result.events.find((r) => 'event' in r && r.event === 'hard_reset' && r.t >= 1_000_000) as { t: number; from?: string } | undefined;
     expect(reset?.from).toBe('source');
     expect(reset!.t - 1_000_000).toBeLessThan(50_000);
-    for (let i = 0; i < samples.count; i++) {
-      const mv = samples.data[i * 4 + 1]!;
-      const ma = samples.data[i * 4 + 2]!;
+    for (const [t, mv, ma] of samples) {
       // 3.3 V is the APDO's minimum (0xc0dc213c: 3.3–11 V 3 A); at or above it the limit holds 1 A.
-      if (samples.data[i * 4]! > 1_000_000 && samples.data[i * 4]! < reset!.t) expect(mv).toBeGreaterThanOrEqual(3_300);
-      if (samples.data[i * 4]! > 1_000_000 && samples.data[i * 4]! < reset!.t) expect(ma).toBe(1_000);
+      if (t > 1_000_000 && t < reset!.t) expect(mv).toBeGreaterThanOrEqual(3_300);
+      if (t > 1_000_000 && t < reset!.t) expect(ma).toBe(1_000);
     }
     expect(T.tPSHardReset.maxUs).toBe(35_000);
   });

@@ -17,4 +17,4 @@ export { simulate, type SimulateOptions, type SimulationResult, type Sample } fr
 export { resolveCaps, type ResolvedCaps, type CapsInput } from './caps.ts';
 export type { LaneEntry, TimerSpan, TimedContract, Side } from './types.ts';
 export { disagreements, sameContract, CONTRACT_SETTLE_US, type PortView, type PortViews, type Disagreement } from './port-views.ts';
-export { sampleRows, SAMPLE_FIELDS, type PackedSamples } from './sample-buffer.ts';
+export { expandSamples, SampleReader, sampleRows, SAMPLE_FIELDS, STEP_FIELDS, type PackedSamples } from './sample-buffer.ts';

@@ -186,7 +186,7 @@ class Run implements LineHooks {
       scenario.cable.resistanceMohm,
       scenario.sink.load.currentMa,
     );
-    this.samples = options.sampleEveryUs ? createSampleBuffer(Math.min(4_000_000, Math.floor(this.durationUs / options.sampleEveryUs) + 1)) : undefined;
+    this.samples = options.sampleEveryUs ? createSampleBuffer(options.sampleEveryUs) : undefined;
     // A 5 A cable without an explicit e-marker still answers as 5 A, 20 V, not EPR capable (vector.md).
     const { eMarker, currentRatingMa } = scenario.cable;
     this.marker = eMarker ?? (currentRatingMa >= 5_000 ? { currentMa: 5_000, maxVoltageMv: 20_000, eprCapable: false } : null);

@@ -48,7 +48,7 @@ export interface SimulationResult {
   findings: Finding[];
   /** The analyser's timeline of the simulated trace (absent with `analyze: false`). */
   timeline?: Timeline;
-  /** VBUS/IBUS samples, four integers a row in one Int32Array (sample-buffer.ts; `sampleRows` gives arrays). */
+  /** VBUS/IBUS samples as steps of held values in one Int32Array (sample-buffer.ts; `sampleRows` gives one array a sample). */
   samples?: PackedSamples;
   lanes: LaneEntry[];
   timers: TimerSpan[];

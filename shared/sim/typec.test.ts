@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { timersPd3 } from '../core/timers.ts';
-import { parseScenario, simulate } from './index.ts';
+import { expandSamples, parseScenario, simulate } from './index.ts';
 import { VSAFE0V_MAX_MV } from './power.ts';
 import { initialTypec, typecStep } from './typec.ts';
 
@@ -70,7 +70,8 @@ describe('the return after ErrorRecovery', () => {
 
   it('the source turns VBUS on again only from vSafe0V', () => {
     const result = simulate({ ...parsed.scenario, seed: 5 }, { samples: true, sampleEveryUs: 1_000, decode: false, analyze: false });
-    const { data, count } = result.samples!;
+    const data = expandSamples(result.samples!);
+    const count = result.samples!.count;
     const detach = result.events.find((r) => 'event' in r && r.event === 'detach')!.t;
     const attached = result.lanes.find((l) => l.side === 'source' && l.state === 'Attached.SRC' && l.t > detach)!.t;
     // The last sample before Attached.SRC shows VBUS at vSafe0V.

@@ -113,7 +113,7 @@ export class VbusPath {
         const mv = this.ramp.toMv;
         const ma = this.ibusAt(mv);
         const count = Math.floor((lastUs - t) / everyUs) + 1;
-        buffer.repeat(t, everyUs, count, mv, ma, power.sinkSideMv(mv, ma, this.cableMohm));
+        buffer.repeat(t, count, mv, ma, power.sinkSideMv(mv, ma, this.cableMohm));
         this.nextSampleUs = t + count * everyUs;
         return;
       }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario, simulate } from '../../../../shared/sim/index.ts';
+import { createSampleBuffer } from '../../../../shared/sim/sample-buffer.ts';
 import { defaultScenario } from './form-model.ts';
 import { laneMessagesOf } from '../../../components/timeline/lane-messages.ts';
 import { chartMeasurements } from './timeline-data.ts';
@@ -35,10 +36,12 @@ describe('timeline data', () => {
 
   it('gives the chart the whole run coarsely and the window in detail', () => {
     const count = 100_000;
-    const data = new Int32Array(count * 4);
+    const buffer = createSampleBuffer(1_000);
     // 5 V for the first half, 20 V after; a one-sample current spike at 70 s; the sink 200 mV lower.
-    for (let index = 0; index < count; index += 1) data.set([index * 1_000, index < 50_000 ? 5_000 : 20_000, index === 70_000 ? 5_000 : 1_000, index < 50_000 ? 4_800 : 19_800], index * 4);
-    const samples = { data, count };
+    for (let index = 0; index < count; index += 1) buffer.push(index * 1_000, index < 50_000 ? 5_000 : 20_000, index === 70_000 ? 5_000 : 1_000, index < 50_000 ? 4_800 : 19_800);
+    const samples = buffer.finish();
+    // Four steps stand for the 100,000 samples; the chart reads them as samples all the same.
+    expect(samples.steps).toBe(4);
     const whole = chartMeasurements(samples, { startUs: 0, endUs: 100_000_000 });
     expect(whole.source.length).toBeLessThanOrEqual(1_400);
     expect(Math.max(...whole.source.map((m) => m.ma ?? 0))).toBe(5_000);
@@ -52,6 +55,6 @@ describe('timeline data', () => {
     expect(zoomed.source.at(-1)?.t).toBe(99_999_000);
     const times = zoomed.source.map((m) => m.t);
     expect(times).toEqual([...times].sort((a, b) => a - b));
-    expect(chartMeasurements({ data: new Int32Array(0), count: 0 }, { startUs: 0, endUs: 1 })).toEqual({ source: [], sink: [] });
+    expect(chartMeasurements(createSampleBuffer(1_000).finish(), { startUs: 0, endUs: 1 })).toEqual({ source: [], sink: [] });
   });
 });

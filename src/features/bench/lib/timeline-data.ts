@@ -5,18 +5,16 @@
 import type { Measurement } from '../../../components/timeline/trace-series.ts';
 import { createLTTB } from 'downsample';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
-import { firstIndexAtOrAfter, SAMPLE_FIELDS, type PackedSamples } from './samples.ts';
+import { readerOf, type PackedSamples, type SampleReader } from './samples.ts';
 
 const byVoltage = createLTTB<Measurement>({ x: 't', y: 'mv' });
 const byCurrent = createLTTB<Measurement>({ x: 't', y: (point) => point.ma ?? 0 });
 
-function measurementsBetween(samples: PackedSamples, from: number, to: number, field: 1 | 3, stride = 1): Measurement[] {
+function measurementsBetween(samples: SampleReader, from: number, to: number, field: 1 | 3, stride = 1): Measurement[] {
   const out: Measurement[] = [];
-  const { data } = samples;
   const at = (index: number): Measurement => {
-    const offset = index * SAMPLE_FIELDS;
-    const t = data[offset] ?? 0;
-    return field === 1 ? { t, mv: data[offset + 1] ?? 0, ma: data[offset + 2] ?? 0 } : { t, mv: data[offset + 3] ?? 0 };
+    const t = samples.timeOf(index);
+    return field === 1 ? { t, mv: samples.valueOf(index, 1), ma: samples.valueOf(index, 2) } : { t, mv: samples.valueOf(index, 3) };
   };
   for (let index = from; index < to; index += stride) out.push(at(index));
   // A stride may step over the last sample; the line must still reach it.
@@ -28,7 +26,7 @@ function measurementsBetween(samples: PackedSamples, from: number, to: number, f
 const PRE_STRIDE_LIMIT = 50_000;
 
 /** LTTB on the voltage and, where there is one, on the current too; the points either kept, in time order. */
-function thinned(samples: PackedSamples, from: number, to: number, field: 1 | 3, maxPoints: number): Measurement[] {
+function thinned(samples: SampleReader, from: number, to: number, field: 1 | 3, maxPoints: number): Measurement[] {
   const stride = Math.max(1, Math.floor((to - from) / PRE_STRIDE_LIMIT));
   const points = measurementsBetween(samples, from, to, field, stride);
   if (points.length <= maxPoints) return points;
@@ -48,11 +46,13 @@ function union(coarse: Measurement[], detail: Measurement[]): Measurement[] {
  * brush) joined with the window in detail, each thinned with LTTB (the `downsample` package) on voltage and
  * current alike, so a ten-minute run at 1 ms (600 000 samples) charts from about a thousand points.
  */
-export function chartMeasurements(samples: PackedSamples, window: TimeWindow, detailPoints = 400, overviewPoints = 150): { source: Measurement[]; sink: Measurement[] } {
-  if (samples.count === 0) return { source: [], sink: [] };
+export function chartMeasurements(packed: PackedSamples, window: TimeWindow, detailPoints = 400, overviewPoints = 150): { source: Measurement[]; sink: Measurement[] } {
+  if (packed.count === 0) return { source: [], sink: [] };
+  // The samples by index, read from the simulator's steps without expanding them.
+  const samples = readerOf(packed);
   // One sample either side of the window, so the lines reach its edges.
-  const from = Math.max(0, firstIndexAtOrAfter(samples, window.startUs) - 1);
-  const to = Math.min(samples.count, firstIndexAtOrAfter(samples, window.endUs + 1) + 1);
+  const from = Math.max(0, samples.indexAtOrAfter(window.startUs) - 1);
+  const to = Math.min(samples.count, samples.indexAtOrAfter(window.endUs + 1) + 1);
   const whole = from === 0 && to === samples.count;
   const series = (field: 1 | 3) => {
     const detail = thinned(samples, from, to, field, whole ? Math.max(detailPoints, overviewPoints) : detailPoints);

@@ -8,7 +8,7 @@ import type { ScenarioInput } from '../../../../shared/sim/scenario.ts';
 import type { SimApi, SimRunOutput } from '../../../../workers/sim.worker.ts';
 import type { PackedSamples } from './samples.ts';
 
-export type BenchRun = Omit<Extract<SimRunOutput, { ok: true }>, 'ok' | 'samples' | 'sampleCount'> & {
+export type BenchRun = Omit<Extract<SimRunOutput, { ok: true }>, 'ok' | 'samples'> & {
   samples: PackedSamples;
   scenario: ScenarioInput;
   elapsedMs: number;
@@ -55,10 +55,10 @@ export function useSimulation() {
         setState({ status: 'failed', message: output.error.message });
         return;
       }
-      const { ok: _ok, samples, sampleCount, ...rest } = output;
+      const { ok: _ok, samples, ...rest } = output;
       const run: BenchRun = {
         ...rest,
-        samples: { data: samples, count: sampleCount },
+        samples,
         scenario,
         elapsedMs: Math.round(performance.now() - started),
         finishedAt: new Date().toISOString(),
