@@ -7,13 +7,14 @@
  * second worker, started only then, notices the dead worker's job, runs it again and finishes it.
  * Nothing is lost (the stored analysis equals the engine's own analysis of the file) and nothing is
  * done twice (one trace row, one stored file, one final event, one retry), and the web instance
- * never held a job.
+ * never held a job. Then a worker stopped with SIGTERM half-way hands its analysis back at once
+ * (graceful shutdown) and another worker finishes it, again once.
  *
  * Runs in the `api-postgres` project (a throwaway cluster); under CI=true nothing here may skip.
  */
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { signIn, type ChildProcessHandle } from '../../bench/support/server-process.ts';
+import { signIn, type ChildProcessHandle, type ChildServer } from '../../bench/support/server-process.ts';
 import { writeSyntheticTrace } from '../support/synthetic-trace.ts';
 import {
   followEvents,
@@ -31,9 +32,14 @@ import {
 const TRACE_BYTES = 40 * 1024 * 1024;
 
 let deployment: TeamDeployment;
+/** The web instance and a support engineer's session on it, shared by the tests below. */
+let web: ChildServer;
+let cookie: string;
 
 beforeAll(async () => {
   deployment = await startTeamDeployment('parley_worker');
+  web = await deployment.startServer('web', { demo: true, env: { PARLEY_RUN_JOBS: 'off' } });
+  cookie = await signIn(web.url, 'support@kestrel.example');
 });
 
 afterAll(async () => {
@@ -47,9 +53,7 @@ describe('a web instance and parley worker processes on one PostgreSQL and one S
     writeSyntheticTrace(tracePath, TRACE_BYTES);
     const reference = referenceCounts(tracePath);
 
-    const web = await deployment.startServer('web', { demo: true, env: { PARLEY_RUN_JOBS: 'off' } });
     const first = await deployment.startWorker('first-worker');
-    const cookie = await signIn(web.url, 'support@kestrel.example');
     const health = await fetch(`${web.url}/api/health`);
     expect(await health.json()).toMatchObject({ ok: true, database: { ok: true }, storage: { ok: true }, queue: { kind: 'postgres', ok: true } });
     expect((await fetch(`${web.url}/api/health/ready`)).status).toBe(200);
@@ -103,10 +107,53 @@ describe('a web instance and parley worker processes on one PostgreSQL and one S
     // Nothing done twice: one row, one audit entry, one retry of the job, the file and its analysis once each.
     const rows = await admin.query('select id from trace where sha256 = $1', [sha256]);
     expect(rows.rowCount).toBe(1);
-    const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded'");
+    const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded' and target = $1", [`trace:${sha256.slice(0, 12)}`]);
     expect(audit.rowCount).toBe(1);
     expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
     expect(ofThisFile()).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
     expect(fake.openUploads()).toEqual([]);
+  });
+
+  it('SIGTERM hands the running analysis back: the worker exits at once and another worker finishes it, once', { timeout: 300_000 }, async () => {
+    const { admin, fake, logs, folder } = deployment;
+    // Another file than the first test's (its title differs), so the upload is not a duplicate.
+    const tracePath = join(folder, 'k65-soak-bench-3.jsonl');
+    writeSyntheticTrace(tracePath, TRACE_BYTES, 'Kestrel K65 on bench 3, PPS soak');
+    const reference = referenceCounts(tracePath);
+    // At least one worker is up whatever the first test left running.
+    await deployment.startWorker('third-worker');
+
+    const { traceId, sha256 } = await uploadTrace(web.url, cookie, tracePath, 'Kestrel K65 PPS soak, worker shutdown test', () => logs.web ?? '');
+    const runnerPid = await until('a worker to take the analysis', () => pidRunningAJob(admin));
+    const runner = deployment.processes.find((p) => p.child.pid === runnerPid)!;
+    expect(runner, 'a parley worker runs the job, not the web instance').toBeDefined();
+    expect(runner).not.toBe(web);
+
+    let stoppedAt: number | undefined;
+    let exited: Promise<{ code: number | null; afterMs: number }> | undefined;
+    let another: Promise<ChildProcessHandle> | undefined;
+    const events = await followEvents(`${web.url}/api/traces/${traceId}/events`, cookie, (event) => {
+      if (stoppedAt !== undefined || !isPartWayProgress(event)) return;
+      stoppedAt = Date.now();
+      exited = new Promise((resolveExit) => runner.child.once('exit', (code) => resolveExit({ code, afterMs: Date.now() - stoppedAt! })));
+      runner.child.kill('SIGTERM');
+      // Started only now, so the job cannot wait for a worker that is not there.
+      another = deployment.startWorker('fourth-worker');
+    });
+    expect(stoppedAt, 'the web instance relayed the analysis half-way before it ended').toBeDefined();
+    // A clean exit well before pg-boss's 15 s stop time-out: the job was handed back, not waited for.
+    const { code, afterMs } = await exited!;
+    expect(code).toBe(0);
+    expect(afterMs).toBeLessThan(15_000);
+    await another;
+
+    expect(events.filter((e) => e.type !== 'progress').map((e) => e.type)).toEqual(['done']);
+    expect(restartsIn(events), 'progress went back to the start when another worker took the job').toBeGreaterThanOrEqual(1);
+    const { trace } = (await (await fetch(`${web.url}/api/traces/${traceId}`, { headers: { cookie } })).json()) as { trace: { status: string; counts: unknown } };
+    expect(trace.status).toBe('done');
+    const expected = await reference;
+    expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
+    expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
+    expect(fake.objectKeys().filter((key) => key.startsWith(`traces/${sha256}`))).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
   });
 });
