@@ -62,3 +62,18 @@ export function isSilent(book: FaultBook, from: Side, messageType: string, tUs: 
   book.silentSinceUs[from] = tUs;
   return true;
 }
+
+/**
+ * How a source answers the sink's Request under the scenario's faults: `reject` or `wait` instead
+ * of Accept, or null. A `wait` fault counts this Request only when no `reject` fault took it.
+ */
+export function answerFault(book: FaultBook, tUs: number): 'reject' | 'wait' | null {
+  if (faultsFor(book, ['reject'], 'sink', 'Request', tUs).length > 0) return 'reject';
+  if (faultsFor(book, ['wait'], 'sink', 'Request', tUs).length > 0) return 'wait';
+  return null;
+}
+
+/** A `no-ps-rdy` fault: the source keeps the PS_RDY it is about to send. */
+export function withholdsPsRdy(book: FaultBook, tUs: number): boolean {
+  return faultsFor(book, ['no-ps-rdy'], 'source', 'PS_RDY', tUs).length > 0;
+}
