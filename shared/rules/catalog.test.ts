@@ -2,7 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DECODE_RULES } from '../pd/index.ts';
-import { isRuleId, makeFinding, ruleCatalog, ruleGroup, ruleIds } from './catalog.ts';
+import { isRuleId, makeFinding, ruleCatalog, ruleGroup, ruleIds, ruleTitle } from './catalog.ts';
 
 const SHARED = join(import.meta.dirname, '..');
 /**
@@ -114,5 +114,13 @@ describe('rule catalog', () => {
     expect(finding).toEqual({ rule: 'caps.order', severity: 'error', message: 'Out of order.', ref: ruleCatalog['caps.order'].ref, object: 3 });
     expect(makeFinding('protocol.hard-reset', 'x', { t: 12, ref: 'custom' })).toEqual({ rule: 'protocol.hard-reset', severity: 'info', message: 'x', ref: 'custom', t: 12 });
     expect(isRuleId('caps.nothing')).toBe(false);
+  });
+});
+
+describe('ruleTitle', () => {
+  it("names a finding in the catalog's plain words, and keeps an unknown id as it is", () => {
+    expect(ruleTitle('protocol.hard-reset')).toBe('Hard Reset');
+    expect(ruleTitle('caps.pdp-inferred')).toBe('PDP inferred from the offers');
+    expect(ruleTitle('vendor.something-new')).toBe('vendor.something-new');
   });
 });

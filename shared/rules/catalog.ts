@@ -410,6 +410,11 @@ export function isRuleId(value: string): value is RuleId {
   return Object.hasOwn(ruleCatalog, value);
 }
 
+/** A finding's name in plain words (the catalog's title), or the id itself for a rule this build does not know. */
+export function ruleTitle(rule: string): string {
+  return isRuleId(rule) ? ruleCatalog[rule].title : rule;
+}
+
 export function ruleGroup(rule: RuleId): RuleGroup {
   return rule.slice(0, rule.indexOf('.')) as RuleGroup;
 }

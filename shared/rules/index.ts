@@ -1,5 +1,5 @@
 /** Public entry of the rules engine (interfaces: "shared/rules"). */
-export { ruleCatalog, ruleIds, isRuleId, ruleGroup, makeFinding } from './catalog.ts';
+export { ruleCatalog, ruleIds, isRuleId, ruleTitle, ruleGroup, makeFinding } from './catalog.ts';
 export type { RuleId, RuleEntry, RuleGroup, RuleBasis } from './catalog.ts';
 export { sinkPolicySchema } from './sink-policy.ts';
 export type { SinkPolicy, SinkPolicyKind, ChooseRequestOptions, ChosenRequest } from './sink-policy.ts';

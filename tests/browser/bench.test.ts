@@ -51,6 +51,12 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     expect(await current.getByTestId('vbus-chart').locator('svg.recharts-surface').count()).toBeGreaterThan(0);
     expect(await current.getByTestId('state-lane-source').locator('div').count()).toBeGreaterThan(2);
     expect(await current.getByTestId('timer-lane-sink').locator('div').count()).toBeGreaterThan(0);
+    // The run's one finding is named in plain words on the chart; its rule id is in the pin's detail.
+    const findingName = current.getByTestId('vbus-chart').locator('[data-finding-rule="caps.pdp-inferred"]');
+    await expect.poll(() => findingName.textContent()).toBe('PDP inferred from the offers');
+    expect(await current.getByRole('group', { name: 'Findings on the timeline' }).getByRole('button').first().getAttribute('aria-label')).toMatch(
+      /^PDP inferred from the offers at [\d.]+ ms: .+ \(info, rule caps\.pdp-inferred\)$/,
+    );
 
     await current.getByRole('button', { name: 'First contract' }).click();
     await current

@@ -4,7 +4,7 @@
  * rule id, the rule's title and the one plain sentence of the finding.
  */
 import type { Analysis } from '../../../shared/trace/index.ts';
-import { isRuleId, ruleCatalog } from '../../../shared/rules/index.ts';
+import { ruleTitle } from '../../../shared/rules/index.ts';
 import type { OutgoingMail } from '../../mail/mailer.ts';
 import type { PresentedTrace } from './present.ts';
 
@@ -41,7 +41,7 @@ export function buildReport(trace: PresentedTrace, analysis: Omit<Analysis, 'tim
     counts: analysis.counts,
     contracts: analysis.contracts,
     hardResets: analysis.hardResets,
-    findings: analysis.findings.map((f) => ({ ...f, title: isRuleId(f.rule) ? ruleCatalog[f.rule].title : f.rule })),
+    findings: analysis.findings.map((f) => ({ ...f, title: ruleTitle(f.rule) })),
     findingsOmitted: analysis.findingsOmitted,
   };
 }

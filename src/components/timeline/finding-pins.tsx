@@ -1,10 +1,24 @@
 import { useMemo } from 'react';
+import { ruleTitle } from '../../../shared/rules/catalog.ts';
 import { cn } from '../../lib/cn.ts';
 import { clusterInWindow } from './clusters.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
+import type { ChartPin } from './vbus-chart.tsx';
 
-export type PinnedFinding = { t?: number; severity: 'error' | 'warning' | 'info'; rule: string; message: string };
+/** A finding as the timeline pins it; `message` is the finding's own sentence when the page has it. */
+export type PinnedFinding = { t?: number; severity: 'error' | 'warning' | 'info'; rule: string; message?: string };
+
+/** The findings with a time as the chart's pins, named in plain words (the rule's title); the rule id rides along. */
+export function chartPinsOf(findings: readonly PinnedFinding[], selectedIndex?: number): ChartPin[] {
+  return findings.flatMap((f, index) => (f.t === undefined ? [] : [{ tUs: f.t, tone: f.severity, label: ruleTitle(f.rule), rule: f.rule, selected: index === selectedIndex }]));
+}
+
+/** "Hard Reset at 21.100 s: the source sent … (info, rule protocol.hard-reset)": the name first, the id last. */
+export function pinnedFindingText(finding: PinnedFinding, tUs: number): string {
+  const said = finding.message ? `: ${finding.message}` : '';
+  return `${ruleTitle(finding.rule)} at ${formatTimeUs(tUs)}${said} (${finding.severity}, rule ${finding.rule})`;
+}
 
 export type FindingPinsProps = {
   findings: readonly PinnedFinding[];
@@ -56,7 +70,7 @@ export function FindingPins({ findings, window, selectedIndex, onSelect, onZoomT
             const first = findings[cluster.first]!;
             const left = `${(positionIn(window, cluster.startUs) * 100).toFixed(3)}%`;
             if (cluster.count === 1) {
-              const label = `${first.severity}: ${first.rule} at ${formatTimeUs(cluster.startUs)} — ${first.message}`;
+              const label = pinnedFindingText(first, cluster.startUs);
               return (
                 <button
                   key={cluster.first}

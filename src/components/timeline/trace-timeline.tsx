@@ -4,7 +4,7 @@ import { cn } from '../../lib/cn.ts';
 import { visibleSpans } from './clusters.ts';
 import { decodeLaneMessage, lastCapsIndex } from './decode-lane-message.ts';
 import { chartEventsOf, EventLane, type BusEvent } from './event-lane.tsx';
-import { FindingPins, type PinnedFinding } from './finding-pins.tsx';
+import { chartPinsOf, FindingPins, type PinnedFinding } from './finding-pins.tsx';
 import { MessagePanel } from './message-detail.tsx';
 import { MessageLanes, type LaneMessage } from './message-lanes.tsx';
 import { MessageList } from './message-list.tsx';
@@ -84,10 +84,7 @@ export function TraceTimeline({
     root.current?.scrollIntoView?.({ behavior: 'smooth', block: 'start' });
   }, [focus, end, setWindow]);
 
-  const pins = useMemo(
-    () => findings.flatMap((f, index) => (f.t === undefined ? [] : [{ tUs: f.t, tone: f.severity, label: f.rule, selected: index === selectedFinding }])),
-    [findings, selectedFinding],
-  );
+  const pins = useMemo(() => chartPinsOf(findings, selectedFinding), [findings, selectedFinding]);
   const chartEvents = useMemo(() => chartEventsOf(events), [events]);
   const capsBefore = useMemo(() => lastCapsIndex(messages), [messages]);
   const detail = useMemo(() => {

@@ -2,7 +2,8 @@ import { memo, startTransition, useDeferredValue, useEffect, useMemo, useState, 
 import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
 import { fittedZeroBasedTicks, formatExactMs, timeAxisMs, zeroBasedTicks } from './chart-ticks.ts';
 import { OverviewBrush } from './overview-brush.tsx';
-import { clusterInWindow, indexRange, visibleSpans } from './clusters.ts';
+import { clusterInWindow, indexRange, visibleSpans, type Cluster } from './clusters.ts';
+import { placeMarkLabels } from './mark-labels.ts';
 import { thin, windowSteps, type Measurement, type StepPoint } from './trace-series.ts';
 import type { TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
@@ -19,7 +20,8 @@ const ACTIVE_DOT = { r: 3, strokeWidth: 0 };
 /** Head room above the highest value, so a line at the top does not sit on the frame. */
 const HEADROOM = 1.05;
 
-export type ChartPin = { tUs: number; tone: 'error' | 'warning' | 'info'; label: string; selected?: boolean };
+/** A finding on the chart: `label` names it in plain words (drawn where it fits), `rule` is its id. */
+export type ChartPin = { tUs: number; tone: 'error' | 'warning' | 'info'; label: string; rule?: string; selected?: boolean };
 export type ChartBand = { startUs: number; endUs: number; minMv: number; maxMv: number };
 /** Something that happened on the bus (Hard Reset, attach, an injected fault): a solid line with a label. */
 export type ChartEvent = { tUs: number; label: string; tone: 'reset' | 'attach' | 'fault' | 'note' };
@@ -112,6 +114,31 @@ type PlotMarksProps = {
   labelColour: string;
 };
 
+/** Rows of mark names in the plot: two along the top for events, two along the bottom for findings. */
+const NAME_ROWS = 2;
+const NAME_ROW_PX = 12;
+
+/** The names of folded marks ("Hard Reset +2") placed so none overlap; those without room are left out. */
+function markNames<T extends { label: string }>(
+  clusters: readonly Cluster[],
+  items: readonly T[],
+  xOf: (tUs: number) => number,
+  plot: { x: number; y: number; width: number; height: number },
+  edge: 'top' | 'bottom',
+) {
+  const names = clusters.map((cluster) => {
+    const item = items[cluster.first]!;
+    return { xPx: xOf(cluster.startUs), text: cluster.count > 1 ? `${item.label} +${cluster.count - 1}` : item.label, item, key: cluster.first };
+  });
+  const placed = placeMarkLabels(names, plot.x, plot.x + plot.width, NAME_ROWS);
+  return names.flatMap((name, index) => {
+    const at = placed[index];
+    if (!at) return [];
+    const y = edge === 'top' ? plot.y + 10 + at.row * NAME_ROW_PX : plot.y + plot.height - 4 - at.row * NAME_ROW_PX;
+    return [{ key: name.key, text: name.text, item: name.item, x: at.xPx, y, anchor: at.anchor }];
+  });
+}
+
 const byTime = <T extends { tUs: number }>(items: readonly T[]) => [...items].sort((a, b) => a.tUs - b.tUs);
 const tOf = (item: { tUs: number }) => item.tUs;
 
@@ -131,6 +158,7 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs
   const spanUs = Math.max(1, window.endUs - window.startUs);
   const xOf = (tUs: number) => plot.x + ((Math.min(Math.max(tUs, window.startUs), window.endUs) - window.startUs) / spanUs) * plot.width;
   const yOf = (volts: number) => plot.y + plot.height - (Math.min(Math.max(volts, 0), maxV) / maxV) * plot.height;
+  const eventNames = new Map(markNames(eventClusters, events, xOf, plot, 'top').map((name) => [name.key, name]));
   return (
     <g className="parley-plot-marks" pointerEvents="none">
       {gridV.map((volts) => (
@@ -159,29 +187,38 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs
           />
         );
       })}
-      {eventClusters.map((cluster, index) => {
+      {/* Names over the lines: events along the top, findings (in plain words) along the bottom. */}
+      {eventClusters.map((cluster) => {
         const event = events[cluster.first]!;
         const x = xOf(cluster.startUs);
-        const anchor = x > plot.x + plot.width - 90 ? 'end' : 'start';
-        const label = cluster.count > 1 ? `${event.label} +${cluster.count - 1}` : event.label;
+        const name = eventNames.get(cluster.first);
         return (
           <g key={`event-${cluster.first}`} data-chart-event={event.label} data-t-us={cluster.startUs}>
             <line x1={x} x2={x} y1={plot.y} y2={plot.y + plot.height} stroke={EVENT_COLOURS[event.tone]} strokeWidth={1.5} />
-            <text
-              x={anchor === 'start' ? x + 3 : x - 3}
-              y={plot.y + 10 + (index % 2) * 12}
-              fontSize={10}
-              textAnchor={anchor}
-              fill={EVENT_COLOURS[event.tone]}
-              stroke={labelColour}
-              strokeWidth={3}
-              paintOrder="stroke"
-            >
-              {label}
-            </text>
+            {name && (
+              <text x={name.x} y={name.y} fontSize={10} textAnchor={name.anchor} fill={EVENT_COLOURS[event.tone]} stroke={labelColour} strokeWidth={3} paintOrder="stroke">
+                {name.text}
+              </text>
+            )}
           </g>
         );
       })}
+      {markNames(pinClusters, pins, xOf, plot, 'bottom').map(({ key, text, x, y, anchor, item }) => (
+        <text
+          key={`pin-name-${key}`}
+          x={x}
+          y={y}
+          fontSize={10}
+          textAnchor={anchor}
+          fill={PIN_COLOURS[item.tone]}
+          stroke={labelColour}
+          strokeWidth={3}
+          paintOrder="stroke"
+          data-finding-rule={item.rule}
+        >
+          {text}
+        </text>
+      ))}
     </g>
   );
 }

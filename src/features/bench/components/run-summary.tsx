@@ -4,6 +4,7 @@ import type { Finding } from '../../../../shared/core/finding.ts';
 import { Badge, SeverityBadge } from '../../../components/badge.tsx';
 import { Mono } from '../../../components/mono.tsx';
 import { RuleLink } from '../../../components/rule-link.tsx';
+import { ruleTitle } from '../../../../shared/rules/catalog.ts';
 import { formatTimeUs } from '../../../components/timeline/time-window.ts';
 
 const volts = (mv: number) => `${(mv / 1_000).toFixed(mv % 1_000 === 0 ? 0 : 2)} V`;
@@ -92,7 +93,7 @@ export function FindingsTable({ findings, onSelectTime }: { findings: readonly F
               )}
             </td>
             <td className="py-1.5 text-slate-700 dark:text-slate-300">
-              {finding.message}
+              <span className="font-medium text-slate-900 dark:text-slate-100">{ruleTitle(finding.rule)}.</span> {finding.message}
               {finding.object !== undefined && <span className="text-slate-500"> (object {finding.object})</span>}
             </td>
           </tr>

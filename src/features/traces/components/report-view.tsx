@@ -1,10 +1,11 @@
 // biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
 import { useMemo } from 'react';
 import type { Finding } from '../../../../shared/core/finding.ts';
-import { isRuleId, ruleCatalog } from '../../../../shared/rules/catalog.ts';
+import { ruleTitle } from '../../../../shared/rules/catalog.ts';
 import type { Analysis } from '../../../../shared/api/index.ts';
 import { ParleyMark } from '../../../components/parley-mark.tsx';
 import { chartEventsOf } from '../../../components/timeline/event-lane.tsx';
+import { chartPinsOf } from '../../../components/timeline/finding-pins.tsx';
 import { formatTimeUs } from '../../../components/timeline/time-window.ts';
 import { PLOT_INSET_LEFT_PX, VbusChart } from '../../../components/timeline/vbus-chart.tsx';
 import { TimelineLegend } from '../../../components/timeline/timeline-legend.tsx';
@@ -50,7 +51,7 @@ const nothing = () => undefined;
  */
 export function ReportView({ data }: { data: ReportData }) {
   const input = useMemo(() => timelineInputOfAnalysis({ timeline: data.timeline, findings: data.findings } as unknown as Analysis), [data]);
-  const pins = useMemo(() => data.findings.flatMap((f) => (f.t === undefined ? [] : [{ tUs: f.t, tone: f.severity, label: f.rule }])), [data.findings]);
+  const pins = useMemo(() => chartPinsOf(data.findings), [data.findings]);
   const events = useMemo(() => chartEventsOf(input.events), [input.events]);
   const whole = useMemo(() => ({ startUs: 0, endUs: input.endUs }), [input.endUs]);
   const timed = data.findings.filter((f) => f.t !== undefined).slice(0, WITH_MESSAGES);
@@ -145,7 +146,7 @@ export function ReportView({ data }: { data: ReportData }) {
                   <td className="font-semibold">{SEVERITY_WORD[f.severity]}</td>
                   <td className="font-mono whitespace-nowrap">{f.t === undefined ? (f.line !== undefined ? `line ${f.line}` : '—') : formatSeconds(f.t)}</td>
                   <td>
-                    <span className="font-medium">{f.title ?? (isRuleId(f.rule) ? ruleCatalog[f.rule].title : f.rule)}.</span> {f.message}
+                    <span className="font-medium">{f.title ?? ruleTitle(f.rule)}.</span> {f.message}
                     <span className="block text-xs text-slate-500">
                       <span className="font-mono">{f.rule}</span> · {f.ref}
                     </span>
@@ -164,7 +165,7 @@ export function ReportView({ data }: { data: ReportData }) {
           {timed.map((f, index) => (
             <div key={index} className="report-keep mb-3">
               <p className="text-sm font-medium">
-                {formatSeconds(f.t)} · {f.title ?? f.rule}
+                {formatSeconds(f.t)} · {f.title ?? ruleTitle(f.rule)}
               </p>
               <table className="font-mono text-[11px]" aria-label={`Messages around ${f.rule} at ${formatSeconds(f.t)}`}>
                 <tbody>

@@ -161,7 +161,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
   const nextContracts = useTraceContracts(item.id, { page: contractsPage + 2, pageSize: CONTRACTS_PAGE_SIZE }, done && hasNextContracts);
   const input = useMemo(() => (analysis && timeline.data ? timelineInput(analysis, timeline.data) : null), [analysis, timeline.data]);
   const pinsRead = timeline.data?.findings;
-  const pins = useMemo<PinnedFinding[]>(() => (pinsRead ? pinsRead.map((pin) => ({ t: pin.t, severity: pin.severity, rule: pin.rule, message: pin.rule })) : NO_PINS), [pinsRead]);
+  const pins = useMemo<PinnedFinding[]>(() => (pinsRead ? pinsRead.map((pin) => ({ t: pin.t, severity: pin.severity, rule: pin.rule })) : NO_PINS), [pinsRead]);
   const selectedPin = selected === undefined || !pinsRead ? undefined : pinsRead.findIndex((pin) => pin.index === selected);
 
   const show = useCallback(
