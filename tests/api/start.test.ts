@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
 import { startServer } from '../../server/start.ts';
 
 describe('startServer', () => {
@@ -33,5 +34,20 @@ describe('startServer', () => {
       await server.close();
     }
     await expect(fetch(`${server.url}/api/health`)).rejects.toThrow();
+  });
+});
+
+describe('npm start (server/main.ts) with a bad setting', () => {
+  it('exits 1 with one line naming the setting, no stack trace', () => {
+    const dataDir = join(mkdtempSync(join(tmpdir(), 'parley-start-')), 'data');
+    const result = spawnSync(process.execPath, ['--import', 'tsx', join(import.meta.dirname, '..', '..', 'server', 'main.ts')], {
+      env: { ...process.env, PARLEY_DATA: dataDir, PORT: '0', DATABASE_URL: '', PARLEY_RUN_JOBS: 'off' },
+      encoding: 'utf8',
+      timeout: 60_000,
+    });
+    expect(result.status).toBe(1);
+    expect(result.stderr.trim()).toBe(
+      'Parley could not start: Invalid environment: PARLEY_RUN_JOBS: off needs DATABASE_URL (a team deployment, where parley worker processes run the jobs); with SQLite the server runs its jobs itself',
+    );
   });
 });
