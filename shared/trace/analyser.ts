@@ -8,7 +8,7 @@
 import type { Contract } from '../core/contract.ts';
 import type { Finding, Severity } from '../core/finding.ts';
 import type { Sop } from '../pd/types.ts';
-import { isRuleId, makeFinding, ruleCatalog, type RuleId } from '../rules/index.ts';
+import { isRuleId, makeFinding, ruleCatalog, type RuleId } from '../rules/catalog.ts';
 import { crc32 } from '../wire/index.ts';
 import { cableIdentityOf, cableText, type CableIdentity } from './cable.ts';
 import { createCollisionWatch } from './collision.ts';

@@ -1,16 +1,5 @@
 /** Public entry of the trace engine (README.md beside it). */
-export {
-  traceRecordSchema,
-  traceHeaderSchema,
-  messageRecordSchema,
-  eventRecordSchema,
-  measurementRecordSchema,
-  noteRecordSchema,
-  checkRecord,
-  isMessageRecord,
-  isEventRecord,
-  isMeasurementRecord,
-} from './records.ts';
+export { checkRecord, isMessageRecord, isEventRecord, isMeasurementRecord } from './records.ts';
 export type { TraceRecord, TraceHeader, MessageRecord, EventRecord, MeasurementRecord, NoteRecord, TraceSide, TraceEventKind, CheckedLine } from './records.ts';
 export { createAnalyser, analyseRecords } from './analyser.ts';
 export type { Analysis, Analyser, AnalyserOptions } from './analyser.ts';

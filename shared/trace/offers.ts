@@ -8,7 +8,7 @@
 import type { Finding } from '../core/finding.ts';
 import type { TimerTable } from '../core/timers.ts';
 import type { SourcePdo } from '../pd/types.ts';
-import { checkCaps } from '../rules/index.ts';
+import { checkCaps } from '../rules/check-caps.ts';
 import { millis, seconds } from './format.ts';
 import { remember, type AnalyserMemo } from './memo.ts';
 import type { Report, SeenMessage } from './seen.ts';

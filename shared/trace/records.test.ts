@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { checkRecord, traceHeaderSchema, traceRecordSchema } from './records.ts';
+import { traceHeaderSchema, traceRecordSchema } from './record-schema.ts';
+import { checkRecord } from './records.ts';
 
 // Record shapes of docs/trace.md ("JSON Lines" table).
 describe('checkRecord', () => {

@@ -1,11 +1,10 @@
 /**
  * Trace records (docs/trace.md): a header line, then message, event, measurement and
- * note records, one a line. `traceRecordSchema` (zod) is the schema for the server, the UI and
- * `parley schema trace`; `checkRecord` is a hand-written check of the same shape for the hot path of
- * the readers (it validates in place and allocates nothing, where zod copies every object).
+ * note records, one a line. `traceRecordSchema` (zod, record-schema.ts) is the schema for the server,
+ * the UI and `parley schema trace`; `checkRecord` is a hand-written check of the same shape for the
+ * hot path of the readers (it validates in place and allocates nothing, where zod copies every object).
  * Unknown extra fields are kept and ignored in both.
  */
-import { z } from 'zod';
 import type { Message, Sop } from '../pd/types.ts';
 
 export type TraceSide = 'source' | 'sink' | 'cable';
@@ -60,45 +59,8 @@ const SOPS: readonly string[] = ['SOP', "SOP'", "SOP''", "SOP'_Debug", "SOP''_De
 const CCS: readonly string[] = ['CC1', 'CC2'];
 const RPS: readonly string[] = ['default', '1.5A', '3.0A'];
 /** Hex as trace.md allows it: optional 0x, spaces or colons between bytes. */
-const HEX_TEXT = /^(0x)?[0-9a-f]{2}([ :]?[0-9a-f]{2})*$/i;
-const CRC_TEXT = /^(0x)?[0-9a-f]{8}$/i;
-
-const time = z.number().int().nonnegative().describe('microseconds from the start, non-decreasing');
-const side = z.enum(['source', 'sink', 'cable']);
-
-export const traceHeaderSchema = z.looseObject({
-  trace: z.literal(1),
-  title: z.string().optional(),
-  capturedAt: z.string().optional(),
-});
-
-export const messageRecordSchema = z.looseObject({
-  t: time,
-  msg: z.string().regex(HEX_TEXT, 'wire-order hex of header and objects'),
-  from: side.optional(),
-  sop: z.enum(['SOP', "SOP'", "SOP''", "SOP'_Debug", "SOP''_Debug"]).optional(),
-  crc: z.string().regex(CRC_TEXT, 'eight hex digits').optional(),
-  crcOk: z.boolean().optional(),
-  // Written by Parley, ignored by readers: only its being an object is checked.
-  message: (z.looseObject({}) as unknown as z.ZodType<Message>).optional(),
-});
-
-export const eventRecordSchema = z.looseObject({
-  t: time,
-  event: z.enum(['attach', 'detach', 'hard_reset', 'cable_reset', 'rp']),
-  from: side.optional(),
-  cc: z.enum(['CC1', 'CC2']).optional(),
-  rp: z.enum(['default', '1.5A', '3.0A']).optional(),
-});
-
-export const measurementRecordSchema = z.looseObject({
-  t: time,
-  vbus: z.looseObject({ mv: z.number().int().nonnegative(), ma: z.number().int().optional() }),
-});
-
-export const noteRecordSchema = z.looseObject({ t: time, note: z.string() });
-
-export const traceRecordSchema: z.ZodType<TraceRecord> = z.union([messageRecordSchema, eventRecordSchema, measurementRecordSchema, noteRecordSchema]);
+export const HEX_TEXT = /^(0x)?[0-9a-f]{2}([ :]?[0-9a-f]{2})*$/i;
+export const CRC_TEXT = /^(0x)?[0-9a-f]{8}$/i;
 
 /** What `checkRecord` found: a record, the header line, or why the value is neither. */
 export type CheckedLine = { kind: 'record'; record: TraceRecord } | { kind: 'header'; header: TraceHeader } | { kind: 'invalid'; reason: string };

@@ -1,7 +1,7 @@
 /** What the analyser's parts pass each other about one message on the wire. */
 import type { Finding } from '../core/finding.ts';
 import type { Sop } from '../pd/types.ts';
-import type { RuleId } from '../rules/index.ts';
+import type { RuleId } from '../rules/catalog.ts';
 import type { DecodedMessage } from './decode-cache.ts';
 import type { TraceSide } from './records.ts';
 

@@ -8,7 +8,7 @@ import { sinkPolicySchema } from '../rules/sink-policy.ts';
 import { scenarioSchema } from '../sim/scenario.ts';
 import { INVARIANT_IDS } from '../sweep/invariants.ts';
 import { SWEEP_FAULT_KINDS } from '../sweep/placements.ts';
-import { traceHeaderSchema, traceRecordSchema } from '../trace/records.ts';
+import { traceHeaderSchema, traceRecordSchema } from '../trace/record-schema.ts';
 import { zodMessage } from '../core/zod-message.ts';
 
 /** Lower-case words of `a-z`, `0-9`, `.`, `_`, `-`, joined by `/`: `caps/power-rules/45w-without-9v`. */

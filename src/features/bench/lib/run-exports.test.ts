@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario, simulate } from '../../../../shared/sim/index.ts';
 import { parseVector, runVector } from '../../../../shared/vectors/index.ts';
-import { traceRecordSchema } from '../../../../shared/trace/records.ts';
+import { traceRecordSchema } from '../../../../shared/trace/record-schema.ts';
 import { analyseRecords } from '../../../../shared/trace/index.ts';
 import { defaultScenario } from './form-model.ts';
 import { keySequence, traceJsonl, vectorFromRun, vectorIdOf } from './run-exports.ts';
