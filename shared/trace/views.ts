@@ -194,10 +194,11 @@ export interface Page<T> {
 
 /** What `GET /api/traces/:id/messages` answers: messages of the whole timeline by index. */
 export interface MessageRange {
-  /** Index of the first item (the first message at `atUs` when asked by time). */
+  /** The first row (the first message at `atUs` when asked by time); with `fold=goodcrc` rows are the messages other than GoodCRC. */
   offset: number;
-  /** Messages in the whole timeline. */
+  /** Rows in the whole list: every message, or with `fold=goodcrc` those other than GoodCRC. */
   total: number;
+  /** Consecutive messages from the first row's (with `fold`, up to the next row's, so each row's GoodCRC is there). */
   items: (StoredTimelineMessage & { index: number })[];
   /** The last Source_Capabilities with a good CRC before `offset` (a Request's objects are read against it). */
   capabilities: (StoredTimelineMessage & { index: number }) | null;

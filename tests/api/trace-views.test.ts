@@ -142,6 +142,17 @@ describe('the trace page reads', () => {
     expect(end.items.map((m: { index: number }) => m.index)).toEqual([19_998, 19_999]);
     const past = (await support.get(`/api/traces/${bigId}/messages?atUs=${full[19_999]!.t + 1}`)).body;
     expect(past).toMatchObject({ offset: 20_000, total: 20_000, items: [] });
+    // Folded: rows are the messages other than GoodCRC; each run carries the GoodCRCs up to the next row.
+    const rowIndices = indexed.filter((m) => m.messageType !== 'GoodCRC').map((m) => m.index);
+    const folded = (await support.get(`/api/traces/${bigId}/messages?fold=goodcrc&offset=7001&limit=300`)).body;
+    expect(folded.total).toBe(rowIndices.length);
+    expect(folded.offset).toBe(7_001);
+    expect(folded.items).toEqual(indexed.slice(rowIndices[7_001], rowIndices[7_301]));
+    expect(folded.items.filter((m: { messageType: string }) => m.messageType !== 'GoodCRC')).toHaveLength(300);
+    const foldedAt = (await support.get(`/api/traces/${bigId}/messages?fold=goodcrc&atUs=${atUs}&limit=2`)).body;
+    expect(rowIndices[foldedAt.offset]).toBe(indexed.findIndex((m) => m.t >= atUs && m.messageType !== 'GoodCRC'));
+    const foldedEnd = (await support.get(`/api/traces/${bigId}/messages?fold=goodcrc&offset=${rowIndices.length - 1}`)).body;
+    expect(foldedEnd.items).toEqual(indexed.slice(rowIndices[rowIndices.length - 1]));
     expect((await support.get(`/api/traces/${bigId}/messages?limit=1001`)).status).toBe(400);
     expect((await support.get(`/api/traces/${bigId}/messages?offset=-1`)).status).toBe(400);
   });

@@ -37,6 +37,7 @@ const messagesQuery = z.object({
   offset: z.coerce.number().int().min(0).max(Number.MAX_SAFE_INTEGER).optional(),
   atUs: microseconds.optional(),
   limit: z.coerce.number().int().min(1).max(1_000).default(200),
+  fold: z.enum(['goodcrc']).optional(),
 });
 
 function progressOf(deps: AppDeps, trace: ITrace) {
@@ -117,7 +118,7 @@ export const viewRoutes: RouteDef[] = [
       const trace = await findTrace(em, params.id);
       const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
       if (!summary) return { offset: 0, total: 0, items: [], capabilities: null };
-      return messageRange(em, trace.id, summary.timeline.messages, query);
+      return messageRange(em, trace.id, summary.timeline.messages, { ...query, fold: query.fold === 'goodcrc' });
     },
   }),
 ];

@@ -6,6 +6,7 @@
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { Finding } from '../../../shared/core/finding.ts';
 import type { AnalysisSummary, FindingPin, MessageRange, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
+import { CHUNK_ITEMS } from '../../../shared/trace/views.ts';
 import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
 
 /** Parsed chunk items kept across requests (a chunk never changes once written; ids are not reused). */
@@ -171,6 +172,62 @@ async function messageIndexAt(em: EntityManager, traceId: number, atUs: number, 
   return Number(row.first_index) + (offset === -1 ? items.length : offset);
 }
 
+/**
+ * Rows of a list without GoodCRCs, per message chunk: `firstIndex[c]` and `rowsBefore[c]` (rows in
+ * the chunks before it; one more entry: all rows). GoodCRCs are counted in SQL from the stored JSON,
+ * so no chunk is parsed; kept per trace by its first chunk's id (chunks are rewritten with new ids).
+ */
+type FoldedRows = { firstIndex: number[]; rowsBefore: number[] };
+const foldedRowsCache = new Map<number, FoldedRows>();
+const FOLDED_ROWS_TRACES = 64;
+const GOOD_CRC_TEXT = '"messageType":"GoodCRC"';
+
+async function foldedRows(em: EntityManager, traceId: number): Promise<FoldedRows> {
+  const sql = sqlOf(em);
+  const [head] = await sql.execute<{ id: number }[]>("select id from trace_chunk where trace_id = ? and kind = 'message' and level = 0 order by first_index limit 1", [traceId]);
+  const key = Number(head?.id ?? -traceId);
+  const hit = foldedRowsCache.get(key);
+  if (hit) return hit;
+  const chunks = await sql.execute<{ first_index: number; count: number; good_crcs: number }[]>(
+    "select first_index, count, (length(body) - length(replace(body, ?, ''))) / length(?) as good_crcs from trace_chunk where trace_id = ? and kind = 'message' and level = 0 order by first_index",
+    [GOOD_CRC_TEXT, GOOD_CRC_TEXT, traceId],
+  );
+  const rows: FoldedRows = { firstIndex: [], rowsBefore: [0] };
+  for (const c of chunks) {
+    rows.firstIndex.push(Number(c.first_index));
+    rows.rowsBefore.push(rows.rowsBefore[rows.rowsBefore.length - 1]! + Number(c.count) - Number(c.good_crcs));
+  }
+  if (foldedRowsCache.size >= FOLDED_ROWS_TRACES) foldedRowsCache.delete(foldedRowsCache.keys().next().value!);
+  foldedRowsCache.set(key, rows);
+  return rows;
+}
+
+/** Index of the message that is row `row` of the folded list (the total when past the end). */
+async function indexOfFoldedRow(em: EntityManager, traceId: number, folded: FoldedRows, row: number, total: number): Promise<number> {
+  let chunk = 0;
+  while (chunk < folded.firstIndex.length && folded.rowsBefore[chunk + 1]! <= row) chunk++;
+  if (chunk >= folded.firstIndex.length) return total;
+  const first = folded.firstIndex[chunk]!;
+  const items = await messagesByIndex(em, traceId, first, CHUNK_ITEMS);
+  let seen = folded.rowsBefore[chunk]!;
+  for (const m of items) {
+    if (m.messageType === 'GoodCRC') continue;
+    if (seen === row) return m.index;
+    seen++;
+  }
+  return total;
+}
+
+/** Row of the folded list at message `index` (GoodCRCs before it not counted). */
+async function foldedRowOfIndex(em: EntityManager, traceId: number, folded: FoldedRows, index: number): Promise<number> {
+  let chunk = 0;
+  while (chunk + 1 < folded.firstIndex.length && folded.firstIndex[chunk + 1]! <= index) chunk++;
+  if (folded.firstIndex.length === 0) return 0;
+  const first = folded.firstIndex[chunk]!;
+  const items = await messagesByIndex(em, traceId, first, Math.max(0, index - first));
+  return folded.rowsBefore[chunk]! + items.filter((m) => m.messageType !== 'GoodCRC').length;
+}
+
 /** The last Source_Capabilities with a good CRC before message `before` (a Request's objects are read against it). */
 async function capabilitiesBefore(em: EntityManager, traceId: number, before: number): Promise<IndexedMessage | null> {
   // The text match finds the chunk in SQL; the items decide (a chunk may name the type only in a failed message).
@@ -190,11 +247,27 @@ async function capabilitiesBefore(em: EntityManager, traceId: number, before: nu
 }
 
 /**
- * A run of the whole trace's messages by index, for the message list: from `offset` (or from the
- * first message at `atUs`), at most `limit`, with the offer in force before the run.
+ * A run of the whole trace's messages for the message list: `limit` rows from row `offset` (or
+ * from the first message at `atUs`), with the offer in force before them. With `fold`, rows are
+ * the messages other than GoodCRC (`offset` and `total` count those), and `items` still holds
+ * every message from the first row's up to the next row's, so each row's GoodCRC is there.
  */
-export async function messageRange(em: EntityManager, traceId: number, total: number, q: { offset?: number | undefined; atUs?: number | undefined; limit: number }): Promise<MessageRange> {
-  const offset = Math.min(total, q.atUs === undefined ? (q.offset ?? 0) : await messageIndexAt(em, traceId, q.atUs, total));
-  const items = await messagesByIndex(em, traceId, offset, q.limit);
-  return { offset, total, items, capabilities: offset > 0 ? await capabilitiesBefore(em, traceId, offset) : null };
+export async function messageRange(
+  em: EntityManager,
+  traceId: number,
+  total: number,
+  q: { offset?: number | undefined; atUs?: number | undefined; limit: number; fold?: boolean | undefined },
+): Promise<MessageRange> {
+  if (!q.fold) {
+    const offset = Math.min(total, q.atUs === undefined ? (q.offset ?? 0) : await messageIndexAt(em, traceId, q.atUs, total));
+    const items = await messagesByIndex(em, traceId, offset, q.limit);
+    return { offset, total, items, capabilities: offset > 0 ? await capabilitiesBefore(em, traceId, offset) : null };
+  }
+  const folded = await foldedRows(em, traceId);
+  const rows = folded.rowsBefore[folded.rowsBefore.length - 1]!;
+  const offset = Math.min(rows, q.atUs === undefined ? (q.offset ?? 0) : await foldedRowOfIndex(em, traceId, folded, await messageIndexAt(em, traceId, q.atUs, total)));
+  const from = await indexOfFoldedRow(em, traceId, folded, offset, total);
+  const to = await indexOfFoldedRow(em, traceId, folded, offset + q.limit, total);
+  const items = await messagesByIndex(em, traceId, from, to - from);
+  return { offset, total: rows, items, capabilities: from > 0 ? await capabilitiesBefore(em, traceId, from) : null };
 }
