@@ -20,14 +20,20 @@ export function lastCapsIndex(messages: readonly LaneMessage[]): Int32Array {
 
 export function decodeLaneMessage(messages: readonly LaneMessage[], capsBefore: Int32Array, index: number): Message | null {
   const m = messages[index];
-  if (!m?.hex) return null;
+  if (!m) return null;
+  const capsAt = capsBefore[index] ?? -1;
+  return decodeWithOffer(m, capsAt >= 0 ? messages[capsAt] : undefined);
+}
+
+/** One message decoded, a Request against `offer` (the last Source_Capabilities before it). */
+export function decodeWithOffer(m: LaneMessage, offer: LaneMessage | undefined): Message | null {
+  if (!m.hex) return null;
   const bytes = parseHex(m.hex);
   if (!bytes.ok) return null;
-  const capsAt = capsBefore[index] ?? -1;
   let caps: Message['objects'] | undefined;
-  if (m.messageType === 'Request' && capsAt >= 0) {
-    const offer = messages[capsAt]?.hex ? parseHex(messages[capsAt]!.hex!) : null;
-    const decoded = offer?.ok ? decodeMessage(offer.bytes) : null;
+  if (m.messageType === 'Request' && offer?.hex) {
+    const offerBytes = parseHex(offer.hex);
+    const decoded = offerBytes.ok ? decodeMessage(offerBytes.bytes) : null;
     if (decoded?.ok) caps = decoded.message.objects;
   }
   const decoded = decodeMessage(bytes.bytes, { sop: (m.sop ?? 'SOP') as Sop, ...(caps ? { caps } : {}) });

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useIsDark } from '../../lib/theme.ts';
 import { cn } from '../../lib/cn.ts';
 import { visibleSpans } from './clusters.ts';
@@ -27,14 +27,23 @@ export type TraceTimelineProps = {
   contracts: readonly TimelineSpan[];
   bands?: readonly ChartBand[];
   endUs: number;
-  /** Zoom to this time when it changes (the `key` lets the same time be asked for twice). */
-  focus?: { tUs: number; key: number } | null;
+  /**
+   * Zoom to this time when it changes (the `key` lets the same time be asked for twice); `walk`:
+   * a message chosen in a list, shown as one chosen here is (the span kept when it is narrow, no scroll).
+   */
+  focus?: { tUs: number; key: number; walk?: boolean } | null;
   selectedFinding?: number;
   onSelectFinding?(index: number): void;
   /** The window the timeline opens at (a shared link's zoom). */
   initialWindow?: TimeWindow | null;
   /** Told of every window change (the page keeps it in the URL). */
   onWindowChange?(window: TimeWindow): void;
+  /** In place of the list of these messages and its detail (the trace page lists the whole trace from the server). */
+  messageAside?(view: { foldGoodCrc: boolean }): ReactNode;
+  /** The message (place in `messages`) the lanes highlight, when the caller keeps the selection. */
+  selectedMessage?: number;
+  /** An arrow on the lanes was clicked; given, the caller keeps the selection. */
+  onSelectMessage?(place: number): void;
   className?: string;
 };
 
@@ -62,6 +71,9 @@ export function TraceTimeline({
   onSelectFinding,
   initialWindow,
   onWindowChange,
+  messageAside,
+  selectedMessage: chosenMessage,
+  onSelectMessage,
   className,
 }: TraceTimelineProps) {
   const end = Math.max(1, endUs);
@@ -78,11 +90,25 @@ export function TraceTimeline({
     [onWindowChange],
   );
 
+  /** A message chosen from a list: the window keeps its span when narrow and moves only when the message is near an edge. */
+  const walkTo = useCallback(
+    (tUs: number) =>
+      setWindowState((current) => {
+        const span = Math.min(current.endUs - current.startUs, WALK_SPAN_MAX_US);
+        const inside = tUs >= current.startUs + span * 0.1 && tUs <= current.endUs - span * 0.1;
+        const next = inside && current.endUs - current.startUs <= WALK_SPAN_MAX_US ? current : windowAround(tUs, span, end);
+        if (next !== current) onWindowChange?.(next);
+        return next;
+      }),
+    [end, onWindowChange],
+  );
+
   useEffect(() => {
     if (!focus) return;
+    if (focus.walk) return walkTo(focus.tUs);
     setWindow(windowAround(focus.tUs, FOCUS_SPAN_US, end));
     root.current?.scrollIntoView?.({ behavior: 'smooth', block: 'start' });
-  }, [focus, end, setWindow]);
+  }, [focus, end, setWindow, walkTo]);
 
   const pins = useMemo(() => chartPinsOf(findings, selectedFinding), [findings, selectedFinding]);
   const chartEvents = useMemo(() => chartEventsOf(events), [events]);
@@ -96,18 +122,12 @@ export function TraceTimeline({
 
   const selectMessage = useCallback(
     (index: number) => {
+      if (onSelectMessage) return onSelectMessage(index);
       setSelectedMessage(index);
       const m = messages[index];
-      if (!m) return;
-      setWindowState((current) => {
-        const span = Math.min(current.endUs - current.startUs, WALK_SPAN_MAX_US);
-        const inside = m.t >= current.startUs + span * 0.1 && m.t <= current.endUs - span * 0.1;
-        const next = inside && current.endUs - current.startUs <= WALK_SPAN_MAX_US ? current : windowAround(m.t, span, end);
-        if (next !== current) onWindowChange?.(next);
-        return next;
-      });
+      if (m) walkTo(m.t);
     },
-    [messages, end, onWindowChange],
+    [messages, walkTo, onSelectMessage],
   );
 
   return (
@@ -126,7 +146,7 @@ export function TraceTimeline({
             insetRightPx={PLOT_INSET_RIGHT_PX}
             onSelect={selectMessage}
             onZoomTo={setWindow}
-            selectedIndex={selectedMessage}
+            selectedIndex={onSelectMessage ? chosenMessage : selectedMessage}
           />
           <FindingPins
             findings={findings}
@@ -141,16 +161,20 @@ export function TraceTimeline({
             <TimelineLegend current={measurements.some((m) => m.ma !== undefined)} bands={(bands?.length ?? 0) > 0} />
           </div>
         </div>
-        <div className="flex min-w-0 flex-col gap-3">
-          <MessageList messages={messages} foldGoodCrc={foldGoodCrc} selectedIndex={selectedMessage} onSelect={selectMessage} />
-          {detail ? (
-            <div className="rounded-md border border-slate-200 p-3 dark:border-slate-800" data-testid="selected-message">
-              <MessagePanel selected={detail} onClose={() => setSelectedMessage(undefined)} />
-            </div>
-          ) : (
-            <p className="text-xs text-slate-500 dark:text-slate-400">Select a message (click, or focus the list and use ↑ ↓) to see it bit by bit.</p>
-          )}
-        </div>
+        {messageAside ? (
+          messageAside({ foldGoodCrc })
+        ) : (
+          <div className="flex min-w-0 flex-col gap-3">
+            <MessageList messages={messages} foldGoodCrc={foldGoodCrc} selectedIndex={selectedMessage} onSelect={selectMessage} />
+            {detail ? (
+              <div className="rounded-md border border-slate-200 p-3 dark:border-slate-800" data-testid="selected-message">
+                <MessagePanel selected={detail} onClose={() => setSelectedMessage(undefined)} />
+              </div>
+            ) : (
+              <p className="text-xs text-slate-500 dark:text-slate-400">Select a message (click, or focus the list and use ↑ ↓) to see it bit by bit.</p>
+            )}
+          </div>
+        )}
       </div>
     </div>
   );

@@ -23,6 +23,7 @@ import { CommentThread } from '../components/comment-thread.tsx';
 import { CONTRACTS_PAGE_SIZE, ContractsTable } from '../components/contracts-table.tsx';
 import { FINDINGS_PAGE_SIZE, FindingsTable } from '../components/findings-table.tsx';
 import { ShareDialog } from '../components/share-dialog.tsx';
+import { TraceMessages } from '../components/trace-messages.tsx';
 import { FindingCounts } from '../components/traces-table.tsx';
 import { timelineInput } from '../lib/timeline-input.ts';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
@@ -141,7 +142,10 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
   const [params, setParams] = useSearchParams();
   const [shareOpen, setShareOpen] = useState(false);
   const selected = params.get('finding') === null ? undefined : Number(params.get('finding'));
-  const [focus, setFocus] = useState<{ tUs: number; key: number } | null>(null);
+  const [focus, setFocus] = useState<{ tUs: number; key: number; walk?: boolean } | null>(null);
+  // The message chosen in the list (its index in the whole trace) and an arrow clicked on the lanes for the list to find.
+  const [chosenMessage, setChosenMessage] = useState<number | undefined>(undefined);
+  const [follow, setFollow] = useState<{ tUs: number; key: number } | null>(null);
   const canWrite = mayWriteTraces(user.role);
   const done = item.status === 'done' && analysis !== null;
   const endUs = analysis?.endUs ?? 1;
@@ -163,6 +167,25 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
   const pinsRead = timeline.data?.findings;
   const pins = useMemo<PinnedFinding[]>(() => (pinsRead ? pinsRead.map((pin) => ({ t: pin.t, severity: pin.severity, rule: pin.rule })) : NO_PINS), [pinsRead]);
   const selectedPin = selected === undefined || !pinsRead ? undefined : pinsRead.findIndex((pin) => pin.index === selected);
+  const windowMessages = timeline.data?.messages;
+  const chosenPlace = chosenMessage === undefined || !windowMessages ? undefined : windowMessages.findIndex((m) => m.index === chosenMessage);
+  const chooseMessage = useCallback((index: number, message: { t: number }) => {
+    setChosenMessage(index);
+    setFocus({ tUs: message.t, key: Date.now(), walk: true });
+  }, []);
+  const followLane = useCallback(
+    (place: number) => {
+      const m = windowMessages?.[place];
+      if (!m) return;
+      setChosenMessage(m.index);
+      setFollow({ tUs: m.t, key: Date.now() });
+    },
+    [windowMessages],
+  );
+  const messageAside = useCallback(
+    ({ foldGoodCrc }: { foldGoodCrc: boolean }) => <TraceMessages traceId={item.id} fold={foldGoodCrc} onSelect={chooseMessage} follow={follow} />,
+    [item.id, chooseMessage, follow],
+  );
 
   const show = useCallback(
     (index: number, tUs: number | undefined) => {
@@ -277,6 +300,9 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
                   focus={focus}
                   selectedFinding={selectedPin === -1 ? undefined : selectedPin}
                   onSelectFinding={showPin}
+                  messageAside={messageAside}
+                  selectedMessage={chosenPlace === -1 ? undefined : chosenPlace}
+                  onSelectMessage={followLane}
                 />
               </Suspense>
               {input.omitted && <p className="mt-2 text-xs text-slate-500">{input.omitted}</p>}
