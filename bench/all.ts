@@ -94,6 +94,16 @@ function table(rows: string[][]): string {
     .join('\n');
 }
 
+const os = await import('node:os');
+/** Load average over the last minute, 5 and 15 minutes: the table's figures depend on it. */
+const loadText = () =>
+  os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(', ');
+const loadAtStart = loadText();
+const startedAt = new Date().toISOString().slice(0, 16);
+
 const outcomes: Outcome[] = [];
 for (const script of scripts) {
   process.stdout.write(`running ${script} … `);
@@ -108,7 +118,9 @@ for (const o of outcomes) {
   if (o.reports.length === 0) rows.push([o.script, o.code === 0 ? 'no figures reported' : `failed (exit ${o.code}): ${o.tail.slice(0, 120)}`, '', '', '', '', '']);
 }
 console.log(`\n${table(rows)}`);
-console.log(`\nNode ${process.version}, ${(await import('node:os')).cpus().length} cores, ${new Date().toISOString().slice(0, 16)}Z`);
+const cpus = os.cpus();
+console.log(`\n${cpus[0]?.model.trim() ?? 'unknown CPU'}, ${cpus.length} cores, ${(os.totalmem() / 2 ** 30).toFixed(1)} GB, ${os.type()} ${os.release()}; Node ${process.version}`);
+console.log(`measured ${startedAt}Z → ${new Date().toISOString().slice(0, 16)}Z; load average (1, 5, 15 min) ${loadAtStart} at the start, ${loadText()} at the end`);
 const missed = outcomes.flatMap((o) => o.reports.flatMap((r) => r.figures)).filter((f) => f.met === false).length;
 const failed = outcomes.filter((o) => o.code !== 0).length;
 if (failed > 0 || missed > 0) console.log(`${failed} script(s) failed, ${missed} target(s) not met`);

@@ -5,7 +5,6 @@
  * interleaved so that a busy machine slows all of them alike; the median of each is compared.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { report } from './report.ts';
@@ -14,7 +13,8 @@ const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..');
 const RUNS = Number(process.env.PARLEY_BENCH_RUNS ?? 15);
 const TARGET_RATIO = 2;
 
-if (!existsSync(join(ROOT, 'build', 'parley.mjs'))) execFileSync(process.execPath, [join(ROOT, 'cli', 'build.mjs')], { stdio: 'inherit' });
+// Always built afresh: a bundle left from an older checkout would time yesterday's code.
+execFileSync(process.execPath, [join(ROOT, 'cli', 'build.mjs')], { stdio: 'inherit' });
 
 const tsx = join(ROOT, 'node_modules', 'tsx', 'dist', 'cli.mjs');
 const subjects = [

@@ -78,17 +78,18 @@ console.log(
  * interleaved so load hits both; the best, not the median, because on a shared machine one run can
  * be descheduled or meet a collection.
  */
-function programmableRuns(): { withMs: number; withoutMs: number; samples: number; steps: number } {
+function programmableRuns(durationMs = 60_000): { withMs: number; withoutMs: number; samples: number; steps: number } {
+  const base = { ...programmable, durationMs };
   const withMs: number[] = [];
   const withoutMs: number[] = [];
   let samples = 0;
   let steps = 0;
   // Warm up both paths first so the comparison is of optimised code, not of the first cold runs.
-  for (let i = 0; i < 6; i++) for (const sampled of [false, true]) simulate({ ...programmable, seed: 100 + i }, { decode: false, analyze: false, samples: sampled });
+  for (let i = 0; i < 6; i++) for (const sampled of [false, true]) simulate({ ...base, seed: 100 + i }, { decode: false, analyze: false, samples: sampled });
   for (let i = 0; i < 25; i++) {
     for (const sampled of [false, true]) {
       const start = cpuMs();
-      const result = simulate({ ...programmable, seed: i + 1 }, { decode: false, analyze: false, ...(sampled ? { samples: true, sampleEveryUs: 1_000 } : {}) });
+      const result = simulate({ ...base, seed: i + 1 }, { decode: false, analyze: false, ...(sampled ? { samples: true, sampleEveryUs: 1_000 } : {}) });
       (sampled ? withMs : withoutMs).push(cpuMs() - start);
       if (sampled) samples = result.samples?.count ?? 0;
       if (sampled) steps = result.samples?.steps ?? 0;
@@ -120,6 +121,9 @@ function freshBufferMs(rows: number): number {
   return best;
 }
 const runs = programmableRuns();
+// The same at a quarter and four times the length: the samples' cost should grow with the run, no faster.
+const shortRuns = programmableRuns(15_000);
+const longRuns = programmableRuns(240_000);
 const floorMs = freshBufferMs(runs.samples);
 const ratio = runs.withMs / runs.withoutMs;
 console.log(
@@ -127,6 +131,9 @@ console.log(
 );
 console.log(
   `  for scale: writing the ${fmt(runs.samples)} samples one row each into a fresh ${fmt(Math.round((runs.samples * 16) / 1024))} KB Int32Array alone takes ${floorMs.toFixed(2)} ms here (${(floorMs / runs.withoutMs).toFixed(2)}× the run without samples)`,
+);
+console.log(
+  `  with 1 ms samples at 15 s, 60 s, 240 s: ${[shortRuns, runs, longRuns].map((r) => `${r.withMs.toFixed(2)} ms (${(r.withMs / r.withoutMs).toFixed(2)}×, ${fmt(r.steps)} steps)`).join(', ')}`,
 );
 report('sim', [
   {
@@ -147,6 +154,11 @@ report('sim', [
     peer: runs.withoutMs,
     peerName: 'same run without samples',
     higherIsBetter: false,
+    growth: [
+      { size: '15 s', value: shortRuns.withMs },
+      { size: '60 s', value: runs.withMs },
+      { size: '240 s', value: longRuns.withMs },
+    ],
     target: '≤ 3× without',
     met: ratio <= 3,
   },
