@@ -12,7 +12,7 @@
  */
 import type { Contract } from '../core/contract.ts';
 import type { SourcePdo } from '../pd/types.ts';
-import type { ActiveContract } from './policy.ts';
+import type { ActiveContract } from './policy-waits.ts';
 
 export interface VbusLimits {
   minMv: number;
