@@ -15,8 +15,8 @@ export const TeamVector = defineEntity({
     vectorId: p.string().unique(),
     title: p.string().index(),
     kind: p.string().index(),
-    /** The file's tags, space-separated with a space at each end, for `like '% tag %'`. */
-    tags: p.text(),
+    /** The file's tags, space-separated with a space at each end, for `like '% tag %'`; indexed on SQLite for the tag counts. */
+    tags: p.text().index(),
     /** The current revision's file text (formatted, final newline). */
     text: p.text(),
     revision: p.integer().index(),

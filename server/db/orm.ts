@@ -6,6 +6,7 @@ import { entities } from './entities.ts';
 import { migrationsList } from './migrations/index.ts';
 import { postgresMigrationsList } from './migrations-postgres/index.ts';
 import { badRequest } from '../errors.ts';
+import { closeReads, openReads } from './reads.ts';
 
 /**
  * The ORM of either dialect. Both drivers share MikroORM's SQL entity manager, so the rest of the
@@ -72,8 +73,9 @@ export async function openOrm(options: DatabaseTarget & { debug?: boolean; migra
     dbName: options.dbName,
     migrations: { migrationsList, snapshot: false, silent: true, transactional: true, allOrNothing: true },
     debug: options.debug ?? false,
-    // The full-text index and its shadow tables are kept by hand-written migrations, not entities.
-    schemaGenerator: { skipTables: [/^team_vector_search/] },
+    // The full-text index and its shadow tables, and the library's version number, are kept by
+    // hand-written migrations and triggers, not entities.
+    schemaGenerator: { skipTables: [/^team_vector_search/, 'library_version'] },
   });
   if (options.dbName !== ':memory:') {
     // Write-ahead log, synced at checkpoints: a commit no longer waits for the disk on the request
@@ -83,6 +85,13 @@ export async function openOrm(options: DatabaseTarget & { debug?: boolean; migra
     await orm.em.getConnection().execute('pragma synchronous = NORMAL');
   }
   if (options.migrate !== false) await orm.getMigrator().up();
+  // The hot read paths' own read-only connection (server/db/reads.ts), closed with the ORM.
+  openReads(orm.em);
+  const close = orm.close.bind(orm);
+  orm.close = (force?: boolean) => {
+    closeReads(orm.em);
+    return close(force);
+  };
   return orm;
 }
 

@@ -4,6 +4,7 @@ import { Migration20261204190000TraceViews } from './Migration20261204190000Trac
 import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
 import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
+import { Migration20261204223000LibraryVersion } from './Migration20261204223000LibraryVersion.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
@@ -13,4 +14,5 @@ export const postgresMigrationsList = [
   { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
   { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
+  { name: 'Migration20261204223000LibraryVersion', class: Migration20261204223000LibraryVersion },
 ];

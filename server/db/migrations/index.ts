@@ -7,6 +7,7 @@ import { Migration20261204190000TraceViews } from './Migration20261204190000Trac
 import { Migration20261204190100TeamVectorSearch } from './Migration20261204190100TeamVectorSearch.ts';
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
 import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
+import { Migration20261204223000LibraryVersion } from './Migration20261204223000LibraryVersion.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
@@ -19,4 +20,5 @@ export const migrationsList = [
   { name: 'Migration20261204190100TeamVectorSearch', class: Migration20261204190100TeamVectorSearch },
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
   { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
+  { name: 'Migration20261204223000LibraryVersion', class: Migration20261204223000LibraryVersion },
 ];

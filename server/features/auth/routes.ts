@@ -57,7 +57,8 @@ export const authRoutes: RouteDef[] = [
     path: '/api/auth/logout',
     access: 'signed-in',
     async handler(ctx) {
-      const user = currentUser(ctx);
+      // The signed-in user is a plain read; the account itself is loaded to be changed.
+      const user = await ctx.em.findOneOrFail(User, { id: currentUser(ctx).id });
       // Server-side: every session cookie of this account signed before now stops working.
       user.sessionVersion += 1;
       recordAudit(ctx.em, ctx.deps.clock, { actor: user, action: 'auth.sign_out', target: user.email });

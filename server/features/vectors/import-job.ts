@@ -14,7 +14,6 @@ import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import type { Clock } from '../../context.ts';
 import { recordAudit } from '../audit/record.ts';
 import { checkVectorFile, tagsColumn, type CheckedVector } from './store.ts';
-import { libraryChanged } from './tag-counts.ts';
 import { readLibraryZip } from './zip.ts';
 
 export interface ImportIssue {
@@ -110,7 +109,6 @@ async function importZip(deps: { fork(): EntityManager; clock: Clock }, payload:
   const em = deps.fork();
   recordAudit(em, deps.clock, { actor: { ...payload.user } as never, action: 'vector.imported', target: `vectors:${all.length}`, details: { created, updated, unchanged } });
   await em.flush();
-  libraryChanged();
   return { type: 'done', created, updated, unchanged, total: all.length };
 }
 

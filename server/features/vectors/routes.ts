@@ -8,9 +8,10 @@ import { badRequest, notFound } from '../../errors.ts';
 import { currentUser, route, type RouteDef } from '../../route-def.ts';
 import { recordAudit } from '../audit/record.ts';
 import { VECTOR_ID_PATTERN } from '../../../shared/vectors/index.ts';
-import { deviceRefs, lastResults, presentListItem, presentRevision, presentVector } from './present.ts';
+import { deviceRefs, lastResults, listRows, presentListItem, presentRevision, presentVector } from './present.ts';
 import { dialectOf, matchingVectorIds, vectorFilterFields, vectorWhereSql } from './query.ts';
-import { libraryChanged, libraryTagCounts } from './tag-counts.ts';
+import { libraryAnswer, libraryTagCounts, libraryVersion } from './library-cache.ts';
+import { sqlReads } from '../../db/reads.ts';
 import { checkDevice, checkVectorFile, createVector, findVector, reviseVector } from './store.ts';
 import { libraryZip } from './zip.ts';
 import { vectorImportJob } from './import-job.ts';
@@ -75,17 +76,27 @@ export const vectorsRoutes: RouteDef[] = [
       const direction = sort.startsWith('-') ? 'desc' : 'asc';
       const column = sortSql[sort.replace(/^-/, '') as (typeof sortKeys)[number]];
       const where = vectorWhereSql(filter, dialectOf(em));
-      const sql = em.getConnection();
-      // One page of rows and the count, both through the indexes; never every row.
-      const [counted] = await sql.execute<{ total: number }[]>(`select count(*) as total from team_vector v ${where.sql}`, where.params);
-      const ids = await sql.execute<{ id: number }[]>(`select v.id from team_vector v ${where.sql} order by ${column} ${direction}, v.vector_id asc limit ? offset ?`, [
-        ...where.params,
-        pageSize,
-        (page - 1) * pageSize,
-      ]);
-      const found = await em.find(TeamVector, { id: { $in: ids.map((r) => Number(r.id)) } });
-      const byId = new Map(found.map((row) => [row.id, row]));
-      const rows = ids.flatMap((r) => byId.get(Number(r.id)) ?? []);
+      const reads = sqlReads(em);
+      const version = await libraryVersion(em);
+      const order = `order by ${column} ${direction}, v.vector_id asc`;
+      const offset = (page - 1) * pageSize;
+      let total: number;
+      let ids: number[];
+      if (filter.q) {
+        // A search costs the full-text index some milliseconds: its matches, in order, are kept while the library stands.
+        const matches = await libraryAnswer(em, version, `ids ${where.sql} ${order} ${JSON.stringify(where.params)}`, async () =>
+          Int32Array.from((await reads.all<{ id: number }>(`select v.id from team_vector v ${where.sql} ${order}`, where.params)).map((r) => Number(r.id))),
+        );
+        total = matches.length;
+        ids = Array.from(matches.subarray(offset, offset + pageSize));
+      } else {
+        // One page through the sort column's index; the filter's total is kept while the library stands.
+        total = await libraryAnswer(em, version, `total ${where.sql} ${JSON.stringify(where.params)}`, async () =>
+          Number((await reads.get<{ total: unknown }>(`select count(*) as total from team_vector v ${where.sql}`, where.params))?.total ?? 0),
+        );
+        ids = (await reads.all<{ id: number }>(`select v.id from team_vector v ${where.sql} ${order} limit ? offset ?`, [...where.params, pageSize, offset])).map((r) => Number(r.id));
+      }
+      const rows = await listRows(em, ids);
       const devices = await deviceRefs(em);
       const last = await lastResults(
         em,
@@ -93,10 +104,10 @@ export const vectorsRoutes: RouteDef[] = [
       );
       return {
         items: rows.map((row) => presentListItem(row, devices, last.get(row.vectorId))),
-        total: Number(counted?.total ?? 0),
+        total,
         page,
         pageSize,
-        tags: await libraryTagCounts(em),
+        tags: await libraryTagCounts(em, version),
       };
     },
   }),
@@ -214,7 +225,6 @@ export const vectorsRoutes: RouteDef[] = [
       recordAudit(em, deps.clock, { actor: me, action: 'vector.deleted', target: `vector:${row.vectorId}`, details: { revisions: row.revision } });
       em.remove(row);
       await em.flush();
-      libraryChanged();
       return undefined;
     },
   }),

@@ -10,7 +10,6 @@ import { TeamVector, VectorRevision, type ITeamVector } from '../../db/library-e
 import type { Clock } from '../../context.ts';
 import { badRequest, conflict, fromZod, notFound } from '../../errors.ts';
 import { formatVector, vectorSchema, type Vector } from '../../../shared/vectors/index.ts';
-import { libraryChanged } from './tag-counts.ts';
 
 /** Top-level keys of a request body that belong to the server, not to the vector file. */
 const META_KEYS = storedVectorKeys;
@@ -83,7 +82,6 @@ export async function createVector(em: EntityManager, clock: Clock, user: Pick<I
   await em.flush();
   em.create(VectorRevision, { vectorRowId: row.id, revision: 1, text, message: input.message, authorId: user.id, authorName: user.name, createdAt: now });
   await em.flush();
-  libraryChanged();
   return row;
 }
 
@@ -122,7 +120,6 @@ export async function reviseVector(em: EntityManager, clock: Clock, user: Pick<I
     tx.create(VectorRevision, { vectorRowId: row.id, revision: next, text, message: input.message, authorId: user.id, authorName: user.name, createdAt: now });
     return true;
   });
-  libraryChanged();
   const fresh = await em.fork().findOneOrFail(TeamVector, { id: row.id });
   if (!changed) {
     throw conflict(

@@ -1,0 +1,83 @@
+/**
+ * What the read paths keep in memory never outlives the data it was read from, and never crosses
+ * from one database to another: the library's answers (search matches, totals, tag counts) are kept
+ * per database while its version stands, and a session cookie's checked signature never outlives
+ * its expiry or a sign-out.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, createTestClock, type TestApp } from '../support/test-app.ts';
+import { TeamVector } from '../../server/db/library-entities.ts';
+
+// vector.md's example shape: a 45 W source must offer 9 V (USB PD R3.1, §10.2.3).
+const vectorOf = (id: string, title: string, tags: string[]) => ({
+  vector: 1,
+  id,
+  title,
+  tags,
+  ref: 'USB PD R3.1, §10.2.3',
+  kind: 'caps',
+  input: { pdos: ['0x0001912c', '0x0004b12c', '0x000640e1'], pdpW: 45 },
+  expect: { findings: { include: ['caps.power-rules-missing'], exclude: [] } },
+});
+
+const clock = createTestClock();
+let first: TestApp;
+let second: TestApp;
+beforeAll(async () => {
+  [first, second] = await Promise.all([createTestApp({ clock }), createTestApp()]);
+});
+afterAll(async () => {
+  await Promise.all([first.close(), second.close()]);
+});
+
+const ids = (body: { items: { id: string }[] }) => body.items.map((v) => v.id);
+
+describe('the library answers kept in memory', () => {
+  it('are kept per database: two servers in one process at the same library version each answer their own', async () => {
+    const [a, b] = await Promise.all([first.signInAs('qa'), second.signInAs('qa')]);
+    expect((await a.post('/api/vectors').send(vectorOf('caps/kept/first-only', 'First database source', ['first-team']))).status).toBe(201);
+    expect((await b.post('/api/vectors').send(vectorOf('caps/kept/second-only', 'Second database source', ['second-team']))).status).toBe(201);
+    for (let round = 0; round < 2; round++) {
+      // The same search, total and tag menu asked of both, twice (the second time from memory).
+      const [listA, listB] = await Promise.all([a.get('/api/vectors?q=database%20source'), b.get('/api/vectors?q=database%20source')]);
+      expect([ids(listA.body), listA.body.total]).toEqual([['caps/kept/first-only'], 1]);
+      expect([ids(listB.body), listB.body.total]).toEqual([['caps/kept/second-only'], 1]);
+      expect(listA.body.tags).toEqual([{ tag: 'first-team', count: 1 }]);
+      expect(listB.body.tags).toEqual([{ tag: 'second-team', count: 1 }]);
+      expect((await a.get('/api/vectors')).body.total).toBe(1);
+      expect((await b.get('/api/vectors')).body.total).toBe(1);
+    }
+  });
+
+  it('are stale at once when another instance changes the library (a write this process never saw)', async () => {
+    const qa = await first.signInAs('qa');
+    expect((await qa.get('/api/vectors?q=renamed')).body.total).toBe(0);
+    expect((await qa.get('/api/vectors?tag=first-team')).body.total).toBe(1);
+    // Another instance's write: straight to the database, past every route of this app.
+    await first.orm.em.fork().nativeUpdate(TeamVector, { vectorId: 'caps/kept/first-only' }, { title: 'Renamed source', tags: ' renamed ' });
+    const found = await qa.get('/api/vectors?q=renamed');
+    expect([ids(found.body), found.body.total]).toEqual([['caps/kept/first-only'], 1]);
+    expect(found.body.items[0].title).toBe('Renamed source');
+    expect(found.body.tags).toEqual([{ tag: 'renamed', count: 1 }]);
+    expect((await qa.get('/api/vectors?tag=first-team')).body.total).toBe(0);
+    await first.orm.em.fork().nativeDelete(TeamVector, { vectorId: 'caps/kept/first-only' });
+    const gone = await qa.get('/api/vectors?q=renamed');
+    expect([ids(gone.body), gone.body.total, gone.body.tags]).toEqual([[], 0, []]);
+    expect((await qa.get('/api/vectors')).body.total).toBe(0);
+  });
+});
+
+describe('a session cookie checked once', () => {
+  it('still ends at its expiry and at sign-out', async () => {
+    const cookie = await first.cookieFor('viewer');
+    expect((await first.request().get('/api/me').set('Cookie', cookie)).status).toBe(200);
+    expect((await first.request().get('/api/me').set('Cookie', cookie)).status).toBe(200);
+    clock.advance(12 * 3_600_000 + 1_000);
+    expect((await first.request().get('/api/me').set('Cookie', cookie)).status).toBe(401);
+
+    const fresh = await first.cookieFor('viewer');
+    expect((await first.request().get('/api/vectors').set('Cookie', fresh)).status).toBe(200);
+    expect((await first.request().post('/api/auth/logout').set('Cookie', fresh)).status).toBe(204);
+    expect((await first.request().get('/api/vectors').set('Cookie', fresh)).status).toBe(401);
+  });
+});
