@@ -66,7 +66,8 @@ export function OfferListEditor({
         {offers.map((offer, index) => (
           // biome-ignore lint/suspicious/noArrayIndexKey: rows are object positions; every field is controlled, so a move or a removal redraws the values
           <li key={index} className="rounded-md border border-slate-200 p-3 dark:border-slate-800" aria-label={`Offer ${index + firstPosition}`}>
-            <div className="flex flex-wrap items-end gap-3">
+            {/* Two lines whatever the width: what the object is (and the buttons), then its numbers. */}
+            <div className="flex items-end gap-3">
               <span className="mb-2 w-6 font-mono text-xs text-slate-500 tabular" title="Object position">
                 {index + firstPosition}
               </span>
@@ -78,20 +79,6 @@ export function OfferListEditor({
                 value={offer.kind}
                 onChange={(event) => replace(index, defaultOffer(event.target.value as OfferKind))}
               />
-              {offerFields[offer.kind].map((f) => (
-                <Input
-                  key={f.name}
-                  label={f.label}
-                  type="number"
-                  step={f.step}
-                  mono
-                  className="w-36"
-                  disabled={disabled}
-                  error={errorOf?.(index, f.name)}
-                  value={numberInputText((offer as Record<string, unknown>)[f.name])}
-                  onChange={(event) => replace(index, { ...offer, [f.name]: numberFromInput(event.target.value) } as OfferInput)}
-                />
-              ))}
               <div className="mb-0.5 ml-auto flex gap-1">
                 <Button variant="ghost" size="sm" aria-label={`Move offer ${index + firstPosition} up`} disabled={disabled || index === 0} onClick={() => move(index, index - 1)}>
                   ↑
@@ -109,6 +96,22 @@ export function OfferListEditor({
                   Remove
                 </Button>
               </div>
+            </div>
+            <div className="mt-2 grid grid-cols-3 items-start gap-2 pl-9">
+              {offerFields[offer.kind].map((f) => (
+                <Input
+                  key={f.name}
+                  label={f.label}
+                  type="number"
+                  step={f.step}
+                  mono
+                  className="min-w-0"
+                  disabled={disabled}
+                  error={errorOf?.(index, f.name)}
+                  value={numberInputText((offer as Record<string, unknown>)[f.name])}
+                  onChange={(event) => replace(index, { ...offer, [f.name]: numberFromInput(event.target.value) } as OfferInput)}
+                />
+              ))}
             </div>
           </li>
         ))}

@@ -135,7 +135,11 @@ describe.skipIf(!hasChromium)('the trace timeline', () => {
       expect(await report.textContent()).toContain('protocol.hard-reset');
       expect(await report.textContent()).not.toContain('Comments');
       await customer.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
-      expect(await customer.getByRole('table', { name: /^Messages around protocol.hard-reset at 21.1 s/ }).count()).toBe(1);
+      const aroundReset = customer.getByRole('table', { name: /^Messages around protocol.hard-reset at 21.1 s/ });
+      expect(await aroundReset.count()).toBe(1);
+      // The reset itself is listed in its place among the messages, and the chart names the finding in plain words.
+      expect(await aroundReset.textContent()).toContain('Hard Reset (source)');
+      expect(await report.locator('[data-finding-rule="timing.pps-keepalive"]').textContent()).toBe('No PPS keep-alive Request');
       await screenshot(customer, 'shared-report');
       await customer.emulateMedia({ media: 'print' });
       await screenshot(customer, 'shared-report-print');

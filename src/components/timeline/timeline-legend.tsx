@@ -5,6 +5,10 @@ export type TimelineLegendProps = {
   sinkVbus?: boolean;
   bands?: boolean;
   timers?: boolean;
+  /** The message lanes' marks (arrows, retries, bursts): off where no lanes are drawn (the report's chart). */
+  messages?: boolean;
+  /** Injected faults happen only in simulations: off for a captured trace. */
+  faults?: boolean;
 };
 
 function Swatch({ children, label }: { children: React.ReactNode; label: string }) {
@@ -21,7 +25,7 @@ function Swatch({ children, label }: { children: React.ReactNode; label: string 
  * findings by severity, the message lanes, and (on the Bench) the timers, where a timer stopped in
  * time or expiring as it should is plain and only one that ran out unanswered is striped red.
  */
-export function TimelineLegend({ current = true, sinkVbus = false, bands = false, timers = false }: TimelineLegendProps) {
+export function TimelineLegend({ current = true, sinkVbus = false, bands = false, timers = false, messages = true, faults = true }: TimelineLegendProps) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-[11px] text-slate-600 dark:text-slate-400" aria-label="Legend" data-testid="timeline-legend">
       <Swatch label="VBUS (V, held until the next reading)">
@@ -50,9 +54,11 @@ export function TimelineLegend({ current = true, sinkVbus = false, bands = false
       <Swatch label="attach / detach">
         <span className="h-3 w-0.5" style={{ background: EVENT_COLOURS.attach }} />
       </Swatch>
-      <Swatch label="fault injected">
-        <span className="h-3 w-0.5" style={{ background: EVENT_COLOURS.fault }} />
-      </Swatch>
+      {faults && (
+        <Swatch label="fault injected">
+          <span className="h-3 w-0.5" style={{ background: EVENT_COLOURS.fault }} />
+        </Swatch>
+      )}
       <Swatch label="finding: error · warning · info">
         <span className="flex gap-0.5">
           {(['error', 'warning', 'info'] as const).map((tone) => (
@@ -60,17 +66,21 @@ export function TimelineLegend({ current = true, sinkVbus = false, bands = false
           ))}
         </span>
       </Swatch>
-      <Swatch label="from source · from sink · GoodCRC · bad CRC">
-        <span className="flex gap-0.5 font-mono text-[11px] leading-none">
-          <span className="text-amber-600">↓</span>
-          <span className="text-sky-600">↑</span>
-          <span className="text-slate-400">↕</span>
-          <span className="text-red-600">↓</span>
-        </span>
-      </Swatch>
-      <Swatch label="retry (dashed) · no GoodCRC (hollow head) · burst (count)">
-        <span className="rounded-full bg-slate-700 px-1 font-mono text-[9px] leading-3 text-white dark:bg-slate-300 dark:text-slate-900">3</span>
-      </Swatch>
+      {messages && (
+        <>
+          <Swatch label="from source · from sink · GoodCRC · bad CRC">
+            <span className="flex gap-0.5 font-mono text-[11px] leading-none">
+              <span className="text-amber-600">↓</span>
+              <span className="text-sky-600">↑</span>
+              <span className="text-slate-400">↕</span>
+              <span className="text-red-600">↓</span>
+            </span>
+          </Swatch>
+          <Swatch label="retry (dashed) · no GoodCRC (hollow head) · burst (count)">
+            <span className="rounded-full bg-slate-700 px-1 font-mono text-[9px] leading-3 text-white dark:bg-slate-300 dark:text-slate-900">3</span>
+          </Swatch>
+        </>
+      )}
       {timers && (
         <>
           <Swatch label="timer stopped in time">

@@ -50,6 +50,8 @@ export type VbusChartProps = {
   dark?: boolean;
   /** Optional second voltage series: VBUS at the sink, after the cable's drop (the Bench's simulations). */
   sinkMeasurements?: readonly Measurement[];
+  /** The whole-trace overview with its zoom brush under the chart (off for a printed report, which cannot zoom). */
+  overview?: boolean;
 };
 
 const NO_BANDS: readonly ChartBand[] = [];
@@ -118,8 +120,14 @@ type PlotMarksProps = {
 const NAME_ROWS = 2;
 const NAME_ROW_PX = 12;
 
-/** The names of folded marks ("Hard Reset +2") placed so none overlap; those without room are left out. */
-function markNames<T extends { label: string }>(
+/** Which mark of a folded group names it: a reset before a fault, an attach or a note; an error before a warning. */
+const EVENT_RANK: Record<ChartEvent['tone'], number> = { reset: 0, fault: 1, attach: 2, note: 3 };
+const PIN_RANK: Record<ChartPin['tone'], number> = { error: 0, warning: 1, info: 2 };
+// The two tone sets do not overlap, so the tone alone says which table ranks it.
+const rankOf = (item: ChartEvent | ChartPin) => (item.tone in EVENT_RANK ? EVENT_RANK[item.tone as ChartEvent['tone']] : PIN_RANK[item.tone as ChartPin['tone']]);
+
+/** The names of folded marks ("Hard Reset +2", after the group's most telling member) placed so none overlap; those without room are left out. */
+function markNames<T extends ChartEvent | ChartPin>(
   clusters: readonly Cluster[],
   items: readonly T[],
   xOf: (tUs: number) => number,
@@ -127,7 +135,8 @@ function markNames<T extends { label: string }>(
   edge: 'top' | 'bottom',
 ) {
   const names = clusters.map((cluster) => {
-    const item = items[cluster.first]!;
+    let item = items[cluster.first]!;
+    for (let index = cluster.first + 1; index < cluster.first + cluster.count; index++) if (rankOf(items[index]!) < rankOf(item)) item = items[index]!;
     return { xPx: xOf(cluster.startUs), text: cluster.count > 1 ? `${item.label} +${cluster.count - 1}` : item.label, item, key: cluster.first };
   });
   const placed = placeMarkLabels(names, plot.x, plot.x + plot.width, NAME_ROWS);
@@ -189,9 +198,10 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs
       })}
       {/* Names over the lines: events along the top, findings (in plain words) along the bottom. */}
       {eventClusters.map((cluster) => {
-        const event = events[cluster.first]!;
-        const x = xOf(cluster.startUs);
         const name = eventNames.get(cluster.first);
+        // A folded group is drawn as its most telling event (a reset before a note).
+        const event = (name?.item as ChartEvent | undefined) ?? events[cluster.first]!;
+        const x = xOf(cluster.startUs);
         return (
           <g key={`event-${cluster.first}`} data-chart-event={event.label} data-t-us={cluster.startUs}>
             <line x1={x} x2={x} y1={plot.y} y2={plot.y + plot.height} stroke={EVENT_COLOURS[event.tone]} strokeWidth={1.5} />
@@ -403,7 +413,9 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
           </LineChart>
         )}
       </div>
-      <OverviewBrush points={overview} endUs={endUs} window={props.window} onWindowChange={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} dark={dark} />
+      {props.overview !== false && (
+        <OverviewBrush points={overview} endUs={endUs} window={props.window} onWindowChange={onWindowChange} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} dark={dark} />
+      )}
     </div>
   );
 });

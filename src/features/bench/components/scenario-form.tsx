@@ -127,6 +127,7 @@ export function ScenarioForm() {
           />
           <Input label="Resistance, VBUS and return (mΩ)" type="number" min={0} mono error={errors.cableResistanceMohm?.message} {...register('cableResistanceMohm', numberField)} />
           <Select
+            className="col-span-2"
             label="E-marker (Discover Identity on SOP′)"
             options={E_MARKERS}
             hint="The source offers more than 3 A only over a cable that says 5 A, and enters EPR only over a 50 V EPR cable."

@@ -10,6 +10,7 @@ import { formatTimeUs } from '../../../components/timeline/time-window.ts';
 import { PLOT_INSET_LEFT_PX, VbusChart } from '../../../components/timeline/vbus-chart.tsx';
 import { TimelineLegend } from '../../../components/timeline/timeline-legend.tsx';
 import type { LaneMessage } from '../../../components/timeline/message-lanes.tsx';
+import type { ChartEvent } from '../../../components/timeline/vbus-chart.tsx';
 import { countsText, SEVERITY_WORD } from '../../../lib/plural.ts';
 import { contractLabel, formatPower, formatSeconds } from '../lib/format.ts';
 import { timelineInputOfAnalysis } from '../lib/timeline-input.ts';
@@ -35,12 +36,29 @@ const AROUND = 3;
 /** Findings shown with their messages (the rest are listed in the table only). */
 const WITH_MESSAGES = 12;
 
-function messagesAround(messages: readonly LaneMessage[], tUs: number): LaneMessage[] {
-  const shown = messages.filter((m) => m.messageType !== 'GoodCRC');
-  let index = shown.findIndex((m) => m.t >= tUs);
-  if (index === -1) index = shown.length;
-  return shown.slice(Math.max(0, index - AROUND), index + AROUND);
+/** A row of the list around a finding: a message, or an event on the bus (a Hard Reset is no message). */
+type AroundRow = { t: number; message: LaneMessage } | { t: number; event: ChartEvent };
+
+/** The messages (GoodCRC left out) and bus events nearest a finding: `AROUND` before its time and `AROUND` from it on. */
+function rowsAround(messages: readonly LaneMessage[], events: readonly ChartEvent[], tUs: number): AroundRow[] {
+  const rows: AroundRow[] = [...messages.filter((m) => m.messageType !== 'GoodCRC').map((message) => ({ t: message.t, message })), ...events.map((event) => ({ t: event.tUs, event }))].sort(
+    (a, b) => a.t - b.t,
+  );
+  let index = rows.findIndex((row) => row.t >= tUs);
+  if (index === -1) index = rows.length;
+  return rows.slice(Math.max(0, index - AROUND), index + AROUND);
 }
+
+const directionOf = (from: string | undefined) => (from === 'source' ? 'source → sink' : from === 'sink' ? 'sink → source' : (from ?? ''));
+
+/** Contract kinds in the customer's words (PD R3.2 §6.4.1 names the supplies). */
+const CONTRACT_KIND_WORDS: Record<Analysis['contracts'][number]['kind'], string> = {
+  fixed: 'Fixed supply',
+  variable: 'Variable supply',
+  battery: 'Battery supply',
+  pps: 'Programmable (PPS)',
+  avs: 'Adjustable (AVS)',
+};
 
 const nothing = () => undefined;
 
@@ -106,7 +124,7 @@ export function ReportView({ data }: { data: ReportData }) {
                 <tr key={index}>
                   <td className="font-mono">{formatSeconds(c.t)}</td>
                   <td>{contractLabel(c)}</td>
-                  <td>{c.kind}</td>
+                  <td>{CONTRACT_KIND_WORDS[c.kind]}</td>
                   <td>{c.objectPosition}</td>
                   <td>{formatPower(c.powerMw)}</td>
                 </tr>
@@ -120,9 +138,9 @@ export function ReportView({ data }: { data: ReportData }) {
       {input.measurements.length > 0 && (
         <section className="report-section report-chart mb-6" aria-label="Chart">
           <h2 className="mb-1 text-base font-semibold">VBUS and IBUS over the whole capture</h2>
-          <VbusChart measurements={input.measurements} window={whole} endUs={input.endUs} pins={pins} events={events} bands={input.bands} onWindowChange={nothing} />
+          <VbusChart measurements={input.measurements} window={whole} endUs={input.endUs} pins={pins} events={events} bands={input.bands} onWindowChange={nothing} overview={false} />
           <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }} className="mt-1">
-            <TimelineLegend bands={input.bands.length > 0} />
+            <TimelineLegend bands={input.bands.length > 0} messages={false} faults={false} />
           </div>
         </section>
       )}
@@ -167,17 +185,31 @@ export function ReportView({ data }: { data: ReportData }) {
               <p className="text-sm font-medium">
                 {formatSeconds(f.t)} · {f.title ?? ruleTitle(f.rule)}
               </p>
-              <table className="font-mono text-[11px]" aria-label={`Messages around ${f.rule} at ${formatSeconds(f.t)}`}>
+              <table className="table-fixed font-mono text-[11px]" aria-label={`Messages around ${f.rule} at ${formatSeconds(f.t)}`}>
+                <colgroup>
+                  <col className="w-[7rem]" />
+                  <col className="w-[8rem]" />
+                  <col />
+                  <col className="w-[4rem]" />
+                  <col className="w-[5rem]" />
+                </colgroup>
                 <tbody>
-                  {messagesAround(input.messages, f.t!).map((m, row) => (
-                    <tr key={row}>
-                      <td className="whitespace-nowrap">{formatTimeUs(m.t)}</td>
-                      <td>{m.from === 'source' ? 'source → sink' : m.from === 'sink' ? 'sink → source' : m.from}</td>
-                      <td>{m.messageType}</td>
-                      <td>#{m.messageId}</td>
-                      <td>{m.crcOk ? (m.retry ? 'retry' : '') : 'bad CRC'}</td>
-                    </tr>
-                  ))}
+                  {rowsAround(input.messages, events, f.t!).map((row, at) =>
+                    'message' in row ? (
+                      <tr key={at}>
+                        <td className="whitespace-nowrap">{formatTimeUs(row.t)}</td>
+                        <td>{directionOf(row.message.from)}</td>
+                        <td>{row.message.messageType}</td>
+                        <td>#{row.message.messageId}</td>
+                        <td>{row.message.crcOk ? (row.message.retry ? 'retry' : '') : 'bad CRC'}</td>
+                      </tr>
+                    ) : (
+                      <tr key={at} className="font-semibold">
+                        <td className="whitespace-nowrap">{formatTimeUs(row.t)}</td>
+                        <td colSpan={4}>{row.event.label}</td>
+                      </tr>
+                    ),
+                  )}
                 </tbody>
               </table>
             </div>
