@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { clusterInWindow, indexRange } from './clusters.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
-import { EVENT_COLOURS, type ChartEvent } from './vbus-chart.tsx';
+import { clusterName, EVENT_COLOURS, type ChartEvent } from './vbus-chart.tsx';
 
 /** A bus event as a trace or a run records it. */
 export type BusEvent = { t: number; event: string; from?: string; text?: string; rp?: string };
@@ -57,18 +57,20 @@ export function EventLane({ events, window, insetLeftPx = 0, insetRightPx = 0 }:
       </span>
       <div ref={lane} className="relative h-6 flex-1 overflow-hidden rounded-sm bg-slate-50 dark:bg-slate-950" data-testid="event-lane">
         {widthPx > 0 &&
-          clusters.map((cluster) => {
-            const event = events[cluster.first]!;
+          clusters.map((cluster, index) => {
+            const { item: event, text } = clusterName(cluster, events);
             const x = positionIn(window, cluster.startUs) * widthPx;
-            const text = cluster.count > 1 ? `${event.label} +${cluster.count - 1}` : event.label;
             const labelPx = text.length * LABEL_PX_PER_CHAR + 8;
             const leftSide = x + 6 + labelPx > widthPx;
             const from = leftSide ? x - 6 - labelPx : x + 6;
-            const showLabel = from >= freeFromPx && from >= 0;
+            // Not across the next mark either: a line through a label makes both hard to read.
+            const next = clusters[index + 1];
+            const nextX = next ? positionIn(window, next.startUs) * widthPx : Number.POSITIVE_INFINITY;
+            const showLabel = from >= freeFromPx && from >= 0 && (leftSide || from + labelPx <= nextX - 2);
             if (showLabel) freeFromPx = from + labelPx + 4;
             const title =
               cluster.count > 1
-                ? `${cluster.count} events from ${formatTimeUs(cluster.startUs)} to ${formatTimeUs(cluster.endUs)}, first ${event.label}`
+                ? `${cluster.count} events from ${formatTimeUs(cluster.startUs)} to ${formatTimeUs(cluster.endUs)}, among them ${event.label}`
                 : `${event.label} at ${formatTimeUs(cluster.startUs)}`;
             return (
               <div key={cluster.first} className="absolute inset-y-0" style={{ left: x }} title={title} data-event={event.label} role="img" aria-label={title}>

@@ -158,7 +158,7 @@ export function TraceTimeline({
             insetRightPx={PLOT_INSET_RIGHT_PX}
           />
           <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
-            <TimelineLegend current={measurements.some((m) => m.ma !== undefined)} bands={(bands?.length ?? 0) > 0} />
+            <TimelineLegend current={measurements.some((m) => m.ma !== undefined)} bands={(bands?.length ?? 0) > 0} faults={chartEvents.some((e) => e.tone === 'fault')} />
           </div>
         </div>
         {messageAside ? (

@@ -126,6 +126,13 @@ const PIN_RANK: Record<ChartPin['tone'], number> = { error: 0, warning: 1, info:
 // The two tone sets do not overlap, so the tone alone says which table ranks it.
 const rankOf = (item: ChartEvent | ChartPin) => (item.tone in EVENT_RANK ? EVENT_RANK[item.tone as ChartEvent['tone']] : PIN_RANK[item.tone as ChartPin['tone']]);
 
+/** A folded group's name: its most telling member's label and how many more it holds ("Hard Reset +2"). */
+export function clusterName<T extends ChartEvent | ChartPin>(cluster: Cluster, items: readonly T[]): { item: T; text: string } {
+  let item = items[cluster.first]!;
+  for (let index = cluster.first + 1; index < cluster.first + cluster.count; index++) if (rankOf(items[index]!) < rankOf(item)) item = items[index]!;
+  return { item, text: cluster.count > 1 ? `${item.label} +${cluster.count - 1}` : item.label };
+}
+
 /** The names of folded marks ("Hard Reset +2", after the group's most telling member) placed so none overlap; those without room are left out. */
 function markNames<T extends ChartEvent | ChartPin>(
   clusters: readonly Cluster[],
@@ -134,11 +141,7 @@ function markNames<T extends ChartEvent | ChartPin>(
   plot: { x: number; y: number; width: number; height: number },
   edge: 'top' | 'bottom',
 ) {
-  const names = clusters.map((cluster) => {
-    let item = items[cluster.first]!;
-    for (let index = cluster.first + 1; index < cluster.first + cluster.count; index++) if (rankOf(items[index]!) < rankOf(item)) item = items[index]!;
-    return { xPx: xOf(cluster.startUs), text: cluster.count > 1 ? `${item.label} +${cluster.count - 1}` : item.label, item, key: cluster.first };
-  });
+  const names = clusters.map((cluster) => ({ xPx: xOf(cluster.startUs), ...clusterName(cluster, items), key: cluster.first }));
   const placed = placeMarkLabels(names, plot.x, plot.x + plot.width, NAME_ROWS);
   return names.flatMap((name, index) => {
     const at = placed[index];

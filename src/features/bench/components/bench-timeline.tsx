@@ -86,7 +86,7 @@ export function BenchTimeline({ run, window, onWindowChange, selectedIndex, onSe
           <StateLanes entries={run.lanes} window={window} endUs={end} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
           <TimerSpans timers={run.timers} window={window} insetLeftPx={PLOT_INSET_LEFT_PX} insetRightPx={PLOT_INSET_RIGHT_PX} />
           <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
-            <TimelineLegend sinkVbus timers />
+            <TimelineLegend sinkVbus timers faults={events.some((e) => e.tone === 'fault')} />
           </div>
           <MessageList
             messages={lanes}
