@@ -5,8 +5,12 @@
  * its expiry or a sign-out.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { createTestApp, createTestClock, type TestApp } from '../support/test-app.ts';
 import { TeamVector } from '../../server/db/library-entities.ts';
+import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
 
 // vector.md's example shape: a 45 W source must offer 9 V (USB PD R3.1, §10.2.3).
 const vectorOf = (id: string, title: string, tags: string[]) => ({
@@ -23,11 +27,13 @@ const vectorOf = (id: string, title: string, tags: string[]) => ({
 const clock = createTestClock();
 let first: TestApp;
 let second: TestApp;
+const dataDir = mkdtempSync(join(tmpdir(), 'parley-read-caches-'));
 beforeAll(async () => {
-  [first, second] = await Promise.all([createTestApp({ clock }), createTestApp()]);
+  [first, second] = await Promise.all([createTestApp({ clock, dataDir: join(dataDir, 'first') }), createTestApp({ dataDir: join(dataDir, 'second') })]);
 });
 afterAll(async () => {
   await Promise.all([first.close(), second.close()]);
+  rmSync(dataDir, { recursive: true, force: true });
 });
 
 const ids = (body: { items: { id: string }[] }) => body.items.map((v) => v.id);
@@ -64,6 +70,28 @@ describe('the library answers kept in memory', () => {
     const gone = await qa.get('/api/vectors?q=renamed');
     expect([ids(gone.body), gone.body.total, gone.body.tags]).toEqual([[], 0, []]);
     expect((await qa.get('/api/vectors')).body.total).toBe(0);
+  });
+});
+
+describe('the parsed timeline chunks kept in memory', () => {
+  it('are kept per database: the same trace and chunk ids in two servers answer each its own trace', async () => {
+    const files = ['k65-pps-stops.trace.jsonl', 'd100-vbus-sag.trace.jsonl'];
+    const heads: string[][] = [];
+    for (const [i, app] of [first, second].entries()) {
+      const support = await app.signInAs('support');
+      const upload = await support.post('/api/traces').attach('file', readFileSync(join(demoTraceFolder, files[i]!)), files[i]!);
+      expect(upload.status).toBe(201);
+      expect(upload.body.trace.id).toBe(1);
+      heads.push((upload.body.analysis.timeline.messages as { hex: string }[]).slice(0, 8).map((m) => m.hex));
+    }
+    expect(heads[0]).not.toEqual(heads[1]);
+    for (let round = 0; round < 2; round++) {
+      for (const [i, app] of [first, second].entries()) {
+        const window = await (await app.signInAs('viewer')).get('/api/traces/1/timeline?limit=8');
+        expect(window.status).toBe(200);
+        expect(window.body.messages.map((m: { hex: string }) => m.hex)).toEqual(heads[i]);
+      }
+    }
   });
 });
 

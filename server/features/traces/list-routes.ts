@@ -1,10 +1,9 @@
-/** The trace list: filter, search, sort and page in SQL; listed rows never carry an analysis. */
-import { raw } from '@mikro-orm/core';
+/** The trace list: filter, search, sort and page in plain SQL; listed rows never carry an analysis. */
 import { z } from 'zod';
-import { Trace, type ITrace } from '../../db/trace-entities.ts';
 import { likeOperator } from '../../db/orm.ts';
+import { sqlReads } from '../../db/reads.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-import { deviceMap, text } from './lookup.ts';
+import { deviceMap, text, traceColumns, traceOfRow } from './lookup.ts';
 import { presentTrace } from './present.ts';
 
 const sortKeys = ['createdAt', 'title', 'sizeBytes', 'errors'] as const;
@@ -18,7 +17,10 @@ const listQuery = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
 });
 
-const sortColumn: Record<(typeof sortKeys)[number], keyof ITrace> = { createdAt: 'createdAt', title: 'title', sizeBytes: 'sizeBytes', errors: 'errorCount' };
+// Titles sort the way people read them, not by code point (SQLite's default).
+const sortSql: Record<(typeof sortKeys)[number], string> = { createdAt: 'created_at', title: 'lower(title)', sizeBytes: 'size_bytes', errors: 'error_count' };
+
+const severitySql = { error: 'error_count > 0', warning: 'warning_count > 0', info: 'info_count > 0', clean: "status = 'done' and error_count = 0 and warning_count = 0" } as const;
 
 export const listRoutes: RouteDef[] = [
   route({
@@ -27,35 +29,38 @@ export const listRoutes: RouteDef[] = [
     access: 'signed-in',
     query: listQuery,
     async handler({ em, query }) {
-      const where: Record<string, unknown>[] = [];
+      const where: string[] = [];
+      const params: unknown[] = [];
       if (query.q) {
-        const like = `%${query.q}%`;
-        const op = likeOperator(em);
-        where.push({
-          $or: [{ title: { [op]: like } }, { fileName: { [op]: like } }, { customerRef: { [op]: like } }, { notes: { [op]: like } }, { summary: { [op]: like } }, { rules: { [op]: like } }],
-        });
+        // A part of the title, file name, customer reference, notes, summary or a rule id, in any case.
+        const like = likeOperator(em) === '$ilike' ? 'ilike' : 'like';
+        where.push(`(${['title', 'file_name', 'customer_ref', 'notes', 'summary', 'rules'].map((c) => `${c} ${like} ?`).join(' or ')})`);
+        params.push(...Array.from({ length: 6 }, () => `%${query.q}%`));
       }
-      if (query.deviceId) where.push({ deviceId: query.deviceId });
-      if (query.uploaderId) where.push({ uploaderId: query.uploaderId });
-      if (query.severity === 'error') where.push({ errorCount: { $gt: 0 } });
-      if (query.severity === 'warning') where.push({ warningCount: { $gt: 0 } });
-      if (query.severity === 'info') where.push({ infoCount: { $gt: 0 } });
-      if (query.severity === 'clean') where.push({ status: 'done', errorCount: 0, warningCount: 0 });
-      const descending = query.sort.startsWith('-');
-      const column = sortColumn[query.sort.replace(/^-/, '') as (typeof sortKeys)[number]];
-      const direction = descending ? 'desc' : 'asc';
-      // Titles sort the way people read them, not by code point (SQLite's default).
-      const order = column === 'title' ? { [raw('lower(title)')]: direction } : { [column]: direction };
-      const [traces, total] = await em.findAndCount(Trace, where.length > 0 ? { $and: where } : {}, {
-        orderBy: [order, { id: direction }],
-        limit: query.pageSize,
-        offset: (query.page - 1) * query.pageSize,
-      });
+      if (query.deviceId) {
+        where.push('device_id = ?');
+        params.push(query.deviceId);
+      }
+      if (query.uploaderId) {
+        where.push('uploader_id = ?');
+        params.push(query.uploaderId);
+      }
+      if (query.severity) where.push(severitySql[query.severity]);
+      const whereSql = where.length > 0 ? `where ${where.join(' and ')}` : '';
+      const direction = query.sort.startsWith('-') ? 'desc' : 'asc';
+      const column = sortSql[query.sort.replace(/^-/, '') as (typeof sortKeys)[number]];
+      const reads = sqlReads(em);
+      const counted = await reads.get<{ total: unknown }>(`select count(*) as total from trace ${whereSql}`, params);
+      const rows = await reads.all<Record<string, unknown>>(`select ${traceColumns} from trace ${whereSql} order by ${column} ${direction}, id ${direction} limit ? offset ?`, [
+        ...params,
+        query.pageSize,
+        (query.page - 1) * query.pageSize,
+      ]);
       const devices = await deviceMap(em);
-      const uploaders = await em.getConnection().execute<{ id: number; name: string }[]>('select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name');
+      const uploaders = await reads.all<{ id: unknown; name: unknown }>('select uploader_id as id, max(uploader_name) as name from trace group by uploader_id order by name');
       return {
-        items: traces.map((t) => presentTrace(t, devices)),
-        total,
+        items: rows.map((r) => presentTrace(traceOfRow(r), devices)),
+        total: Number(counted?.total ?? 0),
         page: query.page,
         pageSize: query.pageSize,
         uploaders: uploaders.map((u) => ({ id: Number(u.id), name: String(u.name) })),

@@ -4,8 +4,8 @@ import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { z } from 'zod';
 import { roleGroups } from '../../../shared/api/index.ts';
 import { idParams } from '../../http/schemas.ts';
-import { DeviceUnderTest } from '../../db/entities.ts';
-import { Trace, type ITrace } from '../../db/trace-entities.ts';
+import { Trace, type ITrace, type TraceStatus } from '../../db/trace-entities.ts';
+import { dateOf, dateOrNull, sqlReads } from '../../db/reads.ts';
 import { conflict, notFound } from '../../errors.ts';
 import { inflateStoredFile } from '../../analysis/deflated-json.ts';
 import type { StoredAnalysis } from '../../../shared/trace/views.ts';
@@ -19,14 +19,55 @@ export { idParams };
 export const text = (max: number) => z.string().trim().max(max, `must be at most ${max} characters`);
 
 export async function deviceMap(em: EntityManager): Promise<Map<number, DeviceRef>> {
-  const devices = await em.find(DeviceUnderTest, {}, { fields: ['id', 'name'] });
-  return new Map(devices.map((d) => [d.id, { id: d.id, name: d.name }]));
+  const devices = await sqlReads(em).all<{ id: unknown; name: string }>('select id, name from device_under_test');
+  return new Map(devices.map((d) => [Number(d.id), { id: Number(d.id), name: d.name }]));
 }
 
+/** The trace row as an entity this request may change (writes, and reads that hand it on to a write). */
 export async function findTrace(em: EntityManager, id: number): Promise<ITrace> {
   const trace = await em.findOne(Trace, { id });
   if (!trace) throw notFound('No such trace', 'trace.not-found');
   return trace;
+}
+
+/** Every column of the trace table, in the order of `traceOfRow`. */
+export const traceColumns =
+  'id, title, file_name, sha256, size_bytes, format, uploader_id, uploader_name, device_id, customer_ref, notes, status, error_code, error_message, summary, messages, error_count, warning_count, info_count, rules, analysis_bytes, created_at, analysed_at';
+
+/** A trace row read in plain SQL as the entity's shape (not tracked: for reading only). */
+export function traceOfRow(r: Record<string, unknown>): ITrace {
+  return {
+    id: Number(r.id),
+    title: String(r.title),
+    fileName: String(r.file_name),
+    sha256: String(r.sha256),
+    sizeBytes: Number(r.size_bytes),
+    format: String(r.format),
+    uploaderId: Number(r.uploader_id),
+    uploaderName: String(r.uploader_name),
+    deviceId: r.device_id == null ? null : Number(r.device_id),
+    customerRef: String(r.customer_ref),
+    notes: String(r.notes),
+    status: r.status as TraceStatus,
+    errorCode: (r.error_code as string | null) ?? null,
+    errorMessage: (r.error_message as string | null) ?? null,
+    summary: (r.summary as string | null) ?? null,
+    messages: Number(r.messages),
+    errorCount: Number(r.error_count),
+    warningCount: Number(r.warning_count),
+    infoCount: Number(r.info_count),
+    rules: String(r.rules),
+    analysisBytes: r.analysis_bytes == null ? null : Number(r.analysis_bytes),
+    createdAt: dateOf(r.created_at),
+    analysedAt: dateOrNull(r.analysed_at),
+  } as ITrace;
+}
+
+/** The trace for a read-only route: one prepared read, nothing tracked; 404 when there is none. */
+export async function readTrace(em: EntityManager, id: number): Promise<ITrace> {
+  const row = await sqlReads(em).get<Record<string, unknown>>(`select ${traceColumns} from trace where id = ?`, [id]);
+  if (!row) throw notFound('No such trace', 'trace.not-found');
+  return traceOfRow(row);
 }
 
 export function analysedOrConflict(trace: ITrace): void {

@@ -9,7 +9,7 @@ import type { Analysis } from '../../../shared/trace/index.ts';
 import type { ITrace } from '../../db/trace-entities.ts';
 import { badRequest } from '../../errors.ts';
 import { route, type RouteDef } from '../../route-def.ts';
-import { deviceMap, findTrace, idParams } from './lookup.ts';
+import { deviceMap, idParams, readTrace } from './lookup.ts';
 import { presentTrace } from './present.ts';
 import { traceAnalysisJob } from './analyse.ts';
 import { sendWithStoredAnalysis } from './send-analysis.ts';
@@ -52,7 +52,7 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     async handler({ req, res, em, params, deps }) {
-      const trace = await findTrace(em, params.id);
+      const trace = await readTrace(em, params.id);
       const fields = { trace: presentTrace(trace, await deviceMap(em)), progress: progressOf(deps, trace) };
       return sendWithStoredAnalysis(req, res, fields, trace.status === 'done' ? await deps.traceStore.readAnalysis(trace.sha256) : null);
     },
@@ -63,7 +63,7 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     async handler({ em, params, deps }) {
-      const trace = await findTrace(em, params.id);
+      const trace = await readTrace(em, params.id);
       return {
         trace: presentTrace(trace, await deviceMap(em)),
         analysis: trace.status === 'done' ? await analysisSummary(em, trace.id) : null,
@@ -78,7 +78,7 @@ export const viewRoutes: RouteDef[] = [
     params: idParams,
     query: findingsQuery,
     async handler({ em, params, query }) {
-      await findTrace(em, params.id);
+      await readTrace(em, params.id);
       return itemPage<Finding>(em, params.id, 'finding', query);
     },
   }),
@@ -89,7 +89,7 @@ export const viewRoutes: RouteDef[] = [
     params: idParams,
     query: contractsQuery,
     async handler({ em, params, query }) {
-      await findTrace(em, params.id);
+      await readTrace(em, params.id);
       return itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query);
     },
   }),
@@ -100,7 +100,7 @@ export const viewRoutes: RouteDef[] = [
     params: idParams,
     query: windowQuery,
     async handler({ em, params, query }) {
-      const trace = await findTrace(em, params.id);
+      const trace = await readTrace(em, params.id);
       const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
       const startUs = query.startUs ?? 0;
       const endUs = query.endUs ?? summary?.endUs ?? 1;
@@ -115,7 +115,7 @@ export const viewRoutes: RouteDef[] = [
     params: idParams,
     query: messagesQuery,
     async handler({ em, params, query }) {
-      const trace = await findTrace(em, params.id);
+      const trace = await readTrace(em, params.id);
       const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
       if (!summary) return { offset: 0, total: 0, items: [], capabilities: null };
       return messageRange(em, trace.id, summary.timeline.messages, { ...query, fold: query.fold === 'goodcrc' });

@@ -8,32 +8,58 @@ import type { Finding } from '../../../shared/core/finding.ts';
 import type { AnalysisSummary, FindingPin, MessageRange, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
 import { CHUNK_ITEMS } from '../../../shared/trace/views.ts';
 import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
+import { sqlReads } from '../../db/reads.ts';
 
-/** Parsed chunk items kept across requests (a chunk never changes once written; ids are not reused). */
+/**
+ * Parsed chunk items kept across requests, per database (chunk ids are only unique within one), at
+ * most this many items in all (a chunk never changes once written; ids are not reused).
+ */
 const CACHE_ITEMS = 200_000;
-const cache = new Map<number, unknown[]>();
-let cachedItems = 0;
+interface ChunkCache {
+  chunks: Map<number, unknown[]>;
+  items: number;
+}
+const caches = new WeakMap<object, ChunkCache>();
 
-function parsedChunk(id: number, body: string): unknown[] {
-  const hit = cache.get(id);
+function chunkCacheOf(em: EntityManager): ChunkCache {
+  let cache = caches.get(em.config);
+  if (!cache) {
+    cache = { chunks: new Map(), items: 0 };
+    caches.set(em.config, cache);
+  }
+  return cache;
+}
+
+function parsedChunk(em: EntityManager, id: number, body: string): unknown[] {
+  const cache = chunkCacheOf(em);
+  const hit = cache.chunks.get(id);
   if (hit) {
-    cache.delete(id);
-    cache.set(id, hit);
+    cache.chunks.delete(id);
+    cache.chunks.set(id, hit);
     return hit;
   }
   const items = JSON.parse(body) as unknown[];
-  cache.set(id, items);
-  cachedItems += items.length;
-  for (const [oldest, value] of cache) {
-    if (cachedItems <= CACHE_ITEMS) break;
-    cache.delete(oldest);
-    cachedItems -= value.length;
+  cache.chunks.set(id, items);
+  cache.items += items.length;
+  for (const [oldest, value] of cache.chunks) {
+    if (cache.items <= CACHE_ITEMS) break;
+    cache.chunks.delete(oldest);
+    cache.items -= value.length;
   }
   return items;
 }
 
+/** A chunk's items: from the cache, else its body read now (window reads list chunks without their bodies). */
+async function chunkItems(em: EntityManager, id: number): Promise<unknown[]> {
+  const hit = chunkCacheOf(em).chunks.get(id);
+  if (hit) return parsedChunk(em, id, '');
+  const row = await sqlReads(em).get<{ body: string }>('select body from trace_chunk where id = ?', [id]);
+  return parsedChunk(em, id, row?.body ?? '[]');
+}
+
 type Sql = { execute<T>(sql: string, params: unknown[]): Promise<T> };
-const sqlOf = (em: EntityManager): Sql => em.getConnection() as unknown as Sql;
+/** The reads of this file: prepared, on the read connection (server/db/reads.ts). */
+const sqlOf = (em: EntityManager): Sql => ({ execute: async <T>(sql: string, params: unknown[]) => (await sqlReads(em).all(sql, params)) as T });
 
 export async function analysisSummary(em: EntityManager, traceId: number): Promise<AnalysisSummary | null> {
   const rows = await sqlOf(em).execute<{ body: string }[]>("select body from trace_item where trace_id = ? and kind = 'summary'", [traceId]);
@@ -83,15 +109,16 @@ interface ChunkRow {
   body: string;
 }
 
-async function overlapping(em: EntityManager, traceId: number, kind: string, level: number, q: WindowQuery): Promise<ChunkRow[]> {
-  return sqlOf(em).execute<ChunkRow[]>(
-    'select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = ? and level = ? and end_us >= ? and start_us <= ? order by start_us',
+/** The chunks that overlap the window, without their bodies (read only for the chunks used, when not cached). */
+async function overlapping(em: EntityManager, traceId: number, kind: string, level: number, q: WindowQuery): Promise<Omit<ChunkRow, 'body'>[]> {
+  return sqlOf(em).execute<Omit<ChunkRow, 'body'>[]>(
+    'select id, level, first_index, count from trace_chunk where trace_id = ? and kind = ? and level = ? and end_us >= ? and start_us <= ? order by start_us',
     [traceId, kind, level, q.startUs, q.endUs],
   );
 }
 
 /** Items of the chunks that fall in the window, at most `limit`; the rest are counted (chunks past the limit are counted, not read). */
-function collect<T>(rows: ChunkRow[], inWindow: (item: T) => boolean, limit: number, withIndex: boolean): { items: T[]; omitted: number } {
+async function collect<T>(em: EntityManager, rows: Omit<ChunkRow, 'body'>[], inWindow: (item: T) => boolean, limit: number, withIndex: boolean): Promise<{ items: T[]; omitted: number }> {
   const items: T[] = [];
   let omitted = 0;
   for (const row of rows) {
@@ -99,7 +126,7 @@ function collect<T>(rows: ChunkRow[], inWindow: (item: T) => boolean, limit: num
       omitted += Number(row.count);
       continue;
     }
-    const parsed = parsedChunk(Number(row.id), row.body) as T[];
+    const parsed = (await chunkItems(em, Number(row.id))) as T[];
     parsed.forEach((item, offset) => {
       if (!inWindow(item)) return;
       if (items.length >= limit) omitted++;
@@ -119,10 +146,24 @@ export async function timelineWindow(em: EntityManager, traceId: number, q: Wind
   const fitting = levels.find((l) => Number(l.total) <= q.points * 1.5 + 2 * 500) ?? levels[levels.length - 1];
   const measurementLevel = fitting ? Number(fitting.level) : 0;
   const inWindow = (t: number) => t >= q.startUs && t <= q.endUs;
-  const measurements = fitting ? collect<TimelineMeasurement>(await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false).items : [];
-  const messages = collect<StoredTimelineMessage & { index: number }>(await overlapping(em, traceId, 'message', 0, q), (m) => m.t + m.durationUs >= q.startUs && m.t <= q.endUs, q.limit, true);
-  const events = collect<TimelineEvent>(await overlapping(em, traceId, 'event', 0, q), (e) => inWindow(e.t), q.limit, false);
-  const contracts = collect<TimelineContract>(await overlapping(em, traceId, 'contract', 0, q), (c) => (c.endUs ?? Number.POSITIVE_INFINITY) >= q.startUs && c.startUs <= q.endUs, q.limit, false);
+  const measurements = fitting
+    ? (await collect<TimelineMeasurement>(em, await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false)).items
+    : [];
+  const messages = await collect<StoredTimelineMessage & { index: number }>(
+    em,
+    await overlapping(em, traceId, 'message', 0, q),
+    (m) => m.t + m.durationUs >= q.startUs && m.t <= q.endUs,
+    q.limit,
+    true,
+  );
+  const events = await collect<TimelineEvent>(em, await overlapping(em, traceId, 'event', 0, q), (e) => inWindow(e.t), q.limit, false);
+  const contracts = await collect<TimelineContract>(
+    em,
+    await overlapping(em, traceId, 'contract', 0, q),
+    (c) => (c.endUs ?? Number.POSITIVE_INFINITY) >= q.startUs && c.startUs <= q.endUs,
+    q.limit,
+    false,
+  );
   const [pinCount] = await sql.execute<{ total: number }[]>("select count(*) as total from trace_item where trace_id = ? and kind = 'finding' and t >= ? and t <= ?", [traceId, q.startUs, q.endUs]);
   const pins = await sql.execute<{ item_index: number; t: number; severity: FindingPin['severity']; rule: string }[]>(
     "select item_index, t, severity, rule from trace_item where trace_id = ? and kind = 'finding' and t >= ? and t <= ? order by item_index limit ?",
@@ -153,7 +194,7 @@ async function messagesByIndex(em: EntityManager, traceId: number, first: number
   );
   const out: IndexedMessage[] = [];
   for (const row of rows) {
-    const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+    const items = parsedChunk(em, Number(row.id), row.body) as StoredTimelineMessage[];
     const base = Number(row.first_index);
     for (let offset = Math.max(0, first - base); offset < items.length && base + offset < first + count; offset++) out.push({ ...items[offset]!, index: base + offset });
   }
@@ -167,7 +208,7 @@ async function messageIndexAt(em: EntityManager, traceId: number, atUs: number, 
     [traceId, atUs],
   );
   if (!row) return total;
-  const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+  const items = parsedChunk(em, Number(row.id), row.body) as StoredTimelineMessage[];
   const offset = items.findIndex((m) => m.t >= atUs);
   return Number(row.first_index) + (offset === -1 ? items.length : offset);
 }
@@ -236,7 +277,7 @@ async function capabilitiesBefore(em: EntityManager, traceId: number, before: nu
     [traceId, before],
   );
   for (const row of rows) {
-    const items = parsedChunk(Number(row.id), row.body) as StoredTimelineMessage[];
+    const items = parsedChunk(em, Number(row.id), row.body) as StoredTimelineMessage[];
     const base = Number(row.first_index);
     for (let offset = Math.min(items.length, before - base) - 1; offset >= 0; offset--) {
       const m = items[offset]!;
