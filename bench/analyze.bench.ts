@@ -16,9 +16,10 @@
  * the targets are judged at the largest. The CLI is bundled afresh first, as `npm test` does.
  */
 import { execFileSync, spawn } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, rmSync, statSync, writeSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { writeSynthetic } from '../tests/support/synthetic-trace.ts';
 import { report } from './report.ts';
 
 const SIZES = (process.env.PARLEY_BENCH_SIZES ?? process.env.PARLEY_BENCH_LINES ?? '300000,600000,1200000')
@@ -31,91 +32,7 @@ const RATIO_TARGET = 3;
 const RSS_TARGET_MB = 300;
 const TEXT_RATIO_TARGET = 2;
 const ROOT = join(import.meta.dirname, '..');
-
-/** Wire-order hex of a 16-bit header (USB PD R3.2 V1.1 Table 6.1), low byte first. */
-const h16 = (v: number): string => (v & 0xff).toString(16).padStart(2, '0') + (v >> 8).toString(16).padStart(2, '0');
-const CAPS = 'a1412c9101002cd102002cb104003c21dcc0';
-/** PPS RDO for object 4, 8.4 V 2.5 A (0x40034832), little-endian. */
-const PPS_RDO = '32480340';
-
-type TraceFormat = 'jsonl' | 'text';
-
-interface BenchRecord {
-  t: number;
-  msg?: string;
-  from?: string;
-  event?: string;
-  vbus?: { mv: number; ma: number };
-}
-
-const WHO: Record<string, string> = { source: 'SRC', sink: 'SNK' };
-const seconds = (us: number): string => `${Math.floor(us / 1_000_000)}.${String(us % 1_000_000).padStart(6, '0')}`;
-
-/** One record as a line of the format (the JSON Lines text is what writeTrace always wrote). */
-function line(r: BenchRecord, format: TraceFormat): string {
-  if (format === 'jsonl') {
-    if (r.msg !== undefined) return `{"t": ${r.t}, "msg": "${r.msg}", "from": "${r.from}"}`;
-    if (r.vbus) return `{"t": ${r.t}, "vbus": {"mv": ${r.vbus.mv}, "ma": ${r.vbus.ma}}}`;
-    if (r.event === 'attach') return `{"t": ${r.t}, "event": "attach", "cc": "CC1", "rp": "3.0A"}`;
-    return `{"t": ${r.t}, "event": "${r.event}", "from": "${r.from}"}`;
-  }
-  if (r.msg !== undefined) return `${seconds(r.t)} ${WHO[r.from!]} ${r.msg.replace(/(..)(?!$)/g, '$1 ')}`;
-  if (r.vbus) return `${seconds(r.t)} VBUS ${r.vbus.mv}mV ${r.vbus.ma}mA`;
-  return `${seconds(r.t)} ${r.event === 'attach' ? 'SRC' : WHO[r.from!]} ${r.event!.toUpperCase()}`;
-}
-
-function writeTrace(path: string, format: TraceFormat, lineCount: number): number {
-  const fd = openSync(path, 'w');
-  let buffer: string[] = [];
-  let lines = 0;
-  const emit = (line: string) => {
-    buffer.push(line);
-    lines++;
-    if (buffer.length >= 10_000) flush();
-  };
-  const flush = () => {
-    writeSync(fd, buffer.join('\n') + '\n');
-    buffer = [];
-  };
-  emit(format === 'jsonl' ? '{"trace": 1, "title": "Kestrel K65 on bench 2, overnight PPS soak", "capturedAt": "2026-11-30T09:12:00Z"}' : '# Kestrel K65 on bench 2, overnight PPS soak');
-  let t = 0;
-  let sinkId = 0;
-  let sourceId = 0;
-  let cycle = 0;
-  const msg = (at: number, hex: string, from: string) => emit(line({ t: at, msg: hex, from }, format));
-  const negotiateStart = () => {
-    emit(line({ t, event: 'attach' }, format));
-    msg(t + 150_000, CAPS, 'source');
-    msg(t + 151_100, h16(0x0081), 'sink');
-    sinkId = 0;
-    sourceId = 1;
-    t += 155_000;
-  };
-  negotiateStart();
-  while (lines < lineCount) {
-    // Request (sink), GoodCRC, Accept, GoodCRC, PS_RDY, GoodCRC — USB PD R3.2 V1.1 §8.3.2.2 (from memory).
-    msg(t, h16(0x1082 | (sinkId << 9)) + PPS_RDO, 'sink');
-    msg(t + 700, h16(0x01a1 | (sinkId << 9)), 'source');
-    msg(t + 3_000, h16(0x01a3 | (sourceId << 9)), 'source');
-    msg(t + 3_560, h16(0x0081 | (sourceId << 9)), 'sink');
-    const next = (sourceId + 1) & 7;
-    msg(t + 23_000, h16(0x01a6 | (next << 9)), 'source');
-    msg(t + 23_560, h16(0x0081 | (next << 9)), 'sink');
-    sinkId = (sinkId + 1) & 7;
-    sourceId = (next + 1) & 7;
-    for (let k = 0; k < 10; k++) emit(line({ t: t + 50_000 + k * 100_000, vbus: { mv: 8_380 + ((cycle * 7 + k * 13) % 50), ma: 2_100 + ((cycle + k) % 300) } }, format));
-    t += 1_000_000;
-    cycle++;
-    if (cycle % 600 === 0) {
-      emit(line({ t, event: 'hard_reset', from: 'sink' }, format));
-      t += 1_000_000;
-      negotiateStart();
-    }
-  }
-  flush();
-  closeSync(fd);
-  return lines;
-}
+const TITLE = 'Kestrel K65 on bench 2, overnight PPS soak';
 
 const FLOOR = `
 import { createReadStream } from 'node:fs';
@@ -218,8 +135,8 @@ async function main(): Promise<void> {
       const file = join(dir, `soak-${size}.trace.jsonl`);
       const textFile = join(dir, `soak-${size}.log`);
       const genStart = performance.now();
-      const lines = writeTrace(file, 'jsonl', size);
-      writeTrace(textFile, 'text', size);
+      const { lines } = writeSynthetic(file, { format: 'jsonl', until: { lines: size }, title: TITLE });
+      writeSynthetic(textFile, { format: 'text', until: { lines: size }, title: TITLE });
       console.log(
         `trace: ${lines.toLocaleString('en')} lines, ${(statSync(file).size / 1e6).toFixed(1)} MB as JSON Lines, ${(statSync(textFile).size / 1e6).toFixed(1)} MB as text (written in ${((performance.now() - genStart) / 1000).toFixed(1)} s)`,
       );
