@@ -122,7 +122,15 @@ export const SINK_CAPS_EXTENDED_LAYOUT: BlockLayout = {
   ],
 };
 
-const EXTENDED_CONTROL_TYPES: Record<number, string> = { 1: 'EPR_Get_Source_Cap', 2: 'EPR_Get_Sink_Cap', 3: 'EPR_KeepAlive', 4: 'EPR_KeepAlive_Ack' };
+/** Extended_Control types (§6.5.14, the ECDB's Type byte), named like messages: the one table the codec, the simulator and its faults use. */
+export const EXTENDED_CONTROL_TYPES = { EPR_Get_Source_Cap: 1, EPR_Get_Sink_Cap: 2, EPR_KeepAlive: 3, EPR_KeepAlive_Ack: 4 } as const;
+export type ExtendedControlType = keyof typeof EXTENDED_CONTROL_TYPES;
+const EXTENDED_CONTROL_NAMES = new Map<number, ExtendedControlType>(Object.entries(EXTENDED_CONTROL_TYPES).map(([name, type]) => [type, name as ExtendedControlType]));
+
+/** The Extended_Control type's name, or undefined for a value the specification does not define. */
+export function extendedControlName(type: number): ExtendedControlType | undefined {
+  return EXTENDED_CONTROL_NAMES.get(type);
+}
 
 const BLOCKS: Record<string, BlockLayout> = {
   Source_Capabilities_Extended: SOURCE_CAPS_EXTENDED_LAYOUT,
@@ -302,7 +310,7 @@ export function decodeDataBlock(messageType: string, block: Uint8Array): Record<
   if (messageType === 'Extended_Control') {
     if (block.length < 2) return undefined;
     const type = view.getUint8(0);
-    return { type: EXTENDED_CONTROL_TYPES[type] ?? type, data: view.getUint8(1) };
+    return { type: extendedControlName(type) ?? type, data: view.getUint8(1) };
   }
   if (VARIABLE.has(messageType)) return decodeVariable(messageType, block);
   const layout = BLOCKS[messageType];
@@ -330,8 +338,8 @@ export function encodeDataBlock(messageType: string, data: Record<string, unknow
     return out;
   }
   if (messageType === 'Extended_Control') {
-    const named = Object.entries(EXTENDED_CONTROL_TYPES).find(([, name]) => name === data.type);
-    return Uint8Array.of(named ? Number(named[0]) : code(data.type, 8, 'data.type'), code(data.data ?? 0, 8, 'data.data'));
+    const named = typeof data.type === 'string' && Object.hasOwn(EXTENDED_CONTROL_TYPES, data.type) ? EXTENDED_CONTROL_TYPES[data.type as ExtendedControlType] : undefined;
+    return Uint8Array.of(named ?? code(data.type, 8, 'data.type'), code(data.data ?? 0, 8, 'data.data'));
   }
   if (VARIABLE.has(messageType)) return encodeVariable(messageType, data);
   const layout = BLOCKS[messageType];

@@ -82,8 +82,6 @@ export function eprModeOf(object: number | undefined): { action: number; data: n
   return { action: (word >>> 24) & 0xff, data: (word >>> 16) & 0xff };
 }
 
-/** Extended_Control data block: type, data (§6.5.14). */
-export const ECDB = { EPR_Get_Source_Cap: 1, EPR_Get_Sink_Cap: 2, EPR_KeepAlive: 3, EPR_KeepAlive_Ack: 4 } as const;
 export function isEcdb(event: PeEvent, type: number): boolean {
   return event.kind === 'message' && event.type === 'Extended_Control' && event.bytes?.[0] === type;
 }

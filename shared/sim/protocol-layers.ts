@@ -5,6 +5,7 @@
  * what arrives is acknowledged and delivered, and the cable plug answers Discover Identity.
  */
 import { countersFor, timersPd3, type TimerName } from '../core/timers.ts';
+import { extendedControlName } from '../pd/extended-data.ts';
 import { identityAck, vdmCommandType } from './cable-identity.ts';
 import { chunkStep, initialChunks, type ChunkEffect, type ChunkEvent, type ChunkState } from './chunking.ts';
 import type { Frame, LayerKey } from './entries.ts';
@@ -16,8 +17,6 @@ import { otherSide, type Side } from './types.ts';
 import { isExtendedType, packHeader, type MessageType, type Revision } from './wire.ts';
 
 const TRANSMIT = timersPd3.tTransmit;
-/** Extended_Control's type byte (§6.5.14 ECDB): faults name the message by it (vector.md). */
-const ECDB_NAMES: Record<number, string> = { 1: 'EPR_Get_Source_Cap', 2: 'EPR_Get_Sink_Cap', 3: 'EPR_KeepAlive', 4: 'EPR_KeepAlive_Ack' };
 
 /** The port a layer belongs to (the cable plug's layer answers for the source's side of the run). */
 export function portOfLayer(layer: LayerKey): Side {
@@ -71,7 +70,8 @@ export class ProtocolLayers implements LineHooks {
     const bits = prime ? { roleBit: cable, dfp: false } : { roleBit: ports.role[port] === 'source', dfp: ports.dfp[port] };
     const revision = cable ? '3.0' : ports.revisionOf(port);
     const header = packHeader(type, objects.length, messageId, bits, revision);
-    const faultName = type === 'Extended_Control' ? (ECDB_NAMES[((objects[0] ?? 0) >>> 16) & 0xff] ?? type) : type;
+    // Faults name an Extended_Control by its own type (vector.md).
+    const faultName = type === 'Extended_Control' ? (extendedControlName(((objects[0] ?? 0) >>> 16) & 0xff) ?? type) : type;
     return { layer, sop: prime ? "SOP'" : 'SOP', from: cable ? 'cable' : ports.role[port], type, objects, messageId, attempt, header, faultName };
   }
 

@@ -8,12 +8,13 @@
  */
 import type { Contract } from '../core/contract.ts';
 import { countersFor } from '../core/timers.ts';
+import { EXTENDED_CONTROL_TYPES } from '../pd/extended-data.ts';
 import { decodeSourcePdo } from '../pd/source-pdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { chooseRequest } from '../rules/choose-request.ts';
 import { SPR_MAX_VOLTAGE_MV } from '../rules/pdo-facts.ts';
 import type { ChosenRequest, SinkPolicy } from '../rules/sink-policy.ts';
-import { ECDB, eprModeAction, eprModeObject, eprModeOf, isEcdb, minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
+import { eprModeAction, eprModeObject, eprModeOf, isEcdb, minRevision, type PeEffect, type PeEvent } from './pe-types.ts';
 import { statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
 import { answerSwap, awaitAnswer, swapStep as sharedSwapStep, type SwapAnswer, type SwapExits } from './swap-pe.ts';
@@ -211,7 +212,7 @@ function enterReady(pe: SinkPe, context: SinkContext, effects: PeEffect[]): Step
 
 function askForOffers(pe: SinkPe, effects: PeEffect[]): Step {
   effects.push({ kind: 'stop-timer', name: 'tPPSRequest' }, { kind: 'stop-timer', name: 'tSinkEPRKeepAlive' });
-  if (pe.eprMode) effects.push({ kind: 'send', type: 'Extended_Control', objects: [], bytes: [ECDB.EPR_Get_Source_Cap, 0], initiate: true });
+  if (pe.eprMode) effects.push({ kind: 'send', type: 'Extended_Control', objects: [], bytes: [EXTENDED_CONTROL_TYPES.EPR_Get_Source_Cap, 0], initiate: true });
   else send(effects, 'Get_Source_Cap', [], true);
   return [{ ...pe, state: 'PE_SNK_Get_Source_Cap' }, effects];
 }
@@ -257,7 +258,7 @@ function startAction(pe: SinkPe, action: ActionName, effects: PeEffect[]): Step 
 function ready(pe: SinkPe, event: PeEvent, context: SinkContext, effects: PeEffect[]): Step {
   if (event.kind === 'timer' && (event.name === 'tPPSRequest' || event.name === 'tSinkRequest') && pe.pdos.length > 0) return select(pe, context, effects);
   if (event.kind === 'timer' && event.name === 'tSinkEPRKeepAlive' && pe.eprMode) {
-    effects.push({ kind: 'send', type: 'Extended_Control', objects: [], bytes: [ECDB.EPR_KeepAlive, 0], initiate: true });
+    effects.push({ kind: 'send', type: 'Extended_Control', objects: [], bytes: [EXTENDED_CONTROL_TYPES.EPR_KeepAlive, 0], initiate: true });
     return [{ ...pe, state: 'PE_SNK_EPR_Keep_Alive' }, effects];
   }
   if (event.kind !== 'message') return [pe, effects];
@@ -429,7 +430,7 @@ export function sinkStep(pe: SinkPe, event: PeEvent, context: SinkContext): Step
         effects.push({ kind: 'start-timer', name: 'tSenderResponse' });
         return [pe, effects];
       }
-      if (isEcdb(event, ECDB.EPR_KeepAlive_Ack)) {
+      if (isEcdb(event, EXTENDED_CONTROL_TYPES.EPR_KeepAlive_Ack)) {
         effects.push({ kind: 'stop-timer', name: 'tSenderResponse' });
         return enterReady(pe, context, effects);
       }

@@ -10,12 +10,13 @@
  */
 import type { Contract } from '../core/contract.ts';
 import { countersFor } from '../core/timers.ts';
+import { EXTENDED_CONTROL_TYPES } from '../pd/extended-data.ts';
 import { decodeRdo } from '../pd/rdo.ts';
 import type { SourcePdo } from '../pd/types.ts';
 import { checkRequest } from '../rules/check-request.ts';
 import { contractOf } from '../rules/contract-of.ts';
 import { cableAllowsEpr, DISCOVER_IDENTITY_REQ, readIdentity, type EMarker } from './cable-identity.ts';
-import { ECDB, eprEnterFailed, eprModeAction, eprModeObject, eprModeOf, isEcdb, type PeEffect, type PeEvent } from './pe-types.ts';
+import { eprEnterFailed, eprModeAction, eprModeObject, eprModeOf, isEcdb, type PeEffect, type PeEvent } from './pe-types.ts';
 import { ppsStatusBytes, sourceCapsExtendedBytes, statusBytes } from './port-answers.ts';
 import type { ActionName } from './scenario.ts';
 import { answerSwap, awaitAnswer, swapStep as sharedSwapStep, type SwapAnswer, type SwapExits } from './swap-pe.ts';
@@ -432,11 +433,11 @@ function ready(pe: SourcePe, event: PeEvent, context: SourceContext, effects: Pe
       effects.push({ kind: 'stop-timer', name: 'tPPSTimeout' }, { kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
       return sendCaps(pe, context, effects);
     case 'Extended_Control':
-      if (isEcdb(event, ECDB.EPR_KeepAlive) && pe.eprMode) {
-        sendBytes(effects, 'Extended_Control', [ECDB.EPR_KeepAlive_Ack, 0]);
+      if (isEcdb(event, EXTENDED_CONTROL_TYPES.EPR_KeepAlive) && pe.eprMode) {
+        sendBytes(effects, 'Extended_Control', [EXTENDED_CONTROL_TYPES.EPR_KeepAlive_Ack, 0]);
         return [pe, effects];
       }
-      if (isEcdb(event, ECDB.EPR_Get_Source_Cap) && pe.eprMode) {
+      if (isEcdb(event, EXTENDED_CONTROL_TYPES.EPR_Get_Source_Cap) && pe.eprMode) {
         effects.push({ kind: 'stop-timer', name: 'tSourceEPRKeepAlive' });
         return sendCaps(pe, context, effects);
       }

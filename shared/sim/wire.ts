@@ -51,18 +51,9 @@ export const extendedCodes = {
   EPR_Source_Capabilities: 0x11,
 } as const;
 
-/** Extended_Control types (§6.5.14, Table 6.70 "Extended Control Data Block"): named like messages. */
-export const extendedControlCodes = {
-  EPR_Get_Source_Cap: 0x01,
-  EPR_Get_Sink_Cap: 0x02,
-  EPR_KeepAlive: 0x03,
-  EPR_KeepAlive_Ack: 0x04,
-} as const;
-
 export type ControlType = keyof typeof controlCodes;
 export type DataType = keyof typeof dataCodes;
 export type ExtendedType = keyof typeof extendedCodes;
-export type ExtendedControlType = keyof typeof extendedControlCodes;
 export type MessageType = ControlType | DataType | ExtendedType;
 
 export type Revision = '2.0' | '3.0';
