@@ -10,46 +10,44 @@
  * Extended header: §6.2.1.2, Table 6.3: b15 Chunked, b14..11 Chunk Number, b10 Request Chunk,
  * b8..0 Data Size (bytes of the whole block).
  */
+import { CONTROL_TYPES, DATA_TYPES, EXTENDED_TYPES } from '../pd/message-types.ts';
 import type { Side } from './types.ts';
 
-/** Control message codes: USB PD R3.2 V1.1 §6.3, Table 6.5 "Control Message Types". */
-export const controlCodes = {
-  GoodCRC: 0x01,
-  Accept: 0x03,
-  Reject: 0x04,
-  PS_RDY: 0x06,
-  Get_Source_Cap: 0x07,
-  Get_Sink_Cap: 0x08,
-  DR_Swap: 0x09,
-  PR_Swap: 0x0a,
-  VCONN_Swap: 0x0b,
-  Wait: 0x0c,
-  Soft_Reset: 0x0d,
-  Not_Supported: 0x10,
-  Get_Source_Cap_Extended: 0x11,
-  Get_Status: 0x12,
-  Get_PPS_Status: 0x14,
-} as const;
+/** The message types the simulated ports speak, by category; their codes come from the codec's tables (shared/pd/message-types.ts). */
+const CONTROL_SPOKEN = [
+  'GoodCRC',
+  'Accept',
+  'Reject',
+  'PS_RDY',
+  'Get_Source_Cap',
+  'Get_Sink_Cap',
+  'DR_Swap',
+  'PR_Swap',
+  'VCONN_Swap',
+  'Wait',
+  'Soft_Reset',
+  'Not_Supported',
+  'Get_Source_Cap_Extended',
+  'Get_Status',
+  'Get_PPS_Status',
+] as const;
+const DATA_SPOKEN = ['Source_Capabilities', 'Request', 'Sink_Capabilities', 'Alert', 'EPR_Request', 'EPR_Mode', 'Vendor_Defined'] as const;
+const EXTENDED_SPOKEN = ['Source_Capabilities_Extended', 'Status', 'PPS_Status', 'Extended_Control', 'EPR_Source_Capabilities'] as const;
 
-/** Data message codes: USB PD R3.2 V1.1 §6.4, Table 6.6 "Data Message Types". */
-export const dataCodes = {
-  Source_Capabilities: 0x01,
-  Request: 0x02,
-  Sink_Capabilities: 0x04,
-  Alert: 0x06,
-  EPR_Request: 0x09,
-  EPR_Mode: 0x0a,
-  Vendor_Defined: 0x0f,
-} as const;
+/** Name → 5-bit code from a codec table (index = code); a name the table lacks is a programming error. */
+function codesOf<N extends string>(table: readonly (string | undefined)[], names: readonly N[]): Record<N, number> {
+  const codes = {} as Record<N, number>;
+  for (const name of names) {
+    const code = table.indexOf(name);
+    if (code < 0) throw new Error(`${name} is not in the codec's message type table`);
+    codes[name] = code;
+  }
+  return codes;
+}
 
-/** Extended message codes: USB PD R3.2 V1.1 §6.5, Table 6.53 "Extended Message Types". */
-export const extendedCodes = {
-  Source_Capabilities_Extended: 0x01,
-  Status: 0x02,
-  PPS_Status: 0x0c,
-  Extended_Control: 0x10,
-  EPR_Source_Capabilities: 0x11,
-} as const;
+export const controlCodes = codesOf(CONTROL_TYPES, CONTROL_SPOKEN);
+export const dataCodes = codesOf(DATA_TYPES, DATA_SPOKEN);
+export const extendedCodes = codesOf(EXTENDED_TYPES, EXTENDED_SPOKEN);
 
 export type ControlType = keyof typeof controlCodes;
 export type DataType = keyof typeof dataCodes;
