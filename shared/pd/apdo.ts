@@ -6,15 +6,15 @@
  */
 import { code, flag, keptReserved, rawWord, units } from './guards.ts';
 import { hex32 } from './hex.ts';
+import { PDO_TYPE_APDO } from './pdo-layout.ts';
 import type { RawObject, SourcePdo } from './types.ts';
 
-const PDO_TYPE_APDO = 0b11;
 export const APDO_TYPE_PPS = 0b00;
 export const APDO_TYPE_EPR_AVS = 0b01;
 export const APDO_TYPE_SPR_AVS = 0b10;
 
 /** Source APDO reserved bits. */
-const SOURCE_APDO_RESERVED_MASKS = {
+export const SOURCE_APDO_RESERVED_MASKS = {
   pps: (0b11 << 25) | (1 << 16) | (1 << 7),
   'epr-avs': 1 << 16,
   'spr-avs': 0x3f << 20,

@@ -26,6 +26,17 @@ export function rdoObjectPosition(raw: number): number {
   return (raw >>> RDO_POSITION_SHIFT) & 0xf;
 }
 
+/** The bits every RDO form shares (B26..22), in the order the decoded form lists them. */
+function commonFlags(raw: number): Pick<Rdo, 'capabilityMismatch' | 'usbCommunicationsCapable' | 'noUsbSuspend' | 'unchunkedExtendedMessages' | 'eprModeCapable'> {
+  return {
+    capabilityMismatch: (raw & (1 << 26)) !== 0,
+    usbCommunicationsCapable: (raw & (1 << 25)) !== 0,
+    noUsbSuspend: (raw & (1 << 24)) !== 0,
+    unchunkedExtendedMessages: (raw & (1 << 23)) !== 0,
+    eprModeCapable: (raw & (1 << 22)) !== 0,
+  };
+}
+
 /**
  * Decodes an RDO by the kind of the PDO it references; without one, kind `rdo` with the
  * fixed/variable reading (decodeMessage adds the `decode.rdo-unknown-type` warning). Never throws.
@@ -33,11 +44,6 @@ export function rdoObjectPosition(raw: number): number {
 export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }): Rdo {
   raw >>>= 0;
   const objectPosition = (raw >>> 28) & 0xf;
-  const capabilityMismatch = (raw & (1 << 26)) !== 0;
-  const usbCommunicationsCapable = (raw & (1 << 25)) !== 0;
-  const noUsbSuspend = (raw & (1 << 24)) !== 0;
-  const unchunkedExtendedMessages = (raw & (1 << 23)) !== 0;
-  const eprModeCapable = (raw & (1 << 22)) !== 0;
   const kind = referenced?.kind;
   if (kind === 'pps' || kind === 'epr-avs' || kind === 'spr-avs') {
     const pps = kind === 'pps';
@@ -47,11 +53,7 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
       objectPosition,
       outputVoltageMv: ((raw >>> 9) & 0xfff) * (pps ? 20 : 25),
       operatingCurrentMa: (raw & 0x7f) * 50,
-      capabilityMismatch,
-      usbCommunicationsCapable,
-      noUsbSuspend,
-      unchunkedExtendedMessages,
-      eprModeCapable,
+      ...commonFlags(raw),
     };
   }
   const giveBack = (raw & (1 << 27)) !== 0;
@@ -63,11 +65,7 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
       operatingPowerMw: ((raw >>> 10) & 0x3ff) * 250,
       maxOperatingPowerMw: (raw & 0x3ff) * 250,
       giveBack,
-      capabilityMismatch,
-      usbCommunicationsCapable,
-      noUsbSuspend,
-      unchunkedExtendedMessages,
-      eprModeCapable,
+      ...commonFlags(raw),
     };
   }
   return {
@@ -77,12 +75,18 @@ export function decodeRdo(raw: number, referenced?: SourcePdo | { kind: string }
     operatingCurrentMa: ((raw >>> 10) & 0x3ff) * 10,
     maxOperatingCurrentMa: (raw & 0x3ff) * 10,
     giveBack,
-    capabilityMismatch,
-    usbCommunicationsCapable,
-    noUsbSuspend,
-    unchunkedExtendedMessages,
-    eprModeCapable,
+    ...commonFlags(raw),
   };
+}
+
+/**
+ * Fixed, Variable and Battery RDOs are one layout: B27 GiveBack, B19..10 the operating value, B9..0
+ * the maximum; a Battery RDO counts power in 250 mW where the others count current in 10 mA.
+ */
+function encodeOperating(common: number, raw: unknown, giveBack: unknown, operating: unknown, maximum: unknown, step: number, names: [string, string], unit: string): number {
+  return (
+    (common | (flag(giveBack, 'giveBack') << 27) | (units(operating, step, 10, names[0], unit) << 10) | units(maximum, step, 10, names[1], unit) | keptReserved(raw, RDO_RESERVED_MASKS.fixed)) >>> 0
+  );
 }
 
 /** Encodes an RDO from its fields, keeping reserved bits found in `raw`. Throws RangeError on a bad field. */
@@ -107,25 +111,11 @@ export function encodeRdo(rdo: Rdo): number {
       );
     }
     case 'rdo-battery':
-      return (
-        (common |
-          (flag(rdo.giveBack, 'giveBack') << 27) |
-          (units(rdo.operatingPowerMw, 250, 10, 'operatingPowerMw', 'mW') << 10) |
-          units(rdo.maxOperatingPowerMw, 250, 10, 'maxOperatingPowerMw', 'mW') |
-          keptReserved(rdo.raw, RDO_RESERVED_MASKS.fixed)) >>>
-        0
-      );
+      return encodeOperating(common, rdo.raw, rdo.giveBack, rdo.operatingPowerMw, rdo.maxOperatingPowerMw, 250, ['operatingPowerMw', 'maxOperatingPowerMw'], 'mW');
     case 'rdo-fixed':
     case 'rdo-variable':
     case 'rdo':
-      return (
-        (common |
-          (flag(rdo.giveBack, 'giveBack') << 27) |
-          (units(rdo.operatingCurrentMa, 10, 10, 'operatingCurrentMa', 'mA') << 10) |
-          units(rdo.maxOperatingCurrentMa, 10, 10, 'maxOperatingCurrentMa', 'mA') |
-          keptReserved(rdo.raw, RDO_RESERVED_MASKS.fixed)) >>>
-        0
-      );
+      return encodeOperating(common, rdo.raw, rdo.giveBack, rdo.operatingCurrentMa, rdo.maxOperatingCurrentMa, 10, ['operatingCurrentMa', 'maxOperatingCurrentMa'], 'mA');
     default:
       throw new RangeError(`kind: "${(rdo as { kind: string }).kind}" is not a request data object kind`);
   }

@@ -6,13 +6,14 @@
  *   Type-C Current, B22..20 Reserved, B19..10 Voltage (50 mV), B9..0 Operational Current (10 mA).
  * - Table 6.18 Variable / 6.19 Battery: B29..20 Maximum Voltage, B19..10 Minimum Voltage (50 mV),
  *   B9..0 Operational Current (10 mA) / Operational Power (250 mW). Type codes as for sources:
- *   01b Battery, 10b Variable (see source-pdo.ts on the R3.2 erratum).
+ *   01b Battery, 10b Variable (see source-pdo.ts on the R3.2 erratum); what the two forms share is in
+ *   pdo-layout.ts.
  * - APDOs as for sources, with Peak Current and PPS Power Limited reserved (Tables 6.20, 6.21).
  */
 import { code, flag, keptReserved, units } from './guards.ts';
 import { hex32 } from './hex.ts';
 import { decodeApdo, encodeApdo, SINK_APDO_RESERVED_MASKS } from './apdo.ts';
-import { encodeRangePdo, PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE } from './source-pdo.ts';
+import { encodeRangePdo, PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE, rangeVoltagesMv } from './pdo-layout.ts';
 import type { RawObject, SinkPdo } from './types.ts';
 
 export const SINK_RESERVED_MASKS = {
@@ -40,8 +41,7 @@ export function decodeSinkPdo(raw: number): SinkPdo | RawObject {
       frSwapRequiredCurrent: (raw >>> 23) & 3,
     };
   }
-  const maxVoltageMv = ((raw >>> 20) & 0x3ff) * 50;
-  const minVoltageMv = ((raw >>> 10) & 0x3ff) * 50;
+  const { minVoltageMv, maxVoltageMv } = rangeVoltagesMv(raw);
   if (type === PDO_TYPE_VARIABLE) return { kind: 'variable', raw: hex32(raw), minVoltageMv, maxVoltageMv, operationalCurrentMa: (raw & 0x3ff) * 10 };
   if (type === PDO_TYPE_BATTERY) return { kind: 'battery', raw: hex32(raw), minVoltageMv, maxVoltageMv, operationalPowerMw: (raw & 0x3ff) * 250 };
   return decodeApdo(raw, false) as SinkPdo | RawObject;

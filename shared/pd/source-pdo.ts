@@ -18,24 +18,18 @@
  *   SPR AVS (R3.2 V1.1 §6.4.1.2.5): B27..26 Peak Current, B25..20 Reserved, B19..10 Maximum
  *   Current 9–15 V (10 mA), B9..0 Maximum Current 15–20 V (10 mA).
  */
-import { decodeApdo, encodeApdo } from './apdo.ts';
+import { decodeApdo, encodeApdo, SOURCE_APDO_RESERVED_MASKS } from './apdo.ts';
 import { code, flag, keptReserved, units } from './guards.ts';
 import { hex32 } from './hex.ts';
+import { encodeRangePdo, PDO_TYPE_BATTERY, PDO_TYPE_FIXED, PDO_TYPE_VARIABLE, rangeVoltagesMv } from './pdo-layout.ts';
 import type { RawObject, SourcePdo } from './types.ts';
-
-export const PDO_TYPE_FIXED = 0b00;
-export const PDO_TYPE_BATTERY = 0b01;
-export const PDO_TYPE_VARIABLE = 0b10;
-export const PDO_TYPE_APDO = 0b11;
 
 /** Reserved bits of each source form (a set bit gives `decode.reserved-bits`). */
 export const SOURCE_RESERVED_MASKS = {
   fixed: 1 << 22,
   variable: 0,
   battery: 0,
-  pps: (0b11 << 25) | (1 << 16) | (1 << 7),
-  'epr-avs': 1 << 16,
-  'spr-avs': 0x3f << 20,
+  ...SOURCE_APDO_RESERVED_MASKS,
 } as const;
 
 /** Decodes a source PDO; an APDO of the reserved type 11b gives kind `raw`. Never throws. */
@@ -58,8 +52,7 @@ export function decodeSourcePdo(raw: number): SourcePdo | RawObject {
       eprModeCapable: (raw & (1 << 23)) !== 0,
     };
   }
-  const maxVoltageMv = ((raw >>> 20) & 0x3ff) * 50;
-  const minVoltageMv = ((raw >>> 10) & 0x3ff) * 50;
+  const { minVoltageMv, maxVoltageMv } = rangeVoltagesMv(raw);
   if (type === PDO_TYPE_VARIABLE) return { kind: 'variable', raw: hex32(raw), minVoltageMv, maxVoltageMv, maxCurrentMa: (raw & 0x3ff) * 10 };
   if (type === PDO_TYPE_BATTERY) return { kind: 'battery', raw: hex32(raw), minVoltageMv, maxVoltageMv, maxPowerMw: (raw & 0x3ff) * 250 };
   return decodeApdo(raw, true) as SourcePdo | RawObject;
@@ -93,15 +86,4 @@ export function encodeSourcePdo(pdo: SourcePdo | RawObject): number {
     default:
       return encodeApdo(pdo, true);
   }
-}
-
-export { APDO_TYPE_EPR_AVS, APDO_TYPE_PPS, APDO_TYPE_SPR_AVS, decodeApdo, encodeApdo, SINK_APDO_RESERVED_MASKS } from './apdo.ts';
-
-/**
- * Variable and Battery PDOs share one layout in source and sink form (B31..30 type, B29..20 Maximum
- * Voltage and B19..10 Minimum Voltage in 50 mV, B9..0 the current or power in `step` units); only the
- * name of the low field differs. Throws RangeError naming the field.
- */
-export function encodeRangePdo(type: number, pdo: { maxVoltageMv: unknown; minVoltageMv: unknown }, value: unknown, step: number, field: string, unit: string): number {
-  return ((type << 30) | (units(pdo.maxVoltageMv, 50, 10, 'maxVoltageMv', 'mV') << 20) | (units(pdo.minVoltageMv, 50, 10, 'minVoltageMv', 'mV') << 10) | units(value, step, 10, field, unit)) >>> 0;
 }
