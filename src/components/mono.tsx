@@ -41,23 +41,32 @@ const dcSymbol = '\u2393';
  * fonts have no glyph for it. The character itself stays in the text for copying and screen readers.
  */
 export function RatingText({ value, className }: { value: string; className?: string }) {
-  const parts = value.split(dcSymbol);
+  // Word by word, each kept on one line: a break may fall between "20V" and "⎓5A" otherwise (the sign is an inline picture).
+  const words = value.split(/(\s+)/);
   return (
     <span className={className}>
-      {parts.map((part, index) => (
-        <span key={index}>
-          {index > 0 && (
-            <>
-              <span className="sr-only">{dcSymbol}</span>
-              <svg aria-hidden="true" viewBox="0 0 10 8" className="mx-px inline-block h-[0.7em] w-[0.8em] align-baseline">
-                <path d="M0 2h10" stroke="currentColor" strokeWidth="1.2" />
-                <path d="M0 6h2.5M3.75 6h2.5M7.5 6h2.5" stroke="currentColor" strokeWidth="1.2" />
-              </svg>
-            </>
-          )}
-          {part}
-        </span>
-      ))}
+      {words.map((word, wordIndex) =>
+        word.includes(dcSymbol) ? (
+          <span key={wordIndex} className="whitespace-nowrap">
+            {word.split(dcSymbol).map((part, index) => (
+              <span key={index}>
+                {index > 0 && (
+                  <>
+                    <span className="sr-only">{dcSymbol}</span>
+                    <svg aria-hidden="true" viewBox="0 0 10 8" className="mx-px inline-block h-[0.7em] w-[0.8em] align-baseline">
+                      <path d="M0 2h10" stroke="currentColor" strokeWidth="1.2" />
+                      <path d="M0 6h2.5M3.75 6h2.5M7.5 6h2.5" stroke="currentColor" strokeWidth="1.2" />
+                    </svg>
+                  </>
+                )}
+                {part}
+              </span>
+            ))}
+          </span>
+        ) : (
+          word
+        ),
+      )}
     </span>
   );
 }
