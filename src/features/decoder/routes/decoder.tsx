@@ -2,6 +2,7 @@ import { useEffect, useState } from 'react';
 import { useSearchParams } from 'react-router';
 import type { DecoderInput, Sop } from '../../../../shared/pd/index.ts';
 import { Card, CardBody, CardHeader } from '../../../components/card.tsx';
+import { Checkbox } from '../../../components/checkbox.tsx';
 import { Input } from '../../../components/input.tsx';
 import { PageHeader } from '../../../components/page-header.tsx';
 import { Select } from '../../../components/select.tsx';
@@ -67,10 +68,7 @@ export function DecoderRoute() {
               <Select label="Input is" options={MODE_OPTIONS} value={input.mode} onChange={(event) => update({ mode: event.target.value === 'words' ? 'words' : 'bytes' })} />
               <div className="grid grid-cols-2 items-end gap-3">
                 <Select label="Sent on" options={SOP_OPTIONS} value={input.sop} onChange={(event) => update({ sop: event.target.value as Sop })} />
-                <label className="flex h-9 items-center gap-2 text-sm text-slate-700 dark:text-slate-300">
-                  <input type="checkbox" className="size-4 accent-amber-500" checked={input.crc} onChange={(event) => update({ crc: event.target.checked })} />
-                  Ends with the CRC-32
-                </label>
+                <Checkbox label="Ends with the CRC-32" className="h-9" checked={input.crc} onChange={(event) => update({ crc: event.target.checked })} />
               </div>
               <Input
                 label="Source_Capabilities for a Request (optional)"

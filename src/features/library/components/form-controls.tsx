@@ -20,56 +20,22 @@ function useDraft(canonical: string, same: (draft: string, canonical: string) =>
 
 type Common = { label: string; hint?: ReactNode; className?: string; disabled?: boolean };
 
-export function TextInput({
-  label,
-  hint,
-  className,
-  disabled,
-  value,
-  onChange,
-  mono,
-  placeholder,
-}: Common & { value: unknown; onChange: (next: string | undefined) => void; mono?: boolean; placeholder?: string }) {
-  return (
-    <Input
-      label={label}
-      hint={hint}
-      className={className}
-      disabled={disabled}
-      mono={mono}
-      placeholder={placeholder}
-      value={typeof value === 'string' ? value : ''}
-      onChange={(event) => onChange(event.target.value === '' ? undefined : event.target.value)}
-    />
-  );
+export function TextInput({ value, onChange, ...shown }: Common & { value: unknown; onChange: (next: string | undefined) => void; mono?: boolean; placeholder?: string }) {
+  return <Input {...shown} value={typeof value === 'string' ? value : ''} onChange={(event) => onChange(event.target.value === '' ? undefined : event.target.value)} />;
 }
 
-export function NumberInput({ label, hint, className, disabled, value, onChange }: Common & { value: unknown; onChange: (next: number | undefined) => void }) {
-  return (
-    <Input
-      label={label}
-      hint={hint}
-      className={className}
-      disabled={disabled}
-      mono
-      inputMode="numeric"
-      value={typeof value === 'number' ? String(value) : ''}
-      onChange={(event) => onChange(numberOrUndefined(event.target.value))}
-    />
-  );
+export function NumberInput({ value, onChange, ...shown }: Common & { value: unknown; onChange: (next: number | undefined) => void }) {
+  return <Input {...shown} mono inputMode="numeric" value={typeof value === 'number' ? String(value) : ''} onChange={(event) => onChange(numberOrUndefined(event.target.value))} />;
 }
 
-export function ListInput({ label, hint, className, disabled, value, onChange, placeholder }: Common & { value: unknown; onChange: (next: string[] | undefined) => void; placeholder?: string }) {
+export function ListInput({ value, onChange, hint, ...shown }: Common & { value: unknown; onChange: (next: string[] | undefined) => void; placeholder?: string }) {
   const canonical = textFromList(value);
   const [draft, setDraft] = useDraft(canonical, (d, c) => textFromList(listFromText(d)) === c);
   return (
     <Input
-      label={label}
+      {...shown}
       hint={hint ?? 'Separate with commas or spaces.'}
-      className={className}
-      disabled={disabled}
       mono
-      placeholder={placeholder}
       value={draft}
       onChange={(event) => {
         setDraft(event.target.value);
@@ -80,7 +46,7 @@ export function ListInput({ label, hint, className, disabled, value, onChange, p
 }
 
 /** A JSON value (a partial message, a contract); the vector changes only while the text parses. */
-export function JsonArea({ label, hint, className, disabled, value, onChange, rows = 5 }: Common & { value: unknown; onChange: (next: unknown) => void; rows?: number }) {
+export function JsonArea({ value, onChange, rows = 5, ...shown }: Common & { value: unknown; onChange: (next: unknown) => void; rows?: number }) {
   const canonical = value === undefined ? '' : JSON.stringify(value, null, 2);
   const [draft, setDraft] = useDraft(canonical, (d, c) => {
     try {
@@ -92,10 +58,7 @@ export function JsonArea({ label, hint, className, disabled, value, onChange, ro
   const [error, setError] = useState<string | undefined>();
   return (
     <Textarea
-      label={label}
-      hint={hint}
-      className={className}
-      disabled={disabled}
+      {...shown}
       mono
       rows={rows}
       error={error}
@@ -117,14 +80,5 @@ export function JsonArea({ label, hint, className, disabled, value, onChange, ro
         }
       }}
     />
-  );
-}
-
-export function Checkbox({ label, checked, onChange, disabled }: { label: string; checked: boolean; onChange: (next: boolean) => void; disabled?: boolean }) {
-  return (
-    <label className="inline-flex items-center gap-2 text-sm text-slate-700 dark:text-slate-300">
-      <input type="checkbox" className="size-4 accent-amber-500" checked={checked} disabled={disabled} onChange={(event) => onChange(event.target.checked)} />
-      {label}
-    </label>
   );
 }

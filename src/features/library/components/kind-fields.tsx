@@ -10,7 +10,8 @@ import { OfferListEditor } from '../../../components/offer-list-editor.tsx';
 import { buildOffers, defaultOffer, offerInputOf, offerListSchema, type OfferInput } from '../../../../shared/rules/offer-input.ts';
 import { isPadding } from '../../../../shared/rules/pdo-facts.ts';
 import { readCapsHex, readPdoList } from '../../../../shared/rules/read-caps.ts';
-import { Checkbox, JsonArea, ListInput, NumberInput, TextInput } from './form-controls.tsx';
+import { Checkbox } from '../../../components/checkbox.tsx';
+import { JsonArea, ListInput, NumberInput, TextInput } from './form-controls.tsx';
 
 export type FieldsProps = { v: VectorObject; set: (path: Path, value: unknown) => void; disabled?: boolean };
 
@@ -167,9 +168,14 @@ function DecodeFields(props: FieldsProps) {
           label="Words: a 16-bit header then 32-bit objects as numbers"
           disabled={disabled}
           checked={getIn(v, ['input', 'words']) === true}
-          onChange={(x) => set(['input', 'words'], x || undefined)}
+          onChange={(event) => set(['input', 'words'], event.target.checked || undefined)}
         />
-        <Checkbox label="The last 4 bytes are the CRC-32" disabled={disabled} checked={getIn(v, ['input', 'crc']) === true} onChange={(x) => set(['input', 'crc'], x || undefined)} />
+        <Checkbox
+          label="The last 4 bytes are the CRC-32"
+          disabled={disabled}
+          checked={getIn(v, ['input', 'crc']) === true}
+          onChange={(event) => set(['input', 'crc'], event.target.checked || undefined)}
+        />
       </Section>
       <Section title="Expected">
         <TextInput
@@ -395,7 +401,7 @@ function NegotiationFields(props: FieldsProps) {
         />
       </Section>
       <Section title="Expected">
-        <Checkbox label="No contract at the end" disabled={disabled} checked={noContract} onChange={(x) => set(['expect', 'contract'], x ? null : undefined)} />
+        <Checkbox label="No contract at the end" disabled={disabled} checked={noContract} onChange={(event) => set(['expect', 'contract'], event.target.checked ? null : undefined)} />
         <NumberInput label="Contract within (ms)" disabled={disabled} value={getIn(v, ['expect', 'contractWithinMs'])} onChange={(x) => set(['expect', 'contractWithinMs'], x)} />
         {!noContract && (
           <JsonArea label="Contract (partial, JSON)" className="sm:col-span-2" rows={4} disabled={disabled} value={getIn(v, ['expect', 'contract'])} onChange={(x) => set(['expect', 'contract'], x)} />
@@ -474,7 +480,7 @@ function PropertyFields({ v, set, disabled }: FieldsProps) {
         <NumberInput label="Seed" disabled={disabled} value={getIn(v, ['input', 'seed'])} onChange={(x) => set(['input', 'seed'], x)} />
       </Section>
       <Section title="Expected">
-        <Checkbox label="The property holds" disabled={disabled} checked={getIn(v, ['expect', 'holds']) !== false} onChange={(x) => set(['expect', 'holds'], x)} />
+        <Checkbox label="The property holds" disabled={disabled} checked={getIn(v, ['expect', 'holds']) !== false} onChange={(event) => set(['expect', 'holds'], event.target.checked)} />
       </Section>
     </>
   );
