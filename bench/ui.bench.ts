@@ -15,7 +15,7 @@
  * Targets (issue 17): the ramp draws in ≤ 1.5 s, no task over 100 ms, under 10,000 DOM nodes.
  */
 import { mkdtempSync, rmSync, readFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { rampTrace, steadyTrace } from './ui-traces.ts';
@@ -68,7 +68,14 @@ async function openTracePage(page: Page, url: string, id: number): Promise<PageF
   return { drawnMs, longestTaskMs, heapMb, domNodes };
 }
 
+/** The 1, 5 and 15 minute load averages: the figures mean little on a machine that is busy with other work. */
+const loadAverage = () =>
+  loadavg()
+    .map((value) => value.toFixed(2))
+    .join(', ');
+
 async function main(): Promise<void> {
+  const loadBefore = loadAverage();
   if (!requireChromium()) throw new Error('chromium is needed: apt-get install chromium');
   requireDist();
   const folder = mkdtempSync(join(tmpdir(), 'parley-bench-ui-'));
@@ -148,7 +155,8 @@ async function main(): Promise<void> {
     await bench.close();
 
     const f = (n: number, digits = 0) => n.toFixed(digits).padStart(8);
-    console.log('\nTrace page in headless Chromium, 1440×900 (best of two opens)');
+    console.log(`\nload average (1, 5, 15 min) at the start ${loadBefore}, at the end ${loadAverage()}; ${availableParallelism()} cores`);
+    console.log('Trace page in headless Chromium, 1440×900 (best of two opens)');
     console.log(`${'trace'.padEnd(14)}${'drawn ms'.padStart(9)}${'× base'.padStart(8)}${'task ms'.padStart(9)}${'heap MB'.padStart(9)}${'DOM'.padStart(9)}`);
     console.log(`${'baseline demo'.padEnd(14)}${f(baseline.drawnMs)} ${f(1, 2)}${f(baseline.longestTaskMs)} ${f(baseline.heapMb, 1)} ${f(baseline.domNodes)}`);
     for (const r of results)
