@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useIsDark } from '../../lib/theme.ts';
 import { cn } from '../../lib/cn.ts';
 import { visibleSpans } from './clusters.ts';
@@ -56,9 +56,10 @@ const NO_EVENTS: readonly BusEvent[] = [];
 /**
  * The trace over time: VBUS and IBUS with a brush to zoom, the events, the contract in force, the
  * messages between source and sink and the findings pinned at their times — all on one time
- * window — and beside it every message as a list with the selected one bit by bit.
+ * window — and beside it every message as a list with the selected one bit by bit. Memoised: the
+ * page around it re-renders as each table's page arrives, which need not redraw the chart.
  */
-export function TraceTimeline({
+export const TraceTimeline = memo(function TraceTimeline({
   measurements,
   messages,
   findings,
@@ -178,7 +179,7 @@ export function TraceTimeline({
       </div>
     </div>
   );
-}
+});
 
 function clampWindow(window: TimeWindow, endUs: number): TimeWindow {
   const startUs = Math.min(Math.max(0, Math.round(window.startUs)), endUs - 1);
