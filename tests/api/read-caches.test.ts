@@ -95,6 +95,30 @@ describe('the parsed timeline chunks kept in memory', () => {
   });
 });
 
+describe('the trace page answers kept serialised', () => {
+  it('carry an ETag (304 for a client holding it), are the same gzipped, and end with the trace', async () => {
+    const support = await second.signInAs('support');
+    const upload = await support.post('/api/traces').attach('file', readFileSync(join(demoTraceFolder, 'k65-late-ps-rdy.trace.jsonl')), 'late.jsonl');
+    expect(upload.status).toBe(201);
+    const path = `/api/traces/${upload.body.trace.id}/timeline?limit=20`;
+    const plain = await support.get(path).set('Accept-Encoding', 'identity');
+    expect(plain.status).toBe(200);
+    expect(plain.body.messages.length).toBeGreaterThan(0);
+    const again = await support.get(path).set('Accept-Encoding', 'identity');
+    expect(again.body).toEqual(plain.body);
+    expect(again.headers.etag).toBe(plain.headers.etag);
+    expect((await support.get(path).set('Accept-Encoding', 'identity').set('If-None-Match', plain.headers.etag)).status).toBe(304);
+    const gzipped = await support.get(path).set('Accept-Encoding', 'gzip');
+    expect(gzipped.headers['content-encoding']).toBe('gzip');
+    expect(gzipped.headers.etag).not.toBe(plain.headers.etag);
+    expect(gzipped.body).toEqual(plain.body);
+    // Signed out: 401 before anything kept is looked at; deleted: 404.
+    expect((await second.request().get(path)).status).toBe(401);
+    expect((await (await second.signInAs('admin')).delete(`/api/traces/${upload.body.trace.id}`)).status).toBe(204);
+    expect((await support.get(path)).status).toBe(404);
+  });
+});
+
 describe('a session cookie checked once', () => {
   it('still ends at its expiry and at sign-out', async () => {
     const cookie = await first.cookieFor('viewer');

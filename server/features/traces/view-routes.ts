@@ -14,6 +14,7 @@ import { presentTrace } from './present.ts';
 import { traceAnalysisJob } from './analyse.ts';
 import { sendWithStoredAnalysis } from './send-analysis.ts';
 import type { AppDeps } from '../../context.ts';
+import { sendKeptAnswer } from './kept-answers.ts';
 import { analysisSummary, itemPage, messageRange, timelineWindow } from './views.ts';
 
 const pageQuery = (maxPageSize: number, defaultPageSize: number) =>
@@ -77,9 +78,9 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: findingsQuery,
-    async handler({ em, params, query }) {
-      await readTrace(em, params.id);
-      return itemPage<Finding>(em, params.id, 'finding', query);
+    async handler({ req, res, em, params, query }) {
+      const trace = await readTrace(em, params.id);
+      return sendKeptAnswer({ req, res, em }, trace, 'findings', query, () => itemPage<Finding>(em, params.id, 'finding', query));
     },
   }),
   route({
@@ -88,9 +89,9 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: contractsQuery,
-    async handler({ em, params, query }) {
-      await readTrace(em, params.id);
-      return itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query);
+    async handler({ req, res, em, params, query }) {
+      const trace = await readTrace(em, params.id);
+      return sendKeptAnswer({ req, res, em }, trace, 'contracts', query, () => itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query));
     },
   }),
   route({
@@ -99,13 +100,16 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: windowQuery,
-    async handler({ em, params, query }) {
+    async handler({ req, res, em, params, query }) {
       const trace = await readTrace(em, params.id);
-      const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
-      const startUs = query.startUs ?? 0;
-      const endUs = query.endUs ?? summary?.endUs ?? 1;
-      if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
-      return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
+      if (query.startUs !== undefined && query.endUs !== undefined && query.endUs < query.startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
+      return sendKeptAnswer({ req, res, em }, trace, 'timeline', query, async () => {
+        const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
+        const startUs = query.startUs ?? 0;
+        const endUs = query.endUs ?? summary?.endUs ?? 1;
+        if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
+        return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
+      });
     },
   }),
   route({
