@@ -209,8 +209,9 @@ describe.each(modes)('the property sandbox in %s mode', (mode) => {
   }, 60_000);
 
   it("another user's short property finishes while one user's two endless properties wait and time out", async () => {
-    // 4 s: above a child's start-up (about 1 s on a busy 2-core machine), so the short property never times out.
-    const sandbox = createPropertySandbox({ mode, maxConcurrent: 2, timeoutMs: 4_000 });
+    // 8 s: well above a child's start-up (about 1 s on a busy 2-core machine, several at a load average
+    // of 15), so the short property never times out.
+    const sandbox = createPropertySandbox({ mode, maxConcurrent: 2, timeoutMs: 8_000 });
     await sandbox.info();
     const finished: string[] = [];
     const track = async (name: string, done: Promise<unknown>) => {
@@ -228,8 +229,8 @@ describe.each(modes)('the property sandbox in %s mode', (mode) => {
     const [first, second, quick] = await Promise.all([a1, a2, b]);
     await sandbox.close();
     expect(quick).toMatchObject({ holds: true, numRuns: 100 });
-    expect(first).toMatchObject({ error: { code: 'property.timeout', message: 'property timed out after 4 s' } });
-    expect(second).toMatchObject({ error: { code: 'property.timeout', message: 'property timed out after 4 s' } });
+    expect(first).toMatchObject({ error: { code: 'property.timeout', message: 'property timed out after 8 s' } });
+    expect(second).toMatchObject({ error: { code: 'property.timeout', message: 'property timed out after 8 s' } });
     // b did not wait for a's first property's limit, and a's second one started only after it.
     expect(finished).toEqual(['b', 'a1', 'a2']);
   }, 60_000);
