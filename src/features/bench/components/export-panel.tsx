@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button.tsx';
+import { busEventsOf, chartEventsOf } from '../../../components/timeline/event-lane.tsx';
 import { EVENT_COLOURS, PIN_COLOURS } from '../../../components/timeline/vbus-chart.tsx';
 import { EXPORT_HEADER_PX, svgMarkup, pngOfSvg, type LegendEntry } from '../lib/chart-image.ts';
 import { downloadBlob, downloadText } from '../../../lib/download.ts';
@@ -7,15 +8,21 @@ import { traceJsonl, vectorFromRun, vectorIdOf } from '../lib/run-exports.ts';
 import { samplesCsv } from '../lib/samples.ts';
 import type { BenchRun } from '../lib/use-simulation.ts';
 
+const FAULT_ENTRY: LegendEntry = { label: 'fault injected', colour: EVENT_COLOURS.fault };
 const LEGEND: readonly LegendEntry[] = [
   { label: 'VBUS at the source (V)', colour: '#d97706' },
   { label: 'VBUS at the sink (V)', colour: '#7c3aed', dash: '4 2' },
   { label: 'IBUS (A)', colour: '#0284c7' },
   { label: 'reset', colour: EVENT_COLOURS.reset },
   { label: 'attach', colour: EVENT_COLOURS.attach },
-  { label: 'fault injected', colour: EVENT_COLOURS.fault },
   { label: 'finding', colour: PIN_COLOURS.error, dash: '4 3' },
 ];
+
+/** The picture's legend: 'fault injected' only when the run had a fault to draw, as on screen. */
+function legendOf(run: BenchRun): readonly LegendEntry[] {
+  const faulted = chartEventsOf(busEventsOf(run.events)).some((event) => event.tone === 'fault');
+  return faulted ? [...LEGEND.slice(0, -1), FAULT_ENTRY, ...LEGEND.slice(-1)] : LEGEND;
+}
 
 export type ExportPanelProps = {
   run: BenchRun;
@@ -44,7 +51,7 @@ export function ExportPanel({ run, title, chartSvg, dark }: ExportPanelProps) {
       setProblem('The chart is not on screen yet.');
       return;
     }
-    const markup = svgMarkup(svg, { background: dark ? '#0f172a' : '#ffffff', title: `${name} — VBUS and IBUS`, legend: LEGEND, textColour: dark ? '#e2e8f0' : '#0f172a' });
+    const markup = svgMarkup(svg, { background: dark ? '#0f172a' : '#ffffff', title: `${name} — VBUS and IBUS`, legend: legendOf(run), textColour: dark ? '#e2e8f0' : '#0f172a' });
     if (kind === 'svg') {
       downloadText(`${base}.chart.svg`, markup, 'image/svg+xml');
       return;
