@@ -8,6 +8,7 @@
  */
 import { writeFileSync } from 'node:fs';
 import { encodeMessage, toHex } from '../shared/pd/index.ts';
+import { fixedPdo, ppsApdo } from '../shared/rules/pdo-builders.ts';
 
 type Side = 'source' | 'sink';
 
@@ -22,23 +23,10 @@ function control(messageType: string, messageId: number, from: Side): string {
   return hexOf({ header: { messageType, messageId, powerRole: from, dataRole: from === 'source' ? 'dfp' : 'ufp', specRevision: '3.0', extended: false } as never });
 }
 
-const fixedPdo = (voltageMv: number, maxCurrentMa: number) => ({
-  kind: 'fixed',
-  voltageMv,
-  maxCurrentMa,
-  peakCurrent: 0,
-  dualRolePower: false,
-  usbSuspendSupported: false,
-  unconstrainedPower: false,
-  usbCommunicationsCapable: false,
-  dualRoleData: false,
-  unchunkedExtendedMessages: false,
-  eprModeCapable: false,
-});
 /** The K65-like offer: 5, 9, 15 V fixed and a 3.3–11 V programmable supply (object 4). */
 const CAPS_HEX = hexOf({
   header: { messageType: 'Source_Capabilities', messageId: 0, powerRole: 'source', dataRole: 'dfp', specRevision: '3.0', extended: false },
-  objects: [fixedPdo(5_000, 3_000), fixedPdo(9_000, 3_000), fixedPdo(15_000, 3_000), { kind: 'pps', minVoltageMv: 3_300, maxVoltageMv: 11_000, maxCurrentMa: 3_000, powerLimited: false }],
+  objects: [fixedPdo(5_000, 3_000), fixedPdo(9_000, 3_000), fixedPdo(15_000, 3_000), ppsApdo(3_300, 11_000, 3_000)],
 } as never);
 
 function request(messageId: number, rdo: Record<string, unknown>): string {
