@@ -6,6 +6,7 @@
  */
 import { useEffect, useMemo, useState } from 'react';
 import { useNavigate } from 'react-router';
+import { fail, type Result } from '../../../../shared/core/result.ts';
 import { OUTCOME_LABELS } from '../../../../shared/sweep/outcome.ts';
 import { INVARIANTS } from '../../../../shared/sweep/invariants.ts';
 import { summarize } from '../../../../shared/sweep/summary.ts';
@@ -47,13 +48,12 @@ function initialText(): string {
   return JSON.stringify(shared?.ok ? shared.value : DEMO, null, 2);
 }
 
-type Parsed = { ok: true; value: Record<string, unknown> } | { ok: false; message: string };
-function parseText(text: string): Parsed {
+function parseText(text: string): Result<{ value: Record<string, unknown> }> {
   try {
     const value = JSON.parse(text) as unknown;
-    return value && typeof value === 'object' && !Array.isArray(value) ? { ok: true, value: value as Record<string, unknown> } : { ok: false, message: 'The scenario must be a JSON object.' };
+    return value && typeof value === 'object' && !Array.isArray(value) ? { ok: true, value: value as Record<string, unknown> } : fail('scenario.invalid', 'The scenario must be a JSON object.');
   } catch (error) {
-    return { ok: false, message: `Not valid JSON: ${error instanceof Error ? error.message : String(error)}` };
+    return fail('scenario.json', `Not valid JSON: ${error instanceof Error ? error.message : String(error)}`);
   }
 }
 
@@ -142,7 +142,7 @@ export function FaultSweepRoute() {
       <Card>
         <CardHeader title="Campaign" description="Paste a scenario (or open one from the Bench with its share link). The sweep runs in your browser." />
         <CardBody className="space-y-4">
-          <Textarea label="Scenario (JSON)" mono rows={10} value={text} onChange={(e) => setText(e.target.value)} error={parsed.ok ? undefined : parsed.message} spellCheck={false} />
+          <Textarea label="Scenario (JSON)" mono rows={10} value={text} onChange={(e) => setText(e.target.value)} error={parsed.ok ? undefined : parsed.error.message} spellCheck={false} />
           <fieldset className="flex flex-wrap gap-x-5 gap-y-2 text-sm">
             <legend className="mb-1 text-sm font-medium">Faults on every message</legend>
             {KINDS.map(({ kind, label }) => (
