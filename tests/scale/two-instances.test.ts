@@ -18,18 +18,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn } from '../../bench/support/server-process.ts';
 import { writeSyntheticTrace } from '../support/synthetic-trace.ts';
-import {
-  followEvents,
-  isPartWayProgress,
-  pidRunningAJob,
-  referenceCounts,
-  restartsIn,
-  startTeamDeployment,
-  traceAnalysisJobs,
-  until,
-  uploadTrace,
-  type TeamDeployment,
-} from '../support/team-deployment.ts';
+import { expectFinishedOnce, followEvents, isPartWayProgress, pidRunningAJob, referenceCounts, startTeamDeployment, until, uploadTrace, type TeamDeployment } from '../support/team-deployment.ts';
 
 const TRACE_BYTES = 40 * 1024 * 1024;
 
@@ -73,27 +62,8 @@ describe('two instances on one PostgreSQL and one S3 bucket', () => {
     expect(killedAt, 'the survivor saw the analysis half-way before it ended').toBeDefined();
     expect(runner.child.signalCode ?? (await new Promise((r) => runner.child.once('exit', (_code, signal) => r(signal))))).toBe('SIGKILL');
 
-    // One final event, after progress from both attempts: the dead one's and the survivor's.
-    const finals = events.filter((e) => e.type !== 'progress');
-    expect(finals.map((e) => e.type)).toEqual(['done']);
-    expect(restartsIn(events), 'progress went back to the start once, when the survivor took the job').toBeGreaterThanOrEqual(1);
-
-    const view = await fetch(`${survivor.url}/api/traces/${traceId}`, { headers: { cookie } });
-    const { trace } = (await view.json()) as { trace: { status: string; counts: { error: number; warning: number; info: number } } };
-    expect(trace.status).toBe('done');
-    const expected = await reference;
-    expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
-    expect(finals[0]!.data.counts).toEqual(trace.counts);
-
-    // Nothing done twice: one row, one stored file, one audit entry, one retry of the job.
-    const rows = await admin.query('select id from trace where sha256 = (select sha256 from trace where id = $1)', [traceId]);
-    expect(rows.rowCount).toBe(1);
-    const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded'");
-    expect(audit.rowCount).toBe(1);
-    expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
-    // The file and its stored analysis, once each.
-    expect(ofThisFile()).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
-    expect(fake.openUploads()).toEqual([]);
+    // One final event, the engine's counts, and nothing done twice.
+    await expectFinishedOnce(deployment, { url: survivor.url, cookie, traceId, sha256, events, reference });
     // The survivor's received upload (if it was the first) and its download for the analysis are gone.
     const incoming = join(folder, survivor === first ? 'first' : 'second', 'incoming');
     expect(existsSync(incoming) ? readdirSync(incoming) : []).toEqual([]);

@@ -16,18 +16,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signIn, type ChildProcessHandle, type ChildServer } from '../../bench/support/server-process.ts';
 import { writeSyntheticTrace } from '../support/synthetic-trace.ts';
-import {
-  followEvents,
-  isPartWayProgress,
-  pidRunningAJob,
-  referenceCounts,
-  restartsIn,
-  startTeamDeployment,
-  traceAnalysisJobs,
-  until,
-  uploadTrace,
-  type TeamDeployment,
-} from '../support/team-deployment.ts';
+import { expectFinishedOnce, followEvents, isPartWayProgress, pidRunningAJob, referenceCounts, startTeamDeployment, until, uploadTrace, type TeamDeployment } from '../support/team-deployment.ts';
 
 const TRACE_BYTES = 40 * 1024 * 1024;
 
@@ -92,30 +81,12 @@ describe('a web instance and parley worker processes on one PostgreSQL and one S
     // Locks were held by the two workers only, never by the web instance.
     expect([...holders].sort()).toEqual([first.child.pid, secondPid].sort());
 
-    // One final event, after progress from both attempts.
-    const finals = events.filter((e) => e.type !== 'progress');
-    expect(finals.map((e) => e.type)).toEqual(['done']);
-    expect(restartsIn(events), 'progress went back to the start when the second worker took the job').toBeGreaterThanOrEqual(1);
-
-    const view = await fetch(`${web.url}/api/traces/${traceId}`, { headers: { cookie } });
-    const { trace } = (await view.json()) as { trace: { status: string; counts: { error: number; warning: number; info: number } } };
-    expect(trace.status).toBe('done');
-    const expected = await reference;
-    expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
-    expect(finals[0]!.data.counts).toEqual(trace.counts);
-
-    // Nothing done twice: one row, one audit entry, one retry of the job, the file and its analysis once each.
-    const rows = await admin.query('select id from trace where sha256 = $1', [sha256]);
-    expect(rows.rowCount).toBe(1);
-    const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded' and target = $1", [`trace:${sha256.slice(0, 12)}`]);
-    expect(audit.rowCount).toBe(1);
-    expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
-    expect(ofThisFile()).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
-    expect(fake.openUploads()).toEqual([]);
+    // One final event, the engine's counts, and nothing done twice.
+    await expectFinishedOnce(deployment, { url: web.url, cookie, traceId, sha256, events, reference });
   });
 
   it('SIGTERM hands the running analysis back: the worker exits at once and another worker finishes it, once', { timeout: 300_000 }, async () => {
-    const { admin, fake, logs, folder } = deployment;
+    const { admin, logs, folder } = deployment;
     // Another file than the first test's (its title differs), so the upload is not a duplicate.
     const tracePath = join(folder, 'k65-soak-bench-3.jsonl');
     writeSyntheticTrace(tracePath, TRACE_BYTES, 'Kestrel K65 on bench 3, PPS soak');
@@ -147,13 +118,6 @@ describe('a web instance and parley worker processes on one PostgreSQL and one S
     expect(afterMs).toBeLessThan(15_000);
     await another;
 
-    expect(events.filter((e) => e.type !== 'progress').map((e) => e.type)).toEqual(['done']);
-    expect(restartsIn(events), 'progress went back to the start when another worker took the job').toBeGreaterThanOrEqual(1);
-    const { trace } = (await (await fetch(`${web.url}/api/traces/${traceId}`, { headers: { cookie } })).json()) as { trace: { status: string; counts: unknown } };
-    expect(trace.status).toBe('done');
-    const expected = await reference;
-    expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
-    expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
-    expect(fake.objectKeys().filter((key) => key.startsWith(`traces/${sha256}`))).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
+    await expectFinishedOnce(deployment, { url: web.url, cookie, traceId, sha256, events, reference });
   });
 });

@@ -10,7 +10,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import pg from 'pg';
-import { inject } from 'vitest';
+import { expect, inject } from 'vitest';
 import { startChildServer, startChildWorker, type ChildProcessHandle, type ChildServer } from '../../bench/support/server-process.ts';
 import { JOB_HOLDER_APPLICATION, JOB_LOCK_SPACE } from '../../server/jobs/pg-queue.ts';
 import { createTraceSession } from '../../shared/trace/index.ts';
@@ -179,4 +179,36 @@ export async function uploadTrace(url: string, cookie: string, path: string, tit
   const upload = await fetch(`${url}/api/traces?wait=false`, { method: 'POST', headers: { cookie }, body: form });
   if (upload.status !== 201) throw new Error(`upload: ${upload.status} ${await upload.text()}\n${log()}`);
   return { traceId: ((await upload.json()) as { trace: { id: number } }).trace.id, sha256 };
+}
+
+/**
+ * What a job interrupted half-way and finished by another process must leave behind: one final
+ * `done` event after progress went back to the start, the engine's own counts, one trace row, one
+ * upload audit entry, one retry of the job, the file and its analysis once each in the bucket and
+ * no multipart upload left open.
+ */
+export async function expectFinishedOnce(
+  deployment: TeamDeployment,
+  job: { url: string; cookie: string; traceId: number; sha256: string; events: readonly SseEvent[]; reference: ReturnType<typeof referenceCounts> },
+): Promise<void> {
+  const { admin, fake } = deployment;
+  const { url, cookie, traceId, sha256, events } = job;
+  const finals = events.filter((e) => e.type !== 'progress');
+  expect(finals.map((e) => e.type)).toEqual(['done']);
+  expect(restartsIn(events), 'progress went back to the start when another process took the job').toBeGreaterThanOrEqual(1);
+
+  const view = await fetch(`${url}/api/traces/${traceId}`, { headers: { cookie } });
+  const { trace } = (await view.json()) as { trace: { status: string; counts: { error: number; warning: number; info: number } } };
+  expect(trace.status).toBe('done');
+  const expected = await job.reference;
+  expect(trace.counts).toEqual({ error: expected.error, warning: expected.warning, info: expected.info });
+  expect(finals[0]!.data.counts).toEqual(trace.counts);
+
+  const rows = await admin.query('select id from trace where sha256 = $1', [sha256]);
+  expect(rows.rowCount).toBe(1);
+  const audit = await admin.query("select 1 from audit_event where action = 'trace.uploaded' and target = $1", [`trace:${sha256.slice(0, 12)}`]);
+  expect(audit.rowCount).toBe(1);
+  expect(await traceAnalysisJobs(admin, traceId)).toEqual([{ state: 'completed', retry_count: 1 }]);
+  expect(fake.objectKeys().filter((key) => key.startsWith(`traces/${sha256}`))).toEqual([`traces/${sha256}`, `traces/${sha256}.analysis`]);
+  expect(fake.openUploads()).toEqual([]);
 }
