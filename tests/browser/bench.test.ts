@@ -48,7 +48,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     await current.getByTestId('bench-timeline').waitFor();
     // The timeline mounts part by part (one part a task): wait for the last part.
     await timelineDrawn(current);
-    expect(await current.getByTestId('vbus-chart').locator('svg.recharts-surface').count()).toBeGreaterThan(0);
+    expect(await current.getByTestId('vbus-chart').locator('svg.parley-chart-surface').count()).toBeGreaterThan(0);
     expect(await current.getByTestId('state-lane-source').locator('div').count()).toBeGreaterThan(2);
     expect(await current.getByTestId('timer-lane-sink').locator('div').count()).toBeGreaterThan(0);
     // The run's one finding is named in plain words on the chart; its rule id is in the pin's detail.
@@ -179,7 +179,7 @@ describe.skipIf(!hasChromium)('the Bench page', () => {
     await expect.poll(() => current.getByTestId('timeline-window').textContent()).toMatch(/^9\.\d+ s – 10\.\d+ s$/);
     await timelineDrawn(current);
     // The time axis' labels are the tick labels in seconds or milliseconds (the others read V or A).
-    const timeLabels = async () => (await current.locator('[data-testid="vbus-chart"] text.recharts-cartesian-axis-tick-value').allTextContents()).filter((text) => / m?s$/.test(text));
+    const timeLabels = async () => (await current.locator('[data-testid="vbus-chart"] text.parley-axis-tick').allTextContents()).filter((text) => / m?s$/.test(text));
     await expect.poll(async () => (await timeLabels()).length).toBeGreaterThan(2);
     const labels = await timeLabels();
     expect(new Set(labels).size, labels.join(', ')).toBe(labels.length);

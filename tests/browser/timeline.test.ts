@@ -18,9 +18,9 @@ async function openPpsTrace(page: Page, url: string): Promise<void> {
   await page.locator('[data-testid="vbus-chart"][data-drawn]').waitFor();
 }
 
-/** The VBUS line's vertices in screen order, from the path recharts drew. */
+/** The VBUS line's vertices in screen order, from the path the chart drew. */
 async function vbusVertices(page: Page): Promise<{ x: number; y: number }[]> {
-  const d = (await page.locator('.parley-vbus-line path.recharts-curve, path.recharts-curve.parley-vbus-line').first().getAttribute('d')) ?? '';
+  const d = (await page.locator('[data-testid="vbus-chart"] path.parley-vbus-line').first().getAttribute('d')) ?? '';
   const numbers = (d.match(/-?\d+(\.\d+)?(e-?\d+)?/g) ?? []).map(Number);
   const out: { x: number; y: number }[] = [];
   for (let i = 0; i + 1 < numbers.length; i += 2) out.push({ x: numbers[i]!, y: numbers[i + 1]! });

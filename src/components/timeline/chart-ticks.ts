@@ -1,7 +1,6 @@
 /**
- * Axis ticks computed by us rather than by the chart library: with a fixed list of ticks (and
- * `interval={0}`) recharts neither measures each label in the DOM to thin them out nor guesses a
- * domain, which was a large share of every draw. Steps are "nice" numbers (1, 2, 2.5, 5 × 10ⁿ).
+ * The chart's axis ticks and domains, computed from the numbers alone (no label is measured in the
+ * DOM). Steps are "nice" numbers (1, 2, 2.5, 5 × 10ⁿ).
  */
 
 const NICE_FACTORS = [1, 2, 2.5, 5, 10] as const;

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { clusterInWindow, indexRange } from './clusters.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
-import { clusterName, EVENT_COLOURS, type ChartEvent } from './vbus-chart.tsx';
+import { clusterName, EVENT_COLOURS, type ChartEvent } from './chart-marks.ts';
 
 /** A bus event as a trace or a run records it. */
 export type BusEvent = { t: number; event: string; from?: string; text?: string; rp?: string };

@@ -4,7 +4,7 @@ import { cn } from '../../lib/cn.ts';
 import { clusterInWindow } from './clusters.ts';
 import { formatTimeUs, positionIn, type TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
-import type { ChartPin } from './vbus-chart.tsx';
+import type { ChartPin } from './chart-marks.ts';
 
 /** A finding as the timeline pins it; `message` is the finding's own sentence when the page has it. */
 export type PinnedFinding = { t?: number; severity: 'error' | 'warning' | 'info'; rule: string; message?: string };

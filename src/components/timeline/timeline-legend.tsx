@@ -1,4 +1,4 @@
-import { EVENT_COLOURS, PIN_COLOURS } from './vbus-chart.tsx';
+import { EVENT_COLOURS, PIN_COLOURS } from './chart-marks.ts';
 
 export type TimelineLegendProps = {
   current?: boolean;

@@ -1,40 +1,33 @@
-import { memo, startTransition, useDeferredValue, useEffect, useMemo, useState, type ReactNode } from 'react';
-import { Line, LineChart, Tooltip, usePlotArea, XAxis, YAxis } from 'recharts';
-import { fittedZeroBasedTicks, formatExactMs, timeAxisMs, zeroBasedTicks } from './chart-ticks.ts';
+import { memo, useDeferredValue, useMemo } from 'react';
+import type { ChartBand, ChartEvent, ChartPin } from './chart-marks.ts';
+import { fittedZeroBasedTicks, timeAxisMs, zeroBasedTicks } from './chart-ticks.ts';
+import { HoverReadout, type ReadoutSeries } from './hover-readout.tsx';
 import { OverviewBrush } from './overview-brush.tsx';
-import { clusterInWindow, indexRange, visibleSpans, type Cluster } from './clusters.ts';
-import { placeMarkLabels } from './mark-labels.ts';
+import { PlotMarks } from './plot-marks.tsx';
+import { linearScale, readingMarks, stepPath, type PlotArea } from './step-path.ts';
 import { thin, windowSteps, type Measurement, type StepPoint } from './trace-series.ts';
 import type { TimeWindow } from './time-window.ts';
 import { useElementWidth } from './use-element-width.ts';
 
+export { clusterName, EVENT_COLOURS, PIN_COLOURS, type ChartBand, type ChartEvent, type ChartPin } from './chart-marks.ts';
+
 /** Plot-area insets (px), so lanes under the chart line up with its time axis. */
 export const PLOT_INSET_LEFT_PX = 56;
 export const PLOT_INSET_RIGHT_PX = 56;
-const AXIS_WIDTH_PX = 48;
 const CHART_HEIGHT_PX = 224;
-const MARGIN = { top: 8, right: PLOT_INSET_RIGHT_PX - AXIS_WIDTH_PX, bottom: 0, left: PLOT_INSET_LEFT_PX - AXIS_WIDTH_PX };
-// Without a current axis its width goes to the margin, so the plot keeps the same insets.
-const MARGIN_NO_CURRENT = { ...MARGIN, right: PLOT_INSET_RIGHT_PX };
-const ACTIVE_DOT = { r: 3, strokeWidth: 0 };
+const PLOT_TOP_PX = 8;
+/** Below the plot: tick marks and the time labels. */
+const TIME_AXIS_HEIGHT_PX = 30;
+const TICK_PX = 6;
+/** Between a tick mark and its label. */
+const TICK_LABEL_GAP_PX = 2;
 /** Head room above the highest value, so a line at the top does not sit on the frame. */
 const HEADROOM = 1.05;
-
-/** A finding on the chart: `label` names it in plain words (drawn where it fits), `rule` is its id. */
-export type ChartPin = { tUs: number; tone: 'error' | 'warning' | 'info'; label: string; rule?: string; selected?: boolean };
-export type ChartBand = { startUs: number; endUs: number; minMv: number; maxMv: number };
-/** Something that happened on the bus (Hard Reset, attach, an injected fault): a solid line with a label. */
-export type ChartEvent = { tUs: number; label: string; tone: 'reset' | 'attach' | 'fault' | 'note' };
-
-export const EVENT_COLOURS: Record<ChartEvent['tone'], string> = { reset: '#be123c', attach: '#15803d', fault: '#a21caf', note: '#64748b' };
-/** Marks closer than this on screen fold into one (findings, events). */
-const MARK_GAP_PX = 5;
 /** Each reading gets a dot while there is at least this much room per reading. */
 const DOT_ROOM_PX = 8;
-const READING_DOT = { r: 2, strokeWidth: 0, fill: '#d97706' };
-const CURRENT_DOT = { r: 1.6, strokeWidth: 0, fill: '#0284c7' };
-
-export const PIN_COLOURS: Record<ChartPin['tone'], string> = { error: '#dc2626', warning: '#ea580c', info: '#0284c7' };
+const VBUS_COLOUR = '#d97706';
+const SINK_VBUS_COLOUR = '#7c3aed';
+const IBUS_COLOUR = '#0284c7';
 
 export type VbusChartProps = {
   measurements: readonly Measurement[];
@@ -58,180 +51,66 @@ const NO_BANDS: readonly ChartBand[] = [];
 const NO_EVENTS: readonly ChartEvent[] = [];
 const NO_POINTS: StepPoint[] = [];
 
-/**
- * 1 once `ready`, then one more in each following task up to `stages` (as transitions, so React
- * may slice each part's render). Never goes back: later updates draw every part at once.
- */
-function useMountStages(ready: boolean, stages: number): number {
-  const [stage, setStage] = useState(0);
-  const shown = ready ? Math.max(1, stage) : stage;
-  useEffect(() => {
-    if (!ready || shown >= stages) return;
-    const timer = setTimeout(() => startTransition(() => setStage(shown + 1)), 0);
-    return () => clearTimeout(timer);
-  }, [ready, shown, stages]);
-  return shown;
-}
-
-/**
- * Points per series: about one per three px of plot width, in steps of 50 (LTTB keeps the peaks,
- * and a VBUS trace is mostly flat steps). recharts copies and freezes every row into its store on
- * each draw, so rows cost time in proportion.
- */
+/** Points per series: about one per three px of plot width, in steps of 50 (LTTB keeps the peaks, and a VBUS trace is mostly flat steps). */
 function pointBudget(plotWidthPx: number): number {
   return Math.min(400, Math.max(100, Math.round(plotWidthPx / 150) * 50));
 }
 
-type TickProps = { x?: number | string; y?: number | string; textAnchor?: 'start' | 'middle' | 'end' | 'inherit'; fill?: string; payload?: { value: number | string } };
-
-/**
- * Tick labels as plain <text>: recharts' own label component measures every word in the DOM
- * (each a forced layout) to wrap it, which these short labels never need.
- */
-function tickRenderer(format: (value: number) => string, dy: string) {
-  // A render function recharts calls, not a component of its own.
-  return function drawTick({ x, y, textAnchor, fill, payload }: TickProps): ReactNode {
-    return (
-      <text x={x} y={y} dy={dy} textAnchor={textAnchor} fill={fill} fontSize={11} className="recharts-cartesian-axis-tick-value">
-        {format(Number(payload?.value ?? 0))}
-      </text>
-    );
-  };
-}
 const valueLabel = (unit: string) => (value: number) => `${Number(value.toFixed(3))} ${unit}`;
-const voltTick = tickRenderer(valueLabel('V'), '0.355em');
-const ampTick = tickRenderer(valueLabel('A'), '0.355em');
-const tooltipLabel = (label: unknown) => formatExactMs(Number(label));
-const tooltipValue = (value: unknown, name: unknown): [string, string] => [`${Number(value).toFixed(3)} ${name === 'IBUS' ? 'A' : 'V'}`, String(name)];
+const voltLabel = valueLabel('V');
+const ampLabel = valueLabel('A');
+const byTime = <T extends { tUs: number }>(items: readonly T[]) => [...items].sort((a, b) => a.tUs - b.tUs);
 
-type PlotMarksProps = {
-  window: TimeWindow;
-  maxV: number;
-  gridV: readonly number[];
-  gridColour: string;
-  bands: readonly ChartBand[];
-  pins: readonly ChartPin[];
-  events: readonly ChartEvent[];
-  endUs: number;
-  labelColour: string;
+type AxesProps = {
+  plot: PlotArea;
+  colour: string;
+  time: { ticks: readonly number[]; label(ms: number): string; xOf(ms: number): number };
+  volts: { ticks: readonly number[]; yOf(value: number): number };
+  amps?: { ticks: readonly number[]; yOf(value: number): number };
 };
 
-/** Rows of mark names in the plot: two along the top for events, two along the bottom for findings. */
-const NAME_ROWS = 2;
-const NAME_ROW_PX = 12;
-
-/** Which mark of a folded group names it: a reset before a fault, an attach or a note; an error before a warning. */
-const EVENT_RANK: Record<ChartEvent['tone'], number> = { reset: 0, fault: 1, attach: 2, note: 3 };
-const PIN_RANK: Record<ChartPin['tone'], number> = { error: 0, warning: 1, info: 2 };
-// The two tone sets do not overlap, so the tone alone says which table ranks it.
-const rankOf = (item: ChartEvent | ChartPin) => (item.tone in EVENT_RANK ? EVENT_RANK[item.tone as ChartEvent['tone']] : PIN_RANK[item.tone as ChartPin['tone']]);
-
-/** A folded group's name: its most telling member's label and how many more it holds ("Hard Reset +2"). */
-export function clusterName<T extends ChartEvent | ChartPin>(cluster: Cluster, items: readonly T[]): { item: T; text: string } {
-  let item = items[cluster.first]!;
-  for (let index = cluster.first + 1; index < cluster.first + cluster.count; index++) if (rankOf(items[index]!) < rankOf(item)) item = items[index]!;
-  return { item, text: cluster.count > 1 ? `${item.label} +${cluster.count - 1}` : item.label };
-}
-
-/** The names of folded marks ("Hard Reset +2", after the group's most telling member) placed so none overlap; those without room are left out. */
-function markNames<T extends ChartEvent | ChartPin>(
-  clusters: readonly Cluster[],
-  items: readonly T[],
-  xOf: (tUs: number) => number,
-  plot: { x: number; y: number; width: number; height: number },
-  edge: 'top' | 'bottom',
-) {
-  const names = clusters.map((cluster) => ({ xPx: xOf(cluster.startUs), ...clusterName(cluster, items), key: cluster.first }));
-  const placed = placeMarkLabels(names, plot.x, plot.x + plot.width, NAME_ROWS);
-  return names.flatMap((name, index) => {
-    const at = placed[index];
-    if (!at) return [];
-    const y = edge === 'top' ? plot.y + 10 + at.row * NAME_ROW_PX : plot.y + plot.height - 4 - at.row * NAME_ROW_PX;
-    return [{ key: name.key, text: name.text, item: name.item, x: at.xPx, y, anchor: at.anchor }];
-  });
-}
-
-const byTime = <T extends { tUs: number }>(items: readonly T[]) => [...items].sort((a, b) => a.tUs - b.tUs);
-const tOf = (item: { tUs: number }) => item.tUs;
-
-/**
- * The horizontal grid, tolerance bands, events and finding pins, drawn inside the chart's SVG (so
- * they are in an exported picture) from the plot area and our own axis domains. Marks closer than a
- * few pixels fold into one (a count beside it), and bands narrower than two pixels merge, so a
- * trace with 10,000 contracts and 2,000 findings draws a few hundred shapes, not thousands.
- */
-function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs, labelColour }: PlotMarksProps) {
-  const plot = usePlotArea();
-  const widthPx = plot?.width ?? 0;
-  const pinClusters = useMemo(() => clusterInWindow(pins, indexRange(0, pins.length), tOf, window, widthPx, MARK_GAP_PX), [pins, window, widthPx]);
-  const eventClusters = useMemo(() => clusterInWindow(events, indexRange(0, events.length), tOf, window, widthPx, MARK_GAP_PX * 8), [events, window, widthPx]);
-  const drawnBands = useMemo(() => visibleSpans(bands, window, widthPx, endUs), [bands, window, widthPx, endUs]);
-  if (!plot || plot.width <= 0 || plot.height <= 0) return null;
-  const spanUs = Math.max(1, window.endUs - window.startUs);
-  const xOf = (tUs: number) => plot.x + ((Math.min(Math.max(tUs, window.startUs), window.endUs) - window.startUs) / spanUs) * plot.width;
-  const yOf = (volts: number) => plot.y + plot.height - (Math.min(Math.max(volts, 0), maxV) / maxV) * plot.height;
-  const eventNames = new Map(markNames(eventClusters, events, xOf, plot, 'top').map((name) => [name.key, name]));
+/** The time axis under the plot, volts on the left and (with a current) amps on the right: lines, tick marks and labels. */
+function Axes({ plot, colour, time, volts, amps }: AxesProps) {
+  const bottom = plot.y + plot.height;
+  const right = plot.x + plot.width;
   return (
-    <g className="parley-plot-marks" pointerEvents="none">
-      {gridV.map((volts) => (
-        <line key={volts} x1={plot.x} x2={plot.x + plot.width} y1={yOf(volts)} y2={yOf(volts)} stroke={gridColour} strokeDasharray="3 3" />
-      ))}
-      {drawnBands.map(({ span: band }) => {
-        const x1 = xOf(band.startUs);
-        const top = yOf(band.maxMv / 1_000);
+    <g className="parley-chart-axes" stroke={colour} fill={colour} fontSize={11}>
+      <line x1={plot.x} x2={right} y1={bottom} y2={bottom} />
+      {time.ticks.map((ms) => {
+        const x = time.xOf(ms);
         return (
-          <rect key={`${band.startUs}-${band.minMv}`} x={x1} width={Math.max(1, xOf(band.endUs) - x1)} y={top} height={Math.max(0, yOf(band.minMv / 1_000) - top)} fill="#10b981" fillOpacity={0.08} />
-        );
-      })}
-      {pinClusters.map((cluster) => {
-        const pin = pins[cluster.first]!;
-        const selected = pin.selected || (cluster.count > 1 && pins.slice(cluster.first, cluster.first + cluster.count).some((p) => p.selected));
-        return (
-          <line
-            key={`pin-${cluster.first}`}
-            x1={xOf(cluster.startUs)}
-            x2={xOf(cluster.startUs)}
-            y1={plot.y}
-            y2={plot.y + plot.height}
-            stroke={PIN_COLOURS[pin.tone]}
-            strokeWidth={selected ? 2.5 : 1}
-            strokeDasharray={selected ? undefined : '4 3'}
-          />
-        );
-      })}
-      {/* Names over the lines: events along the top, findings (in plain words) along the bottom. */}
-      {eventClusters.map((cluster) => {
-        const name = eventNames.get(cluster.first);
-        // A folded group is drawn as its most telling event (a reset before a note).
-        const event = (name?.item as ChartEvent | undefined) ?? events[cluster.first]!;
-        const x = xOf(cluster.startUs);
-        return (
-          <g key={`event-${cluster.first}`} data-chart-event={event.label} data-t-us={cluster.startUs}>
-            <line x1={x} x2={x} y1={plot.y} y2={plot.y + plot.height} stroke={EVENT_COLOURS[event.tone]} strokeWidth={1.5} />
-            {name && (
-              <text x={name.x} y={name.y} fontSize={10} textAnchor={name.anchor} fill={EVENT_COLOURS[event.tone]} stroke={labelColour} strokeWidth={3} paintOrder="stroke">
-                {name.text}
-              </text>
-            )}
+          <g key={`t${ms}`}>
+            <line x1={x} x2={x} y1={bottom} y2={bottom + TICK_PX} />
+            <text x={x} y={bottom + TICK_PX + TICK_LABEL_GAP_PX} dy="0.71em" textAnchor="middle" stroke="none" className="parley-axis-tick">
+              {time.label(ms)}
+            </text>
           </g>
         );
       })}
-      {markNames(pinClusters, pins, xOf, plot, 'bottom').map(({ key, text, x, y, anchor, item }) => (
-        <text
-          key={`pin-name-${key}`}
-          x={x}
-          y={y}
-          fontSize={10}
-          textAnchor={anchor}
-          fill={PIN_COLOURS[item.tone]}
-          stroke={labelColour}
-          strokeWidth={3}
-          paintOrder="stroke"
-          data-finding-rule={item.rule}
-        >
-          {text}
-        </text>
-      ))}
+      <line x1={plot.x} x2={plot.x} y1={plot.y} y2={bottom} />
+      {volts.ticks.map((value) => {
+        const y = volts.yOf(value);
+        return (
+          <g key={`v${value}`}>
+            <line x1={plot.x - TICK_PX} x2={plot.x} y1={y} y2={y} />
+            <text x={plot.x - TICK_PX - TICK_LABEL_GAP_PX} y={y} dy="0.355em" textAnchor="end" stroke="none" className="parley-axis-tick">
+              {voltLabel(value)}
+            </text>
+          </g>
+        );
+      })}
+      {amps && <line x1={right} x2={right} y1={plot.y} y2={bottom} />}
+      {amps?.ticks.map((value) => {
+        const y = amps.yOf(value);
+        return (
+          <g key={`a${value}`}>
+            <line x1={right} x2={right + TICK_PX} y1={y} y2={y} />
+            <text x={right + TICK_PX + TICK_LABEL_GAP_PX} y={y} dy="0.355em" textAnchor="start" stroke="none" className="parley-axis-tick">
+              {ampLabel(value)}
+            </text>
+          </g>
+        );
+      })}
     </g>
   );
 }
@@ -240,10 +119,11 @@ function PlotMarks({ window, maxV, gridV, gridColour, bands, pins, events, endUs
  * VBUS (V, left axis) and IBUS (A, right axis) over the visible window, with findings as vertical
  * pins and contract tolerance bands; under it a whole-trace overview whose brush sets the window.
  *
- * Kept cheap to draw (issue: no main-thread task over 50 ms): a fixed width from a debounced
- * ResizeObserver instead of a re-measuring container, our own ticks and domains (recharts measures
- * no label), about one point per three px, no animation, and memoised so a parent's unrelated state
- * (a selected message, a checkbox) does not redraw it.
+ * Plain SVG drawn from our own scales (issue 17: no main-thread task over 100 ms while a trace page
+ * opens): a held-value path per series, a dot per reading while they have room, our own ticks and
+ * domains, nothing measured in the DOM. The width comes from a debounced ResizeObserver, about one
+ * point per three px is drawn, and it is memoised so a parent's unrelated state (a selected
+ * message, a checkbox) does not redraw it. The pointer's read-out is an HTML layer of its own.
  */
 export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   // A new window or series redraws the chart in a later, interruptible render: the lanes (and the
@@ -255,11 +135,6 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   const [box, widthPx] = useElementWidth<HTMLDivElement>();
   const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
   const measured = plotWidthPx > 0;
-  // The chart mounts in three tasks (each of recharts' parts registers in its store, and every
-  // registration re-runs its selectors): the VBUS line on its axes with the grid and pins, then the
-  // sink's VBUS and IBUS with its axis, then the tooltip (nothing to see until a pointer hovers).
-  // Our own fixed domains mean a later part adds to the picture without moving the first.
-  const stage = useMountStages(measured, 3);
   const budget = pointBudget(plotWidthPx);
   const series = useMemo(() => {
     if (!measured) return { vbusV: NO_POINTS, ibusA: NO_POINTS, sinkV: NO_POINTS, readings: 0 };
@@ -277,11 +152,11 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
     [measurements],
   );
   const hasCurrent = useMemo(() => measurements.some((m) => m.ma !== undefined), [measurements]);
-  const withCurrent = hasCurrent && stage >= 2;
   const visibleBands = useMemo(() => bands.filter((band) => band.endUs >= window.startUs && band.startUs <= window.endUs), [bands, window]);
   const sortedPins = useMemo(() => byTime(pins), [pins]);
   const sortedEvents = useMemo(() => byTime(events), [events]);
-  const axes = useMemo(() => {
+  const plot: PlotArea = useMemo(() => ({ x: PLOT_INSET_LEFT_PX, y: PLOT_TOP_PX, width: plotWidthPx, height: CHART_HEIGHT_PX - PLOT_TOP_PX - TIME_AXIS_HEIGHT_PX }), [plotWidthPx]);
+  const drawing = useMemo(() => {
     let maxV = 0;
     let maxA = 0;
     for (const p of series.vbusV) maxV = Math.max(maxV, p.value ?? 0);
@@ -289,19 +164,34 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
     for (const p of series.ibusA) maxA = Math.max(maxA, p.value ?? 0);
     for (const band of visibleBands) maxV = Math.max(maxV, band.maxMv / 1_000);
     const volts = fittedZeroBasedTicks(maxV * HEADROOM);
+    // As many intervals as the volt axis, so the amp ticks sit on the volt grid.
     const amps = zeroBasedTicks(maxA * HEADROOM, volts.ticks.length - 1);
     const startMs = window.startUs / 1_000;
     const endMs = window.endUs / 1_000;
     const time = timeAxisMs(startMs, endMs, plotWidthPx);
+    const bottom = plot.y + plot.height;
+    const xOf = linearScale([startMs, endMs], [plot.x, plot.x + plot.width]);
+    const yOfV = linearScale([0, volts.max], [bottom, plot.y]);
+    const yOfA = linearScale([0, amps.max], [bottom, plot.y]);
     return {
-      time: { domain: [startMs, endMs] as [number, number], ticks: time.ticks, tick: tickRenderer(time.label, '0.71em') },
-      volts: { domain: [0, volts.max] as [number, number], ticks: volts.ticks },
-      amps: { domain: [0, amps.max] as [number, number], ticks: amps.ticks },
+      startMs,
+      endMs,
+      maxV: volts.max,
+      axes: { time: { ticks: time.ticks, label: time.label, xOf }, volts: { ticks: volts.ticks, yOf: yOfV }, amps: { ticks: amps.ticks, yOf: yOfA } },
+      vbus: stepPath(series.vbusV, xOf, yOfV, plot),
+      sink: stepPath(series.sinkV, xOf, yOfV, plot),
+      ibus: stepPath(series.ibusA, xOf, yOfA, plot),
+      vbusDots: dots ? readingMarks(series.vbusV, xOf, yOfV, plot) : [],
+      ibusDots: dots ? readingMarks(series.ibusA, xOf, yOfA, plot) : [],
+      readout: [
+        { name: 'VBUS', unit: 'V' as const, colour: VBUS_COLOUR, points: series.vbusV, yOf: yOfV },
+        ...(sinkMeasurements ? [{ name: 'VBUS at sink', unit: 'V' as const, colour: SINK_VBUS_COLOUR, points: series.sinkV, yOf: yOfV }] : []),
+        ...(hasCurrent ? [{ name: 'IBUS', unit: 'A' as const, colour: IBUS_COLOUR, points: series.ibusA, yOf: yOfA }] : []),
+      ] satisfies ReadoutSeries[],
     };
-  }, [series, visibleBands, window, plotWidthPx]);
+  }, [series, visibleBands, window, plotWidthPx, plot, dots, sinkMeasurements, hasCurrent]);
   const axis = dark ? '#94a3b8' : '#475569';
   const grid = dark ? '#1e293b' : '#e2e8f0';
-  const tooltipStyle = useMemo(() => ({ fontSize: 12, background: dark ? '#0f172a' : '#fff', borderColor: grid }), [dark, grid]);
 
   if (measurements.length === 0) {
     return (
@@ -338,82 +228,45 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
           </span>
         )}
       </div>
-      {/* data-drawn: every part is on (tests wait for it before judging main-thread tasks). */}
-      <div ref={box} className="h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={stage >= 3 || undefined} data-readings={series.readings}>
+      {/* data-drawn: the chart is on the page with its lines, axes and marks (tests and bench:ui wait for it). */}
+      <div ref={box} className="relative h-56 w-full overflow-hidden" data-testid="vbus-chart" data-drawn={measured || undefined} data-readings={series.readings}>
         {measured && (
-          <LineChart width={widthPx} height={CHART_HEIGHT_PX} margin={withCurrent ? MARGIN : MARGIN_NO_CURRENT} accessibilityLayer={false}>
-            <XAxis dataKey="tMs" type="number" domain={axes.time.domain} ticks={axes.time.ticks} interval={0} niceTicks="none" allowDataOverflow tick={axes.time.tick} stroke={axis} fontSize={11} />
-            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} stroke={axis} fontSize={11} domain={axes.volts.domain} ticks={axes.volts.ticks} interval={0} niceTicks="none" allowDataOverflow tick={voltTick} />
-            {withCurrent && (
-              <YAxis
-                yAxisId="a"
-                width={AXIS_WIDTH_PX}
-                orientation="right"
-                stroke={axis}
-                fontSize={11}
-                domain={axes.amps.domain}
-                ticks={axes.amps.ticks}
-                interval={0}
-                niceTicks="none"
-                allowDataOverflow
-                tick={ampTick}
+          <>
+            <svg
+              className="parley-chart-surface"
+              width={widthPx}
+              height={CHART_HEIGHT_PX}
+              viewBox={`0 0 ${widthPx} ${CHART_HEIGHT_PX}`}
+              role="img"
+              aria-label={hasCurrent ? 'VBUS and IBUS over the visible window' : 'VBUS over the visible window'}
+            >
+              <PlotMarks
+                plot={plot}
+                window={window}
+                maxV={drawing.maxV}
+                gridV={drawing.axes.volts.ticks}
+                gridColour={grid}
+                bands={visibleBands}
+                pins={sortedPins}
+                events={sortedEvents}
+                endUs={endUs}
+                labelColour={dark ? '#0f172a' : '#ffffff'}
               />
-            )}
-            <PlotMarks
-              window={window}
-              maxV={axes.volts.domain[1]}
-              gridV={axes.volts.ticks}
-              gridColour={grid}
-              bands={visibleBands}
-              pins={sortedPins}
-              events={sortedEvents}
-              endUs={endUs}
-              labelColour={dark ? '#0f172a' : '#ffffff'}
-            />
-            {stage >= 3 && <Tooltip labelFormatter={tooltipLabel} formatter={tooltipValue} contentStyle={tooltipStyle} isAnimationActive={false} />}
-            <Line
-              yAxisId="v"
-              data={series.vbusV}
-              dataKey="value"
-              name="VBUS"
-              type="stepAfter"
-              stroke="#d97706"
-              dot={dots ? READING_DOT : false}
-              activeDot={ACTIVE_DOT}
-              strokeWidth={1.6}
-              isAnimationActive={false}
-              className="parley-vbus-line"
-            />
-            {sinkMeasurements && stage >= 2 && (
-              <Line
-                yAxisId="v"
-                data={series.sinkV}
-                dataKey="value"
-                name="VBUS at sink"
-                type="stepAfter"
-                stroke="#7c3aed"
-                dot={false}
-                activeDot={ACTIVE_DOT}
-                strokeWidth={1.2}
-                strokeDasharray="4 2"
-                isAnimationActive={false}
-              />
-            )}
-            {withCurrent && (
-              <Line
-                yAxisId="a"
-                data={series.ibusA}
-                dataKey="value"
-                name="IBUS"
-                type="stepAfter"
-                stroke="#0284c7"
-                dot={dots ? CURRENT_DOT : false}
-                activeDot={ACTIVE_DOT}
-                strokeWidth={1.2}
-                isAnimationActive={false}
-              />
-            )}
-          </LineChart>
+              <Axes plot={plot} colour={axis} time={drawing.axes.time} volts={drawing.axes.volts} amps={hasCurrent ? drawing.axes.amps : undefined} />
+              {hasCurrent && <path className="parley-ibus-line" d={drawing.ibus} fill="none" stroke={IBUS_COLOUR} strokeWidth={1.2} />}
+              {sinkMeasurements && <path className="parley-sink-vbus-line" d={drawing.sink} fill="none" stroke={SINK_VBUS_COLOUR} strokeWidth={1.2} strokeDasharray="4 2" />}
+              <path className="parley-vbus-line" d={drawing.vbus} fill="none" stroke={VBUS_COLOUR} strokeWidth={1.6} />
+              {drawing.ibusDots.map(({ x, y }, index) => (
+                // biome-ignore lint/suspicious/noArrayIndexKey: a reading's place is its identity in this window
+                <circle key={index} cx={x} cy={y} r={1.6} fill={IBUS_COLOUR} />
+              ))}
+              {drawing.vbusDots.map(({ x, y }, index) => (
+                // biome-ignore lint/suspicious/noArrayIndexKey: a reading's place is its identity in this window
+                <circle key={index} cx={x} cy={y} r={2} fill={VBUS_COLOUR} />
+              ))}
+            </svg>
+            <HoverReadout plot={plot} startMs={drawing.startMs} endMs={drawing.endMs} series={drawing.readout} dark={dark} />
+          </>
         )}
       </div>
       {props.overview !== false && (

@@ -1,5 +1,5 @@
 /**
- * The chart as a standalone image: the recharts <svg> serialised with its size, a background and
+ * The chart as a standalone image: its <svg> serialised with its size, a background and
  * the font it was drawn in (page CSS does not travel with the file), and a PNG drawn from that
  * SVG on a canvas at twice the size for sharp text.
  */
@@ -68,8 +68,6 @@ export function svgMarkup(svg: SVGSVGElement, options: { background: string; tit
   background.setAttribute('fill', options.background);
   clone.insertBefore(background, clone.firstChild);
   clone.insertBefore(title, clone.firstChild);
-  // Interactive overlays (tooltip cursor, brush handles' hit areas) add nothing to a picture.
-  for (const node of clone.querySelectorAll('.recharts-tooltip-cursor')) node.remove();
   return `<?xml version="1.0" encoding="UTF-8"?>\n${new XMLSerializer().serializeToString(clone)}\n`;
 }
 

@@ -75,7 +75,7 @@ export function BenchRoute() {
   };
 
   const shown = state.status === 'done' ? state.run : lastRun;
-  const chartSvg = useCallback(() => timelineRef.current?.querySelector<SVGSVGElement>('[data-testid="vbus-chart"] svg.recharts-surface') ?? null, []);
+  const chartSvg = useCallback(() => timelineRef.current?.querySelector<SVGSVGElement>('[data-testid="vbus-chart"] svg.parley-chart-surface') ?? null, []);
   const focusTime = (tUs: number, endUs: number) => setWindow({ startUs: Math.max(0, tUs - 20_000), endUs: Math.min(endUs, tUs + 20_000) });
   const formErrors = Object.keys(editor.form.formState.errors).length > 0;
 
