@@ -6,10 +6,11 @@
 import { createReadStream } from 'node:fs';
 import { stat, writeFile } from 'node:fs/promises';
 import type { MessagePort } from 'node:worker_threads';
-import { createReader, createTraceSession, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
+import { createReader, createTraceSession, type AnalyserOptions, type Analysis, type TraceFormat, type TraceRecord } from '../../shared/trace/index.ts';
 import { summaryOf, timelineChunks, withoutDecodedMessages, type AnalysisSummary, type ChunkKind } from '../../shared/trace/views.ts';
 import type { Result } from '../../shared/core/result.ts';
 import { deflateJson, storedFileBytes } from './deflated-json.ts';
+import { createMessageChunkWriter, type MessageChunksWritten } from './message-chunks.ts';
 
 export interface AnalyseFileTask {
   path: string;
@@ -18,6 +19,9 @@ export interface AnalyseFileTask {
   port?: MessagePort;
   progressEveryMs?: number;
 }
+
+/** A task's listener for every message as it is read (not sent across threads: used inside the worker). */
+type OnMessage = NonNullable<AnalyserOptions['onMessage']>;
 
 export interface AnalysisProgress {
   bytesRead: number;
@@ -50,6 +54,8 @@ export interface StoredParts {
   findings: StoredItem[];
   contracts: StoredItem[];
   chunks: StoredChunk[];
+  /** Every message, in compressed chunks, in the task's `messagesTo` file (message-chunks.ts). */
+  messages: MessageChunksWritten;
   /** Bytes of the stored analysis file. */
   storedBytes: number;
 }
@@ -58,9 +64,9 @@ export type AnalyseFileResult = Result<{ analysis: Analysis; bytesRead: number }
 
 const CHUNK_BYTES = 256 * 1024;
 
-export async function analyseFile(task: AnalyseFileTask): Promise<AnalyseFileResult> {
+export async function analyseFile(task: AnalyseFileTask, onMessage?: OnMessage): Promise<AnalyseFileResult> {
   const totalBytes = (await stat(task.path)).size;
-  const session = createTraceSession({ format: task.format ?? 'auto' });
+  const session = createTraceSession({ format: task.format ?? 'auto', ...(onMessage ? { onMessage } : {}) });
   const everyMs = task.progressEveryMs ?? 100;
   let lastPostMs = 0;
   const post = (bytesRead: number) => task.port?.postMessage({ bytesRead, totalBytes } satisfies AnalysisProgress);
@@ -94,24 +100,46 @@ export interface AnalyseAndStoreTask extends AnalyseFileTask {
    * store's incoming folder, which the caller then keeps in the store (server/storage).
    */
   storeTo: string;
+  /** A new file for every message of the trace, in compressed chunks written as the analysis reads them. */
+  messagesTo: string;
 }
 
 export type AnalyseAndStoreResult = Result<{ stored: StoredParts; bytesRead: number }>;
 
 /** The pool's task for uploads: analyse, store, and hand back only the parts (never the object graph). */
 export async function analyseAndStore(task: AnalyseAndStoreTask): Promise<AnalyseAndStoreResult> {
-  const result = await analyseFile(task);
-  if (!result.ok) return result;
-  return { ok: true, stored: await storeAnalysis(result.analysis, task.storeTo), bytesRead: result.bytesRead };
+  const writer = createMessageChunkWriter(task.messagesTo);
+  let result: AnalyseFileResult;
+  try {
+    result = await analyseFile(task, (message, index) => writer.add(message, index));
+  } catch (cause) {
+    writer.abandon();
+    throw cause;
+  }
+  if (!result.ok) {
+    writer.abandon();
+    return result;
+  }
+  return { ok: true, stored: await storeAnalysis(result.analysis, task.storeTo, writer.finish()), bytesRead: result.bytesRead };
 }
 
-/** Writes the analysis without the decoded messages, compressed, and cuts the parts the trace page reads into rows. */
-export async function storeAnalysis(analysis: Analysis, path: string): Promise<StoredParts> {
+/**
+ * Writes the analysis without the decoded messages, compressed, and cuts the parts the trace page
+ * reads into rows. The summary counts the messages stored in chunks (all of them), not the
+ * timeline's first ones, and the trace ends no earlier than its last message.
+ */
+export async function storeAnalysis(analysis: Analysis, path: string, messages: MessageChunksWritten): Promise<StoredParts> {
   const stored = withoutDecodedMessages(analysis);
   const bytes = storedFileBytes(deflateJson(JSON.stringify(stored)));
   await writeFile(path, bytes, { mode: 0o600, flag: 'wx' });
+  const summary = summaryOf(stored);
   return {
-    summary: summaryOf(stored),
+    summary: {
+      ...summary,
+      endUs: Math.max(summary.endUs, messages.lastEndUs),
+      timeline: { ...summary.timeline, messages: messages.messages, omitted: { ...summary.timeline.omitted, messages: 0 } },
+    },
+    messages,
     findings: stored.findings.map((f, index) => ({ index, t: f.t ?? null, severity: f.severity, rule: f.rule, body: JSON.stringify(f) })),
     contracts: stored.contracts.map((c, index) => ({ index, t: c.t, severity: null, rule: null, body: JSON.stringify(c) })),
     chunks: timelineChunks(stored).map(({ items, ...chunk }) => ({ ...chunk, count: items.length, body: JSON.stringify(items) })),

@@ -12,8 +12,11 @@ export type { AnalyseAndStoreResult, AnalysisProgress, AnalyseFileResult, ReadRe
 
 export interface AnalysisPool {
   analyze(path: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseFileResult>;
-  /** Analyses and writes the stored analysis to the new file `storeTo` in the worker; answers its parts, never the object graph. */
-  analyseAndStore(path: string, storeTo: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseAndStoreResult>;
+  /**
+   * Analyses and writes the stored analysis to the new file `storeTo` in the worker, and every
+   * message in compressed chunks to the new file `messagesTo`; answers its parts, never the object graph.
+   */
+  analyseAndStore(path: string, storeTo: string, messagesTo: string, options?: { format?: AnalyseFileTask['format']; onProgress?(progress: AnalysisProgress): void }): Promise<AnalyseAndStoreResult>;
   /** The records of a stored trace, read in a worker too (a vector export of a big file). */
   records(path: string, format: ReadRecordsTask['format'], limit: number): Promise<ReadRecordsResult>;
   close(): Promise<void>;
@@ -40,9 +43,9 @@ export function createAnalysisPool(options: { maxThreads?: number; idleTimeoutMs
         pool.run({ path, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyseFileTask, { transferList: [port] }),
       );
     },
-    analyseAndStore(path, storeTo, options = {}) {
+    analyseAndStore(path, storeTo, messagesTo, options = {}) {
       return runWithProgress<AnalyseAndStoreResult>(options.onProgress, (port) =>
-        pool.run({ path, storeTo, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyseAndStoreTask, { transferList: [port], name: 'analyseAndStore' }),
+        pool.run({ path, storeTo, messagesTo, port, ...(options.format ? { format: options.format } : {}) } satisfies AnalyseAndStoreTask, { transferList: [port], name: 'analyseAndStore' }),
       );
     },
     async records(path, format, limit) {

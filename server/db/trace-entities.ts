@@ -78,7 +78,11 @@ export const TraceItem = defineEntity({
 });
 export type ITraceItem = InferEntity<typeof TraceItem>;
 
-/** A run of timeline items (shared/trace/views.ts): messages, events, contract spans or VBUS readings at a level. */
+/**
+ * A run of timeline items (shared/trace/views.ts): messages, events, contract spans or VBUS readings
+ * at a level. Message chunks hold every message of the trace, compressed (server/analysis/message-chunks.ts),
+ * with the two facts the message list asks of a chunk without opening it.
+ */
 export const TraceChunk = defineEntity({
   name: 'TraceChunk',
   indexes: [{ properties: ['traceId', 'kind', 'level', 'startUs'] }],
@@ -92,6 +96,10 @@ export const TraceChunk = defineEntity({
     startUs: p.bigint('number'),
     endUs: p.bigint('number'),
     count: p.integer(),
+    /** Messages other than GoodCRC (rows of the folded message list); 0 for other kinds. */
+    foldedRows: p.integer().default(0),
+    /** Index of the chunk's last Source_Capabilities with a good CRC, if it has one. */
+    capsIndex: p.integer().nullable(),
     body: p.text(),
   }),
 });

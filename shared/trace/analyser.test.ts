@@ -184,6 +184,26 @@ describe('analysis', () => {
     expect(analysis.counts.warning).toBe(50);
     expect(analysis.findingsOmitted).toBe(45);
   });
+  it('hands every message to onMessage with its index in the whole trace, past the timeline it keeps', () => {
+    const heard: { index: number; messageType: string; goodCrcFor?: number }[] = [];
+    const analysis = analyseRecords(negotiation().records, {
+      timelineLimit: 3,
+      onMessage: (m, index) => heard.push({ index, messageType: m.messageType, ...(m.goodCrcFor === undefined ? {} : { goodCrcFor: m.goodCrcFor }) }),
+    });
+    expect(analysis.timeline.messages).toHaveLength(3);
+    expect(analysis.timeline.omitted.messages).toBe(5);
+    expect(heard).toEqual([
+      { index: 0, messageType: 'Source_Capabilities' },
+      { index: 1, messageType: 'GoodCRC', goodCrcFor: 0 },
+      { index: 2, messageType: 'Request' },
+      { index: 3, messageType: 'GoodCRC', goodCrcFor: 2 },
+      { index: 4, messageType: 'Accept' },
+      // A GoodCRC past the kept timeline still names the message it acknowledges.
+      { index: 5, messageType: 'GoodCRC', goodCrcFor: 4 },
+      { index: 6, messageType: 'PS_RDY' },
+      { index: 7, messageType: 'GoodCRC', goodCrcFor: 6 },
+    ]);
+  });
   it('reports an empty trace as an input error', () => {
     const result = analyseTrace('not a trace\n');
     expect(result).toMatchObject({ ok: false, error: { code: 'trace.empty' } });

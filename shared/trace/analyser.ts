@@ -28,13 +28,18 @@ import type { FindingExtra, SeenMessage } from './seen.ts';
 import type { TraceSink } from './sink.ts';
 import { sideOfClause, sideOfFinding } from './blame.ts';
 import { summarize, type SummaryInput } from './summary.ts';
-import { createTimeline, type Timeline } from './timeline.ts';
+import { createTimeline, type Timeline, type TimelineMessage } from './timeline.ts';
 import { vbusLimits, voltageOutside } from './vbus.ts';
 
 export interface AnalyserOptions {
   format?: TraceFormat;
   /** Most messages, events and measurements kept in the timeline (default 20 000 each). */
   timelineLimit?: number;
+  /**
+   * Called with every decoded message and its index in the whole trace, as it is read (the
+   * timeline keeps only the first `timelineLimit`; a store of every message listens here).
+   */
+  onMessage?(message: TimelineMessage, index: number): void;
   /** Most findings listed (default 5 000); the rest are counted. */
   findingsLimit?: number;
   /** Decodings and offer checks shared with other analysers of the same messages (memo.ts; a fault sweep). */
@@ -211,7 +216,7 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
     if (d.messageType === 'Source_Capabilities' && crcOk) sourceCapabilities++;
     const seen: SeenMessage = { t, endUs: t + d.durationUs, from, sop, d, crcOk, line, index: -1, ackEndUs: undefined, acks: undefined };
     const delivery = protocol.onMessage(seen);
-    seen.index = timeline.message({
+    const item: TimelineMessage = {
       t,
       durationUs: d.durationUs,
       from,
@@ -224,7 +229,9 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
       ...(delivery === 'retry' ? { retry: true } : {}),
       ...(seen.acks && seen.acks.index >= 0 ? { goodCrcFor: seen.acks.index } : {}),
       ...(line !== undefined ? { line } : {}),
-    });
+    };
+    seen.index = timeline.message(item);
+    options.onMessage?.(item, seen.index);
     crcErrors.onMessage(seen);
     if (delivery === 'goodcrc' && crcOk) recovery.onGoodCrc();
     if (delivery !== 'new') return;

@@ -1,6 +1,8 @@
 /**
  * The analysis as a timeline for charts: messages, measurements, events and contracts over time.
- * Bounded for huge traces: the first `limit` messages and events are kept and the rest counted;
+ * Bounded for huge traces: the first `limit` messages and events are kept and the rest counted
+ * (every message still gets its index in the whole trace, so a store that keeps them all, like
+ * the server's message chunks, and the kept ones agree on GoodCRC links);
  * measurements are thinned evenly (when the buffer fills, every second one goes and only every
  * `stride`-th later one is taken), so a chart still spans the whole trace.
  */
@@ -54,7 +56,7 @@ export interface Timeline {
 
 export interface TimelineBuilder {
   timeline: Timeline;
-  /** Returns the message's index, or -1 when not kept. */
+  /** Returns the message's index in the whole trace (kept or not). */
   message(item: TimelineMessage): number;
   measurement(t: number, mv: number, ma: number | undefined): void;
   event(item: TimelineEvent): void;
@@ -72,15 +74,15 @@ export function createTimeline(limit: number): TimelineBuilder {
     measurementStride: 1,
   };
   let skip = 0;
+  let seen = 0;
   let open: TimelineContract | undefined;
   return {
     timeline,
     message(item) {
-      if (timeline.messages.length >= limit) {
-        timeline.omitted.messages++;
-        return -1;
-      }
-      return timeline.messages.push(item) - 1;
+      const index = seen++;
+      if (timeline.messages.length >= limit) timeline.omitted.messages++;
+      else timeline.messages.push(item);
+      return index;
     },
     measurement(t, mv, ma) {
       if (++skip < timeline.measurementStride) {

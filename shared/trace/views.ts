@@ -4,7 +4,7 @@
  * - `StoredAnalysis`: the analysis without the decoded form of each timeline message (the hex is
  *   kept; a client decodes a message when someone opens it). That form was over half of the bytes.
  * - `AnalysisSummary`: everything but the lists (findings, contracts, timeline), with their lengths.
- * - Timeline chunks: messages, events, contract spans and VBUS readings in time order, cut into
+ * - Timeline chunks: messages (every one of the trace), events, contract spans and VBUS readings in time order, cut into
  *   chunks of at most `CHUNK_ITEMS`; VBUS readings also at coarser levels (each keeps the lowest
  *   and highest reading of every `LEVEL_FACTOR` of the level below), so a window of any width
  *   reads a bounded number of points and a sag never disappears from an overview.
@@ -115,18 +115,15 @@ export function coarserReadings(readings: readonly TimelineMeasurement[]): Timel
   return out;
 }
 
-/** Every chunk of the timeline, VBUS readings at every level down to one chunk. */
+/**
+ * The chunks of the timeline's events, contract spans and VBUS readings (at every level down to one
+ * chunk). Messages are not cut from here: the timeline keeps only the first of a long trace's, so
+ * the server stores every message as the analysis reads it (`AnalyserOptions.onMessage`).
+ */
 export function timelineChunks(analysis: StoredAnalysis): TimelineChunk[] {
   const { timeline } = analysis;
   const endUs = endOfTrace(analysis);
   const chunks = [
-    ...chunksOf<StoredTimelineMessage>(
-      'message',
-      0,
-      timeline.messages,
-      (m) => m.t,
-      (m) => m.t + m.durationUs,
-    ),
     ...chunksOf<TimelineEvent>(
       'event',
       0,
@@ -192,7 +189,7 @@ export interface Page<T> {
   pageSize: number;
 }
 
-/** What `GET /api/traces/:id/messages` answers: messages of the whole timeline by index. */
+/** What `GET /api/traces/:id/messages` answers: messages of the whole trace by index. */
 export interface MessageRange {
   /** The first row (the first message at `atUs` when asked by time); with `fold=goodcrc` rows are the messages other than GoodCRC. */
   offset: number;

@@ -5,6 +5,7 @@ import { Migration20261204190100TeamVectorSearch } from './Migration202612041901
 import { Migration20261204193000RateLimitCounters } from './Migration20261204193000RateLimitCounters.ts';
 import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 import { Migration20261204223000LibraryVersion } from './Migration20261204223000LibraryVersion.ts';
+import { Migration20261205013000MessageChunks } from './Migration20261205013000MessageChunks.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
@@ -15,4 +16,5 @@ export const postgresMigrationsList = [
   { name: 'Migration20261204193000RateLimitCounters', class: Migration20261204193000RateLimitCounters },
   { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
   { name: 'Migration20261204223000LibraryVersion', class: Migration20261204223000LibraryVersion },
+  { name: 'Migration20261205013000MessageChunks', class: Migration20261205013000MessageChunks },
 ];

@@ -17,9 +17,12 @@ import type { TraceFormat } from '../../../shared/trace/index.ts';
 import { jobKind, type JobContext, type JobHandler } from '../../jobs/types.ts';
 import type { AnalysisEvent } from '../../../shared/api/index.ts';
 import type { TraceStore } from './store.ts';
+import { readMessageChunks, type MessageChunkRow } from '../../analysis/message-chunks.ts';
 
 /** Rows per insert statement. */
 const INSERT_BATCH = 200;
+/** Message chunks per insert statement (each some kilobytes of compressed text). */
+const MESSAGE_CHUNK_BATCH = 20;
 
 export const traceAnalysisJob = jobKind<{ traceId: number }, AnalysisEvent>('trace-analysis');
 
@@ -69,21 +72,30 @@ async function analyse({ fork, clock, store, pool }: AnalysisJobDeps, id: number
   mkdirSync(store.incomingDir, { recursive: true });
   // The worker writes the stored analysis here; the store then keeps it beside the file (or in the bucket).
   const storeTo = join(store.incomingDir, `.incoming-analysis-${randomBytes(8).toString('hex')}`);
+  // Every message, in compressed chunks, spilled here as the analysis reads them; read into rows below.
+  const messagesTo = `${storeTo}-messages`;
   try {
     const result = await store.withLocalFile(sha256, (path) =>
-      pool.analyseAndStore(path, storeTo, {
+      pool.analyseAndStore(path, storeTo, messagesTo, {
         format: row.format as TraceFormat,
         onProgress: (p) => job.publish({ type: 'progress', status: 'analysing', bytesRead: p.bytesRead, totalBytes: p.totalBytes }),
       }),
     );
     if (result.ok && !job.signal.aborted) await store.keepAnalysis(storeTo, sha256);
-    return await record({ em, clock, store }, row, result, job);
+    return await record({ em, clock, store }, row, result, messagesTo, job);
   } finally {
     await rm(storeTo, { force: true });
+    await rm(messagesTo, { force: true });
   }
 }
 
-async function record({ em, clock, store }: { em: EntityManager; clock: Clock; store: TraceStore }, row: ITrace, result: AnalyseAndStoreResult, job: JobContext<AnalysisEvent>): Promise<void> {
+async function record(
+  { em, clock, store }: { em: EntityManager; clock: Clock; store: TraceStore },
+  row: ITrace,
+  result: AnalyseAndStoreResult,
+  messagesTo: string,
+  job: JobContext<AnalysisEvent>,
+): Promise<void> {
   const { id, sha256 } = row;
   // Stopped by a shutdown: the row stays `analysing` for the next worker (or start-up) to take.
   if (job.signal.aborted) return;
@@ -114,6 +126,16 @@ async function record({ em, clock, store }: { em: EntityManager; clock: Clock; s
     for (let first = 0; first < items.length; first += INSERT_BATCH) await tx.insertMany(TraceItem, items.slice(first, first + INSERT_BATCH));
     const rows = chunks.map((c) => ({ traceId: id, ...c }));
     for (let first = 0; first < rows.length; first += INSERT_BATCH) await tx.insertMany(TraceChunk, rows.slice(first, first + INSERT_BATCH));
+    // Message chunks a few at a time from the spill file: a huge trace's are never all in memory.
+    let batch: (MessageChunkRow & { traceId: number })[] = [];
+    for await (const chunk of readMessageChunks(messagesTo)) {
+      batch.push({ traceId: id, ...chunk });
+      if (batch.length >= MESSAGE_CHUNK_BATCH) {
+        await tx.insertMany(TraceChunk, batch);
+        batch = [];
+      }
+    }
+    if (batch.length > 0) await tx.insertMany(TraceChunk, batch);
     const fresh = await tx.findOneOrFail(Trace, { id });
     tx.assign(fresh, {
       // A title left empty at upload becomes the header's title, else the file name (lists sort by it).

@@ -9,6 +9,7 @@ import type { AnalysisSummary, FindingPin, MessageRange, Page, StoredTimelineMes
 import { CHUNK_ITEMS } from '../../../shared/trace/views.ts';
 import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
 import { sqlReads } from '../../db/reads.ts';
+import { decodeChunkBody } from '../../analysis/message-chunks.ts';
 
 /**
  * Parsed chunk items kept across requests, per database (chunk ids are only unique within one), at
@@ -38,7 +39,7 @@ function parsedChunk(em: EntityManager, id: number, body: string): unknown[] {
     cache.chunks.set(id, hit);
     return hit;
   }
-  const items = JSON.parse(body) as unknown[];
+  const items = decodeChunkBody(body);
   cache.chunks.set(id, items);
   cache.items += items.length;
   for (const [oldest, value] of cache.chunks) {
@@ -215,13 +216,12 @@ async function messageIndexAt(em: EntityManager, traceId: number, atUs: number, 
 
 /**
  * Rows of a list without GoodCRCs, per message chunk: `firstIndex[c]` and `rowsBefore[c]` (rows in
- * the chunks before it; one more entry: all rows). GoodCRCs are counted in SQL from the stored JSON,
- * so no chunk is parsed; kept per trace by its first chunk's id (chunks are rewritten with new ids).
+ * the chunks before it; one more entry: all rows). Each chunk row says how many it holds, so no
+ * chunk is opened; kept per trace by its first chunk's id (chunks are rewritten with new ids).
  */
 type FoldedRows = { firstIndex: number[]; rowsBefore: number[] };
 const foldedRowsCache = new Map<number, FoldedRows>();
 const FOLDED_ROWS_TRACES = 64;
-const GOOD_CRC_TEXT = '"messageType":"GoodCRC"';
 
 async function foldedRows(em: EntityManager, traceId: number): Promise<FoldedRows> {
   const sql = sqlOf(em);
@@ -229,14 +229,14 @@ async function foldedRows(em: EntityManager, traceId: number): Promise<FoldedRow
   const key = Number(head?.id ?? -traceId);
   const hit = foldedRowsCache.get(key);
   if (hit) return hit;
-  const chunks = await sql.execute<{ first_index: number; count: number; good_crcs: number }[]>(
-    "select first_index, count, (length(body) - length(replace(body, ?, ''))) / length(?) as good_crcs from trace_chunk where trace_id = ? and kind = 'message' and level = 0 order by first_index",
-    [GOOD_CRC_TEXT, GOOD_CRC_TEXT, traceId],
+  const chunks = await sql.execute<{ first_index: number; folded_rows: number }[]>(
+    "select first_index, folded_rows from trace_chunk where trace_id = ? and kind = 'message' and level = 0 order by first_index",
+    [traceId],
   );
   const rows: FoldedRows = { firstIndex: [], rowsBefore: [0] };
   for (const c of chunks) {
     rows.firstIndex.push(Number(c.first_index));
-    rows.rowsBefore.push(rows.rowsBefore[rows.rowsBefore.length - 1]! + Number(c.count) - Number(c.good_crcs));
+    rows.rowsBefore.push(rows.rowsBefore[rows.rowsBefore.length - 1]! + Number(c.folded_rows));
   }
   if (foldedRowsCache.size >= FOLDED_ROWS_TRACES) foldedRowsCache.delete(foldedRowsCache.keys().next().value!);
   foldedRowsCache.set(key, rows);
@@ -271,20 +271,19 @@ async function foldedRowOfIndex(em: EntityManager, traceId: number, folded: Fold
 
 /** The last Source_Capabilities with a good CRC before message `before` (a Request's objects are read against it). */
 async function capabilitiesBefore(em: EntityManager, traceId: number, before: number): Promise<IndexedMessage | null> {
-  // The text match finds the chunk in SQL; the items decide (a chunk may name the type only in a failed message).
-  const rows = await sqlOf(em).execute<ChunkRow[]>(
-    "select id, level, first_index, count, body from trace_chunk where trace_id = ? and kind = 'message' and level = 0 and first_index < ? and body like '%\"Source_Capabilities\"%' order by first_index desc limit 4",
+  // Each chunk row names its last good Source_Capabilities: the newest one before `before` is found
+  // in SQL; only the chunk that holds `before` may have one later in it and an earlier one too.
+  const [row] = await sqlOf(em).execute<{ caps_index: number }[]>(
+    "select caps_index from trace_chunk where trace_id = ? and kind = 'message' and level = 0 and first_index < ? and caps_index is not null order by first_index desc limit 1",
     [traceId, before],
   );
-  for (const row of rows) {
-    const items = parsedChunk(em, Number(row.id), row.body) as StoredTimelineMessage[];
-    const base = Number(row.first_index);
-    for (let offset = Math.min(items.length, before - base) - 1; offset >= 0; offset--) {
-      const m = items[offset]!;
-      if (m.messageType === 'Source_Capabilities' && m.crcOk) return { ...m, index: base + offset };
-    }
-  }
-  return null;
+  if (!row) return null;
+  const capsIndex = Number(row.caps_index);
+  if (capsIndex < before) return (await messagesByIndex(em, traceId, capsIndex, 1))[0] ?? null;
+  const first = capsIndex - (capsIndex % CHUNK_ITEMS);
+  const items = await messagesByIndex(em, traceId, first, before - first);
+  const found = items.findLast((m) => m.messageType === 'Source_Capabilities' && m.crcOk);
+  return found ?? capabilitiesBefore(em, traceId, first);
 }
 
 /**
