@@ -3,7 +3,9 @@
  * Devices), written with the engine's codec (shared/pd encodeMessage) so the analyser reads real
  * PD words: the source's offer (5 V and 9 V fixed, 3 A) and its GoodCRC, then once a second the
  * sink asks again for 9 V 2 A — Request, Accept, PS_RDY, each with its GoodCRC (USB PD R3.2 V1.1
- * §8.3.2.2 power negotiation; times inside tSenderResponse and tPSTransition, from memory).
+ * §8.3.2.2 power negotiation; times inside tSenderResponse and tPSTransition, from memory) — and
+ * VBUS is read 100 ms after each PS_RDY, after its GoodCRC (readings are records, not messages:
+ * no index moves).
  * `numberedMessageAt(i)` says what message `i` is, so a test checks any row of a long list.
  */
 import { writeFileSync } from 'node:fs';
@@ -20,7 +22,8 @@ export interface NumberedMessage {
 }
 
 const CYCLE = 6;
-const FIRST_REQUEST_US = 1_000_000;
+/** The first Request 8.9 ms after the offer's GoodCRC, inside tSenderResponse (from memory). */
+const FIRST_REQUEST_US = 160_000;
 const EVERY_US = 1_000_000;
 /** Offsets in a cycle: Request, its GoodCRC, Accept, its GoodCRC, PS_RDY, its GoodCRC. */
 const STEPS: { atUs: number; messageType: NumberedMessage['messageType']; from: Side; id: 'snk' | 'src' | 'src+1' }[] = [
@@ -71,6 +74,7 @@ export function writeNumberedTrace(path: string, messages: number, title = 'Kest
       hexCache.set(key, hex);
     }
     lines.push(`{"t":${m.t},"msg":"${hex}","from":"${m.from}"}`);
+    if (m.messageType === 'GoodCRC' && index >= 2 && (index - 2) % CYCLE === CYCLE - 1) lines.push(`{"t":${m.t + 60_000},"vbus":{"mv":${9_000 + (index % 5) * 10},"ma":2000}}`);
   }
   const text = `${lines.join('\n')}\n`;
   writeFileSync(path, text);

@@ -149,6 +149,8 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
   const canWrite = mayWriteTraces(user.role);
   const done = item.status === 'done' && analysis !== null;
   const endUs = analysis?.endUs ?? 1;
+  // Every VBUS reading of the trace (the window on screen holds only some of them).
+  const readings = analysis ? analysis.timeline.measurements + analysis.timeline.omitted.measurements : 0;
   // The zoom is in the URL (?from=&to=, µs), so a copied link opens the same moment.
   const [initialWindow] = useState(() => windowFromParams(params));
   // What the page reads: the window on screen (the server answers only for it), a page of each table.
@@ -278,7 +280,7 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
           <Card>
             <CardHeader
               title="Timeline"
-              description={`${plural(analysis.messages, 'message')}${input.measurements.length > 0 ? `, ${plural(input.measurements.length, 'VBUS reading')}` : ''}. Drag the brush under the chart to zoom; click a finding to jump to it.`}
+              description={`${plural(analysis.messages, 'message')}${readings > 0 ? `, ${plural(readings, 'VBUS reading')}` : ''}. Drag the brush under the chart to zoom; click a finding to jump to it.`}
               actions={
                 <Link className={buttonClasses('ghost', 'sm')} to={paths.bench.getHref({ fromTrace: item.id })}>
                   Replay on the Bench
