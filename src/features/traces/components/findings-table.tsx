@@ -4,6 +4,7 @@ import { SeverityBadge } from '../../../components/badge.tsx';
 import { EmptyState } from '../../../components/empty-state.tsx';
 import { RuleLink } from '../../../components/rule-link.tsx';
 import type { Finding } from '../../../../shared/core/finding.ts';
+import { isRuleId, ruleTitle } from '../../../../shared/rules/catalog.ts';
 import { formatSeconds } from '../lib/format.ts';
 
 export type FindingRow = Finding & { index: number };
@@ -57,14 +58,21 @@ export function FindingsTable({ rows: page, total, pageIndex, onPageChange, sele
       col.accessor('rule', {
         header: 'Rule',
         enableSorting: false,
-        // The link leaves for the rule's page; the row's own click (zoom the timeline) must not follow it.
-        cell: ({ getValue }) => (
-          // biome-ignore lint/a11y/useKeyWithClickEvents: only keeps the row's click from following the link; the link itself is the control
-          // biome-ignore lint/a11y/noStaticElementInteractions: same span, no interaction of its own
-          <span onClick={(event) => event.stopPropagation()} className="whitespace-nowrap">
-            <RuleLink rule={getValue()} />
-          </span>
-        ),
+        // The rule's title in plain words (it wraps), its id under it as the link to the rule's page; the
+        // row's own click (zoom the timeline) must not follow the link.
+        cell: ({ getValue }) => {
+          const rule = getValue();
+          return (
+            // biome-ignore lint/a11y/useKeyWithClickEvents: only keeps the row's click from following the link; the link itself is the control
+            // biome-ignore lint/a11y/noStaticElementInteractions: same span, no interaction of its own
+            <span onClick={(event) => event.stopPropagation()} className="block min-w-32">
+              {isRuleId(rule) && <span className="block text-slate-800 dark:text-slate-200">{ruleTitle(rule)}</span>}
+              <span className="whitespace-nowrap">
+                <RuleLink rule={rule} />
+              </span>
+            </span>
+          );
+        },
       }),
       col.accessor('message', {
         header: 'What happened',

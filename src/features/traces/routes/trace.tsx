@@ -200,7 +200,11 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
         { replace: true },
       );
       setFindingsPage(Math.floor(index / FINDINGS_PAGE_SIZE));
-      if (tUs !== undefined) setFocus({ tUs, key: Date.now() });
+      if (tUs === undefined) return;
+      // The chart goes to the finding and the message list to its row (the first message at that time).
+      const key = Date.now();
+      setFocus({ tUs, key });
+      setFollow({ tUs, key });
     },
     [setParams],
   );
@@ -218,7 +222,9 @@ function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSumm
     if (arrived.current || !findings.data) return;
     arrived.current = true;
     const t = selected === undefined ? undefined : findings.data.items.find((f) => f.index === selected)?.t;
-    if (t !== undefined) setFocus({ tUs: t, key: 0 });
+    if (t === undefined) return;
+    setFocus({ tUs: t, key: 0 });
+    setFollow({ tUs: t, key: 0 });
   }, [findings.data, selected]);
 
   const meta = [
