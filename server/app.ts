@@ -15,6 +15,8 @@ import type { Mailer } from './mail/mailer.ts';
 import type { RouteDef } from './route-def.ts';
 import { errorMiddleware, notFound } from './errors.ts';
 import { sameOriginWrites } from './middleware/same-origin.ts';
+import { keptReads } from './middleware/kept-reads.ts';
+import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { buildApiRouter, routeTable } from './routes.ts';
 import type { JobQueue } from './jobs/types.ts';
 import { createLocalJobQueue } from './jobs/local-queue.ts';
@@ -141,7 +143,6 @@ export function createApp(options: AppOptions): Express {
   app.disable('x-powered-by');
   app.set('trust proxy', options.trustProxy ?? false);
   app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: contentSecurityPolicy } }));
-  app.use(compression());
   if (options.logRequests) {
     // Method, path and status only: headers carry session cookies and tokens.
     app.use(
@@ -154,12 +155,16 @@ export function createApp(options: AppOptions): Express {
       }),
     );
   }
-  app.use((_req, _res, next) => RequestContext.create(options.orm.em, next));
   app.use(cookieParser());
+  const routes = options.routes ?? routeTable;
+  // A kept answer goes out from here, past compression (it is kept gzipped) and the rest of the stack.
+  app.use(keptReads(routes, deps, options.orm.em as EntityManager));
+  app.use(compression());
+  app.use((_req, _res, next) => RequestContext.create(options.orm.em, next));
   app.use('/api', sameOriginWrites(deps.publicUrl));
   app.use('/api', express.json({ limit: options.jsonLimit ?? '1mb' }));
 
-  app.use(buildApiRouter(options.routes ?? routeTable, deps));
+  app.use(buildApiRouter(routes, deps));
   app.use('/api', (req) => {
     throw notFound(`No API route ${req.method} ${req.originalUrl.split('?')[0]}`, 'route.not-found');
   });

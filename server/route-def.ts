@@ -23,6 +23,15 @@ export interface RouteContext<B, Q, P> {
   deps: AppDeps;
 }
 
+/** What a route's `keep` may read: never the user, so a kept answer is the same for everyone allowed to ask. */
+export interface KeepContext<Q, P> {
+  query: Q;
+  params: P;
+  /** An entity manager for plain reads (`sqlReads`); on the fast path, the ORM's root one. */
+  em: EntityManager;
+  deps: AppDeps;
+}
+
 /**
  * One API route. The handler returns the JSON body (status 200 unless it set another with
  * `ctx.res.status(…)`), or undefined for 204; it may also answer through `ctx.res` itself.
@@ -38,6 +47,14 @@ export interface RouteDef<B = unknown, Q = unknown, P = unknown> {
   /** Extra middleware (rate limits, upload parsers), built once per app; runs after the role check, before validation. */
   middleware?: (deps: AppDeps) => RequestHandler[];
   handler(ctx: RouteContext<B, Q, P>): Promise<unknown>;
+  /**
+   * A GET whose answer is a function of data that carries a version: the key its 200 answer is kept
+   * under, serialised (server/http/kept-answers.ts), or null to answer afresh. The key must change
+   * whenever the answer would (read the version, e.g. `libraryVersion`, not the data). Runs after
+   * the role check and validation, on the normal path and on the kept-reads fast path
+   * (server/middleware/kept-reads.ts); when it throws, the normal path answers.
+   */
+  keep?(ctx: KeepContext<Q, P>): Promise<string | null>;
 }
 
 /** Keeps the schema types flowing into the handler; the result fits in any `RouteDef[]`. */

@@ -5,6 +5,7 @@ import type { AppDeps } from './context.ts';
 import type { RouteDef } from './route-def.ts';
 import { authorize } from './middleware/authorize.ts';
 import { validate } from './middleware/validate.ts';
+import { keepAnswer, keptAnswer, keptKey, sendKept } from './http/kept-answers.ts';
 import { healthRoutes } from './features/health/routes.ts';
 import { authRoutes } from './features/auth/routes.ts';
 import { usersRoutes } from './features/users/routes.ts';
@@ -52,18 +53,15 @@ export function buildApiRouter(routes: readonly RouteDef[], deps: AppDeps): Rout
   for (const def of routes) {
     router[def.method](def.path, authorize(def.access, deps, requestEm), ...(def.middleware?.(deps) ?? []), validate({ body: def.body, query: def.query, params: def.params }), async (req, res) => {
       const valid = res.locals.valid ?? { body: undefined, query: undefined, params: undefined };
-      const result = await def.handler({
-        req,
-        res,
-        body: valid.body,
-        query: valid.query,
-        params: valid.params,
-        user: res.locals.user ?? null,
-        em: requestEm(),
-        deps,
-      });
+      const em = requestEm();
+      const key = def.keep ? await def.keep({ query: valid.query, params: valid.params, em, deps }) : null;
+      const keyed = key === null ? null : keptKey(def, key);
+      const kept = keyed === null ? undefined : keptAnswer(em.config, keyed);
+      if (kept) return sendKept(req, res, em.config, kept);
+      const result = await def.handler({ req, res, body: valid.body, query: valid.query, params: valid.params, user: res.locals.user ?? null, em, deps });
       if (res.headersSent) return;
       if (result === undefined) res.status(204).end();
+      else if (keyed !== null && res.statusCode === 200) sendKept(req, res, em.config, keepAnswer(em.config, keyed, result));
       else res.json(result);
     });
   }

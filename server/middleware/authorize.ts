@@ -46,7 +46,7 @@ async function sessionUser(em: EntityManager, userId: number): Promise<IUser | n
  * else the session cookie. The user is read from the database on every request (no cache), so a
  * sign-out, a deactivation or a password reset ends existing sessions at once, on every instance.
  */
-async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise<IUser | null> {
+export async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise<IUser | null> {
   const bearer = /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '');
   if (bearer) {
     if (!deps.verifyBearer) throw unauthorized('This server does not accept API tokens; sign in instead', 'token.not-accepted');
@@ -61,16 +61,20 @@ async function identify(req: Request, deps: AppDeps, em: EntityManager): Promise
   return user;
 }
 
+/** Whether the caller (null: signed out) may call a route with this access. */
+export function allows(access: Access, user: IUser | null): boolean {
+  if (access === 'anyone') return true;
+  if (!user) return false;
+  return access === 'signed-in' || access.includes(user.role);
+}
+
 /** The role check every route passes through: 401 without a session, 403 when the role is not allowed. */
 export function authorize(access: Access, deps: AppDeps, em: () => EntityManager): RequestHandler {
   return async (req, res, next) => {
     const user = await identify(req, deps, em());
     if (user) res.locals.user = user;
-    if (access === 'anyone') return next();
+    if (allows(access, user)) return next();
     if (!user) throw unauthorized();
-    if (access !== 'signed-in' && !access.includes(user.role)) {
-      throw forbidden(`This needs one of the roles ${access.join(', ')}; you are ${user.role}`);
-    }
-    next();
+    throw forbidden(`This needs one of the roles ${(access as readonly string[]).join(', ')}; you are ${user.role}`);
   };
 }

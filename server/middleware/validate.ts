@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import type { z } from 'zod';
 import { badRequest, fromZod } from '../errors.ts';
 
@@ -46,34 +46,39 @@ export function nestsDeeperThan(value: unknown, limit: number): boolean {
   return false;
 }
 
+/** Body, query and params parsed with their zod schemas, or the 400 their first failure answers. */
+export function validateInput(schemas: Schemas, req: Pick<Request, 'body' | 'query' | 'params'>): { valid: { body: unknown; query: unknown; params: unknown } } | { error: Error } {
+  const valid = { body: undefined as unknown, query: undefined as unknown, params: undefined as unknown };
+  for (const location of ['params', 'query', 'body'] as const) {
+    const schema = schemas[location];
+    if (!schema) continue;
+    if (location === 'body' && nestsDeeperThan(req.body, MAX_BODY_DEPTH)) {
+      return { error: badRequest(`body: nested deeper than ${MAX_BODY_DEPTH} levels`, 'input.invalid', [{ path: 'body', message: `nested deeper than ${MAX_BODY_DEPTH} levels` }]) };
+    }
+    const nulAt = findNul(req[location]);
+    if (nulAt) {
+      const field = nulAt.length > 0 ? nulAt.join('.') : location;
+      return { error: badRequest(`${field}: must not contain NUL characters (\\u0000)`, 'input.invalid', [{ path: field, message: 'must not contain NUL characters' }]) };
+    }
+    const result = schema.safeParse(req[location]);
+    if (!result.success) return { error: fromZod(result.error, location) };
+    valid[location] = result.data;
+  }
+  return { valid };
+}
+
 /**
  * Parses body, query and params with their zod schemas; the parsed values land in
  * `res.locals.valid` (Express 5's `req.query` is read-only). A failure is a 400 "field: message".
  */
 export function validate(schemas: Schemas): RequestHandler {
   return (req, res, next) => {
-    const valid = { body: undefined as unknown, query: undefined as unknown, params: undefined as unknown };
-    for (const location of ['params', 'query', 'body'] as const) {
-      const schema = schemas[location];
-      if (!schema) continue;
-      if (location === 'body' && nestsDeeperThan(req.body, MAX_BODY_DEPTH)) {
-        next(badRequest(`body: nested deeper than ${MAX_BODY_DEPTH} levels`, 'input.invalid', [{ path: 'body', message: `nested deeper than ${MAX_BODY_DEPTH} levels` }]));
-        return;
-      }
-      const nulAt = findNul(req[location]);
-      if (nulAt) {
-        const field = nulAt.length > 0 ? nulAt.join('.') : location;
-        next(badRequest(`${field}: must not contain NUL characters (\\u0000)`, 'input.invalid', [{ path: field, message: 'must not contain NUL characters' }]));
-        return;
-      }
-      const result = schema.safeParse(req[location]);
-      if (!result.success) {
-        next(fromZod(result.error, location));
-        return;
-      }
-      valid[location] = result.data;
+    const outcome = validateInput(schemas, req);
+    if ('error' in outcome) {
+      next(outcome.error);
+      return;
     }
-    res.locals.valid = valid;
+    res.locals.valid = outcome.valid;
     next();
   };
 }

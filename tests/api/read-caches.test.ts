@@ -1,15 +1,20 @@
 /**
  * What the read paths keep in memory never outlives the data it was read from, and never crosses
  * from one database to another: the library's answers (search matches, totals, tag counts) are kept
- * per database while its version stands, and a session cookie's checked signature never outlives
- * its expiry or a sign-out.
+ * per database while its version stands, whole list and trace answers are kept serialised under
+ * keys that change with their data and are answered only after the same checks as the route's own
+ * path, and a session cookie's checked signature never outlives its expiry or a sign-out.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createTestApp, createTestClock, type TestApp } from '../support/test-app.ts';
-import { TeamVector } from '../../server/db/library-entities.ts';
+import { RunResult, TeamVector } from '../../server/db/library-entities.ts';
+import { DeviceUnderTest, User } from '../../server/db/entities.ts';
+import { Trace } from '../../server/db/trace-entities.ts';
+import { route } from '../../server/route-def.ts';
+import { routeTable } from '../../server/routes.ts';
 import { demoTraceFolder } from '../../server/db/demo-traces/manifest.ts';
 
 // vector.md's example shape: a 45 W source must offer 9 V (USB PD R3.1, §10.2.3).
@@ -131,5 +136,70 @@ describe('a session cookie checked once', () => {
     expect((await first.request().get('/api/vectors').set('Cookie', fresh)).status).toBe(200);
     expect((await first.request().post('/api/auth/logout').set('Cookie', fresh)).status).toBe(204);
     expect((await first.request().get('/api/vectors').set('Cookie', fresh)).status).toBe(401);
+  });
+});
+
+describe('list and trace answers kept serialised (and answered before the rest of the middleware)', () => {
+  it('are stale at once when a run result, a device or a trace row changes (writes this process never saw)', async () => {
+    const qa = await second.signInAs('qa');
+    const device = (await qa.get('/api/devices')).body.items[0] as { id: number; name: string };
+    const vectorId = 'caps/kept/with-result';
+    expect((await qa.post('/api/vectors').send({ ...vectorOf(vectorId, 'Kept result source', ['kept-result']), deviceId: device.id })).status).toBe(201);
+    const path = '/api/vectors?q=kept%20result';
+    const before = await qa.get(path);
+    expect(before.body.items[0]).toMatchObject({ id: vectorId, lastResult: null, device: { id: device.id, name: device.name } });
+    // Asked again: the same representation (kept), with the same tag.
+    expect((await qa.get(path)).headers.etag).toBe(before.headers.etag);
+
+    const em = () => second.orm.em.fork();
+    await em().insert(RunResult, { runId: 9_999, vectorId, ok: false, message: 'kept-answer test failure', durationMs: 1, newFailure: false, createdAt: new Date() });
+    const withResult = await qa.get(path);
+    expect(withResult.body.items[0].lastResult).toMatchObject({ runId: 9_999, ok: false, message: 'kept-answer test failure' });
+    await em().nativeUpdate(DeviceUnderTest, { id: device.id }, { name: 'Kestrel renamed bench supply' });
+    expect((await qa.get(path)).body.items[0].device).toEqual({ id: device.id, name: 'Kestrel renamed bench supply' });
+
+    const traces = await qa.get('/api/traces');
+    const trace = traces.body.items[0] as { id: number; title: string };
+    const summaryPath = `/api/traces/${trace.id}/summary`;
+    expect((await qa.get(summaryPath)).body.trace.title).toBe(trace.title);
+    await em().nativeUpdate(Trace, { id: trace.id }, { title: 'Retitled elsewhere' });
+    expect((await qa.get('/api/traces')).body.items.find((t: { id: number }) => t.id === trace.id).title).toBe('Retitled elsewhere');
+    expect((await qa.get(summaryPath)).body.trace.title).toBe('Retitled elsewhere');
+  });
+
+  it('answer only what the route itself would: bad input, a bearer token, sign-out, deactivation and roles still decide first', async () => {
+    const cookie = await second.cookieFor('support');
+    const get = (path: string) => second.request().get(path).set('Cookie', cookie);
+    const kept = await get('/api/vectors?pageSize=5');
+    expect(kept.status).toBe(200);
+    expect((await get('/api/vectors?pageSize=5')).body).toEqual(kept.body);
+    expect((await get('/api/vectors?pageSize=5').set('If-None-Match', String(kept.headers.etag))).status).toBe(304);
+    // Input the route refuses is refused even with an answer kept for the same filter.
+    expect((await get('/api/vectors?pageSize=5&page=0')).status).toBe(400);
+    expect((await get('/api/vectors?pageSize=5&note=%00')).status).toBe(400);
+    // A bearer token is the normal path's to check (this app accepts none).
+    const bearer = await get('/api/vectors?pageSize=5').set('Authorization', 'Bearer not-a-token');
+    expect([bearer.status, bearer.body.error.code]).toEqual([401, 'token.not-accepted']);
+    // A deactivated account and a signed-out session are refused at once.
+    await second.orm.em.fork().nativeUpdate(User, { email: 'support@kestrel.example' }, { active: false });
+    expect((await get('/api/vectors?pageSize=5')).status).toBe(401);
+    await second.orm.em.fork().nativeUpdate(User, { email: 'support@kestrel.example' }, { active: true });
+    expect((await get('/api/vectors?pageSize=5')).status).toBe(200);
+    expect((await second.request().post('/api/auth/logout').set('Cookie', cookie)).status).toBe(204);
+    expect((await get('/api/vectors?pageSize=5')).status).toBe(401);
+  });
+
+  it('check the role before anything kept is looked at', async () => {
+    const adminsOnly = route({ method: 'get', path: '/api/kept-for-admins', access: ['admin'], keep: async () => 'always', handler: async () => ({ secret: 'admins only' }) });
+    const app = await createTestApp({ routes: [...routeTable, adminsOnly] });
+    try {
+      const admin = await app.signInAs('admin');
+      expect((await admin.get('/api/kept-for-admins')).body).toEqual({ secret: 'admins only' });
+      expect((await admin.get('/api/kept-for-admins')).body).toEqual({ secret: 'admins only' });
+      expect((await (await app.signInAs('engineer')).get('/api/kept-for-admins')).status).toBe(403);
+      expect((await app.request().get('/api/kept-for-admins')).status).toBe(401);
+    } finally {
+      await app.close();
+    }
   });
 });

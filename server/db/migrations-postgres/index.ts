@@ -6,6 +6,7 @@ import { Migration20261204193000RateLimitCounters } from './Migration20261204193
 import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 import { Migration20261204223000LibraryVersion } from './Migration20261204223000LibraryVersion.ts';
 import { Migration20261205013000MessageChunks } from './Migration20261205013000MessageChunks.ts';
+import { Migration20261205020000AnswerVersion } from './Migration20261205020000AnswerVersion.ts';
 
 /** Every PostgreSQL migration in order (the same schema as ../migrations, in PostgreSQL's dialect). Append new ones. */
 export const postgresMigrationsList = [
@@ -17,4 +18,5 @@ export const postgresMigrationsList = [
   { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
   { name: 'Migration20261204223000LibraryVersion', class: Migration20261204223000LibraryVersion },
   { name: 'Migration20261205013000MessageChunks', class: Migration20261205013000MessageChunks },
+  { name: 'Migration20261205020000AnswerVersion', class: Migration20261205020000AnswerVersion },
 ];

@@ -9,6 +9,7 @@ import { Migration20261204193000RateLimitCounters } from './Migration20261204193
 import { Migration20261204194500SweepRuns } from './Migration20261204194500SweepRuns.ts';
 import { Migration20261204223000LibraryVersion } from './Migration20261204223000LibraryVersion.ts';
 import { Migration20261205013000MessageChunks } from './Migration20261205013000MessageChunks.ts';
+import { Migration20261205020000AnswerVersion } from './Migration20261205020000AnswerVersion.ts';
 
 /** Every migration in order; the migrator runs the ones a database has not seen. Append new ones. */
 export const migrationsList = [
@@ -23,4 +24,5 @@ export const migrationsList = [
   { name: 'Migration20261204194500SweepRuns', class: Migration20261204194500SweepRuns },
   { name: 'Migration20261204223000LibraryVersion', class: Migration20261204223000LibraryVersion },
   { name: 'Migration20261205013000MessageChunks', class: Migration20261205013000MessageChunks },
+  { name: 'Migration20261205020000AnswerVersion', class: Migration20261205020000AnswerVersion },
 ];

@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { likeOperator } from '../../db/orm.ts';
 import { sqlReads } from '../../db/reads.ts';
+import { answerVersion } from '../../db/answer-version.ts';
 import { route, type RouteDef } from '../../route-def.ts';
 import { deviceMap, text, traceColumns, traceOfRow } from './lookup.ts';
 import { presentTrace } from './present.ts';
@@ -28,6 +29,8 @@ export const listRoutes: RouteDef[] = [
     path: '/api/traces',
     access: 'signed-in',
     query: listQuery,
+    // Trace rows and device names raise the answer version.
+    keep: async ({ em, query }) => `${await answerVersion(em)} ${JSON.stringify(query)}`,
     async handler({ em, query }) {
       const where: string[] = [];
       const params: unknown[] = [];

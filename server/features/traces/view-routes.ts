@@ -8,13 +8,13 @@ import type { Finding } from '../../../shared/core/finding.ts';
 import type { Analysis } from '../../../shared/trace/index.ts';
 import type { ITrace } from '../../db/trace-entities.ts';
 import { badRequest } from '../../errors.ts';
-import { route, type RouteDef } from '../../route-def.ts';
+import { route, type KeepContext, type RouteDef } from '../../route-def.ts';
 import { deviceMap, idParams, readTrace } from './lookup.ts';
 import { presentTrace } from './present.ts';
 import { traceAnalysisJob } from './analyse.ts';
 import { sendWithStoredAnalysis } from './send-analysis.ts';
 import type { AppDeps } from '../../context.ts';
-import { sendKeptAnswer } from './kept-answers.ts';
+import { answerVersion, traceAnalysisState } from '../../db/answer-version.ts';
 import { analysisSummary, itemPage, messageRange, timelineWindow } from './views.ts';
 
 const pageQuery = (maxPageSize: number, defaultPageSize: number) =>
@@ -46,6 +46,15 @@ function progressOf(deps: AppDeps, trace: ITrace) {
   return progress?.type === 'progress' ? { bytesRead: progress.bytesRead, totalBytes: progress.totalBytes } : null;
 }
 
+/**
+ * The key of an answer read from a stored analysis alone (findings, contracts, timeline windows),
+ * which never changes once stored: a new analysis has a new `analysedAt`. Nothing kept before then.
+ */
+async function analysedTraceKey<Q>({ em, params, query }: KeepContext<Q, { id: number }>): Promise<string | null> {
+  const state = await traceAnalysisState(em, params.id);
+  return state?.done && state.analysedAtMs !== null ? `${params.id} ${state.analysedAtMs} ${JSON.stringify(query)}` : null;
+}
+
 export const viewRoutes: RouteDef[] = [
   route({
     method: 'get',
@@ -63,6 +72,8 @@ export const viewRoutes: RouteDef[] = [
     path: '/api/traces/:id/summary',
     access: 'signed-in',
     params: idParams,
+    // Kept once analysed (no progress left to show): the trace row and device names raise the answer version.
+    keep: async ({ em, params }) => ((await traceAnalysisState(em, params.id))?.done ? `${await answerVersion(em)} ${params.id}` : null),
     async handler({ em, params, deps }) {
       const trace = await readTrace(em, params.id);
       return {
@@ -78,9 +89,10 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: findingsQuery,
-    async handler({ req, res, em, params, query }) {
-      const trace = await readTrace(em, params.id);
-      return sendKeptAnswer({ req, res, em }, trace, 'findings', query, () => itemPage<Finding>(em, params.id, 'finding', query));
+    keep: analysedTraceKey,
+    async handler({ em, params, query }) {
+      await readTrace(em, params.id);
+      return itemPage<Finding>(em, params.id, 'finding', query);
     },
   }),
   route({
@@ -89,9 +101,10 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: contractsQuery,
-    async handler({ req, res, em, params, query }) {
-      const trace = await readTrace(em, params.id);
-      return sendKeptAnswer({ req, res, em }, trace, 'contracts', query, () => itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query));
+    keep: analysedTraceKey,
+    async handler({ em, params, query }) {
+      await readTrace(em, params.id);
+      return itemPage<Analysis['contracts'][number]>(em, params.id, 'contract', query);
     },
   }),
   route({
@@ -100,16 +113,15 @@ export const viewRoutes: RouteDef[] = [
     access: 'signed-in',
     params: idParams,
     query: windowQuery,
-    async handler({ req, res, em, params, query }) {
+    keep: analysedTraceKey,
+    async handler({ em, params, query }) {
       const trace = await readTrace(em, params.id);
       if (query.startUs !== undefined && query.endUs !== undefined && query.endUs < query.startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
-      return sendKeptAnswer({ req, res, em }, trace, 'timeline', query, async () => {
-        const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
-        const startUs = query.startUs ?? 0;
-        const endUs = query.endUs ?? summary?.endUs ?? 1;
-        if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
-        return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
-      });
+      const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
+      const startUs = query.startUs ?? 0;
+      const endUs = query.endUs ?? summary?.endUs ?? 1;
+      if (endUs < startUs) throw badRequest('endUs: must not be before startUs', 'input.invalid');
+      return timelineWindow(em, trace.id, { startUs, endUs, points: query.points, limit: query.limit });
     },
   }),
   route({

@@ -8,6 +8,7 @@
  */
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import { sqlReads } from '../../db/reads.ts';
+import { answerVersion } from '../../db/answer-version.ts';
 
 /** Answers kept per version (searches and filters asked meanwhile; each at most a few tens of kB). */
 const KEPT = 64;
@@ -19,11 +20,8 @@ interface Answers {
 
 const perDatabase = new WeakMap<object, Answers>();
 
-/** The library's version now. */
-export async function libraryVersion(em: EntityManager): Promise<number> {
-  const row = await sqlReads(em).get<{ version: unknown }>('select version from library_version where id = 1');
-  return Number(row?.version ?? 0);
-}
+/** The library's version now (raised by every change of the tables the library's answers read). */
+export const libraryVersion = answerVersion;
 
 /** The answer for `key` at `version`: kept, or computed once however many requests ask at the same time. */
 export function libraryAnswer<T>(em: EntityManager, version: number, key: string, compute: () => Promise<T>): Promise<T> {

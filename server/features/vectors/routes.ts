@@ -71,6 +71,8 @@ export const vectorsRoutes: RouteDef[] = [
     path: '/api/vectors',
     access: 'signed-in',
     query: listQuery,
+    // Rows, their newest results and device names all raise the library version.
+    keep: async ({ em, query }) => `${await libraryVersion(em)} ${JSON.stringify(query)}`,
     async handler({ em, query }) {
       const { sort, page, pageSize, ...filter } = query;
       const direction = sort.startsWith('-') ? 'desc' : 'asc';
