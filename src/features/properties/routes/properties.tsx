@@ -128,7 +128,8 @@ export function PropertiesRoute() {
         />
         <CardBody className="space-y-3">
           <div className="flex flex-wrap items-start gap-x-3 gap-y-2" role="group" aria-label="Run">
-            <Select label="Example" className="min-w-64 flex-1" value={exampleId} options={exampleOptions} onChange={(e) => load(e.target.value)} disabled={running} />
+            {/* A row of its own: example titles are long sentences, and a select cuts what does not fit. */}
+            <Select label="Example" className="min-w-64 basis-full" value={exampleId} options={exampleOptions} onChange={(e) => load(e.target.value)} disabled={running} />
             <RunControls
               settings={settings}
               onSettings={setSettings}
