@@ -1,14 +1,9 @@
 import { route, type RouteDef } from '../../route-def.ts';
 import type { AppDeps } from '../../context.ts';
 import { dialectOf } from '../../db/orm.ts';
+import { allHealthy, createHealthMonitor, type HealthMonitor, type HealthPart as Part, type HealthParts } from './monitor.ts';
 
-interface Part {
-  ok: boolean;
-  kind: string;
-  message?: string;
-}
-
-async function checkParts(deps: AppDeps): Promise<{ database: Part; storage: Part; queue: Part }> {
+async function checkParts(deps: AppDeps): Promise<HealthParts> {
   const database = deps.orm.em
     .fork()
     .getConnection()
@@ -19,6 +14,18 @@ async function checkParts(deps: AppDeps): Promise<{ database: Part; storage: Par
   const queue = deps.jobs.check().then((result): Part => ({ kind: deps.jobs.name, ...result }));
   const [db, st, q] = await Promise.all([database, storage, queue]);
   return { database: db, storage: st, queue: q };
+}
+
+/** One monitor per app (its deps): every probe of that app shares its last check. */
+const monitors = new WeakMap<AppDeps, HealthMonitor>();
+
+function monitorOf(deps: AppDeps): HealthMonitor {
+  let monitor = monitors.get(deps);
+  if (monitor === undefined) {
+    monitor = createHealthMonitor(() => checkParts(deps));
+    monitors.set(deps, monitor);
+  }
+  return monitor;
 }
 
 /**
@@ -36,7 +43,8 @@ async function sandboxPart(deps: AppDeps): Promise<Part | undefined> {
 
 /**
  * `/api/health`: is this instance alive, and how are the database, the trace storage and the job
- * queue (a part that fails makes it 503); an admin also sees the property sandbox's mode.
+ * queue (a part that fails makes it 503), from a check at most a few seconds old (./monitor.ts);
+ * an admin also sees the property sandbox's mode.
  * `/api/health/ready`: may a load balancer send requests here (200) or not (503, e.g. while it
  * shuts down). Neither says more than the kinds in use.
  */
@@ -46,8 +54,8 @@ export const healthRoutes: RouteDef[] = [
     path: '/api/health',
     access: 'anyone',
     async handler({ deps, res, user }) {
-      const [parts, sandbox] = await Promise.all([checkParts(deps), user?.role === 'admin' ? sandboxPart(deps) : undefined]);
-      const ok = parts.database.ok && parts.storage.ok && parts.queue.ok;
+      const [parts, sandbox] = await Promise.all([monitorOf(deps).parts(), user?.role === 'admin' ? sandboxPart(deps) : undefined]);
+      const ok = allHealthy(parts);
       if (!ok) res.status(503);
       return { ok, ...parts, ...(sandbox ? { sandbox } : {}) };
     },
@@ -57,8 +65,7 @@ export const healthRoutes: RouteDef[] = [
     path: '/api/health/ready',
     access: 'anyone',
     async handler({ deps, res }) {
-      const parts = await checkParts(deps);
-      const ready = parts.database.ok && parts.storage.ok && parts.queue.ok;
+      const ready = allHealthy(await monitorOf(deps).parts());
       res.status(ready ? 200 : 503);
       return { ready };
     },

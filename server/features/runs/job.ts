@@ -96,7 +96,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   const run = await em.findOne(TestRun, { id: runId });
   if (!run) return;
   if (run.status !== 'running') return job.publish(runEvent(run));
-  const stored = new Set((await em.find(RunResult, { runId }, { fields: ['vectorId'] })).map((r) => r.vectorId));
+  const stored = new Set((await em.createQueryBuilder(RunResult).select('vectorId').where({ runId }).execute('all')).map((r) => r.vectorId));
   const pending = vectorIds.filter((id) => !stored.has(id));
   const total = vectorIds.length;
   // The property sandbox gives each user (or CI token) its turn.
@@ -123,7 +123,12 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
     while (next < batches.length && !job.signal.aborted) {
       const ids = batches[next++]!;
       const batchEm = deps.orm.em.fork();
-      const rows = await batchEm.find(TeamVector, { vectorId: { $in: ids } }, { fields: ['vectorId', 'revision', 'title', 'kind', 'text'] });
+      // Plain rows, not entities: nothing for the identity map to hold or the collector to sweep.
+      const rows = await batchEm
+        .createQueryBuilder(TeamVector)
+        .select(['vectorId', 'revision', 'title', 'kind', 'text'])
+        .where({ vectorId: { $in: ids } })
+        .execute('all');
       const byId = new Map(rows.map((r) => [r.vectorId, r]));
       const present = ids.filter((id) => byId.has(id));
       const results = await runBatch(

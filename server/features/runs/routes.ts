@@ -123,6 +123,17 @@ async function findRun(em: EntityManager, id: number): Promise<ITestRun> {
   return run;
 }
 
+/** Those of `ids` that are in the library, in id order, read as plain rows. */
+async function libraryIdsAmong(em: EntityManager, ids: readonly string[]): Promise<string[]> {
+  const rows = await em
+    .createQueryBuilder(TeamVector)
+    .select('vectorId')
+    .where({ vectorId: { $in: [...new Set(ids)] } })
+    .orderBy({ vectorId: 'asc' })
+    .execute('all');
+  return rows.map((r) => r.vectorId);
+}
+
 async function runWithResults(em: EntityManager, run: ITestRun) {
   const results = await em.find(RunResult, { runId: run.id }, { orderBy: [{ ok: 'asc' }, { vectorId: 'asc' }] });
   // Library vectors still in the library can be opened; CI ids may name vectors kept elsewhere.
@@ -153,14 +164,15 @@ export const runsRoutes: RouteDef[] = [
     async handler(ctx) {
       const { em, body, res, deps } = ctx;
       const me = currentUser(ctx);
-      const where = body.all ? {} : { vectorId: { $in: body.ids ?? (await matchingVectorIds(em, body.filter ?? {})) } };
-      // Ids only: the job reads each batch's texts as it goes.
-      const rows = await em.find(TeamVector, where, { orderBy: { vectorId: 'asc' }, fields: ['vectorId'] });
+      // Ids only, as plain rows: the job reads each batch's texts as it goes, and no entity is
+      // loaded for the flush below to walk (5,000 of them held the request thread for 0.2 s).
+      const vectorIds = body.ids ? await libraryIdsAmong(em, body.ids) : await matchingVectorIds(em, body.all ? {} : (body.filter ?? {}));
       if (body.ids) {
-        const missing = body.ids.filter((id) => !rows.some((r) => r.vectorId === id));
+        const found = new Set(vectorIds);
+        const missing = body.ids.filter((id) => !found.has(id));
         if (missing.length > 0) throw badRequest(`ids: not in the library: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ` and ${missing.length - 5} more` : ''}`, 'input.invalid');
       }
-      if (rows.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
+      if (vectorIds.length === 0) throw badRequest('filter: no vector in the library matches; nothing to run', 'run.nothing');
       const selection = body.all ? 'all' : body.ids ? (body.ids.length === 1 ? body.ids[0]! : `${body.ids.length} selected`) : describeFilter(body.filter ?? {});
       const run = createRunRow(em, deps.clock.now(), {
         kind: 'vectors',
@@ -168,13 +180,13 @@ export const runsRoutes: RouteDef[] = [
         build: body.build ?? null,
         source: 'ui',
         selection,
-        total: rows.length,
+        total: vectorIds.length,
         startedById: me.id,
         startedByName: me.name,
         tokenId: null,
       });
       await em.flush();
-      const job = await deps.jobs.enqueue(vectorRunJob, run.id, { runId: run.id, vectorIds: rows.map((r) => r.vectorId) });
+      const job = await deps.jobs.enqueue(vectorRunJob, run.id, { runId: run.id, vectorIds });
       if (body.wait) {
         await job.finished;
         res.status(201);
