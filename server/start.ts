@@ -105,11 +105,20 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const mailer = createSmtpMailer({ url: smtpUrl ?? fake!.url, from: env.MAIL_FROM });
   if (fake) logger.info(`SMTP_URL not set: mail goes to the built-in Outbox (a loopback SMTP fake with a per-start credential)`);
 
+  const runPool = createRunPool({ sandboxMode: env.PARLEY_SANDBOX });
+  // Prepared before the server listens (bundling the checker and probing the isolation cost the
+  // request thread a few tenths of a second), and the log says at once which sandbox is in use.
+  await runPool.sandboxStatus?.('').then(
+    ({ info }) => (info.mode === 'bubblewrap' ? logger.info('property sandbox: bubblewrap') : logger.warn(`property sandbox: fallback launcher (${info.fallbackReason})`)),
+    (cause: unknown) => logger.error(`property sandbox: cannot start (${cause instanceof Error ? cause.message : String(cause)})`),
+  );
+
   const server = createServer();
   let port: number;
   try {
     port = await listen(server, options.port ?? env.PORT, options.host ?? env.HOST);
   } catch (err) {
+    await runPool.close();
     mailer.close();
     await fake?.close();
     await orm.close();
@@ -121,12 +130,6 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   if (!existsSync(join(distDir, 'index.html'))) logger.warn(`no built client in ${distDir}: serving the API only (run \`npm run build\`)`);
   const jobs = await jobQueueFromEnv(env, logger);
   const analysisPool = createAnalysisPool();
-  const runPool = createRunPool({ sandboxMode: env.PARLEY_SANDBOX });
-  // Probed now, in the background: the log says at once which property sandbox is in use.
-  runPool.sandboxStatus?.('').then(
-    ({ info }) => (info.mode === 'bubblewrap' ? logger.info('property sandbox: bubblewrap') : logger.warn(`property sandbox: fallback launcher (${info.fallbackReason})`)),
-    (cause: unknown) => logger.error(`property sandbox: cannot start (${cause instanceof Error ? cause.message : String(cause)})`),
-  );
   const app = createApp({
     orm,
     mailer,

@@ -135,13 +135,13 @@ export function createPropertySandbox(options: SandboxOptions): PropertySandbox 
     return launch;
   };
 
-  const runChild = (plan: Launch, code: string, job: { runs: number; seed: number }): Promise<PropertyOutcome> =>
-    new Promise((resolve) => {
-      const started = performance.now();
+  const runChild = async (plan: Launch, code: string, job: { runs: number; seed: number }): Promise<PropertyOutcome> => {
+    const started = performance.now();
+    const command = await plan.command(['--experimental-permission', `--allow-fs-read=${plan.bundleInChild}`, `--max-old-space-size=${heapMb}`, '--no-warnings', plan.bundleInChild]);
+    return new Promise((resolve) => {
       const { addressSpaceMb, cpuSeconds } = plan.info.limits;
       const overMemory = (durationMs: number) =>
         failed(job.seed, 'property.memory', `the property went over its memory limit (${heapMb} MB of heap, ${addressSpaceMb} MB of address space in all)`, durationMs);
-      const command = plan.command(['--experimental-permission', `--allow-fs-read=${plan.bundleInChild}`, `--max-old-space-size=${heapMb}`, '--no-warnings', plan.bundleInChild]);
       const child = spawn(command.file, command.args, { env: command.env, cwd: command.cwd, stdio: ['pipe', 'pipe', 'pipe'], uid: command.uid, gid: command.gid });
       let stdout = '';
       let stdoutBytes = 0;
@@ -191,6 +191,7 @@ export function createPropertySandbox(options: SandboxOptions): PropertySandbox 
       });
       child.stdin.end(JSON.stringify({ code, runs: job.runs, seed: job.seed }));
     });
+  };
 
   const stopped = (seed: number) => failed(seed, 'property.stopped', 'the property sandbox is closed', 0);
 

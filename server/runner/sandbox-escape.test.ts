@@ -50,9 +50,9 @@ afterAll(async () => {
 });
 
 /** Runs `node -e script` through the sandbox's launch alone: the OS layers, without Node's permission model or the child's guards. */
-function runRaw(plan: Launch, script: string): Promise<{ code: number | null; stdout: string; stderr: string }> {
+async function runRaw(plan: Launch, script: string): Promise<{ code: number | null; stdout: string; stderr: string }> {
+  const command = await plan.command(['-e', script]);
   return new Promise((resolve) => {
-    const command = plan.command(['-e', script]);
     const child = spawn(command.file, command.args, { env: command.env, cwd: command.cwd, uid: command.uid, gid: command.gid, timeout: 20_000 });
     let stdout = '';
     let stderr = '';

@@ -44,7 +44,7 @@ export interface Launch {
   /** Where the child sees the bundle. */
   bundleInChild: string;
   /** The command that runs `node ...nodeArgs` in the sandbox, limits set (the process limit is counted now). */
-  command(nodeArgs: readonly string[]): ChildCommand;
+  command(nodeArgs: readonly string[]): Promise<ChildCommand>;
 }
 
 export interface LaunchOptions {
@@ -145,9 +145,9 @@ export async function planLaunch(bundlePath: string, options: LaunchOptions): Pr
   const limits = { tool, heapMb: options.heapMb, addressSpaceMb, cpuSeconds, tasksHeadroom: CHILD_TASKS_HEADROOM };
   const user = ids();
   const userName = user.uid === undefined ? 'server' : 'nobody';
-  const limited = (wrapper: readonly string[], nodeArgs: readonly string[]): ChildCommand => {
+  const limited = async (wrapper: readonly string[], nodeArgs: readonly string[]): Promise<ChildCommand> => {
     const taskUid = user.uid ?? process.getuid?.() ?? 0;
-    const prefix = limitPrefix(tool, { addressSpaceMb, cpuSeconds, processes: tasksOwnedBy(taskUid) + CHILD_TASKS_HEADROOM });
+    const prefix = limitPrefix(tool, { addressSpaceMb, cpuSeconds, processes: (await tasksOwnedBy(taskUid)) + CHILD_TASKS_HEADROOM });
     const argv = [...prefix, ...wrapper, node, ...nodeArgs];
     return { file: argv[0]!, args: argv.slice(1), ...user, env: { ...CHILD_ENV }, cwd };
   };
@@ -164,7 +164,7 @@ export async function planLaunch(bundlePath: string, options: LaunchOptions): Pr
       limits: { ...limits, tool: 'none' },
       bundlePath,
     };
-    return { info, bundleInChild: bundlePath, command: (nodeArgs) => ({ file: node, args: [...nodeArgs], env: { ...CHILD_ENV }, cwd }) };
+    return { info, bundleInChild: bundlePath, command: async (nodeArgs) => ({ file: node, args: [...nodeArgs], env: { ...CHILD_ENV }, cwd }) };
   }
 
   let fallbackReason = 'PARLEY_SANDBOX=fallback';
@@ -173,7 +173,7 @@ export async function planLaunch(bundlePath: string, options: LaunchOptions): Pr
     if (bwrap === undefined) fallbackReason = 'bubblewrap (bwrap) is not installed: apt-get install bubblewrap';
     else {
       const wrapper = [bwrap, ...bwrapArgs(node, await nodeLibraries(node), bundlePath)];
-      const probe = limited(wrapper, ['-e', `process.exit(require('node:fs').existsSync(${JSON.stringify(BUNDLE_IN_BWRAP)}) ? 0 : 3)`]);
+      const probe = await limited(wrapper, ['-e', `process.exit(require('node:fs').existsSync(${JSON.stringify(BUNDLE_IN_BWRAP)}) ? 0 : 3)`]);
       const result = await run(probe.file, probe.args, probe);
       if (result.code === 0) {
         const info: SandboxInfo = { mode: 'bubblewrap', fallbackReason: null, network: 'isolated', pidNamespace: true, files: 'minimal', diesWithParent: true, user: userName, limits, bundlePath };
@@ -190,7 +190,7 @@ export async function planLaunch(bundlePath: string, options: LaunchOptions): Pr
   const unshare = findFirst(UNSHARE_CANDIDATES);
   if (unshare !== undefined) {
     const wrapper = [...dieWithParent, unshare, '--user', '--map-root-user', '--net', '--pid', '--fork', '--kill-child=SIGKILL', '--'];
-    const probe = limited(wrapper, ['-e', '0']);
+    const probe = await limited(wrapper, ['-e', '0']);
     if ((await run(probe.file, probe.args, probe)).code === 0) {
       const info: SandboxInfo = { mode: 'fallback', fallbackReason, network: 'isolated', pidNamespace: true, files: 'host', diesWithParent: setpriv !== undefined, user: userName, limits, bundlePath };
       return { info, bundleInChild: bundlePath, command: (nodeArgs) => limited(wrapper, nodeArgs) };

@@ -8,7 +8,8 @@
  * - processes (RLIMIT_NPROC): threads and processes of the child's user;
  * - no core files (RLIMIT_CORE 0): a child that aborts leaves nothing on disk.
  */
-import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
+import { readdir, readFile } from 'node:fs/promises';
 import type { SandboxLimits } from '../../shared/api/index.ts';
 
 /**
@@ -54,25 +55,30 @@ export function cpuSecondsFor(timeoutMs: number): number {
   return Math.ceil((timeoutMs * 1.5) / 1_000) + 1;
 }
 
-/** Threads and processes owned by `uid` now (RLIMIT_NPROC counts a user's tasks, threads included). */
-export function tasksOwnedBy(uid: number): number {
-  let tasks = 0;
+/**
+ * Threads and processes owned by `uid` now (RLIMIT_NPROC counts a user's tasks, threads included).
+ * Read without blocking: one status file per process on the machine, counted before every child.
+ */
+export async function tasksOwnedBy(uid: number): Promise<number> {
   let pids: string[];
   try {
-    pids = readdirSync('/proc').filter((name) => /^\d+$/.test(name));
+    pids = (await readdir('/proc')).filter((name) => /^\d+$/.test(name));
   } catch {
     return 0;
   }
-  for (const pid of pids) {
-    try {
-      const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-      const realUid = Number(/^Uid:\s+(\d+)/m.exec(status)?.[1]);
-      if (realUid === uid) tasks += Number(/^Threads:\s+(\d+)/m.exec(status)?.[1] ?? 1);
-    } catch {
-      // The process ended while we looked.
-    }
-  }
-  return tasks;
+  const counts = await Promise.all(
+    pids.map(async (pid) => {
+      try {
+        const status = await readFile(`/proc/${pid}/status`, 'utf8');
+        const realUid = Number(/^Uid:\s+(\d+)/m.exec(status)?.[1]);
+        return realUid === uid ? Number(/^Threads:\s+(\d+)/m.exec(status)?.[1] ?? 1) : 0;
+      } catch {
+        // The process ended while we looked.
+        return 0;
+      }
+    }),
+  );
+  return counts.reduce((sum, n) => sum + n, 0);
 }
 
 /** The command prefix that sets `limits` and then runs the rest of the command line in the same process. */

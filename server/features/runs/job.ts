@@ -80,6 +80,11 @@ export function vectorRunHandler(deps: RunDeps): JobHandler<{ runId: number; vec
   };
 }
 
+/** Resolves after the event loop has served what was waiting (I/O, timers). */
+function nextTurn(): Promise<void> {
+  return new Promise((resolve) => setImmediate(resolve));
+}
+
 function batchesOf<T>(items: readonly T[], size: number): T[][] {
   const out: T[][] = [];
   for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
@@ -122,6 +127,9 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
   const lane = async () => {
     while (next < batches.length && !job.signal.aborted) {
       const ids = batches[next++]!;
+      // Each step below runs to its end without giving the event loop a turn (SQLite answers
+      // synchronously), and lanes finish together: a turn first lets waiting requests go.
+      await nextTurn();
       const batchEm = deps.orm.em.fork();
       // Plain rows, not entities: nothing for the identity map to hold or the collector to sweep.
       const rows = await batchEm
@@ -174,6 +182,7 @@ async function execute(deps: RunDeps, runId: number, vectorIds: readonly string[
         if (record.ok) passed += 1;
         else failed += 1;
       }
+      await nextTurn();
       // One transaction per batch: its results and the run's counts.
       const counts = { done: passed + failed, passed, failed };
       // One multi-row insert (no unit of work to compute on the request thread) and the run's counts.
