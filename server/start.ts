@@ -76,7 +76,9 @@ function listen(server: Server, port: number, host: string | undefined): Promise
 
 export async function startServer(options: StartOptions = {}): Promise<RunningServer> {
   const env = loadEnv();
-  const logger = pino({ level: options.log === false ? 'silent' : env.LOG_LEVEL });
+  // Lines go out asynchronously (pino flushes what is left when the process exits): one line per
+  // request written synchronously stalls every request whenever the reader of stdout lags.
+  const logger = pino({ level: options.log === false ? 'silent' : env.LOG_LEVEL }, pino.destination({ dest: 1, sync: false }));
   const dataDir = resolve(options.dataDir ?? env.PARLEY_DATA);
   const { removed } = prepareDataFolder(dataDir);
   if (removed.length > 0) logger.info(`removed ${removed.length} file(s) a stopped server left behind: ${removed.slice(0, 5).join(', ')}`);

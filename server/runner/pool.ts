@@ -13,11 +13,14 @@ import { Piscina } from 'piscina';
 import { runVectorText, toJsonSafe, type VectorResult } from '../../shared/vectors/index.ts';
 import { defaultThreads } from '../analysis/pool.ts';
 import { createPropertySandbox, DEFAULT_PROPERTY_TIMEOUT_MS, type PropertySandbox, type SandboxModeSetting, type SandboxStatus } from './property-sandbox.ts';
-import type { RunVectorTask } from './run-task.ts';
+import { keptOfResult, type RunVectorTask } from './run-task.ts';
 
 export interface RunPool {
   run(task: RunVectorTask): Promise<VectorResult>;
-  /** Results in the order of the tasks; the engine's vectors of a batch share one worker message. */
+  /**
+   * Results in the order of the tasks, as a run keeps them (`keptOfResult`: a pass without its
+   * output); the engine's vectors of a batch share one worker message.
+   */
   runBatch?(tasks: readonly RunVectorTask[]): Promise<VectorResult[]>;
   /** Worker threads it may use at once. */
   threads?: number;
@@ -105,10 +108,10 @@ export function createRunPool(options: RunPoolOptions = {}): RunPool {
           for (const [i, result] of out.entries()) results[inThreads[i]!.index] = result;
         } catch {
           // One vector stuck or crashing its worker: run that batch one by one, each with its own limit.
-          await Promise.all(inThreads.map(async ({ task, index }) => (results[index] = await run(task))));
+          await Promise.all(inThreads.map(async ({ task, index }) => (results[index] = keptOfResult(await run(task)))));
         }
       };
-      await Promise.all([batch(), ...sandboxed.map(async ({ task, index }) => (results[index] = await runInSandbox(task, sandbox)))]);
+      await Promise.all([batch(), ...sandboxed.map(async ({ task, index }) => (results[index] = keptOfResult(await runInSandbox(task, sandbox))))]);
       return results;
     },
     async close() {

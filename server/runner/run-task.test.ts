@@ -1,6 +1,9 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { builtInVectorsDir } from '../features/vectors/seed.ts';
 import { isPropertyVectorText } from './pool.ts';
-import { runVectorTask } from './run-task.ts';
+import { keptOfResult, runVectorBatch, runVectorTask } from './run-task.ts';
 
 /** The run pool's threads never evaluate property code: the pool routes it to the sandbox, and a worker refuses it. */
 describe('property vectors and the thread pool', () => {
@@ -27,5 +30,26 @@ describe('property vectors and the thread pool', () => {
     expect(isPropertyVectorText(JSON.stringify({ ...property, kind: 'caps', note: '"kind": "property"' }))).toBe(false);
     expect(isPropertyVectorText('not json')).toBe(false);
     expect(isPropertyVectorText('null')).toBe(false);
+  });
+});
+
+describe('what a run batch sends back', () => {
+  it('a pass carries its verdict and time only; a failure keeps its evidence', async () => {
+    // A library vector (Accept from a source, header 0x03a3) and a copy that expects Reject instead.
+    const passing = JSON.parse(readFileSync(join(builtInVectorsDir, 'decode/control/accept-from-source.vector.json'), 'utf8')) as {
+      id: string;
+      expect: { message: { header: Record<string, unknown> } };
+    };
+    const failing = structuredClone(passing);
+    failing.id = 'decode/control/accept-expected-as-reject';
+    failing.expect.message.header.messageType = 'Reject';
+    const tasks = [passing, failing].map((v) => ({ text: JSON.stringify(v), vectorId: v.id, vectorsRoot: builtInVectorsDir }));
+    const full = await Promise.all(tasks.map(runVectorTask));
+    const kept = await runVectorBatch(tasks);
+    expect(full.map((r) => r.ok)).toEqual([true, false]);
+    expect(full[0]!.actual).toBeDefined();
+    expect(kept[0]).toEqual({ id: passing.id, ok: true, durationMs: kept[0]!.durationMs });
+    expect(kept[1]).toMatchObject({ id: failing.id, ok: false, message: full[1]!.message, expected: full[1]!.expected, actual: full[1]!.actual, mismatches: full[1]!.mismatches });
+    expect(keptOfResult(full[1]!)).toBe(full[1]);
   });
 });

@@ -41,10 +41,20 @@ export async function runVectorTask(task: RunVectorTask): Promise<VectorResult> 
   return toJsonSafe(result) as VectorResult;
 }
 
+/**
+ * What a run keeps of a result: the evidence (expected and actual output, mismatches) of a
+ * failure; of a pass only its verdict, message and time, so a pass's output never crosses to the
+ * request thread to be copied and collected there.
+ */
+export function keptOfResult(result: VectorResult): VectorResult {
+  if (!result.ok) return result;
+  return { id: result.id, ok: true, durationMs: result.durationMs, ...(result.message === undefined ? {} : { message: result.message }) };
+}
+
 /** Several vectors in one task: one message each way instead of one per vector keeps the request thread free. */
 export async function runVectorBatch(tasks: readonly RunVectorTask[]): Promise<VectorResult[]> {
   const results: VectorResult[] = [];
-  for (const task of tasks) results.push(await runVectorTask(task));
+  for (const task of tasks) results.push(keptOfResult(await runVectorTask(task)));
   return results;
 }
 
