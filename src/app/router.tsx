@@ -4,6 +4,7 @@ import { paths } from '../config/paths.ts';
 import { redirectIfSignedIn, requireRole, requireSession } from './guards.ts';
 import { RouteError } from './routes/route-error.tsx';
 import { roleGroups } from '../lib/roles.ts';
+import { prefetchTracePage } from '../features/traces/api/prefetch-trace-page.ts';
 
 /** Shown while a route's code and first data arrive (the router's hydrate fallback). */
 function PageLoading() {
@@ -66,6 +67,13 @@ export function createAppRouter(queryClient: QueryClient) {
             },
             {
               path: paths.traces.detail.path,
+              // What the page draws from is asked for now, beside its code and the session check.
+              loader: ({ params, request }) => {
+                prefetchTracePage(queryClient, params.traceId ?? '', new URL(request.url).searchParams);
+                return null;
+              },
+              // The page keeps its zoom in the URL; a new window is its own read, not a new navigation's.
+              shouldRevalidate: ({ currentParams, nextParams }) => currentParams.traceId !== nextParams.traceId,
               lazy: async () => ({ Component: (await import('../features/traces/routes/trace.tsx')).TraceRoute }),
             },
             {

@@ -16,7 +16,7 @@ import type { AnalysisEvent, AnalysisSummary, TraceItem } from '../../../../shar
 import { useTraceContracts } from '../api/get-trace-contracts.ts';
 import { useTraceFindings } from '../api/get-trace-findings.ts';
 import { useTraceSummary } from '../api/get-trace-summary.ts';
-import { type TimelineWindowParams, useTraceTimeline } from '../api/get-trace-timeline.ts';
+import { useTraceTimeline } from '../api/get-trace-timeline.ts';
 import type { PinnedFinding } from '../../../components/timeline/finding-pins.tsx';
 import { watchAnalysis } from '../api/watch-analysis.ts';
 import { CommentThread } from '../components/comment-thread.tsx';
@@ -26,25 +26,16 @@ import { ShareDialog } from '../components/share-dialog.tsx';
 import { TraceMessages } from '../components/trace-messages.tsx';
 import { FindingCounts } from '../components/traces-table.tsx';
 import { timelineInput } from '../lib/timeline-input.ts';
+import { windowFromParams, windowRead } from '../lib/first-window.ts';
+import { loadTimelineChunk } from '../lib/timeline-chunk.ts';
 import type { TimeWindow } from '../../../components/timeline/time-window.ts';
 import { formatBytes } from '../lib/format.ts';
 import { mayWriteTraces } from '../lib/roles.ts';
 import { plural } from '../../../lib/plural.ts';
 
-// recharts is large: the timeline arrives in its own chunk, asked for as the page opens (beside the
-// summary and the first window) rather than once they have arrived.
-let timelineChunk: Promise<typeof import('../../../components/timeline/trace-timeline.tsx')> | undefined;
-const loadTimelineChunk = () => {
-  timelineChunk ??= import('../../../components/timeline/trace-timeline.tsx');
-  return timelineChunk;
-};
+// The timeline arrives in its own chunk, asked for by the route as navigation starts (beside the
+// summary and the first window: api/prefetch-trace-page.ts) rather than once they have arrived.
 const TraceTimeline = lazy(async () => ({ default: (await loadTimelineChunk()).TraceTimeline }));
-
-function windowFromParams(params: URLSearchParams): TimeWindow | null {
-  const from = Number(params.get('from'));
-  const to = Number(params.get('to'));
-  return params.has('from') && params.has('to') && Number.isFinite(from) && Number.isFinite(to) && to > from && from >= 0 ? { startUs: from, endUs: to } : null;
-}
 
 /**
  * Writes the window into the URL a moment after it settles (a brush drag is many windows). It writes
@@ -120,22 +111,7 @@ function AnalysisProgress({ item }: { item: TraceItem }) {
   );
 }
 
-/** The timeline asks for about this many VBUS readings and at most this many messages, spans and pins per window. */
-const WINDOW_READ = { points: 2_000, limit: 5_000 };
 const NO_PINS: PinnedFinding[] = [];
-/** At least this much is read beyond each edge of the window (invented: a sparse log reads VBUS about once a second). */
-const READ_MARGIN_MIN_US = 1_000_000;
-
-/**
- * The timeline read for the window on screen (`null`: the whole trace, whose end the server knows).
- * A margin either side: the reading before the window holds its value into it, and a small pan
- * needs no new read.
- */
-function windowRead(view: TimeWindow | null): TimelineWindowParams {
-  if (!view) return WINDOW_READ;
-  const marginUs = Math.max(view.endUs - view.startUs, READ_MARGIN_MIN_US);
-  return { startUs: Math.max(0, view.startUs - marginUs), endUs: view.endUs + marginUs, ...WINDOW_READ };
-}
 
 function TracePage({ item, analysis }: { item: TraceItem; analysis: AnalysisSummary | null }) {
   const user = useUser();
