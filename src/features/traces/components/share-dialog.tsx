@@ -77,6 +77,8 @@ export function ShareDialog({ traceId, open, onClose }: { traceId: number; open:
     if (!element) return;
     if (open && !element.open) {
       resetShare();
+      // showModal() focuses the first field (the address). No autoFocus: the dialog is mounted
+      // closed with the page, and React would focus it then, forcing a layout of the whole page.
       element.showModal();
     } else if (!open && element.open) element.close();
   }, [open, resetShare]);
@@ -109,7 +111,7 @@ export function ShareDialog({ traceId, open, onClose }: { traceId: number; open:
           </p>
         ) : (
           <>
-            <Input label="E-mail address" type="email" required value={to} onChange={(event) => setTo(event.target.value)} autoFocus error={fieldErrors.to} placeholder="firmware@kestrel.example" />
+            <Input label="E-mail address" type="email" required value={to} onChange={(event) => setTo(event.target.value)} error={fieldErrors.to} placeholder="firmware@kestrel.example" />
             <Textarea label="Note (optional)" rows={4} value={message} maxLength={2000} onChange={(event) => setMessage(event.target.value)} error={fieldErrors.message} />
             <label className="flex items-center gap-2 text-sm text-slate-700 dark:text-slate-300">
               <input type="checkbox" checked={withLink} onChange={(event) => setWithLink(event.target.checked)} className="accent-amber-500" />
