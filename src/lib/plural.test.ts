@@ -7,6 +7,9 @@ describe('plural', () => {
     expect(plural(0, 'error')).toBe('0 errors');
     expect(plural(20_085, 'warning')).toBe('20,085 warnings');
     expect(plural(2, 'property', 'properties')).toBe('2 properties');
+    // Grouped as en-GB's Intl groups them, without calling it for whole numbers.
+    for (const n of [0, 7, 999, 1_000, 12_345, 999_999, 1_000_000, 1_234_567_890, -4_321]) expect(plural(n, 'x')).toBe(`${n.toLocaleString('en-GB')} x${n === 1 ? '' : 's'}`);
+    expect(plural(1.5, 'volt')).toBe('1.5 volts');
   });
 
   it('names the info severity as docs/rules.md and the command line do', () => {
