@@ -5,7 +5,7 @@
  * turn with a bare Node HTTP server in another process (the baseline: what this machine's load
  * alone costs a request, measured in the same moments). Target: health p99 ≤ 50 ms during the run.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startServer } from '../server/start.ts';
@@ -15,6 +15,20 @@ import { probe, signIn, startChildServer, startControlServer, summarise } from '
 import { report } from './report.ts';
 
 const LIBRARY_SIZE = 5_142;
+
+/**
+ * CPU time the server's main thread (the request thread) has used so far, from Linux's scheduler
+ * statistics; undefined elsewhere. Unlike a latency it barely moves with the machine's other load,
+ * so it says what the run itself costs the thread that answers requests.
+ */
+function requestThreadCpuMs(pid: number | undefined): number | undefined {
+  if (pid === undefined) return undefined;
+  try {
+    return Number(readFileSync(`/proc/${pid}/task/${pid}/schedstat`, 'utf8').split(' ')[0]) / 1e6;
+  } catch {
+    return undefined;
+  }
+}
 const IDLE_MS = 3_000;
 
 const dataDir = join(mkdtempSync(join(tmpdir(), 'parley-bench-runs-')), 'data');
@@ -43,6 +57,7 @@ try {
     const [idle] = (await probe(targets, () => performance.now() > idleEnd)).map(summarise);
 
     const cookie = await signIn(server.url, 'qa@kestrel.example');
+    const cpuBeforeMs = requestThreadCpuMs(server.child.pid);
     const started = performance.now();
     const start = await fetch(`${server.url}/api/runs/start`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify({ all: true }) });
     if (start.status !== 202) throw new Error(`run start: ${start.status} ${await start.text()}`);
@@ -62,12 +77,20 @@ try {
     const [during, floor] = (await probe(targets, () => finished)).map(summarise);
     await watcher;
     const runSeconds = (performance.now() - started) / 1_000;
+    const cpuAfterMs = requestThreadCpuMs(server.child.pid);
+    const requestThreadMs = cpuBeforeMs === undefined || cpuAfterMs === undefined ? undefined : cpuAfterMs - cpuBeforeMs;
 
     const fmt = (s: ReturnType<typeof summarise>) => `p50 ${s.p50Ms.toFixed(1)} ms, p99 ${s.p99Ms.toFixed(1)} ms, max ${s.maxMs.toFixed(1)} ms over ${s.count} requests`;
     console.log(`Run all on ${total} vectors: ${runSeconds.toFixed(1)} s, ${last.passed} passed, ${last.failed} failed (${last.status})`);
     console.log(`  /api/health before the run:         ${fmt(idle!)}`);
     console.log(`  /api/health during the run:         ${fmt(during!)}`);
     console.log(`  bare node server during the run:    ${fmt(floor!)} (baseline)`);
+    if (requestThreadMs !== undefined) {
+      // It includes answering the probes themselves (about one request every 10 ms).
+      console.log(
+        `  request thread CPU during the run:  ${(requestThreadMs / 1_000).toFixed(2)} s over ${runSeconds.toFixed(1)} s (${(requestThreadMs / 10 / runSeconds).toFixed(0)} %, probes included)`,
+      );
+    }
     console.log(`  p99 ratio to the baseline: ${(during!.p99Ms / floor!.p99Ms).toFixed(1)}× (target: p99 ≤ 50 ms during the run)`);
     report('server-runs', [
       {
@@ -80,6 +103,7 @@ try {
         met: during!.p99Ms <= 50,
       },
       { figure: `Run all (${total} vectors), wall time`, unit: 's', parley: runSeconds },
+      ...(requestThreadMs === undefined ? [] : [{ figure: `Run all (${total} vectors), request thread CPU (probes included)`, unit: 's', parley: requestThreadMs / 1_000 }]),
     ]);
   } finally {
     await Promise.all([server.stop(), control.stop()]);
