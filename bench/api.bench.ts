@@ -108,6 +108,39 @@ async function load(url: string, headers: Record<string, string>, serverPid: num
   return { reqPerSec: result.requests.average, p99Ms: result.latency.p99, non2xx: result.non2xx, cpuMsPerRequest: cpuMs / Math.max(1, result.requests.total) };
 }
 
+/**
+ * The server's RSS sampled every 100 ms, its peak kept per phase of the run (seeding, import,
+ * analyses, each read route, the flood) with the process's thread count then (analysis threads
+ * stay a while after their last trace), so the report says when the process is largest and why.
+ */
+function rssPhases(pid: number): { phase(name: string): void; stop(): Map<string, { rssMb: number; threads: number }> } {
+  const threadsAtPeak = new Map<string, number>();
+  const peaks = new Map<string, number>();
+  let current = 'start';
+  const sample = () => {
+    try {
+      const rssMb = rssOf(pid).rssMb;
+      const threads = Number(/Threads:\s+(\d+)/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? 0);
+      if (rssMb > (peaks.get(current) ?? 0)) threadsAtPeak.set(current, threads);
+      peaks.set(current, Math.max(peaks.get(current) ?? 0, rssMb));
+    } catch {
+      // The server has exited.
+    }
+  };
+  const timer = setInterval(sample, 100);
+  return {
+    phase(name) {
+      sample();
+      current = name;
+    },
+    stop() {
+      sample();
+      clearInterval(timer);
+      return new Map([...peaks].map(([name, rssMb]) => [name, { rssMb, threads: threadsAtPeak.get(name) ?? 0 }]));
+    },
+  };
+}
+
 function rssOf(pid: number): { rssMb: number; peakMb: number } {
   const status = readFileSync(`/proc/${pid}/status`, 'utf8');
   const kb = (key: string) => Number(new RegExp(`${key}:\\s+(\\d+)`).exec(status)?.[1] ?? 0);
@@ -130,6 +163,7 @@ async function main(): Promise<void> {
   const first = await new Promise<string>((resolve) => createInterface({ input: child.stdout! }).once('line', resolve));
   const { url, bare } = JSON.parse(first) as { url: string; bare: string };
   const figures: BenchFigure[] = [];
+  const phases = rssPhases(child.pid!);
   try {
     const signIn = await fetch(`${url}/api/auth/login`, {
       method: 'POST',
@@ -139,12 +173,14 @@ async function main(): Promise<void> {
     const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
     const headers = { cookie };
 
-    if (!reuse) await seedThroughApi(url, headers, dataDir, figures);
-    await measureReads(url, bare, headers, child.pid!, figures);
+    if (!reuse) await seedThroughApi(url, headers, dataDir, figures, phases.phase);
+    await measureReads(url, bare, headers, child.pid!, figures, phases.phase);
+    phases.phase('sign-in flood');
     if (!ONLY) await signInFlood(url, figures);
 
     const rss = rssOf(child.pid!);
-    console.log(`server RSS now ${rss.rssMb.toFixed(0)} MB, peak ${rss.peakMb.toFixed(0)} MB`);
+    const peaks = [...phases.stop()].map(([name, peak]) => `${name} ${peak.rssMb.toFixed(0)} (${peak.threads} threads)`).join(', ');
+    console.log(`server RSS now ${rss.rssMb.toFixed(0)} MB, peak ${rss.peakMb.toFixed(0)} MB; peak by phase (MB): ${peaks}`);
     figures.push({ figure: 'server peak RSS over the whole run', unit: 'MB', parley: rss.peakMb, target: '≤ 400 MB', met: rss.peakMb <= 400 });
     report('api', figures);
   } finally {
@@ -155,10 +191,11 @@ async function main(): Promise<void> {
 }
 
 /** 1. Import 2 × 5,000 vectors through the API, health probed meanwhile; 2. upload the traces and wait for their analyses. */
-async function seedThroughApi(url: string, headers: Record<string, string>, dataDir: string, figures: BenchFigure[]): Promise<void> {
+async function seedThroughApi(url: string, headers: Record<string, string>, dataDir: string, figures: BenchFigure[], phase: (name: string) => void): Promise<void> {
   const importTimes: number[] = [];
   let importHealth: number[] = [];
   for (const from of [0, 5_000]) {
+    phase(`import ${from === 0 ? 'first' : 'second'} 5,000`);
     const form = new FormData();
     form.append('file', new Blob([new Uint8Array(zipOf(from, VECTORS / 2))]), 'bench.zip');
     const probe = probeHealth(url);
@@ -178,6 +215,7 @@ async function seedThroughApi(url: string, headers: Record<string, string>, data
   const traceDir = join(dataDir, 'generated');
   rmSync(traceDir, { recursive: true, force: true });
   mkdirSync(traceDir);
+  phase('trace uploads and analyses');
   const files = Math.max(1, Math.round(TRACES_MB / TRACE_FILE_MB));
   let traceBytes = 0;
   const t0 = performance.now();
@@ -190,11 +228,17 @@ async function seedThroughApi(url: string, headers: Record<string, string>, data
     if (res.status !== 201) throw new Error(`upload failed: ${res.status} ${await res.text()}`);
     rmSync(path);
   }
+  // Every page of the list (--full stores 128 traces), until none is still queued or analysing.
   for (;;) {
-    const list = (await (await fetch(`${url}/api/traces?pageSize=100&sort=-createdAt`, { headers })).json()) as { items: { status: string }[]; total: number };
-    const pending = list.items.filter((t) => t.status !== 'done' && t.status !== 'failed').length;
-    if (pending === 0 && list.total >= files) break;
-    await new Promise((r) => setTimeout(r, 1_000));
+    let pending = 0;
+    let total = 0;
+    for (let page = 1; (page - 1) * 100 < Math.max(total, 1); page++) {
+      const list = (await (await fetch(`${url}/api/traces?pageSize=100&page=${page}&sort=createdAt`, { headers })).json()) as { items: { status: string }[]; total: number };
+      total = list.total;
+      pending += list.items.filter((t) => t.status !== 'done' && t.status !== 'failed').length;
+    }
+    if (pending === 0 && total >= files) break;
+    await new Promise((r) => setTimeout(r, 2_000));
   }
   const storedBytes = readdirSync(join(dataDir, 'traces'))
     .filter((f) => f.endsWith('.analysis'))
@@ -219,7 +263,7 @@ async function postOnFreshConnection(url: string, headers: Record<string, string
 }
 
 /** 3. Reads at 50 connections, each beside the bare route measured right before it. */
-async function measureReads(url: string, bare: string, headers: Record<string, string>, serverPid: number, figures: BenchFigure[]): Promise<void> {
+async function measureReads(url: string, bare: string, headers: Record<string, string>, serverPid: number, figures: BenchFigure[], phase: (name: string) => void): Promise<void> {
   const firstTrace = ((await (await fetch(`${url}/api/traces?pageSize=1`, { headers })).json()) as { items: { id: number }[] }).items[0]!.id;
   const routes: [string, string][] = [
     ['library list', '/api/vectors'],
@@ -231,6 +275,7 @@ async function measureReads(url: string, bare: string, headers: Record<string, s
   ];
   for (const [name, path] of routes) {
     if (ONLY && !name.includes(ONLY)) continue;
+    phase(name);
     const floor = await load(`${bare}/bare`, {}, serverPid);
     const measured = await load(`${url}${path}`, headers, serverPid);
     const rss = rssOf(serverPid);
