@@ -6,9 +6,11 @@ import { startTransition, useEffect, useRef, useState, type RefObject } from 're
  * panel opening) is taken at once; changes that keep coming (a window being dragged wider) are
  * debounced, so a chart redraws once they settle instead of on every frame. Until the first report
  * the width is 0, so a chart draws in its own task rather than in its parent's; the width arrives
- * as a transition, so React renders what depends on it in slices.
+ * as a transition, so React renders what depends on it in slices. `firstAtOnce`: the first width
+ * is an ordinary update instead, for a part that should be drawn before the page's other updates
+ * (a transition yields to each of them and starts over).
  */
-export function useElementWidth<T extends HTMLElement>(debounceMs = 120): [RefObject<T | null>, number] {
+export function useElementWidth<T extends HTMLElement>(debounceMs = 120, { firstAtOnce = false } = {}): [RefObject<T | null>, number] {
   const ref = useRef<T>(null);
   const [widthPx, setWidthPx] = useState(0);
   useEffect(() => {
@@ -16,7 +18,14 @@ export function useElementWidth<T extends HTMLElement>(debounceMs = 120): [RefOb
     if (!element) return;
     let timer: ReturnType<typeof setTimeout> | undefined;
     let lastReportMs = -Infinity;
-    const apply = (next: number) => startTransition(() => setWidthPx((current) => (current === next ? current : next)));
+    let first = firstAtOnce;
+    const apply = (next: number) => {
+      const update = () => setWidthPx((current) => (current === next ? current : next));
+      if (first && next > 0) {
+        first = false;
+        update();
+      } else startTransition(update);
+    };
     const observer = new ResizeObserver((entries) => {
       const next = Math.floor(entries[entries.length - 1]?.contentRect.width ?? 0);
       const nowMs = performance.now();
@@ -31,6 +40,6 @@ export function useElementWidth<T extends HTMLElement>(debounceMs = 120): [RefOb
       clearTimeout(timer);
       observer.disconnect();
     };
-  }, [debounceMs]);
+  }, [debounceMs, firstAtOnce]);
   return [ref, widthPx];
 }

@@ -50,6 +50,7 @@ export type VbusChartProps = {
 const NO_BANDS: readonly ChartBand[] = [];
 const NO_EVENTS: readonly ChartEvent[] = [];
 const NO_POINTS: StepPoint[] = [];
+const CHART_WIDTH_OPTIONS = { firstAtOnce: true };
 
 /** Points per series: about one per three px of plot width, in steps of 50 (LTTB keeps the peaks, and a VBUS trace is mostly flat steps). */
 function pointBudget(plotWidthPx: number): number {
@@ -132,7 +133,9 @@ export const VbusChart = memo(function VbusChart(props: VbusChartProps) {
   const measurements = useDeferredValue(props.measurements);
   const sinkMeasurements = useDeferredValue(props.sinkMeasurements);
   const { endUs, pins, events = NO_EVENTS, bands = NO_BANDS, onWindowChange, dark = false } = props;
-  const [box, widthPx] = useElementWidth<HTMLDivElement>();
+  // Drawn as soon as its width is known: the page's tables and lists arriving meanwhile would each
+  // interrupt (and restart) a transition, leaving the chart for last.
+  const [box, widthPx] = useElementWidth<HTMLDivElement>(undefined, CHART_WIDTH_OPTIONS);
   const plotWidthPx = Math.max(0, widthPx - PLOT_INSET_LEFT_PX - PLOT_INSET_RIGHT_PX);
   const measured = plotWidthPx > 0;
   const budget = pointBudget(plotWidthPx);
