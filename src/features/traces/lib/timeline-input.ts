@@ -39,7 +39,17 @@ function limitsMv(kind: string, voltageMv: number): [number, number] | null {
  */
 export function timelineInput(summary: AnalysisSummary, view: TimelineWindow): TimelineInput {
   const { endUs, timeline } = summary;
-  const contracts = view.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
+  // A capture that renegotiates all day repeats a few hundred contracts thousands of times: each label is written once.
+  const labels = new Map<string, string>();
+  const labelOf = (contract: TimelineWindow['contracts'][number]['contract']) => {
+    const key = `${contract.kind} ${contract.voltageMv} ${contract.currentMa}`;
+    const known = labels.get(key);
+    if (known !== undefined) return known;
+    const label = contractLabel(contract);
+    labels.set(key, label);
+    return label;
+  };
+  const contracts = view.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: labelOf(c.contract) }));
   const bands = view.contracts.flatMap((c) => {
     const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
     return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
