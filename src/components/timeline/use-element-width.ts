@@ -26,8 +26,13 @@ export function useElementWidth<T extends HTMLElement>(debounceMs = 120, { first
         update();
       } else startTransition(update);
     };
+    let measured = false;
     const observer = new ResizeObserver((entries) => {
       const next = Math.floor(entries[entries.length - 1]?.contentRect.width ?? 0);
+      // Once measured, a moment at no width (taken out of the layout, a full-page capture) keeps
+      // the drawing: clearing it would leave the chart and lanes blank until the next report.
+      if (next === 0 && measured) return;
+      measured ||= next > 0;
       const nowMs = performance.now();
       const quiet = nowMs - lastReportMs > debounceMs;
       lastReportMs = nowMs;
