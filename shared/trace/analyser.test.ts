@@ -3,7 +3,8 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { HEX, negotiation, sequence } from '../../tests/fixtures/traces/build.ts';
-import { parseHex } from '../pd/index.ts';
+import { encodeMessage, parseHex, toHex } from '../pd/index.ts';
+import { fixedPdo, variablePdo } from '../rules/pdo-builders.ts';
 import { encodeWaveform, type WirePacket } from '../wire/index.ts';
 import { analyseRecords, createAnalyser } from './analyser.ts';
 import type { TraceRecord } from './records.ts';
@@ -164,6 +165,39 @@ describe('analysis', () => {
     expect(caps).toMatchObject({ t: 150_000, durationUs: 1_030, from: 'source', sop: 'SOP', messageType: 'Source_Capabilities', messageId: 0, hex: HEX.caps });
     expect(goodCrc).toMatchObject({ messageType: 'GoodCRC', from: 'sink', goodCrcFor: 0 });
     expect(timeline.contracts).toMatchObject([{ contract: { voltageMv: 9_000 } }]);
+  });
+  it('keeps on each timeline contract the VBUS range its readings are checked against, the band the pages draw', () => {
+    // Fixed 9 V: ±5 % (USB PD R3.2 V1.1 §7.1, vSrcNew; from memory, as shared/trace/vbus.ts).
+    expect(analyseRecords(negotiation().records).timeline.contracts[0]!.vbus).toEqual({ minMv: 8_550, maxMv: 9_450 });
+    // Programmable 8.4 V: the requested voltage ±5 % (§7.1, vPpsNew; from memory).
+    const pps = analyseTrace(readFileSync(join(FIXTURES, 'timing-pps-keepalive.trace.jsonl'), 'utf8'));
+    expect(pps.ok && pps.analysis.timeline.contracts[0]!.vbus).toEqual({ minMv: 7_980, maxMv: 8_820 });
+    // A variable supply: the offer's own minimum and maximum (§6.4.1.2.3; from memory), which the
+    // pages drew no band for while they kept their own copy of the limits.
+    const hexOf = (input: Parameters<typeof encodeMessage>[0]) => {
+      const encoded = encodeMessage(input);
+      if (!encoded.ok) throw new Error(encoded.error.message);
+      return toHex(encoded.bytes);
+    };
+    const header = (messageType: string, messageId: number, from: 'source' | 'sink') =>
+      ({ messageType, messageId, powerRole: from, dataRole: from === 'source' ? 'dfp' : 'ufp', specRevision: '3.0', extended: false }) as const;
+    const flags = { capabilityMismatch: false, usbCommunicationsCapable: false, noUsbSuspend: true, unchunkedExtendedMessages: false, eprModeCapable: false, giveBack: false };
+    const variable = sequence(150_000, [
+      { msg: hexOf({ header: header('Source_Capabilities', 0, 'source'), objects: [fixedPdo(5_000, 3_000), variablePdo(9_000, 12_000, 2_000)] } as never), from: 'source', gapUs: 0 },
+      { msg: HEX.sinkGoodCrc(0), from: 'sink', gapUs: 70 },
+      {
+        msg: hexOf({ header: header('Request', 0, 'sink'), objects: [{ kind: 'rdo-variable', objectPosition: 2, operatingCurrentMa: 1_500, maxOperatingCurrentMa: 1_500, ...flags }] } as never),
+        from: 'sink',
+        gapUs: 5_000,
+      },
+      { msg: HEX.sourceGoodCrc(0), from: 'source', gapUs: 70 },
+      { msg: HEX.accept(1), from: 'source', gapUs: 2_200 },
+      { msg: HEX.sinkGoodCrc(1), from: 'sink', gapUs: 63 },
+      { msg: HEX.psRdy(2), from: 'source', gapUs: 200_000 },
+      { msg: HEX.sinkGoodCrc(2), from: 'sink', gapUs: 63 },
+    ]);
+    const analysed = analyseRecords(variable.records);
+    expect(analysed.timeline.contracts).toMatchObject([{ contract: { kind: 'variable' }, vbus: { minMv: 9_000, maxMv: 12_000 } }]);
   });
   it('takes the direction from the header when a record has none', () => {
     const records = negotiation().records.map((r) => ('msg' in r ? { t: r.t, msg: r.msg } : r));

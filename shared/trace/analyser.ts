@@ -29,7 +29,7 @@ import type { TraceSink } from './sink.ts';
 import { sideOfClause, sideOfFinding } from './blame.ts';
 import { summarize, type SummaryInput } from './summary.ts';
 import { createTimeline, type Timeline, type TimelineMessage } from './timeline.ts';
-import { vbusLimits, voltageOutside } from './vbus.ts';
+import { contractVbusLimits, vbusLimits, voltageOutside } from './vbus.ts';
 
 export interface AnalyserOptions {
   format?: TraceFormat;
@@ -125,13 +125,13 @@ export function createAnalyser(options: AnalyserOptions = {}): Analyser {
   const policy = createPolicyTracker(
     report,
     {
-      contract(contract, t, changed) {
+      contract(contract, t, changed, pdo) {
         closeVbusProblems();
         checkCableCurrent(contract, t);
         if (!changed) return;
         contractCount++;
         if (contracts.length < LIST_LIMIT) contracts.push({ ...contract, t });
-        timeline.contractStart(t, contract);
+        timeline.contractStart(t, contract, contractVbusLimits(contract, pdo));
       },
       contractEnd(t) {
         closeVbusProblems();

@@ -41,7 +41,8 @@ const NEEDS_ACCEPT: readonly string[] = ['Soft_Reset', 'PR_Swap', 'DR_Swap', 'VC
 const CHECKED_LIMIT = 1_024;
 
 export interface PolicyEvents {
-  contract(contract: Contract, t: number, changed: boolean): void;
+  /** A contract in force from `t` (its PS_RDY), made with the offer `pdo`; `changed` when it differs from the one before. */
+  contract(contract: Contract, t: number, changed: boolean, pdo: SourcePdo): void;
   contractEnd(t: number): void;
   softReset(m: SeenMessage): void;
   /** A finding of the rules engine (caps, request), passed on as it is with the message's time and line. */
@@ -199,7 +200,7 @@ class PolicyLevel implements PolicyTracker {
     if (!pdo) return;
     const next = contractOf(rdo, pdo);
     const changed = state.contracted(next, m.t, pdo);
-    this.events.contract(next, m.t, changed);
+    this.events.contract(next, m.t, changed, pdo);
   }
 
   advance(t: number): void {

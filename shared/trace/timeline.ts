@@ -42,6 +42,8 @@ export interface TimelineContract {
   startUs: number;
   endUs?: number;
   contract: Contract;
+  /** The VBUS range the analyser checks readings against under this contract (vbus.ts), drawn as a band. */
+  vbus?: { minMv: number; maxMv: number };
 }
 
 export interface Timeline {
@@ -60,7 +62,7 @@ export interface TimelineBuilder {
   message(item: TimelineMessage): number;
   measurement(t: number, mv: number, ma: number | undefined): void;
   event(item: TimelineEvent): void;
-  contractStart(t: number, contract: Contract): void;
+  contractStart(t: number, contract: Contract, vbus?: { minMv: number; maxMv: number }): void;
   contractEnd(t: number): void;
 }
 
@@ -104,14 +106,14 @@ export function createTimeline(limit: number): TimelineBuilder {
       if (timeline.events.length >= limit) timeline.omitted.events++;
       else timeline.events.push(item);
     },
-    contractStart(t, contract) {
+    contractStart(t, contract, vbus) {
       if (open && open.endUs === undefined) open.endUs = t;
       if (timeline.contracts.length >= limit) {
         timeline.omitted.contracts++;
         open = undefined;
         return;
       }
-      open = { startUs: t, contract };
+      open = vbus ? { startUs: t, contract, vbus: { minMv: vbus.minMv, maxMv: vbus.maxMv } } : { startUs: t, contract };
       timeline.contracts.push(open);
     },
     contractEnd(t) {

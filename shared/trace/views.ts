@@ -170,7 +170,14 @@ export interface TimelineWindow {
   endUs: number;
   /** The level the readings come from: 0 every stored reading, n each `LEVEL_FACTOR`ⁿ reduced to its extremes. */
   measurementLevel: number;
+  /** The readings inside the window. */
   measurements: TimelineMeasurement[];
+  /**
+   * The last reading before the window and the first after it (same level), or null: what VBUS
+   * held as the window opens and until when, so a window between two readings still shows it.
+   */
+  readingBefore: TimelineMeasurement | null;
+  readingAfter: TimelineMeasurement | null;
   /** Messages with their index in the whole timeline (GoodCRC links refer to it). */
   messages: (StoredTimelineMessage & { index: number })[];
   /** Messages in the window beyond those sent (zoom in to see them). */

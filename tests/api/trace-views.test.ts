@@ -122,6 +122,21 @@ describe('the trace page reads', () => {
       .filter((m: { t: number; durationUs: number }) => m.t + m.durationUs >= startUs && m.t <= endUs);
     expect(narrow.messages).toEqual(expected);
     expect(narrow.messagesOmitted).toBe(0);
+    // The readings either side of the window, which carry the held value to its edges.
+    const measurements = full.measurements as { t: number }[];
+    expect(narrow.readingBefore).toEqual(measurements.findLast((m) => m.t < startUs));
+    expect(narrow.readingAfter).toEqual(measurements.find((m) => m.t > endUs));
+    // A window between two readings holds none, and still has the two readings around it.
+    const pair = measurements.findIndex((m, i) => i > 0 && m.t - measurements[i - 1]!.t > 2);
+    const [a, b] = [measurements[pair - 1]!, measurements[pair]!];
+    const between = (await support.get(`/api/traces/${bigId}/timeline?startUs=${a.t + 1}&endUs=${b.t - 1}`)).body;
+    expect(between.measurements).toEqual([]);
+    expect([between.readingBefore, between.readingAfter]).toEqual([a, b]);
+    // Before the first reading and after the last, there is nothing either side.
+    const first = measurements[0]!;
+    const last = measurements[measurements.length - 1]!;
+    expect((await support.get(`/api/traces/${bigId}/timeline?startUs=0&endUs=${Math.max(0, first.t - 1)}`)).body.readingBefore).toBeNull();
+    expect((await support.get(`/api/traces/${bigId}/timeline?startUs=${last.t + 1}&endUs=${last.t + 1_000_000}`)).body.readingAfter).toBeNull();
     expect((await support.get(`/api/traces/${bigId}/timeline?startUs=5&endUs=4`)).status).toBe(400);
   });
 

@@ -71,6 +71,12 @@ describe.skipIf(!hasChromium)('the message list on the trace page', () => {
     }
     const walked = rows[rows.length - 3]!;
     await expect.poll(async () => (await windowOf())[0] <= walked.t && walked.t <= (await windowOf())[1], { timeout: 20_000 }).toBe(true);
+    // VBUS is read once a second, so this narrow window holds no reading: the value held since the
+    // reading before it is still drawn across it, up to the next one (the server sends both).
+    const chart = page.getByTestId('vbus-chart');
+    await expect.poll(() => chart.getAttribute('data-readings'), { timeout: 20_000 }).toBe('0');
+    await expect.poll(async () => (await chart.locator('path.parley-vbus-line').getAttribute('d')) ?? '', { timeout: 20_000 }).toMatch(/^M[\d.]+ [\d.]+L/);
+    expect(await page.getByTestId('vbus-chart-empty').count()).toBe(0);
     // Only the rows in view are in the page.
     expect(await list.locator('[role="option"]').count()).toBeLessThan(60);
 

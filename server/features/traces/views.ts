@@ -137,6 +137,28 @@ async function collect<T>(em: EntityManager, rows: Omit<ChunkRow, 'body'>[], inW
   return { items, omitted };
 }
 
+/**
+ * The reading just before the window and the one just after it, at `level`: from the last chunk
+ * that starts before the window and the first that ends after it (a chunk's readings are in time
+ * order, so the one wanted is the last, or first, of its side in that chunk).
+ */
+async function readingsBeside(em: EntityManager, traceId: number, level: number, q: WindowQuery): Promise<[TimelineMeasurement | null, TimelineMeasurement | null]> {
+  const sql = sqlOf(em);
+  const [before] = await sql.execute<{ id: number }[]>("select id from trace_chunk where trace_id = ? and kind = 'measurement' and level = ? and start_us < ? order by start_us desc limit 1", [
+    traceId,
+    level,
+    q.startUs,
+  ]);
+  const [after] = await sql.execute<{ id: number }[]>("select id from trace_chunk where trace_id = ? and kind = 'measurement' and level = ? and end_us > ? order by start_us limit 1", [
+    traceId,
+    level,
+    q.endUs,
+  ]);
+  const beforeItems = before ? ((await chunkItems(em, Number(before.id))) as TimelineMeasurement[]) : [];
+  const afterItems = after ? ((await chunkItems(em, Number(after.id))) as TimelineMeasurement[]) : [];
+  return [beforeItems.findLast((m) => m.t < q.startUs) ?? null, afterItems.find((m) => m.t > q.endUs) ?? null];
+}
+
 export async function timelineWindow(em: EntityManager, traceId: number, q: WindowQuery): Promise<TimelineWindow> {
   const sql = sqlOf(em);
   // The finest level whose chunks in the window hold about `points` readings (partial chunks at the edges allowed for).
@@ -150,6 +172,7 @@ export async function timelineWindow(em: EntityManager, traceId: number, q: Wind
   const measurements = fitting
     ? (await collect<TimelineMeasurement>(em, await overlapping(em, traceId, 'measurement', measurementLevel, q), (m) => inWindow(m.t), Number.POSITIVE_INFINITY, false)).items
     : [];
+  const [readingBefore, readingAfter] = await readingsBeside(em, traceId, measurementLevel, q);
   const messages = await collect<StoredTimelineMessage & { index: number }>(
     em,
     await overlapping(em, traceId, 'message', 0, q),
@@ -175,6 +198,8 @@ export async function timelineWindow(em: EntityManager, traceId: number, q: Wind
     endUs: q.endUs,
     measurementLevel,
     measurements,
+    readingBefore,
+    readingAfter,
     messages: messages.items,
     messagesOmitted: messages.omitted,
     events: events.items,

@@ -1,8 +1,7 @@
 /**
  * The analysis's timeline in the shape the timeline components take: contracts as spans with a
- * label, the VBUS tolerance of fixed and programmable contracts as bands (the limits the
- * analyser checks, shared/trace/vbus.ts: vSafe5V 4.75–5.5 V, otherwise ±5 %; USB PD R3.2 V1.1
- * §7.1, from memory), and the end of the trace.
+ * label, each contract's VBUS range as a band (the limits the analyser checked, which it keeps on
+ * the timeline: shared/trace/vbus.ts), and the end of the trace.
  */
 import type { ChartBand } from '../../../components/timeline/vbus-chart.tsx';
 import type { TimelineSpan } from '../../../components/timeline/trace-timeline.tsx';
@@ -24,12 +23,9 @@ export type TimelineInput = {
   omitted: string | null;
 };
 
-const TOLERANCE = 0.05;
-
-function limitsMv(kind: string, voltageMv: number): [number, number] | null {
-  if (kind === 'fixed' && voltageMv === 5_000) return [4_750, 5_500];
-  if (kind === 'fixed' || kind === 'pps' || kind === 'avs') return [Math.round(voltageMv * (1 - TOLERANCE)), Math.round(voltageMv * (1 + TOLERANCE))];
-  return null;
+/** A contract's VBUS band: the range the analyser checked its readings against (carried on the timeline). */
+function bandOf(c: { startUs: number; endUs?: number; vbus?: { minMv: number; maxMv: number } }, endUs: number): ChartBand[] {
+  return c.vbus ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: c.vbus.minMv, maxMv: c.vbus.maxMv }] : [];
 }
 
 /**
@@ -50,10 +46,7 @@ export function timelineInput(summary: AnalysisSummary, view: TimelineWindow): T
     return label;
   };
   const contracts = view.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: labelOf(c.contract) }));
-  const bands = view.contracts.flatMap((c) => {
-    const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
-    return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
-  });
+  const bands = view.contracts.flatMap((c) => bandOf(c, endUs));
   const placeOf = new Map<number, number>();
   for (const [place, m] of view.messages.entries()) placeOf.set(m.index, place);
   const messages: LaneMessage[] = view.messages.map(({ index: _index, goodCrcFor, ...m }) => {
@@ -66,7 +59,8 @@ export function timelineInput(summary: AnalysisSummary, view: TimelineWindow): T
     timeline.measurementStride > 1 || view.measurementLevel > 0 ? 'a thinned series of VBUS readings that keeps every low and high' : '',
   ].filter(Boolean);
   return {
-    measurements: view.measurements,
+    // The readings either side of the window carry the held value to its edges.
+    measurements: [...(view.readingBefore ? [view.readingBefore] : []), ...view.measurements, ...(view.readingAfter ? [view.readingAfter] : [])],
     messages,
     events: view.events,
     contracts,
@@ -85,10 +79,7 @@ export function timelineInputOfAnalysis(analysis: Analysis): TimelineInput {
   for (const f of analysis.findings) lastFinding = Math.max(lastFinding, f.t ?? 0);
   const endUs = Math.max(1, lastMessage ? lastMessage.t + lastMessage.durationUs : 0, lastMeasurement?.t ?? 0, lastEvent?.t ?? 0, lastFinding);
   const contracts = timeline.contracts.map((c) => ({ startUs: c.startUs, ...(c.endUs === undefined ? {} : { endUs: c.endUs }), label: contractLabel(c.contract) }));
-  const bands = timeline.contracts.flatMap((c) => {
-    const limits = limitsMv(c.contract.kind, c.contract.voltageMv);
-    return limits ? [{ startUs: c.startUs, endUs: c.endUs ?? endUs, minMv: limits[0], maxMv: limits[1] }] : [];
-  });
+  const bands = timeline.contracts.flatMap((c) => bandOf(c, endUs));
   const { omitted, measurementStride } = timeline;
   const parts = [
     omitted.messages > 0 ? `the first ${timeline.messages.length} messages (${omitted.messages} later ones are left out)` : '',
