@@ -1,6 +1,6 @@
 /** Stored traces, their analyses and the analysis progress stream (`/api/traces…`). */
 import type { Finding } from '../core/finding.ts';
-import type { StoredAnalysis, AnalysisSummary, FindingPin, MessageRange, Page, TimelineWindow } from '../trace/views.ts';
+import type { StoredAnalysis, AnalysisSummary, FindingPin, MessageRange, MessagesAroundFindings, Page, TimelineWindow } from '../trace/views.ts';
 import type { DeviceRef } from './devices.ts';
 
 /**
@@ -8,7 +8,7 @@ import type { DeviceRef } from './devices.ts';
  * decoded form (decode on demand, in a worker). The trace page reads the views below instead.
  */
 export type Analysis = StoredAnalysis;
-export type { AnalysisSummary, FindingPin, MessageRange, Page, TimelineWindow };
+export type { AnalysisSummary, FindingPin, MessageRange, MessagesAroundFindings, Page, TimelineWindow };
 
 export const traceStatuses = ['queued', 'analysing', 'done', 'failed'] as const;
 export type TraceStatus = (typeof traceStatuses)[number];
@@ -95,4 +95,33 @@ export interface ShareTraceResponse {
   sent: true;
   to: string;
   subject: string;
+}
+
+/** The report a read-only link opens (`GET /api/shared/reports/:token`): no links into the team's Parley, no file hash. */
+export interface SharedReport {
+  report: {
+    trace: {
+      id: number;
+      title: string;
+      fileName: string;
+      format: string;
+      sizeBytes: number;
+      device: string | null;
+      customerRef: string;
+      notes: string;
+      uploadedBy: string;
+      createdAt: string;
+      link: null;
+    };
+    summary: string;
+    messages: number;
+    counts: Analysis['counts'];
+    contracts: Analysis['contracts'];
+    findings: (Finding & { title: string })[];
+    findingsOmitted: number;
+  };
+  timeline: Pick<Analysis['timeline'], 'messages' | 'measurements' | 'events' | 'contracts' | 'omitted' | 'measurementStride'>;
+  /** The messages around the first timed findings, from every message of the trace. */
+  aroundFindings: MessagesAroundFindings;
+  expiresAt: string;
 }

@@ -189,6 +189,20 @@ export interface TimelineWindow {
   findingsOmitted: number;
 }
 
+/** Messages a report lists around a finding: this many before its time and this many from it on. */
+export const REPORT_MESSAGES_AROUND = 3;
+/** Findings a report shows with the messages around them (the first ones with a time; the rest are in its table only). */
+export const REPORT_FINDINGS_WITH_MESSAGES = 12;
+
+/**
+ * The messages around each of a report's first timed findings (GoodCRC left out), read from every
+ * stored message of the trace, not only the timeline's first 20,000: `items[i]` belongs to the
+ * i-th finding that has a time.
+ */
+export interface MessagesAroundFindings {
+  items: { t: number; messages: (StoredTimelineMessage & { index: number })[] }[];
+}
+
 export interface Page<T> {
   items: T[];
   total: number;

@@ -17,6 +17,8 @@ import { loadAnalysis } from './lookup.ts';
 import { presentTrace } from './present.ts';
 import type { TraceStore } from './store.ts';
 import { buildReport } from './report.ts';
+import { messagesAroundFindings } from './views.ts';
+import type { SharedReport } from '../../../shared/api/index.ts';
 import { ReportShareLink, type IReportShareLink } from './share-link-entity.ts';
 
 const sharers = ['admin', 'engineer', 'qa', 'support'] as const;
@@ -94,14 +96,16 @@ async function linkOfToken(em: EntityManager, deps: AppDeps, token: string): Pro
 }
 
 /** What the shared report shows: the report (no uploader comments), the timeline for its chart and message list. */
-async function sharedReport(em: EntityManager, store: TraceStore, trace: ITrace, link: IReportShareLink) {
+async function sharedReport(em: EntityManager, store: TraceStore, trace: ITrace, link: IReportShareLink): Promise<SharedReport> {
   const analysis = await loadAnalysis(store, trace);
   const device = trace.deviceId ? await em.findOne(DeviceUnderTest, { id: trace.deviceId }, { fields: ['id', 'name'] }) : null;
   const presented = presentTrace(trace, new Map(device ? [[device.id, { id: device.id, name: device.name }]] : []));
   const report = buildReport(presented, analysis, '');
   const { timeline } = analysis;
+  // No way into the team's Parley and no file hash for a reader without an account.
+  const { sha256: _hash, ...about } = report.trace;
   return {
-    report: { ...report, trace: { ...report.trace, link: null, sha256: undefined } },
+    report: { ...report, trace: { ...about, link: null } },
     timeline: {
       messages: timeline.messages.map((m) => ({
         t: m.t,
@@ -121,6 +125,7 @@ async function sharedReport(em: EntityManager, store: TraceStore, trace: ITrace,
       omitted: timeline.omitted,
       measurementStride: timeline.measurementStride,
     },
+    aroundFindings: await messagesAroundFindings(em, trace.id, analysis.findings),
     expiresAt: link.expiresAt.toISOString(),
   };
 }

@@ -15,7 +15,7 @@ import { traceAnalysisJob } from './analyse.ts';
 import { sendWithStoredAnalysis } from './send-analysis.ts';
 import type { AppDeps } from '../../context.ts';
 import { answerVersion, traceAnalysisState } from '../../db/answer-version.ts';
-import { analysisSummary, itemPage, messageRange, timelineWindow } from './views.ts';
+import { analysisSummary, itemPage, messageRange, messagesAroundFindings, timelineWindow } from './views.ts';
 
 const pageQuery = (maxPageSize: number, defaultPageSize: number) =>
   z.object({
@@ -135,6 +135,20 @@ export const viewRoutes: RouteDef[] = [
       const summary = trace.status === 'done' ? await analysisSummary(em, trace.id) : null;
       if (!summary) return { offset: 0, total: 0, items: [], capabilities: null };
       return messageRange(em, trace.id, summary.timeline.messages, { ...query, fold: query.fold === 'goodcrc' });
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/traces/:id/messages-around-findings',
+    access: 'signed-in',
+    params: idParams,
+    keep: analysedTraceKey,
+    async handler({ em, params }) {
+      const trace = await readTrace(em, params.id);
+      if (trace.status !== 'done') return { items: [] };
+      // The report's first timed findings are among the first listed ones (a page of the largest size).
+      const findings = await itemPage<Finding>(em, trace.id, 'finding', { page: 1, pageSize: 500 });
+      return messagesAroundFindings(em, trace.id, findings.items);
     },
   }),
 ];

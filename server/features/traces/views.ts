@@ -6,7 +6,7 @@
 import type { EntityManager } from '@mikro-orm/better-sqlite';
 import type { Finding } from '../../../shared/core/finding.ts';
 import type { AnalysisSummary, FindingPin, MessageRange, Page, StoredTimelineMessage, TimelineWindow } from '../../../shared/trace/views.ts';
-import { CHUNK_ITEMS } from '../../../shared/trace/views.ts';
+import { CHUNK_ITEMS, REPORT_FINDINGS_WITH_MESSAGES, REPORT_MESSAGES_AROUND, type MessagesAroundFindings } from '../../../shared/trace/views.ts';
 import type { Analysis, TimelineContract, TimelineEvent, TimelineMeasurement } from '../../../shared/trace/index.ts';
 import { sqlReads } from '../../db/reads.ts';
 import { decodeChunkBody } from '../../analysis/message-chunks.ts';
@@ -335,4 +335,24 @@ export async function messageRange(
   const to = await indexOfFoldedRow(em, traceId, folded, offset + q.limit, total);
   const items = await messagesByIndex(em, traceId, from, to - from);
   return { offset, total: rows, items, capabilities: from > 0 ? await capabilitiesBefore(em, traceId, from) : null };
+}
+
+/**
+ * The messages around each of the first timed findings, as a report lists them: the
+ * `REPORT_MESSAGES_AROUND` rows (GoodCRC folded away) before the finding's time and as many from it on,
+ * found among every stored message of the trace.
+ */
+export async function messagesAroundFindings(em: EntityManager, traceId: number, findings: readonly { t?: number | undefined }[]): Promise<MessagesAroundFindings> {
+  const summary = await analysisSummary(em, traceId);
+  if (!summary) return { items: [] };
+  const total = summary.timeline.messages;
+  const times = findings.flatMap((f) => (f.t === undefined ? [] : [f.t])).slice(0, REPORT_FINDINGS_WITH_MESSAGES);
+  const items: MessagesAroundFindings['items'] = [];
+  for (const t of times) {
+    const at = await messageRange(em, traceId, total, { atUs: t, limit: 0, fold: true });
+    const offset = Math.max(0, at.offset - REPORT_MESSAGES_AROUND);
+    const range = await messageRange(em, traceId, total, { offset, limit: at.offset - offset + REPORT_MESSAGES_AROUND, fold: true });
+    items.push({ t, messages: range.items.filter((m) => m.messageType !== 'GoodCRC') });
+  }
+  return { items };
 }

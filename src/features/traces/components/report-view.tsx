@@ -2,7 +2,8 @@
 import { useMemo } from 'react';
 import type { Finding } from '../../../../shared/core/finding.ts';
 import { ruleTitle } from '../../../../shared/rules/catalog.ts';
-import type { Analysis } from '../../../../shared/api/index.ts';
+import type { Analysis, MessagesAroundFindings } from '../../../../shared/api/index.ts';
+import { REPORT_FINDINGS_WITH_MESSAGES, REPORT_MESSAGES_AROUND } from '../../../../shared/trace/views.ts';
 import { ParleyMark } from '../../../components/parley-mark.tsx';
 import { chartEventsOf } from '../../../components/timeline/event-lane.tsx';
 import { chartPinsOf } from '../../../components/timeline/finding-pins.tsx';
@@ -26,27 +27,25 @@ export type ReportData = {
   findings: readonly (Finding & { title?: string })[];
   findingsOmitted: number;
   timeline: Pick<Analysis['timeline'], 'messages' | 'measurements' | 'events' | 'contracts' | 'omitted' | 'measurementStride'>;
+  /** The messages around the first timed findings, read by the server from every message of the trace (the timeline keeps only the first 20,000). */
+  aroundFindings: MessagesAroundFindings['items'];
   notes?: string;
   /** A line at the top (e.g. "Shared read-only until 2026-12-18"). */
   banner?: string;
 };
 
-/** Messages listed around each finding: this many before and after its time. */
-const AROUND = 3;
-/** Findings shown with their messages (the rest are listed in the table only). */
-const WITH_MESSAGES = 12;
-
 /** A row of the list around a finding: a message, or an event on the bus (a Hard Reset is no message). */
-type AroundRow = { t: number; message: LaneMessage } | { t: number; event: ChartEvent };
+type AroundMessage = Pick<LaneMessage, 't' | 'from' | 'messageType' | 'messageId' | 'crcOk' | 'retry'>;
+type AroundRow = { t: number; message: AroundMessage } | { t: number; event: ChartEvent };
 
-/** The messages (GoodCRC left out) and bus events nearest a finding: `AROUND` before its time and `AROUND` from it on. */
-function rowsAround(messages: readonly LaneMessage[], events: readonly ChartEvent[], tUs: number): AroundRow[] {
+/** The messages (GoodCRC left out) and bus events nearest a finding: `REPORT_MESSAGES_AROUND` before its time and as many from it on. */
+function rowsAround(messages: readonly AroundMessage[], events: readonly ChartEvent[], tUs: number): AroundRow[] {
   const rows: AroundRow[] = [...messages.filter((m) => m.messageType !== 'GoodCRC').map((message) => ({ t: message.t, message })), ...events.map((event) => ({ t: event.tUs, event }))].sort(
     (a, b) => a.t - b.t,
   );
   let index = rows.findIndex((row) => row.t >= tUs);
   if (index === -1) index = rows.length;
-  return rows.slice(Math.max(0, index - AROUND), index + AROUND);
+  return rows.slice(Math.max(0, index - REPORT_MESSAGES_AROUND), index + REPORT_MESSAGES_AROUND);
 }
 
 const directionOf = (from: string | undefined) => (from === 'source' ? 'source → sink' : from === 'sink' ? 'sink → source' : (from ?? ''));
@@ -72,7 +71,7 @@ export function ReportView({ data }: { data: ReportData }) {
   const pins = useMemo(() => chartPinsOf(data.findings), [data.findings]);
   const events = useMemo(() => chartEventsOf(input.events), [input.events]);
   const whole = useMemo(() => ({ startUs: 0, endUs: input.endUs }), [input.endUs]);
-  const timed = data.findings.filter((f) => f.t !== undefined).slice(0, WITH_MESSAGES);
+  const timed = data.findings.filter((f) => f.t !== undefined).slice(0, REPORT_FINDINGS_WITH_MESSAGES);
 
   return (
     <article className="trace-report mx-auto max-w-4xl bg-white px-8 py-8 text-slate-900" data-testid="trace-report">
@@ -177,7 +176,7 @@ export function ReportView({ data }: { data: ReportData }) {
         {data.findingsOmitted > 0 && <p className="mt-1 text-xs">{data.findingsOmitted} more findings were counted but not listed.</p>}
       </section>
 
-      {timed.length > 0 && input.messages.length > 0 && (
+      {timed.length > 0 && data.aroundFindings.some((around) => around.messages.length > 0) && (
         <section className="report-section mb-6">
           <h2 className="mb-1 text-base font-semibold">The messages around each finding</h2>
           {timed.map((f, index) => (
@@ -194,7 +193,7 @@ export function ReportView({ data }: { data: ReportData }) {
                   <col className="w-[5rem]" />
                 </colgroup>
                 <tbody>
-                  {rowsAround(input.messages, events, f.t!).map((row, at) =>
+                  {rowsAround(data.aroundFindings.find((around) => around.t === f.t)?.messages ?? [], events, f.t!).map((row, at) =>
                     'message' in row ? (
                       <tr key={at}>
                         <td className="whitespace-nowrap">{formatTimeUs(row.t)}</td>

@@ -25,7 +25,7 @@ export function SharedReportRoute() {
     );
   }
   if (!shared.data) return <p className="p-8 text-xs text-slate-500">Loading the report…</p>;
-  const { report, timeline, expiresAt } = shared.data;
+  const { report, timeline, aroundFindings, expiresAt } = shared.data;
   const t = report.trace;
   return (
     <>
@@ -41,6 +41,7 @@ export function SharedReportRoute() {
           findings: report.findings,
           findingsOmitted: report.findingsOmitted,
           timeline,
+          aroundFindings: aroundFindings.items,
           notes: t.notes,
           banner: `A read-only report shared with you; the link works until ${expiresAt.slice(0, 10)}.`,
         }}
