@@ -8,7 +8,7 @@ import { chartPinsOf, FindingPins, type PinnedFinding } from './finding-pins.tsx
 import { MessagePanel } from './message-detail.tsx';
 import { MessageLanes, type LaneMessage } from './message-lanes.tsx';
 import { MessageList } from './message-list.tsx';
-import { formatTimeUs, segmentStyle, type TimeWindow } from './time-window.ts';
+import { formatTimeUs, positionIn, segmentStyle, type TimeWindow } from './time-window.ts';
 import { TimelineLegend } from './timeline-legend.tsx';
 import { TimelineToolbar } from './timeline-toolbar.tsx';
 import { windowAround, type Measurement } from './trace-series.ts';
@@ -52,6 +52,8 @@ const FOCUS_SPAN_US = 80_000;
 /** Walking the message list keeps the window's span, but never wider than this (invented: a few messages on screen). */
 const WALK_SPAN_MAX_US = 50_000;
 const NO_EVENTS: readonly BusEvent[] = [];
+/** A contract box shows its label from this width on (about three characters of the lane's 10 px mono text). */
+const LABEL_ROOM_MIN_PX = 24;
 
 /**
  * The trace over time: VBUS and IBUS with a brush to zoom, the events, the contract in force, the
@@ -201,6 +203,9 @@ function ContractLane({ contracts, window, endUs }: { contracts: readonly Timeli
           const style = segmentStyle(window, c.startUs, until);
           if (!style) return null;
           const label = count > 1 ? `${count} contracts` : c.label;
+          // Text only in a box with room for a few characters: a day of renegotiation draws hundreds of
+          // boxes a few px wide, whose clipped words cost layout and show nothing (the title keeps them).
+          const roomPx = (positionIn(window, until) - positionIn(window, c.startUs)) * widthPx;
           return (
             <div
               key={c.startUs}
@@ -212,7 +217,7 @@ function ContractLane({ contracts, window, endUs }: { contracts: readonly Timeli
                   : `${c.label} from ${formatTimeUs(c.startUs)}${c.endUs === undefined ? '' : ` to ${formatTimeUs(c.endUs)}`}`
               }
             >
-              {label}
+              {roomPx >= LABEL_ROOM_MIN_PX ? label : null}
             </div>
           );
         })}
