@@ -38,7 +38,8 @@ export type CounterexampleRun = {
   messages: CounterexampleMessage[];
   /** The message records with their decoded messages, for the timeline's message list and bit-field view. */
   messageRecords: MessageRecord[];
-  events: { t: number; event: string; from?: string }[];
+  /** Bus events (attach, Hard Reset, …) and the simulator's notes, each injected fault among them ("fault: …"). */
+  events: ({ t: number; event: string; from?: string } | { t: number; note: string })[];
   lanes: { t: number; side: 'source' | 'sink'; state: string }[];
   endUs: number;
 };
@@ -100,6 +101,8 @@ function simulateCounterexample(scenario: unknown): CounterexampleRun | undefine
       messages.push({ t: record.t, from: record.from ?? 'source', messageType: record.message?.header.messageType ?? 'Unreadable', hex: record.msg, crcOk: record.crcOk !== false });
     } else if ('event' in record) {
       events.push({ t: record.t, event: record.event, ...(record.from ? { from: record.from } : {}) });
+    } else if ('note' in record) {
+      events.push({ t: record.t, note: record.note });
     }
   }
   return {

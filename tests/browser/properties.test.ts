@@ -114,7 +114,10 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     const scenario = page.getByRole('region', { name: 'Counterexample scenario' });
     // Simulated by the real engine: 15 V at the offer's 1.87 A (PDO 0x0004b0bb: 300 × 50 mV, 187 × 10 mA; Table 6-9).
     expect(await scenario.getByTestId('counterexample-contract').textContent()).toBe('fixed 15.00 V · 1.87 A · 28.1 W (object 3)');
-    await scenario.getByRole('figure', { name: 'Counterexample timeline' }).locator('.recharts-line').first().waitFor();
+    const timeline = scenario.getByRole('figure', { name: 'Counterexample timeline' });
+    // The same timeline as the trace page and the Bench: held VBUS steps, the messages on their lanes.
+    await timeline.locator('[data-testid="vbus-chart"][data-drawn] path.parley-vbus-line').waitFor();
+    expect(await timeline.getByTestId('timeline-legend').textContent()).toContain('held until the next reading');
     // The messages as the trace page lists them, decoded: the offers and the request in words, not hex.
     const list = scenario.getByRole('listbox', { name: 'Messages' });
     const labels = await list.getByRole('option').evaluateAll((rows) => rows.map((row) => row.getAttribute('aria-label') ?? ''));
@@ -128,7 +131,8 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     const details = scenario.getByRole('complementary', { name: 'Message details' });
     await details.getByRole('heading', { name: 'Request' }).waitFor();
     expect(await details.textContent()).toContain('Object 1');
-    expect(await scenario.getByTestId('message-lane-source').locator('span').count()).toBeGreaterThan(0);
+    // On the lanes too: the source's offer, drawn and named as on the trace page.
+    expect(await scenario.getByTestId('message-lanes').locator('[data-message-type="Source_Capabilities"]').count()).toBeGreaterThan(0);
     await shoot('properties-planted-bug');
 
     // One click saves the counterexample: to the team library when the server has it, else as a download.
@@ -177,7 +181,7 @@ describe.skipIf(!hasChromium)('the Properties page', () => {
     await pick(/^Planted bug/);
     await runButton().click();
     await expect.poll(() => result().getByTestId('verdict').textContent(), { timeout: 30_000 }).toBe('Fails');
-    await page.getByRole('region', { name: 'Counterexample scenario' }).locator('.recharts-line').first().waitFor();
+    await page.getByRole('region', { name: 'Counterexample scenario' }).locator('[data-testid="vbus-chart"][data-drawn] path.parley-vbus-line').waitFor();
     await shoot('properties-planted-bug-dark');
     watch.assertClean();
   }, 240_000);

@@ -8,7 +8,7 @@ import { CounterexampleMessages } from './message-list.tsx';
 import { SaveStatus, type SaveState } from './save-status.tsx';
 import { plural } from '../../../lib/plural.ts';
 
-// recharts is large: the chart arrives in its own chunk.
+// The timeline's parts arrive in their own chunk, once a counterexample is there to draw.
 const CounterexampleTimeline = lazy(() => import('./counterexample-timeline.tsx'));
 
 function contractText(run: CounterexampleRun): string {

@@ -1,12 +1,15 @@
-// biome-ignore-all lint/suspicious/noArrayIndexKey: read-only rows rendered whole, never reordered or edited; the position is the identity
-import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { useMemo, useState } from 'react';
+import { busEventsOf, chartEventsOf, EventLane } from '../../../components/timeline/event-lane.tsx';
+import { chartPinsOf, FindingPins } from '../../../components/timeline/finding-pins.tsx';
+import { laneMessagesOf } from '../../../components/timeline/lane-messages.ts';
+import { MessageLanes } from '../../../components/timeline/message-lanes.tsx';
 import { StateLanes } from '../../../components/timeline/state-lanes.tsx';
-import { formatTimeUs, positionIn, type TimeWindow } from '../../../components/timeline/time-window.ts';
+import { formatTimeUs, type TimeWindow } from '../../../components/timeline/time-window.ts';
+import { TimelineLegend } from '../../../components/timeline/timeline-legend.tsx';
+import type { Measurement } from '../../../components/timeline/trace-series.ts';
+import { PLOT_INSET_LEFT_PX, PLOT_INSET_RIGHT_PX, VbusChart } from '../../../components/timeline/vbus-chart.tsx';
+import { useIsDark } from '../../../lib/theme.ts';
 import type { CounterexampleRun } from '../../../../workers/property.worker.ts';
-
-const AXIS_WIDTH_PX = 44;
-const MARGIN_PX = 8;
-const INSET_PX = AXIS_WIDTH_PX + MARGIN_PX;
 
 /** From the start to a little after the last message: the negotiation, not the quiet tail. */
 export function timelineWindow(run: CounterexampleRun): TimeWindow {
@@ -15,75 +18,44 @@ export function timelineWindow(run: CounterexampleRun): TimeWindow {
   return { startUs: 0, endUs: Math.max(endUs, 1_000) };
 }
 
-type Point = { tMs: number; vbusV: number; ibusA: number };
-
-function pointsOf(samples: readonly number[], window: TimeWindow): Point[] {
-  const points: Point[] = [];
+/** The run's interleaved samples `[tUs, vbusMv, ibusMa, sinkMv, …]` as the chart's readings at the source and at the sink. */
+function measurementsOf(samples: readonly number[]): { source: Measurement[]; sink: Measurement[] } {
+  const source: Measurement[] = [];
+  const sink: Measurement[] = [];
   for (let i = 0; i + 3 < samples.length; i += 4) {
-    const tUs = samples[i]!;
-    if (tUs > window.endUs) break;
-    points.push({ tMs: tUs / 1_000, vbusV: samples[i + 1]! / 1_000, ibusA: samples[i + 2]! / 1_000 });
+    const t = samples[i]!;
+    source.push({ t, mv: samples[i + 1]!, ma: samples[i + 2]! });
+    sink.push({ t, mv: samples[i + 3]! });
   }
-  return points;
+  return { source, sink };
 }
 
-/** One lane per side: a tick at each message, named in its tooltip and, where there is room, below. */
-function MessageLanes({ run, window }: { run: CounterexampleRun; window: TimeWindow }) {
-  return (
-    <div className="flex flex-col gap-1" role="group" aria-label="Messages by sender">
-      {(['source', 'sink'] as const).map((side) => {
-        const own = run.messages.filter((m) => m.from === side);
-        return (
-          <div key={side} className="flex items-center" style={{ paddingRight: INSET_PX }}>
-            <span className="shrink-0 pr-2 text-right font-mono text-[10px] text-slate-500 uppercase dark:text-slate-400" style={{ width: INSET_PX }}>
-              {side === 'source' ? 'SRC' : 'SNK'}
-            </span>
-            <div className="relative h-7 flex-1 rounded-sm bg-slate-50 dark:bg-slate-950" data-testid={`message-lane-${side}`}>
-              {own.map((m, i) => {
-                const left = `${(positionIn(window, m.t) * 100).toFixed(3)}%`;
-                const goodCrc = m.messageType === 'GoodCRC';
-                return (
-                  <span
-                    key={`${m.t}-${i}`}
-                    title={`${formatTimeUs(m.t)} ${m.messageType} ${m.hex}`}
-                    className={goodCrc ? 'absolute top-1 h-2 w-px bg-slate-400 dark:bg-slate-500' : 'absolute top-0.5 h-6 w-0.5 rounded-full bg-amber-500'}
-                    style={{ left }}
-                  />
-                );
-              })}
-            </div>
-          </div>
-        );
-      })}
-    </div>
-  );
-}
-
-/** The counterexample as a scenario: VBUS and IBUS, the policy-engine states and the messages on one time axis. */
+/**
+ * The counterexample as a scenario, drawn by the same timeline parts as the trace page and the
+ * Bench: VBUS at source and sink and IBUS as held values with the zoom brush, the bus events, the
+ * messages, the findings and both policy engines' states on one time axis.
+ */
 export default function CounterexampleTimeline({ run }: { run: CounterexampleRun }) {
-  const window = timelineWindow(run);
-  const points = pointsOf(run.samples, window);
-  const endMs = window.endUs / 1_000;
+  const dark = useIsDark();
+  const [window, setWindow] = useState(() => timelineWindow(run));
+  const measurements = useMemo(() => measurementsOf(run.samples), [run]);
+  const lanes = useMemo(() => laneMessagesOf(run.messageRecords).lanes, [run]);
+  const events = useMemo(() => chartEventsOf(busEventsOf(run.events)), [run]);
+  const pins = useMemo(() => chartPinsOf(run.findings), [run]);
+  const endUs = Math.max(1, run.endUs);
+  const insets = { insetLeftPx: PLOT_INSET_LEFT_PX, insetRightPx: PLOT_INSET_RIGHT_PX };
   return (
     <figure aria-label="Counterexample timeline" className="space-y-2">
-      <div className="h-56 w-full">
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={points} margin={{ top: 8, right: MARGIN_PX, bottom: 4, left: MARGIN_PX }}>
-            <CartesianGrid strokeDasharray="3 3" stroke="currentColor" strokeOpacity={0.12} />
-            <XAxis type="number" dataKey="tMs" domain={[0, endMs]} unit=" ms" tick={{ fontSize: 11 }} allowDataOverflow />
-            <YAxis yAxisId="v" width={AXIS_WIDTH_PX} unit=" V" tick={{ fontSize: 11 }} domain={[0, 'auto']} />
-            <YAxis yAxisId="a" width={AXIS_WIDTH_PX} orientation="right" unit=" A" tick={{ fontSize: 11 }} domain={[0, 'auto']} />
-            <Tooltip formatter={(value, name) => [String(value), String(name)]} labelFormatter={(label) => `${String(label)} ms`} />
-            <Legend verticalAlign="top" height={22} wrapperStyle={{ fontSize: 11 }} />
-            <Line yAxisId="v" type="stepAfter" dataKey="vbusV" name="VBUS (V)" stroke="#d97706" dot={false} strokeWidth={2} isAnimationActive={false} />
-            <Line yAxisId="a" type="stepAfter" dataKey="ibusA" name="IBUS (A)" stroke="#0f766e" dot={false} strokeWidth={1.5} isAnimationActive={false} />
-          </LineChart>
-        </ResponsiveContainer>
+      <VbusChart measurements={measurements.source} sinkMeasurements={measurements.sink} window={window} endUs={endUs} pins={pins} events={events} onWindowChange={setWindow} dark={dark} />
+      <EventLane events={events} window={window} {...insets} />
+      <MessageLanes messages={lanes} window={window} foldGoodCrc={false} onZoomTo={setWindow} {...insets} />
+      <FindingPins findings={run.findings} window={window} onZoomTo={setWindow} {...insets} />
+      <StateLanes entries={run.lanes} window={window} endUs={endUs} {...insets} />
+      <div style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
+        <TimelineLegend sinkVbus faults={events.some((e) => e.tone === 'fault')} />
       </div>
-      <StateLanes entries={run.lanes} window={window} endUs={run.endUs} insetLeftPx={INSET_PX} insetRightPx={INSET_PX} />
-      <MessageLanes run={run} window={window} />
-      <figcaption className="pl-13 text-[11px] text-slate-500 dark:text-slate-400">
-        {formatTimeUs(window.startUs)} to {formatTimeUs(window.endUs)} of a {formatTimeUs(run.endUs)} run; amber ticks are messages, grey ticks GoodCRC.
+      <figcaption className="text-[11px] text-slate-500 dark:text-slate-400" style={{ paddingLeft: PLOT_INSET_LEFT_PX }}>
+        {formatTimeUs(window.startUs)} to {formatTimeUs(window.endUs)} of a {formatTimeUs(run.endUs)} run; drag on the overview to zoom.
       </figcaption>
     </figure>
   );
